@@ -1,0 +1,37 @@
+import { z } from 'zod';
+import { ROLES } from '../permissions';
+import { emailSchema, passwordSchema, userDto } from './auth';
+
+export const MAX_NAME_LENGTH = 120;
+export const MAX_CERTIFICATE_LENGTH = 64;
+
+const nameSchema = z.string().trim().min(1, 'Enter a name').max(MAX_NAME_LENGTH, 'Name is too long');
+const certificateSchema = z
+  .string()
+  .trim()
+  .max(MAX_CERTIFICATE_LENGTH, 'Certificate number is too long')
+  .transform((v) => (v === '' ? null : v))
+  .nullable();
+
+export const createUserSchema = z.object({
+  email: emailSchema,
+  name: nameSchema,
+  role: z.enum(ROLES, { message: 'Choose a role' }),
+  certificateNumber: certificateSchema.optional(),
+  // Without a password the account waits for the person to set one (invitation).
+  password: passwordSchema.optional(),
+});
+export type CreateUserInput = z.infer<typeof createUserSchema>;
+
+export const updateUserSchema = z
+  .object({
+    name: nameSchema.optional(),
+    role: z.enum(ROLES).optional(),
+    certificateNumber: certificateSchema.optional(),
+    active: z.boolean().optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change' });
+export type UpdateUserInput = z.infer<typeof updateUserSchema>;
+
+export const usersListDto = z.object({ users: z.array(userDto) });
+export type UsersListDto = z.infer<typeof usersListDto>;
