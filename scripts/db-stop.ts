@@ -1,0 +1,3 @@
+import { stopProjectDatabase } from './lib/mariadb';
+
+console.log(stopProjectDatabase() ? 'Stopped the project database.' : 'The project database is not running.');

@@ -1,0 +1,97 @@
+import express, { type NextFunction, type Request, type Response } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { Db } from './db/client';
+import { type Clock, systemClock } from './lib/clock';
+import { createLogger, type Logger } from './lib/logger';
+import { createSessionManager } from './lib/session';
+import { notFound } from './lib/http-error';
+import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './deps';
+import type { RouteSpec } from './routes';
+import { requestLog } from './middleware/request-log';
+import { sessionMiddleware } from './middleware/session';
+import { originCheck } from './middleware/origin-check';
+import { requireAccess } from './middleware/require-permission';
+import { errorHandler } from './middleware/error-handler';
+import { authRoutes } from './features/auth/auth.router';
+import { usersRoutes } from './features/users/users.router';
+import { healthRoutes } from './features/health/health.router';
+
+export type AppDeps = {
+  db: Db;
+  clock?: Clock;
+  logger?: Logger;
+  publicUrl?: string;
+  rateLimits?: Partial<RateLimits>;
+  /** Folder of the built client; served with a history fallback when present. */
+  clientDir?: string;
+};
+
+export const JSON_BODY_LIMIT = '256kb';
+
+export function allRoutes(ctx: AppContext): RouteSpec[] {
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx)];
+}
+
+export function createApp(deps: AppDeps) {
+  const logger = deps.logger ?? createLogger('silent');
+  const publicUrl = (deps.publicUrl ?? 'http://localhost:3000').replace(/\/$/, '');
+  const ctx: AppContext = {
+    db: deps.db,
+    clock: deps.clock ?? systemClock,
+    logger,
+    sessions: createSessionManager(deps.db),
+    publicUrl,
+    rateLimits: { ...DEFAULT_RATE_LIMITS, ...deps.rateLimits },
+  };
+
+  const app = express();
+  app.disable('x-powered-by');
+  // Behind a load balancer the client's address and scheme come from X-Forwarded-*.
+  app.set('trust proxy', 'loopback, linklocal, uniquelocal');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          mediaSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+    }),
+  );
+  app.use(requestLog(logger));
+  app.use('/api', express.json({ limit: JSON_BODY_LIMIT }));
+  app.use('/api', sessionMiddleware(ctx.sessions));
+  app.use('/api', originCheck([new URL(publicUrl).origin]));
+
+  const routes = allRoutes(ctx);
+  for (const r of routes) {
+    app[r.method](r.path, requireAccess(r.access), ...(r.before ?? []), r.handler);
+  }
+  app.use('/api', (_req: Request, _res: Response, next: NextFunction) => next(notFound('No such API route.')));
+
+  const clientDir = deps.clientDir;
+  if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
+    // History fallback: any other GET is a client route.
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(path.join(clientDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler(logger));
+  return { app, ctx, routes };
+}

@@ -1,0 +1,3 @@
+export * from './users';
+export * from './sites';
+export * from './units';

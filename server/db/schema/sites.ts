@@ -1,0 +1,13 @@
+import { datetime, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+import { sql } from 'drizzle-orm';
+
+export const SITE_KINDS = ['depot', 'terminal', 'vessel', 'workshop'] as const;
+
+export const sites = mysqlTable('sites', {
+  id: int('id').autoincrement().primaryKey(),
+  code: varchar('code', { length: 16 }).notNull().unique(),
+  name: varchar('name', { length: 120 }).notNull(),
+  kind: mysqlEnum('kind', SITE_KINDS).notNull(),
+  country: varchar('country', { length: 2 }),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+});

@@ -1,0 +1,17 @@
+import type { UserDto } from '../../../shared/schemas/auth';
+import type { users } from '../../db/schema';
+
+type UserRow = typeof users.$inferSelect;
+type UserLike = Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'certificateNumber' | 'active' | 'createdAt'>;
+
+export function toUserDto(u: UserLike): UserDto {
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    certificateNumber: u.certificateNumber ?? null,
+    active: Boolean(u.active),
+    createdAt: new Date(u.createdAt).toISOString(),
+  };
+}

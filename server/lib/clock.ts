@@ -1,0 +1,2 @@
+export type Clock = { now(): Date };
+export const systemClock: Clock = { now: () => new Date() };

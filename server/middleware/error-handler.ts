@@ -1,0 +1,36 @@
+import type { NextFunction, Request, Response } from 'express';
+import { ZodError } from 'zod';
+import { HttpError } from '../lib/http-error';
+import type { Logger } from '../lib/logger';
+
+export function zodFields(error: ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.join('.') : '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+type BodyParserError = Error & { type?: string; status?: number };
+
+export function errorHandler(logger: Logger) {
+  // Express recognises an error handler by its four parameters.
+  // eslint-disable-next-line @typescript-eslint/no-unused-vars
+  return (err: unknown, req: Request, res: Response, _next: NextFunction) => {
+    const send = (status: number, code: string, message: string, fields?: Record<string, string>) => {
+      if (res.headersSent) return;
+      res.status(status).json({ error: fields ? { code, message, fields } : { code, message } });
+    };
+    if (err instanceof HttpError) return send(err.status, err.code, err.message, err.fields);
+    if (err instanceof ZodError) return send(400, 'invalid_input', 'Some fields need attention.', zodFields(err));
+    const bp = err as BodyParserError;
+    if (bp?.type === 'entity.parse.failed') return send(400, 'invalid_json', 'The request body is not valid JSON.');
+    if (bp?.type === 'entity.too.large') return send(413, 'too_large', 'The request is too large.');
+    if (typeof bp?.status === 'number' && bp.status >= 400 && bp.status < 500) {
+      return send(bp.status, 'bad_request', bp.message || 'Bad request.');
+    }
+    logger.error({ err, requestId: req.requestId }, 'unhandled error');
+    send(500, 'internal', `Something went wrong on our side. Reference: ${req.requestId}`);
+  };
+}
