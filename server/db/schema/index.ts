@@ -1,3 +1,4 @@
 export * from './users';
 export * from './sites';
 export * from './units';
+export * from './history';
