@@ -1,6 +1,20 @@
-import { char, date, datetime, double, index, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+import {
+  char,
+  date,
+  datetime,
+  decimal,
+  double,
+  index,
+  int,
+  mysqlEnum,
+  mysqlTable,
+  smallint,
+  text,
+  varchar,
+} from 'drizzle-orm/mysql-core';
 import { sql } from 'drizzle-orm';
 import { sites } from './sites';
+import { users } from './users';
 
 export const UNIT_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
 
@@ -16,7 +30,66 @@ export const units = mysqlTable(
     siteId: int('site_id').references(() => sites.id),
     status: mysqlEnum('status', UNIT_STATUSES).notNull().default('in_service'),
     qrToken: varchar('qr_token', { length: 43 }).notNull().unique(),
+    // The refrigeration machine's own serial, which outlives a box when the machinery is moved to another one.
+    machinerySerial: varchar('machinery_serial', { length: 40 }),
+    model: varchar('model', { length: 60 }),
+    manufactureYear: smallint('manufacture_year'),
+    // Money in the owner's accounting currency; decimal so that sums are exact.
+    purchaseCost: decimal('purchase_cost', { precision: 12, scale: 2, mode: 'number' }),
+    residualValue: decimal('residual_value', { precision: 12, scale: 2, mode: 'number' }),
+    notes: text('notes'),
+    qrIssuedAt: datetime('qr_issued_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [
+    index('units_site_idx').on(t.siteId),
+    index('units_status_idx').on(t.status),
+    index('units_refrigerant_idx').on(t.refrigerant),
+    index('units_updated_at_idx').on(t.updatedAt),
+  ],
+);
+
+/** One row per changed field of a unit edit: the unit's record of who changed what, and when. */
+export const unitChanges = mysqlTable(
+  'unit_changes',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    unitId: int('unit_id')
+      .notNull()
+      .references(() => units.id),
+    userId: varchar('user_id', { length: 32 })
+      .notNull()
+      .references(() => users.id),
+    at: datetime('at', { mode: 'date', fsp: 3 }).notNull(),
+    field: varchar('field', { length: 40 }).notNull(),
+    before: text('before'),
+    after: text('after'),
     createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
   },
-  (t) => [index('units_site_idx').on(t.siteId), index('units_status_idx').on(t.status)],
+  (t) => [index('unit_changes_unit_at_idx').on(t.unitId, t.at)],
+);
+
+export const IMPORT_STATUSES = ['running', 'committed', 'failed'] as const;
+
+/** A fleet CSV import: who ran it, and its progress while the one transaction runs (read from other connections). */
+export const unitImports = mysqlTable(
+  'unit_imports',
+  {
+    id: int('id').autoincrement().primaryKey(),
+    // Chosen by the client before upload so that it can poll progress while its request is still running.
+    importKey: varchar('import_key', { length: 43 }).notNull().unique(),
+    userId: varchar('user_id', { length: 32 })
+      .notNull()
+      .references(() => users.id),
+    fileName: varchar('file_name', { length: 255 }).notNull(),
+    status: mysqlEnum('status', IMPORT_STATUSES).notNull().default('running'),
+    totalRows: int('total_rows').notNull().default(0),
+    processedRows: int('processed_rows').notNull().default(0),
+    insertedRows: int('inserted_rows').notNull().default(0),
+    message: varchar('message', { length: 500 }),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    finishedAt: datetime('finished_at', { mode: 'date', fsp: 3 }),
+  },
+  (t) => [index('unit_imports_user_idx').on(t.userId)],
 );
