@@ -1,0 +1,163 @@
+import { DomainError } from './errors';
+
+/** Dates are handled as UTC milliseconds and UTC day numbers (days since 1970-01-01). */
+export const MS_PER_DAY = 86_400_000;
+
+const MIN_YEAR = 1900;
+const MAX_YEAR = 2199;
+
+function isLeapYear(year: number): boolean {
+  return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
+}
+
+export function daysInMonth(year: number, month: number): number {
+  if (month === 2) return isLeapYear(year) ? 29 : 28;
+  return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
+}
+
+/** Reads `count` decimal digits at `start`; -1 when any is not a digit. */
+function digitsAt(s: string, start: number, count: number): number {
+  let value = 0;
+  for (let i = start; i < start + count; i++) {
+    const d = s.charCodeAt(i) - 48;
+    if (!(d >= 0 && d <= 9)) return -1;
+    value = value * 10 + d;
+  }
+  return value;
+}
+
+/**
+ * Strict ISO 8601 reader: `YYYY-MM-DD`, optionally `THH:MM[:SS[.fff]]` and `Z` or `±HH:MM`.
+ * A time without a zone is read as UTC. Returns NaN for anything else (including 2024-02-30).
+ * Hand-written because Date.parse accepts impossible days and free text, and is slower.
+ */
+export function isoToMs(s: string): number {
+  if (typeof s !== 'string') return NaN;
+  const n = s.length;
+  if (n < 10 || s.charCodeAt(4) !== 45 || s.charCodeAt(7) !== 45) return NaN;
+  const year = digitsAt(s, 0, 4);
+  const month = digitsAt(s, 5, 2);
+  const day = digitsAt(s, 8, 2);
+  if (year < MIN_YEAR || year > MAX_YEAR || month < 1 || month > 12) return NaN;
+  if (day < 1 || day > daysInMonth(year, month)) return NaN;
+  if (n === 10) return Date.UTC(year, month - 1, day);
+
+  const sep = s.charCodeAt(10);
+  if ((sep !== 84 && sep !== 116 && sep !== 32) || n < 16 || s.charCodeAt(13) !== 58) return NaN;
+  const hour = digitsAt(s, 11, 2);
+  const minute = digitsAt(s, 14, 2);
+  if (hour < 0 || hour > 23 || minute < 0 || minute > 59) return NaN;
+  let i = 16;
+  let second = 0;
+  let millis = 0;
+  if (i < n && s.charCodeAt(i) === 58) {
+    second = digitsAt(s, i + 1, 2);
+    if (second < 0 || second > 59) return NaN;
+    i += 3;
+    if (i < n && (s.charCodeAt(i) === 46 || s.charCodeAt(i) === 44)) {
+      i++;
+      const start = i;
+      let scale = 100;
+      while (i < n) {
+        const d = s.charCodeAt(i) - 48;
+        if (!(d >= 0 && d <= 9)) break;
+        millis += d * scale;
+        scale /= 10;
+        i++;
+      }
+      if (i === start) return NaN;
+    }
+  }
+  let offsetMinutes = 0;
+  if (i < n) {
+    const c = s.charCodeAt(i);
+    if (c === 90 || c === 122) {
+      i++;
+    } else if (c === 43 || c === 45) {
+      const oh = digitsAt(s, i + 1, 2);
+      let om: number;
+      if (s.charCodeAt(i + 3) === 58) {
+        om = digitsAt(s, i + 4, 2);
+        i += 6;
+      } else {
+        om = digitsAt(s, i + 3, 2);
+        i += 5;
+      }
+      if (oh < 0 || oh > 23 || om < 0 || om > 59) return NaN;
+      offsetMinutes = (c === 43 ? 1 : -1) * (oh * 60 + om);
+    } else {
+      return NaN;
+    }
+  }
+  if (i !== n) return NaN;
+  return Date.UTC(year, month - 1, day, hour, minute, second, Math.floor(millis)) - offsetMinutes * 60_000;
+}
+
+export function isDateOnly(s: string): boolean {
+  return s.length === 10;
+}
+
+/** Parses an ISO date or timestamp, or throws a DomainError naming the field. */
+export function parseIso(value: unknown, field: string, what: string): number {
+  const ms = typeof value === 'string' ? isoToMs(value) : NaN;
+  if (Number.isNaN(ms)) {
+    const shown = typeof value === 'string' ? `"${value}"` : String(value);
+    throw new DomainError(
+      `${what} is not a valid date: ${shown}. Use a calendar date such as 2024-05-01 or a timestamp such as 2024-05-01T14:30:00Z.`,
+      field,
+    );
+  }
+  return ms;
+}
+
+/** "As of" a calendar date means the end of that day, so the day's own events count. */
+export function parseAsOf(value: unknown, field = 'asOf'): number {
+  const ms = parseIso(value, field, 'The "as of" date');
+  return typeof value === 'string' && isDateOnly(value) ? ms + MS_PER_DAY - 1 : ms;
+}
+
+export function dayOf(ms: number): number {
+  return Math.floor(ms / MS_PER_DAY);
+}
+
+/** Civil date of a day number (proleptic Gregorian, after H. Hinnant's days-to-civil algorithm). */
+export function civilFromDay(dayNumber: number): { year: number; month: number; day: number } {
+  const z = dayNumber + 719_468;
+  const era = Math.floor(z / 146_097);
+  const doe = z - era * 146_097;
+  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36_524) - Math.floor(doe / 146_096)) / 365);
+  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
+  const mp = Math.floor((5 * doy + 2) / 153);
+  const day = doy - Math.floor((153 * mp + 2) / 5) + 1;
+  const month = mp < 10 ? mp + 3 : mp - 9;
+  return { year: yoe + era * 400 + (month <= 2 ? 1 : 0), month, day };
+}
+
+function pad2(n: number): string {
+  return n < 10 ? `0${n}` : String(n);
+}
+
+/** `YYYY-MM-DD` of a day number. */
+export function isoDate(dayNumber: number): string {
+  const { year, month, day } = civilFromDay(dayNumber);
+  return `${year}-${pad2(month)}-${pad2(day)}`;
+}
+
+/** `YYYY-MM` of a day number. */
+export function isoMonth(dayNumber: number): string {
+  const { year, month } = civilFromDay(dayNumber);
+  return `${year}-${pad2(month)}`;
+}
+
+export function yearOfDay(dayNumber: number): number {
+  return civilFromDay(dayNumber).year;
+}
+
+/** Adds calendar months; the day is clamped to the month's end (31 Jan + 1 month = 28/29 Feb). */
+export function addMonthsToDay(dayNumber: number, months: number): number {
+  const { year, month, day } = civilFromDay(dayNumber);
+  const total = year * 12 + (month - 1) + months;
+  const y = Math.floor(total / 12);
+  const m = total - y * 12 + 1;
+  return Math.floor(Date.UTC(y, m - 1, Math.min(day, daysInMonth(y, m))) / MS_PER_DAY);
+}
