@@ -1,0 +1,252 @@
+import { addMonthsToDay, dayOf, isoDate, parseAsOf, parseIso, yearOfDay } from './dates';
+import { co2eTonnes as co2eOf, leakCheckIntervalForPolicy, CHRONIC_CALENDAR_YEAR_SHARE_PCT } from './emissions';
+import { DomainError } from './errors';
+import { prepareHistory, type UnitEvent } from './events';
+import { forecastFromVisits, type ForecastReason, type TopUpForecast } from './forecast';
+import { annualizedLeakRatePct, firstVisitInWindow, rollingSeries } from './leak-rate';
+import { isFiniteNumber, roundTo } from './numbers';
+import { pressureHealthFromReadings, type PressureHealth, type PressureReading, type PressureSnapshot } from './pressure-health';
+import { getRefrigerant, type RefrigerantCode } from './refrigerants';
+import { repeatLeakScore, scoreInputsFromVisits, type RepeatLeakScore } from './score';
+import type { LeakLocationId } from './service-terms';
+import type { Settings } from '../schemas/settings';
+import { DEFAULT_SETTINGS } from '../schemas/settings';
+
+export interface UnitInput {
+  refrigerant: string;
+  /** Full (nameplate) charge in kg. */
+  nominalChargeKg: number;
+  /** ISO date; null when unknown (the record's first event stands in). */
+  commissionedOn: string | null;
+  /** A working leak detection system (EU intervals double). */
+  leakDetection?: boolean;
+  /** Hermetically sealed (EU: no checks below 10 t CO2e). */
+  hermetic?: boolean;
+}
+
+export interface VisitStats {
+  visitId: string | null;
+  at: string;
+  date: string;
+  madeUpKg: number;
+  /** Only for visits with made-up refrigerant. */
+  annualizedRatePct: number | null;
+  daysSincePreviousAddition: number | null;
+  /** Rolling rate as of this visit's day. */
+  rollingRatePct: number;
+  recoveredKg: number;
+  excludedKg: number;
+  leakFound: boolean;
+  repaired: boolean;
+  verifiedRepair: boolean;
+}
+
+export interface UnitStats {
+  asOf: string;
+  refrigerant: RefrigerantCode;
+  rollingLeakRatePct: number;
+  /** Start of the rolling window (ISO date): the day after the last verified repair, or 364 days back. */
+  rollingSince: string;
+  leakRateAboveThreshold: boolean;
+  calendarYearSharePct: number;
+  /** Calendar-year share ≥ 125 % (40 CFR 82.157(m)). */
+  chronicallyLeaking: boolean;
+  totalMadeUpKg365: number;
+  co2eTonnes: number;
+  leakCheckIntervalMonths: number | null;
+  lastLeakCheckAt: string | null;
+  nextLeakCheckDue: string | null;
+  leakCheckOverdue: boolean;
+  lastPtiAt: string | null;
+  ptiPassed: boolean | null;
+  ptiValidUntil: string | null;
+  ptiValid: boolean;
+  score: RepeatLeakScore;
+  forecast: TopUpForecast | null;
+  forecastReason: ForecastReason | null;
+  pressureHealth: PressureHealth;
+  openLeak: { foundAt: string; location: LeakLocationId | null } | null;
+  visits: VisitStats[];
+  snapshots: PressureSnapshot[];
+  counts: { events: number; visits: number; topUps: number; repairs: number; leakChecks: number; afterAsOf: number; ignored: number };
+}
+
+function checkUnit(unit: UnitInput): { code: RefrigerantCode; startMs: number | null } {
+  if (unit === null || typeof unit !== 'object') throw new DomainError('The unit is missing.', 'unit');
+  const code = getRefrigerant(unit.refrigerant).code;
+  if (!isFiniteNumber(unit.nominalChargeKg) || unit.nominalChargeKg <= 0) {
+    throw new DomainError(
+      `The full refrigerant charge must be more than 0 kg, not ${String(unit.nominalChargeKg)}.`,
+      'nominalChargeKg',
+    );
+  }
+  const startMs = unit.commissionedOn == null ? null : parseIso(unit.commissionedOn, 'commissionedOn', 'The commissioning date');
+  return { code, startMs };
+}
+
+/**
+ * Every figure of one unit as of `asOf` (DOMAIN.md §4–§8), from its events in any order. One sort, then linear passes.
+ * Figures that cannot be known are null, never NaN.
+ */
+export function computeUnitStats(
+  unit: UnitInput,
+  events: readonly UnitEvent[],
+  asOf: string,
+  settings: Settings = DEFAULT_SETTINGS,
+): UnitStats {
+  const { code, startMs } = checkUnit(unit);
+  const asOfMs = parseAsOf(asOf);
+  const asOfDay = dayOf(asOfMs);
+  const full = unit.nominalChargeKg;
+  const { rollingDays } = settings.windows;
+  const history = prepareHistory(events, asOfMs);
+  const { visits } = history;
+  const parsed = history.events;
+  const startDay = startMs !== null ? dayOf(startMs) : parsed.length > 0 ? parsed[0].day : asOfDay;
+
+  // Rates per visit and as of the day.
+  const series = rollingSeries(visits, full, rollingDays);
+  const visitStats: VisitStats[] = new Array<VisitStats>(visits.length);
+  let lastAdditionDay = startDay;
+  let calendarKg = 0;
+  const year = yearOfDay(asOfDay);
+  for (let i = 0; i < visits.length; i++) {
+    const v = visits[i];
+    let annualized: number | null = null;
+    let since: number | null = null;
+    if (v.madeUpKg > 0) {
+      since = Math.max(0, v.day - lastAdditionDay);
+      annualized = annualizedLeakRatePct(v.madeUpKg, full, since);
+      if (yearOfDay(v.day) === year) calendarKg += v.madeUpKg;
+    }
+    if (v.added) lastAdditionDay = v.day;
+    visitStats[i] = {
+      visitId: v.visitId,
+      at: v.at,
+      date: v.date,
+      madeUpKg: roundTo(v.madeUpKg, 3),
+      annualizedRatePct: annualized === null ? null : roundTo(annualized, 2),
+      daysSincePreviousAddition: since,
+      rollingRatePct: roundTo(series.pctAtVisit[i], 2),
+      recoveredKg: roundTo(v.recoveredKg, 3),
+      excludedKg: roundTo(v.excludedKg, 3),
+      leakFound: v.leakFound,
+      repaired: v.repaired,
+      verifiedRepair: v.verifiedRepair,
+    };
+  }
+  const windowStart = firstVisitInWindow(visits, asOfDay, rollingDays);
+  const from = Math.max(windowStart, series.lastRepair + 1);
+  const prefix = series.prefixKg;
+  const rollingKg = from < visits.length ? prefix[visits.length] - prefix[from] : 0;
+  const rollingPct = (rollingKg / full) * 100;
+  const repairCutsWindow = series.lastRepair >= 0 && visits[series.lastRepair].day >= asOfDay - rollingDays;
+  const rollingSinceDay = repairCutsWindow ? visits[series.lastRepair].day + 1 : asOfDay - rollingDays + 1;
+  const madeUp365 = prefix[visits.length] - prefix[windowStart];
+  const calendarPct = (calendarKg / full) * 100;
+
+  const score = repeatLeakScore(
+    scoreInputsFromVisits(visits, asOfDay, rollingPct, settings, repairCutsWindow ? visits[series.lastRepair].day : null),
+    settings,
+  );
+  const { forecast, reason } = forecastFromVisits(visits, startDay, asOfDay);
+
+  // One pass over the events for what is read straight off them.
+  const readings: PressureReading[] = [];
+  const resets: number[] = startMs !== null ? [startMs] : [];
+  let topUps = 0;
+  let repairs = 0;
+  let leakChecks = 0;
+  let lastLeakCheck: { at: string; day: number } | null = null;
+  let lastRepairDay: number | null = null;
+  let checkedAfterRepair = false;
+  let lastPti: { at: string; day: number; passed: boolean } | null = null;
+  let openLeak: { foundAt: string; location: LeakLocationId | null; visit: number } | null = null;
+  for (const p of parsed) {
+    const e = p.event;
+    switch (e.kind) {
+      case 'top_up':
+        topUps++;
+        break;
+      case 'recharge':
+        if (e.kg > 0) resets.push(p.ms);
+        break;
+      case 'leak_check':
+        leakChecks++;
+        lastLeakCheck = { at: e.at, day: p.day };
+        if (lastRepairDay !== null && p.day > lastRepairDay) checkedAfterRepair = true;
+        if (e.leakFound) {
+          if (openLeak === null) openLeak = { foundAt: e.at, location: e.location ?? null, visit: p.visit };
+          else if (openLeak.location === null && e.location) openLeak.location = e.location;
+        }
+        break;
+      case 'repair':
+        repairs++;
+        lastRepairDay = p.day;
+        checkedAfterRepair = false;
+        openLeak = null;
+        if (e.verified === true) resets.push(p.ms);
+        break;
+      case 'pressure':
+        readings.push({ ms: p.ms, ...e });
+        break;
+      case 'pti':
+        lastPti = { at: e.at, day: p.day, passed: e.passed };
+        break;
+    }
+  }
+  // A repair recorded in the same visit as the find clears it, whatever order the two were entered in.
+  if (openLeak !== null && visits[openLeak.visit].repaired) openLeak = null;
+  if (resets.length > 1 && startMs !== null) resets.sort((a, b) => a - b);
+
+  const pressure = pressureHealthFromReadings(code, readings, resets, settings);
+
+  const tCO2e = co2eOf(code, full, settings.gwpBasis);
+  const interval = leakCheckIntervalForPolicy(
+    { tCO2e, fullChargeKg: full, rollingLeakRatePct: rollingPct, leakDetection: unit.leakDetection, hermetic: unit.hermetic },
+    settings,
+  );
+  let dueDay: number | null = null;
+  if (interval !== null) {
+    dueDay = addMonthsToDay(lastLeakCheck?.day ?? startDay, interval);
+    // Re-check within one month of a repair (Reg. (EU) 2024/573), unless a leak check on a later day did it.
+    if (lastRepairDay !== null && !checkedAfterRepair) dueDay = Math.min(dueDay, addMonthsToDay(lastRepairDay, 1));
+  }
+  const ptiUntilDay = lastPti?.passed ? lastPti.day + settings.ptiValidityDays : null;
+
+  return {
+    asOf: isoDate(asOfDay),
+    refrigerant: code,
+    rollingLeakRatePct: roundTo(rollingPct, 2),
+    rollingSince: isoDate(rollingSinceDay),
+    leakRateAboveThreshold: rollingPct >= settings.leakRateThresholdPct,
+    calendarYearSharePct: roundTo(calendarPct, 2),
+    chronicallyLeaking: calendarPct >= CHRONIC_CALENDAR_YEAR_SHARE_PCT,
+    totalMadeUpKg365: roundTo(madeUp365, 3),
+    co2eTonnes: roundTo(tCO2e, 3),
+    leakCheckIntervalMonths: interval,
+    lastLeakCheckAt: lastLeakCheck?.at ?? null,
+    nextLeakCheckDue: dueDay === null ? null : isoDate(dueDay),
+    leakCheckOverdue: dueDay !== null && dueDay < asOfDay,
+    lastPtiAt: lastPti?.at ?? null,
+    ptiPassed: lastPti?.passed ?? null,
+    ptiValidUntil: ptiUntilDay === null ? null : isoDate(ptiUntilDay),
+    ptiValid: ptiUntilDay !== null && asOfDay <= ptiUntilDay,
+    score,
+    forecast,
+    forecastReason: reason,
+    pressureHealth: pressure.health,
+    openLeak: openLeak === null ? null : { foundAt: openLeak.foundAt, location: openLeak.location },
+    visits: visitStats,
+    snapshots: pressure.snapshots,
+    counts: {
+      events: parsed.length,
+      visits: visits.length,
+      topUps,
+      repairs,
+      leakChecks,
+      afterAsOf: history.afterAsOf,
+      ignored: history.ignored,
+    },
+  };
+}
