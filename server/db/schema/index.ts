@@ -2,3 +2,4 @@ export * from './users';
 export * from './sites';
 export * from './units';
 export * from './history';
+export * from './mail';
