@@ -1,0 +1,60 @@
+import type { Permission } from '../../shared/permissions';
+
+/**
+ * Every path of the app, in one place. Routes use `path`; links use `getHref(...)`; a page that needs a permission
+ * names it here, and both the route guard (router.tsx) and the navigation read it from here.
+ */
+type PathEntry = {
+  path: string;
+  getHref: (...args: never[]) => string;
+  permission?: Permission;
+};
+
+/** Only same-origin paths may follow a sign-in; anything else (`//evil.example`, `https://…`) goes home. */
+export function safeNext(next: string | null | undefined): string {
+  if (!next || !next.startsWith('/') || next.startsWith('//') || next.startsWith('/\\')) return '/';
+  return next;
+}
+
+export const paths = {
+  home: {
+    path: '/',
+    getHref: () => '/',
+  },
+  signIn: {
+    path: '/sign-in',
+    getHref: (next?: string | null) => {
+      const target = safeNext(next);
+      return target === '/' || target.startsWith('/sign-in') ? '/sign-in' : `/sign-in?next=${encodeURIComponent(target)}`;
+    },
+  },
+  units: {
+    path: '/units',
+    getHref: (q?: string) => (q ? `/units?q=${encodeURIComponent(q)}` : '/units'),
+    permission: 'view:unit',
+  },
+  people: {
+    path: '/people',
+    getHref: () => '/people',
+    permission: 'manage:users',
+  },
+} as const satisfies Record<string, PathEntry>;
+
+export type NavIcon = 'home' | 'units' | 'people';
+
+export type NavEntry = {
+  label: string;
+  href: string;
+  icon: NavIcon;
+  /** Absent: every signed-in user sees it. */
+  permission?: Permission;
+  /** Match the path exactly (for `/`), not as a prefix. */
+  end?: boolean;
+};
+
+/** Navigation, in display order. Phones show these as the bottom tab bar (keep it at five or fewer). */
+export const navEntries: readonly NavEntry[] = [
+  { label: 'Home', href: paths.home.getHref(), icon: 'home', end: true },
+  { label: 'Units', href: paths.units.getHref(), icon: 'units', permission: paths.units.permission },
+  { label: 'People', href: paths.people.getHref(), icon: 'people', permission: paths.people.permission },
+];
