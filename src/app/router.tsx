@@ -1,0 +1,69 @@
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
+import { useEffect, useMemo } from 'react';
+import { createBrowserRouter, RouterProvider } from 'react-router-dom';
+import { FullPageRouteError, RouteError } from '../components/errors/route-error';
+import { AppSplash } from '../components/layouts/app-splash';
+import { paths } from '../config/paths';
+import { setUnauthenticatedHandler } from '../lib/query-client';
+import { page } from './route-module';
+import * as protectedLayout from './routes/app/layout';
+import * as homeRoute from './routes/app/home';
+import * as signInRoute from './routes/auth/sign-in';
+import * as notFoundRoute from './routes/errors/not-found';
+import * as peopleRoute from './routes/people/people';
+import * as unitsRoute from './routes/units/units';
+
+/**
+ * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
+ * routes/<area>/, and one line here — `page(...)` bundles it with the shell, `lazyPage(() => import(...))` splits it off.
+ */
+export function createAppRouter(queryClient: QueryClient) {
+  return createBrowserRouter([
+    {
+      path: paths.signIn.path,
+      ...page(signInRoute, queryClient),
+      errorElement: <FullPageRouteError />,
+      hydrateFallbackElement: <AppSplash />,
+    },
+    {
+      path: paths.home.path,
+      ...page(protectedLayout, queryClient),
+      errorElement: <FullPageRouteError />,
+      hydrateFallbackElement: <AppSplash />,
+      children: [
+        {
+          errorElement: <RouteError />,
+          children: [
+            { index: true, ...page(homeRoute, queryClient) },
+            { path: paths.units.path, ...page(unitsRoute, queryClient, paths.units.permission) },
+            { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
+            { path: '*', ...page(notFoundRoute, queryClient) },
+          ],
+        },
+      ],
+    },
+  ]);
+}
+
+export function AppRouter() {
+  const queryClient = useQueryClient();
+  const router = useMemo(() => createAppRouter(queryClient), [queryClient]);
+
+  useEffect(() => {
+    // Any 401 outside a loader (a session revoked mid-use, a write after it expired): to sign-in, then back.
+    setUnauthenticatedHandler(() => {
+      // Let a loader that already redirected finish first; do not stack a second trip to sign-in on top of it.
+      setTimeout(() => {
+        const { location, navigation } = router.state;
+        const signIn = paths.signIn.path;
+        if (location.pathname === signIn || navigation.location?.pathname === signIn) return;
+        void router.navigate(paths.signIn.getHref(location.pathname + location.search), { replace: true }).then(() => {
+          queryClient.clear();
+        });
+      }, 0);
+    });
+    return () => setUnauthenticatedHandler(null);
+  }, [router, queryClient]);
+
+  return <RouterProvider router={router} />;
+}

@@ -1,0 +1,36 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Outlet, redirect, useMatches, type LoaderFunctionArgs } from 'react-router-dom';
+import { can, ROLE_LABELS } from '../../../../shared/permissions';
+import { NotAllowed } from '../../../components/errors/not-allowed';
+import { AppLayout } from '../../../components/layouts/app-layout';
+import { paths } from '../../../config/paths';
+import { isApiError } from '../../../lib/api-client';
+import { meQuery, useUser } from '../../../lib/auth';
+import type { RouteHandle } from '../../route-module';
+
+/** Every protected page sits under this loader: no session, no page — off to sign-in, and back here afterwards. */
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    try {
+      await queryClient.ensureQueryData(meQuery());
+      return null;
+    } catch (error) {
+      if (isApiError(error) && error.status === 401) {
+        const url = new URL(request.url);
+        throw redirect(paths.signIn.getHref(url.pathname + url.search));
+      }
+      throw error;
+    }
+  };
+
+export default function ProtectedLayout() {
+  const user = useUser();
+  const matches = useMatches();
+  const allowed = matches.every((match) => {
+    const permission = (match.handle as RouteHandle | undefined)?.permission;
+    return !permission || can(user, permission);
+  });
+
+  return <AppLayout user={user}>{allowed ? <Outlet /> : <NotAllowed roleLabel={ROLE_LABELS[user.role]} />}</AppLayout>;
+}

@@ -1,0 +1,81 @@
+import type { ComponentProps, ReactElement, ReactNode } from 'react';
+import type { NavIcon } from '../../config/paths';
+import { cx } from './cx';
+
+type IconProps = Omit<ComponentProps<'svg'>, 'children'>;
+
+function Icon({ className, children, ...props }: IconProps & { children: ReactNode }) {
+  return (
+    <svg
+      viewBox="0 0 24 24"
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="2.25"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+      aria-hidden="true"
+      focusable="false"
+      className={cx('size-6 shrink-0', className)}
+      {...props}
+    >
+      {children}
+    </svg>
+  );
+}
+
+export const HomeIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M3.5 11 12 4l8.5 7" />
+    <path d="M6 9.5V20h4.5v-5.5h3V20H18V9.5" />
+  </Icon>
+);
+
+/** A container seen from the side: box, corrugations, door bars. */
+export const UnitsIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <rect x="2.5" y="6" width="19" height="12" rx="1" />
+    <path d="M7 9v6M10.5 9v6M14 9v6M17.5 9v6" />
+  </Icon>
+);
+
+export const PeopleIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <circle cx="9" cy="8.5" r="3.25" />
+    <path d="M3 19.5c.6-3.4 3-5.5 6-5.5s5.4 2.1 6 5.5" />
+    <path d="M15.5 5.6a3.2 3.2 0 0 1 0 5.8M17.5 14.4c2 .7 3.1 2.5 3.5 5.1" />
+  </Icon>
+);
+
+export const SignOutIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M10 4H5.5A1.5 1.5 0 0 0 4 5.5v13A1.5 1.5 0 0 0 5.5 20H10" />
+    <path d="M15 8l4 4-4 4M19 12H9.5" />
+  </Icon>
+);
+
+export const SearchIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <circle cx="10.5" cy="10.5" r="6" />
+    <path d="m15 15 5.5 5.5" />
+  </Icon>
+);
+
+export const LockIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <rect x="4.5" y="10.5" width="15" height="10" rx="1.5" />
+    <path d="M8 10.5V7.5a4 4 0 0 1 8 0v3" />
+    <path d="M12 14.5v2" />
+  </Icon>
+);
+
+export const PlusIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M12 5v14M5 12h14" />
+  </Icon>
+);
+
+export const navIcons: Record<NavIcon, (p: IconProps) => ReactElement> = {
+  home: HomeIcon,
+  units: UnitsIcon,
+  people: PeopleIcon,
+};

@@ -1,0 +1,78 @@
+import { useId, useState, type FormEvent } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { paths } from '../../../config/paths';
+import { Button } from '../../../components/ui/button';
+import { cx } from '../../../components/ui/cx';
+import { SearchIcon } from '../../../components/ui/icons';
+
+/** Spaces and case do not matter in a container number; the search gets it in one canonical form. */
+export function normalizeContainerQuery(input: string): string {
+  return input.replace(/[\s-]+/g, '').toUpperCase();
+}
+
+/** "HLYU3102763" → "HLYU 310276 3", the way it is painted; anything else is shown as typed. */
+export function formatContainerNumber(q: string): string {
+  const m = /^([A-Z]{4})(\d{6})(\d)$/.exec(q);
+  return m ? `${m[1]} ${m[2]} ${m[3]}` : q;
+}
+
+/** Find a unit by its ISO 6346 container number; goes to /units?q=… */
+export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: string; className?: string }) {
+  const id = useId();
+  const navigate = useNavigate();
+  const [value, setValue] = useState(defaultValue);
+  const [error, setError] = useState<string | null>(null);
+
+  const onSubmit = (event: FormEvent<HTMLFormElement>) => {
+    event.preventDefault();
+    const q = normalizeContainerQuery(value);
+    if (!q) {
+      setError('Enter a container number');
+      return;
+    }
+    setError(null);
+    void navigate(paths.units.getHref(q));
+  };
+
+  return (
+    <form role="search" aria-label="Find a unit" onSubmit={onSubmit} noValidate className={cx('flex flex-col gap-2', className)}>
+      <label htmlFor={id} className="text-lg font-semibold">
+        Container number
+      </label>
+      <p id={`${id}-hint`} className="text-sm text-ink-600">
+        Four letters and seven digits, as painted on the unit — for example HLYU 310276 3.
+      </p>
+      <div className="mt-1 flex flex-col gap-3 sm:flex-row">
+        <input
+          id={id}
+          name="q"
+          value={value}
+          onChange={(e) => setValue(e.target.value)}
+          autoComplete="off"
+          autoCapitalize="characters"
+          autoCorrect="off"
+          spellCheck={false}
+          enterKeyHint="search"
+          maxLength={20}
+          placeholder="HLYU 310276 3"
+          aria-invalid={error ? true : undefined}
+          aria-describedby={cx(`${id}-hint`, error && `${id}-error`)}
+          className={cx(
+            'min-h-16 w-full min-w-0 flex-1 rounded-md border-2 bg-white px-4 text-figure font-semibold uppercase tabular-nums',
+            'placeholder:font-normal placeholder:text-ink-300 focus-visible:border-ink-950',
+            error ? 'border-alarm-700' : 'border-ink-950',
+          )}
+        />
+        <Button type="submit" size="lg" className="min-h-16 sm:px-8">
+          <SearchIcon />
+          Find unit
+        </Button>
+      </div>
+      {error && (
+        <p id={`${id}-error`} className="text-sm font-semibold text-alarm-700">
+          {error}
+        </p>
+      )}
+    </form>
+  );
+}
