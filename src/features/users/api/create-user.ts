@@ -1,0 +1,18 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { meDto, type UserDto } from '../../../../shared/schemas/auth';
+import type { CreateUserInput } from '../../../../shared/schemas/users';
+import { apiClient } from '../../../lib/api-client';
+import { userKeys } from './keys';
+
+export async function createUser(input: CreateUserInput): Promise<UserDto> {
+  // `{ user }` — the same envelope as /api/auth/me.
+  return meDto.parse(await apiClient.post('/api/users', input)).user;
+}
+
+export function useCreateUser() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createUser,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: userKeys.lists() }),
+  });
+}

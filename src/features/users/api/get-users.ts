@@ -1,0 +1,20 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { UserDto } from '../../../../shared/schemas/auth';
+import { usersListDto } from '../../../../shared/schemas/users';
+import { apiClient } from '../../../lib/api-client';
+import { userKeys } from './keys';
+
+export async function getUsers(signal?: AbortSignal): Promise<UserDto[]> {
+  return usersListDto.parse(await apiClient.get('/api/users', { signal })).users;
+}
+
+export function usersQuery() {
+  return queryOptions({
+    queryKey: userKeys.list(),
+    queryFn: ({ signal }) => getUsers(signal),
+  });
+}
+
+export function useUsers() {
+  return useQuery(usersQuery());
+}
