@@ -154,14 +154,16 @@ export function compareRepairOptions(input: RepairOptionsInput, settings: Settin
     years: number,
     description: string,
   ): EconomicOption => {
-    const flows = { upfront, yearly: yearlyCost, salvage: e.residualValue };
+    // Each option runs a box to the end of its design life, when it is worth nothing; the residual value is what
+    // this unit fetches now, so it only enters the retire option.
+    const flows = { upfront, yearly: yearlyCost, salvage: 0 };
     const npv = netPresentValue(flows, r, years);
     return {
       id,
       label,
       upfront: roundTo(upfront, 2),
       yearlyCost: roundTo(yearlyCost, 2),
-      salvage: e.residualValue,
+      salvage: flows.salvage,
       years,
       npv: roundTo(npv, 2),
       eac: roundTo(equivalentAnnualCost(npv, r, years), 2),
@@ -216,7 +218,7 @@ export function compareRepairOptions(input: RepairOptionsInput, settings: Settin
       residualValue: e.residualValue,
       notes: [
         'Costs are yearly, paid at year end, and discounted at the rate shown.',
-        'Every option ends with a unit sold at the residual value; retiring sells this one now.',
+        'Each option runs to the end of a design life with nothing left; retiring sells this unit now at the residual value.',
         'New machinery and a new unit are assumed not to leak.',
         'Refrigerant price, labour, downtime and repair costs are settings; their defaults are invented demo figures.',
       ],

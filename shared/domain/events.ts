@@ -103,6 +103,11 @@ export interface PreparedHistory {
   readonly ignored: number;
 }
 
+/** Masses are counted in whole grams: scales read no finer, and integer sums make recharge − recovered exact. */
+function grams(kg: number): number {
+  return Math.round(kg * 1000);
+}
+
 const MOVEMENT: Record<string, true> = { top_up: true, recovery: true, recharge: true };
 const VACUUM_KPAG = -STANDARD_ATMOSPHERE_KPA;
 
@@ -232,14 +237,16 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
     if (v.site === null && e.site != null) v.site = e.site;
     switch (e.kind) {
       case 'top_up':
-      case 'recharge':
-        if (e.excluded) v.excludedKg += e.kg;
-        else if (e.kind === 'top_up') v.toppedUpKg += e.kg;
-        else v.rechargedKg += e.kg;
-        if (e.kg > 0) v.added = true;
+      case 'recharge': {
+        const g = grams(e.kg);
+        if (e.excluded) v.excludedKg += g;
+        else if (e.kind === 'top_up') v.toppedUpKg += g;
+        else v.rechargedKg += g;
+        if (g > 0) v.added = true;
         break;
+      }
       case 'recovery':
-        if (!e.excluded) v.recoveredKg += e.kg;
+        if (!e.excluded) v.recoveredKg += grams(e.kg);
         break;
       case 'leak_check':
         if (e.leakFound) {
@@ -255,7 +262,14 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
         break;
     }
   }
-  for (const v of visits) v.madeUpKg = madeUpRefrigerantKg(v);
+  // The sums above are whole grams, so the made-up rule is exact; back to kg here.
+  for (const v of visits) {
+    v.madeUpKg = madeUpRefrigerantKg(v) / 1000;
+    v.toppedUpKg /= 1000;
+    v.rechargedKg /= 1000;
+    v.recoveredKg /= 1000;
+    v.excludedKg /= 1000;
+  }
   return { events: parsed, visits, afterAsOf, ignored };
 }
 

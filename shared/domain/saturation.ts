@@ -1,4 +1,5 @@
 import { DomainError } from './errors';
+import { roundTo } from './numbers';
 import { getRefrigerant, type RefrigerantCode } from './refrigerants';
 import { ABSOLUTE_ZERO_C, gaugeToAbsoluteKPa } from './units';
 
@@ -121,7 +122,7 @@ export interface SaturationRange {
 /** The temperature and pressure range over which a refrigerant's saturation curve is defined. */
 export function saturationRange(refrigerant: string, side?: SaturationSide): SaturationRange {
   const { curve: c } = curveFor(refrigerant, side);
-  return { minC: c.minK + ABSOLUTE_ZERO_C, maxC: c.maxK + ABSOLUTE_ZERO_C, minKPaAbs: c.minKPa, maxKPaAbs: c.maxKPa, endsAtCritical: c.endsAtCritical };
+  return { minC: roundTo(c.minK + ABSOLUTE_ZERO_C, 6), maxC: roundTo(c.maxK + ABSOLUTE_ZERO_C, 6), minKPaAbs: c.minKPa, maxKPaAbs: c.maxKPa, endsAtCritical: c.endsAtCritical };
 }
 
 /** Saturation pressure (kPa absolute) at a temperature; side defaults to dew. Outside the curve's range is an error. */
