@@ -15,21 +15,33 @@ export const CHROMIUM_ARGS = [
   '--disable-sync',
 ];
 
+// Fixed once: os.tmpdir() follows TMPDIR, which is pointed here below. Short, because Chromium's socket path is limited.
+const BROWSER_TMP = path.join(os.tmpdir(), 'tightloop-e2e');
+
 export const PHONE = { width: 390, height: 844 };
 export const DESKTOP = { width: 1280, height: 900 };
 
 /** A fresh Chromium profile per context (launchPersistentContext; launch() refuses --user-data-dir). */
 export async function openBrowser(opts: { viewport?: { width: number; height: number }; extraArgs?: string[] } = {}) {
-  const tmp = path.join(os.tmpdir(), 'tightloop-e2e');
-  mkdirSync(tmp, { recursive: true });
-  process.env.TMPDIR = tmp;
+  mkdirSync(BROWSER_TMP, { recursive: true });
+  process.env.TMPDIR = BROWSER_TMP;
+  const tmp = BROWSER_TMP;
   const profile = mkdtempSync(path.join(tmp, 'profile-'));
-  const context: BrowserContext = await chromium.launchPersistentContext(profile, {
-    executablePath: '/usr/bin/chromium',
-    args: [...CHROMIUM_ARGS, ...(opts.extraArgs ?? [])],
-    viewport: opts.viewport ?? PHONE,
-    baseURL: inject('baseUrl'),
-  });
+  const launch = () =>
+    chromium.launchPersistentContext(profile, {
+      executablePath: '/usr/bin/chromium',
+      args: [...CHROMIUM_ARGS, ...(opts.extraArgs ?? [])],
+      viewport: opts.viewport ?? PHONE,
+      baseURL: inject('baseUrl'),
+    });
+  let context: BrowserContext;
+  try {
+    context = await launch();
+  } catch {
+    // A loaded two-core machine occasionally loses a Chromium start; one more try is enough.
+    await new Promise((r) => setTimeout(r, 1000));
+    context = await launch();
+  }
   const page: Page = context.pages()[0] ?? (await context.newPage());
   const pageErrors: string[] = [];
   page.on('pageerror', (e) => pageErrors.push(e.message));

@@ -1,0 +1,83 @@
+import multer from 'multer';
+import type { NextFunction, Request, Response } from 'express';
+import { z } from 'zod';
+import type { AppContext } from '../../deps';
+import { route } from '../../routes';
+import { HttpError } from '../../lib/http-error';
+import type { Storage } from '../../lib/storage';
+import { historyQuerySchema, MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
+import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent, type StatsChangeHook } from './history.service';
+import { addAttachments, readAttachment } from './attachments.service';
+
+const numericId = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) });
+
+function uploadFiles() {
+  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: MAX_PHOTOS_PER_EVENT } }).array(
+    'files',
+    MAX_PHOTOS_PER_EVENT,
+  );
+  return (req: Request, res: Response, next: NextFunction) =>
+    upload(req, res, (err: unknown) => {
+      if (!err) return next();
+      const code = (err as { code?: string }).code;
+      if (code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `Each file must be ${MAX_UPLOAD_BYTES / 1024 / 1024} MB or less.`));
+      if (code === 'LIMIT_FILE_COUNT' || code === 'LIMIT_UNEXPECTED_FILE') {
+        return next(new HttpError(400, 'too_many_files', `Send at most ${MAX_PHOTOS_PER_EVENT} files, in the field "files".`));
+      }
+      next(new HttpError(400, 'bad_upload', 'The upload could not be read.'));
+    });
+}
+
+export function historyRoutes(ctx: AppContext & { storage: Storage; onStatsChange?: StatsChangeHook }) {
+  return [
+    route('post', '/api/visits', 'record:event', async (req, res) => {
+      const input = recordVisitSchema.parse(req.body);
+      const result = await recordVisit(ctx, req.user!, input, ctx.onStatsChange);
+      res.status(result.replayed ? 200 : 201).json(result);
+    }),
+    route('post', '/api/events/:id/void', 'void:event:own', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      const { reason } = voidEventSchema.parse(req.body);
+      res.status(201).json(await voidEvent(ctx, req.user!, id, reason, ctx.onStatsChange));
+    }),
+    route(
+      'post',
+      '/api/events/:id/attachments',
+      'record:event',
+      async (req, res) => {
+        const { id } = numericId.parse(req.params);
+        const files = (req.files as Express.Multer.File[] | undefined) ?? [];
+        res.status(201).json({ attachments: await addAttachments(ctx, req.user!, id, files) });
+      },
+      [uploadFiles()],
+    ),
+    route('get', '/api/attachments/:id/file', 'view:unit', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      const f = await readAttachment(ctx, id, 'file');
+      res.setHeader('Content-Type', f.mimeType);
+      res.setHeader('Content-Disposition', `inline; filename="${encodeURIComponent(f.name)}"`);
+      res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+      res.send(f.bytes);
+    }),
+    route('get', '/api/attachments/:id/thumbnail', 'view:unit', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      const f = await readAttachment(ctx, id, 'thumbnail');
+      res.setHeader('Content-Type', f.mimeType);
+      res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+      res.send(f.bytes);
+    }),
+    route('get', '/api/units/:id/overview', 'view:unit', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      res.json(await getUnitOverview(ctx.db, id));
+    }),
+    route('get', '/api/units/:id/history', 'view:unit', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      const q = historyQuerySchema.parse(req.query);
+      res.json(await getUnitHistory(ctx.db, id, q.before, q.limit));
+    }),
+    route('get', '/api/units/:id/timeline', 'view:unit', async (req, res) => {
+      const { id } = numericId.parse(req.params);
+      res.json(await getUnitTimeline(ctx.db, id));
+    }),
+  ];
+}

@@ -1,0 +1,330 @@
+// Recording visits and voids (append-only), and reading a unit's history.
+import { and, desc, eq, inArray, lt, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
+import type { Db, DbOrTx } from '../../db/client';
+import { attachments, events, sites, unitChanges, units, unitStats, users, visits } from '../../db/schema';
+import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
+import type { AppContext } from '../../deps';
+import type { SessionUser } from '../../lib/session';
+import { can } from '../../../shared/permissions';
+import {
+  HISTORY_PAGE_SIZE,
+  VOID_WINDOW_HOURS,
+  type AttachmentDto,
+  type EventDto,
+  type RecordVisitInput,
+  type RecordVisitResultDto,
+  type TimelineEventDto,
+  type UnitHistoryDto,
+  type VisitEventInput,
+} from '../../../shared/schemas/history';
+import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
+import { getSettings } from '../settings/settings.service';
+import { recomputeUnitStats, toStatsDto, type UnitStatsRow } from './stats.service';
+
+export type StatsChangeHook = (
+  tx: DbOrTx,
+  change: { unitId: number; siteId: number | null; containerNumber: string; before: UnitStatsRow | null; after: UnitStatsRow },
+) => Promise<void>;
+
+type EventInsert = typeof events.$inferInsert;
+
+/** The row for one form entry; `enteredAs`, free text and kind-specific extras go to `details`. */
+function eventRow(e: VisitEventInput): Omit<EventInsert, 'unitId' | 'visitId' | 'siteId' | 'recordedBy' | 'occurredAt' | 'enteredAt'> {
+  const base = { kind: e.kind, note: e.note ?? null };
+  switch (e.kind) {
+    case 'pti':
+      return { ...base, passed: e.passed };
+    case 'leak_check':
+      return {
+        ...base,
+        method: e.method,
+        leakFound: e.leakFound,
+        location: e.leakFound ? (e.location ?? null) : null,
+        details: e.locationOther ? { locationOther: e.locationOther } : null,
+      };
+    case 'repair':
+      return {
+        ...base,
+        location: e.location,
+        action: e.action,
+        verified: e.verified,
+        details: e.locationOther || e.actionOther ? { locationOther: e.locationOther, actionOther: e.actionOther } : null,
+      };
+    case 'component_replacement':
+      return { ...base, details: { component: e.component } };
+    case 'status_change':
+      return { ...base, details: { status: e.status } };
+    case 'note':
+      return base;
+    case 'top_up':
+    case 'recovery':
+    case 'recharge':
+      return {
+        ...base,
+        kg: e.kg,
+        cylinder: e.cylinder,
+        reusedRecovered: 'reusedRecovered' in e ? (e.reusedRecovered ?? false) : null,
+        excludedFromLeakRate: e.kind === 'recharge' ? (e.excludedFromLeakRate ?? false) : null,
+        details: e.enteredAs ? { enteredAs: e.enteredAs } : null,
+      };
+    case 'pressure':
+      return {
+        ...base,
+        suctionKPaG: e.suctionKPaG ?? null,
+        dischargeKPaG: e.dischargeKPaG ?? null,
+        ambientC: e.ambientC ?? null,
+        setPointC: e.setPointC ?? null,
+        supplyAirC: e.supplyAirC ?? null,
+        returnAirC: e.returnAirC ?? null,
+        sightGlass: e.sightGlass ?? null,
+        details: e.enteredAs ? { enteredAs: e.enteredAs } : null,
+      };
+  }
+}
+
+function isDuplicateKey(err: unknown): boolean {
+  const e = err as { code?: string; errno?: number; cause?: { code?: string } };
+  return e?.code === 'ER_DUP_ENTRY' || e?.errno === 1062 || e?.cause?.code === 'ER_DUP_ENTRY';
+}
+
+async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promise<RecordVisitResultDto | null> {
+  const [visit] = await db.select().from(visits).where(eq(visits.idempotencyKey, input.idempotencyKey));
+  if (!visit) return null;
+  if (visit.recordedBy !== user.id || visit.unitId !== input.unitId) {
+    throw conflict('This submission key was already used for another visit.');
+  }
+  const evs = await eventDtos(db, and(eq(events.visitId, visit.id))!);
+  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, visit.unitId));
+  return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
+}
+
+export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput, onStats?: StatsChangeHook) {
+  const earlier = await replay(ctx.db, user, input);
+  if (earlier) return earlier;
+  const now = ctx.clock.now();
+  try {
+    const visitId = await ctx.db.transaction(async (tx) => {
+      // Locking the unit row serialises writes per unit, so each statistics row matches its history.
+      const [unit] = await tx.select().from(units).where(eq(units.id, input.unitId)).for('update');
+      if (!unit) throw notFound('No such unit.');
+      if (unit.status === 'retired' && input.events.some((e) => e.kind !== 'note' && e.kind !== 'status_change')) {
+        throw conflict('This unit is retired. Record a status change first if it is back in service.');
+      }
+      const issues = visitPlausibilityIssues(unit, input, now);
+      if (Object.keys(issues).length) throw badRequest('Some entries are not plausible.', issues);
+      const siteId = input.siteId ?? unit.siteId ?? null;
+      if (input.siteId) {
+        const [site] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, input.siteId));
+        if (!site) throw badRequest('Choose a known site.', { siteId: 'Unknown site' });
+      }
+      const occurredAt = new Date(input.occurredAt);
+      const [inserted] = await tx
+        .insert(visits)
+        .values({ unitId: unit.id, siteId, recordedBy: user.id, occurredAt, enteredAt: now, idempotencyKey: input.idempotencyKey })
+        .$returningId();
+      await tx.insert(events).values(
+        input.events.map((e) => ({
+          ...eventRow(e),
+          unitId: unit.id,
+          visitId: inserted.id,
+          siteId,
+          recordedBy: user.id,
+          occurredAt,
+          enteredAt: now,
+        })),
+      );
+      const statusChange = input.events.findLast((e) => e.kind === 'status_change');
+      if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
+        await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
+        await tx.insert(unitChanges).values({ unitId: unit.id, userId: user.id, at: now, field: 'status', before: unit.status, after: statusChange.status });
+      }
+      const { before, after } = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx));
+      await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
+      return inserted.id;
+    });
+    const evs = await eventDtos(ctx.db, eq(events.visitId, visitId));
+    const [stats] = await ctx.db.select().from(unitStats).where(eq(unitStats.unitId, input.unitId));
+    return { visitId, replayed: false, events: evs, stats: toStatsDto(stats) } satisfies RecordVisitResultDto;
+  } catch (err) {
+    // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
+    if (isDuplicateKey(err)) {
+      const first = await replay(ctx.db, user, input);
+      if (first) return first;
+    }
+    throw err;
+  }
+}
+
+export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: number, reason: string, onStats?: StatsChangeHook) {
+  const now = ctx.clock.now();
+  const unitId = await ctx.db.transaction(async (tx) => {
+    const [target] = await tx.select().from(events).where(eq(events.id, eventId));
+    if (!target) throw notFound('No such entry.');
+    const [unit] = await tx.select().from(units).where(eq(units.id, target.unitId)).for('update');
+    if (target.kind === 'void') throw conflict('A correction cannot itself be voided.');
+    if (!can(user, 'void:event:any')) {
+      if (target.recordedBy !== user.id) throw forbidden('You can void only entries you recorded.');
+      if (now.getTime() - target.enteredAt.getTime() > VOID_WINDOW_HOURS * 3600 * 1000) {
+        throw forbidden(`Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`);
+      }
+    }
+    const [already] = await tx.select({ id: events.id }).from(events).where(eq(events.voidsEventId, eventId));
+    if (already) throw conflict('This entry is already voided.');
+    await tx.insert(events).values({
+      unitId: target.unitId,
+      siteId: target.siteId,
+      recordedBy: user.id,
+      kind: 'void',
+      occurredAt: now,
+      enteredAt: now,
+      voidsEventId: eventId,
+      note: reason,
+    });
+    const { before, after } = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx));
+    await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
+    return target.unitId;
+  });
+  const [dto] = await eventDtos(ctx.db, eq(events.id, eventId));
+  const [stats] = await ctx.db.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  return { event: dto, stats: toStatsDto(stats) };
+}
+
+// --- reading ------------------------------------------------------------------------------------------------
+
+const voider = alias(events, 'voider');
+const voiderUser = alias(users, 'voider_user');
+
+async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, limit?: number): Promise<EventDto[]> {
+  let q = db
+    .select({
+      e: events,
+      siteName: sites.name,
+      userName: users.name,
+      voidId: voider.id,
+      voidAt: voider.enteredAt,
+      voidReason: voider.note,
+      voidBy: voider.recordedBy,
+      voidByName: voiderUser.name,
+    })
+    .from(events)
+    .innerJoin(users, eq(users.id, events.recordedBy))
+    .leftJoin(sites, eq(sites.id, events.siteId))
+    .leftJoin(voider, eq(voider.voidsEventId, events.id))
+    .leftJoin(voiderUser, eq(voiderUser.id, voider.recordedBy))
+    .where(where)
+    .orderBy(desc(events.occurredAt), desc(events.id))
+    .$dynamic();
+  if (limit) q = q.limit(limit);
+  const rows = await q;
+  const ids = rows.map((r) => r.e.id);
+  const files = ids.length ? await db.select().from(attachments).where(inArray(attachments.eventId, ids)) : [];
+  const byEvent = new Map<number, AttachmentDto[]>();
+  for (const f of files) {
+    const list = byEvent.get(f.eventId) ?? [];
+    list.push(attachmentDto(f));
+    byEvent.set(f.eventId, list);
+  }
+  return rows.map(({ e, siteName, userName, voidId, voidAt, voidReason, voidBy, voidByName }) => ({
+    id: e.id,
+    unitId: e.unitId,
+    visitId: e.visitId,
+    kind: e.kind,
+    occurredAt: e.occurredAt.toISOString(),
+    enteredAt: e.enteredAt.toISOString(),
+    site: e.siteId != null && siteName != null ? { id: e.siteId, name: siteName } : null,
+    recordedBy: { id: e.recordedBy, name: userName },
+    kg: e.kg,
+    cylinder: e.cylinder,
+    reusedRecovered: e.reusedRecovered == null ? null : Boolean(e.reusedRecovered),
+    excludedFromLeakRate: e.excludedFromLeakRate == null ? null : Boolean(e.excludedFromLeakRate),
+    method: e.method,
+    leakFound: e.leakFound == null ? null : Boolean(e.leakFound),
+    location: e.location,
+    action: e.action,
+    verified: e.verified == null ? null : Boolean(e.verified),
+    passed: e.passed == null ? null : Boolean(e.passed),
+    suctionKPaG: e.suctionKPaG,
+    dischargeKPaG: e.dischargeKPaG,
+    ambientC: e.ambientC,
+    setPointC: e.setPointC,
+    supplyAirC: e.supplyAirC,
+    returnAirC: e.returnAirC,
+    sightGlass: e.sightGlass,
+    details: e.details ?? null,
+    note: e.note,
+    voidsEventId: e.voidsEventId,
+    voided:
+      voidId != null && voidAt && voidBy
+        ? { by: { id: voidBy, name: voidByName ?? '' }, at: voidAt.toISOString(), reason: voidReason ?? '', eventId: voidId }
+        : null,
+    attachments: byEvent.get(e.id) ?? [],
+  }));
+}
+
+export function attachmentDto(f: typeof attachments.$inferSelect): AttachmentDto {
+  return {
+    id: f.id,
+    mimeType: f.mimeType,
+    sizeBytes: f.sizeBytes,
+    originalName: f.originalName,
+    url: `/api/attachments/${f.id}/file`,
+    thumbnailUrl: f.thumbnailKey ? `/api/attachments/${f.id}/thumbnail` : null,
+  };
+}
+
+async function requireUnit(db: DbOrTx, unitId: number) {
+  const [unit] = await db.select({ id: units.id }).from(units).where(eq(units.id, unitId));
+  if (!unit) throw notFound('No such unit.');
+}
+
+export async function getUnitHistory(db: Db, unitId: number, before?: number, limit = HISTORY_PAGE_SIZE): Promise<UnitHistoryDto> {
+  await requireUnit(db, unitId);
+  const where = before
+    ? and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`, lt(events.id, before))!
+    : and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`)!;
+  const list = await eventDtos(db, where as ReturnType<typeof eq>, limit + 1);
+  const more = list.length > limit;
+  const page = more ? list.slice(0, limit) : list;
+  return { events: page, nextBefore: more ? page[page.length - 1].id : null };
+}
+
+export async function getUnitOverview(db: Db, unitId: number) {
+  const history = await getUnitHistory(db, unitId);
+  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  return { stats: stats ? toStatsDto(stats) : null, history };
+}
+
+export async function getUnitTimeline(db: Db, unitId: number): Promise<{ events: TimelineEventDto[] }> {
+  await requireUnit(db, unitId);
+  const rows = await db
+    .select({
+      id: events.id,
+      visitId: events.visitId,
+      kind: events.kind,
+      occurredAt: events.occurredAt,
+      kg: events.kg,
+      leakFound: events.leakFound,
+      location: events.location,
+      verified: events.verified,
+      passed: events.passed,
+      suctionKPaG: events.suctionKPaG,
+      dischargeKPaG: events.dischargeKPaG,
+      ambientC: events.ambientC,
+      sightGlass: events.sightGlass,
+      voided: sql<number>`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`,
+    })
+    .from(events)
+    .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`))
+    .orderBy(events.occurredAt, events.id);
+  return {
+    events: rows.map((r) => ({
+      ...r,
+      occurredAt: r.occurredAt.toISOString(),
+      leakFound: r.leakFound == null ? null : Boolean(r.leakFound),
+      verified: r.verified == null ? null : Boolean(r.verified),
+      passed: r.passed == null ? null : Boolean(r.passed),
+      voided: Boolean(Number(r.voided)),
+    })),
+  };
+}

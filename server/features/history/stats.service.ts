@@ -1,0 +1,178 @@
+// Recomputes a unit's statistics from its whole history with the domain engine and stores them in unit_stats.
+// Runs inside the caller's transaction so the figures always match the events they came from.
+import { and, asc, eq, sql } from 'drizzle-orm';
+import type { DbOrTx } from '../../db/client';
+import { events, units, unitStats } from '../../db/schema';
+import { computeUnitStats } from '../../../shared/domain';
+import type { Settings } from '../../../shared/schemas/settings';
+import type { UnitStatsDto } from '../../../shared/schemas/history';
+
+type EngineEvent = Parameters<typeof computeUnitStats>[1][number];
+type EngineUnit = Parameters<typeof computeUnitStats>[0];
+export type UnitStatsRow = typeof unitStats.$inferSelect;
+
+const iso = (d: Date) => d.toISOString();
+
+/** The engine's view of one stored event, or null for kinds the figures do not use. */
+export function toEngineEvent(e: {
+  kind: string;
+  occurredAt: Date;
+  visitId: number | null;
+  kg: number | null;
+  excludedFromLeakRate: boolean | null;
+  leakFound: boolean | null;
+  location: string | null;
+  action: string | null;
+  verified: boolean | null;
+  passed: boolean | null;
+  suctionKPaG: number | null;
+  dischargeKPaG: number | null;
+  ambientC: number | null;
+  sightGlass: string | null;
+}): EngineEvent | null {
+  const at = iso(e.occurredAt);
+  const visitId = e.visitId == null ? undefined : String(e.visitId);
+  switch (e.kind) {
+    case 'top_up':
+    case 'recovery':
+    case 'recharge':
+      return { kind: e.kind, at, visitId, kg: e.kg ?? 0, excluded: Boolean(e.excludedFromLeakRate) } as EngineEvent;
+    case 'leak_check':
+      return { kind: 'leak_check', at, visitId, leakFound: Boolean(e.leakFound), location: e.location ?? undefined } as EngineEvent;
+    case 'repair':
+      return {
+        kind: 'repair',
+        at,
+        visitId,
+        location: e.location ?? undefined,
+        action: e.action ?? undefined,
+        verified: Boolean(e.verified),
+      } as EngineEvent;
+    case 'pti':
+      return { kind: 'pti', at, visitId, passed: Boolean(e.passed) } as EngineEvent;
+    case 'pressure':
+      return {
+        kind: 'pressure',
+        at,
+        visitId,
+        suctionKPaG: e.suctionKPaG ?? undefined,
+        dischargeKPaG: e.dischargeKPaG ?? undefined,
+        ambientC: e.ambientC ?? undefined,
+        sightGlass: e.sightGlass ?? undefined,
+      } as EngineEvent;
+    default:
+      return null;
+  }
+}
+
+/** Every event of the unit that counts: voided ones and the void markers themselves drop out. */
+export async function loadEngineHistory(db: DbOrTx, unitId: number): Promise<EngineEvent[]> {
+  const rows = await db
+    .select({
+      kind: events.kind,
+      occurredAt: events.occurredAt,
+      visitId: events.visitId,
+      kg: events.kg,
+      excludedFromLeakRate: events.excludedFromLeakRate,
+      leakFound: events.leakFound,
+      location: events.location,
+      action: events.action,
+      verified: events.verified,
+      passed: events.passed,
+      suctionKPaG: events.suctionKPaG,
+      dischargeKPaG: events.dischargeKPaG,
+      ambientC: events.ambientC,
+      sightGlass: events.sightGlass,
+    })
+    .from(events)
+    .where(
+      and(
+        eq(events.unitId, unitId),
+        sql`${events.kind} <> 'void'`,
+        sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`,
+      ),
+    )
+    .orderBy(asc(events.occurredAt), asc(events.id));
+  const out: EngineEvent[] = [];
+  for (const r of rows) {
+    const e = toEngineEvent(r);
+    if (e) out.push(e);
+  }
+  return out;
+}
+
+export function engineUnit(u: { refrigerant: string; nominalChargeKg: number; commissionedOn: string | null; createdAt: Date }): EngineUnit {
+  // Without a commissioning date the record's start stands in for it (DOMAIN.md §4).
+  return { refrigerant: u.refrigerant, nominalChargeKg: u.nominalChargeKg, commissionedOn: u.commissionedOn ?? iso(u.createdAt).slice(0, 10) } as EngineUnit;
+}
+
+type EngineResult = ReturnType<typeof computeUnitStats>;
+
+export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, lastEventAt: Date | null): UnitStatsRow {
+  return {
+    unitId,
+    computedAt,
+    rollingLeakRatePct: r.rollingLeakRatePct ?? 0,
+    calendarYearSharePct: r.calendarYearSharePct ?? 0,
+    score: r.score.value,
+    scoreBand: r.score.band,
+    scoreFactors: r.score.factors as unknown as Record<string, unknown>,
+    forecastDate: r.forecast?.date ?? null,
+    forecastEarliest: r.forecast?.earliest ?? null,
+    forecastLatest: r.forecast?.latest ?? null,
+    forecastOverdue: r.forecast?.overdue ?? false,
+    co2eTonnes: r.co2eTonnes,
+    leakCheckIntervalMonths: r.leakCheckIntervalMonths,
+    lastLeakCheckAt: r.lastLeakCheckAt ? new Date(r.lastLeakCheckAt) : null,
+    nextLeakCheckDue: r.nextLeakCheckDue ?? null,
+    ptiValidUntil: r.ptiValidUntil ?? null,
+    ptiPassed: r.ptiPassed ?? null,
+    pressureFlag: r.pressureHealth.flag,
+    openLeakFoundAt: r.openLeak ? new Date(r.openLeak.foundAt) : null,
+    madeUpKg365: r.totalMadeUpKg365 ?? 0,
+    eventCount: r.counts.events,
+    visitCount: r.counts.visits,
+    topUpCount: r.counts.topUps,
+    lastEventAt,
+    detail: r as unknown as Record<string, unknown>,
+  };
+}
+
+/** Recomputes and stores the unit's statistics; returns the row before and after (for alerts). */
+export async function recomputeUnitStats(
+  tx: DbOrTx,
+  unitId: number,
+  asOf: Date,
+  settings: Settings,
+): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow }> {
+  const [unit] = await tx.select().from(units).where(eq(units.id, unitId));
+  const [before] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  const history = await loadEngineHistory(tx, unitId);
+  const result = computeUnitStats(engineUnit(unit), history, iso(asOf), settings);
+  const last = history.length ? new Date(history[history.length - 1].at) : null;
+  const after = statsRowFrom(unitId, result, asOf, last);
+  const { unitId: _id, ...rest } = after;
+  await tx.insert(unitStats).values(after).onDuplicateKeyUpdate({ set: rest });
+  return { before: before ?? null, after };
+}
+
+export function toStatsDto(row: UnitStatsRow): UnitStatsDto {
+  return {
+    computedAt: row.computedAt.toISOString(),
+    rollingLeakRatePct: row.rollingLeakRatePct,
+    calendarYearSharePct: row.calendarYearSharePct,
+    score: row.score,
+    scoreBand: row.scoreBand,
+    co2eTonnes: row.co2eTonnes,
+    leakCheckIntervalMonths: row.leakCheckIntervalMonths,
+    lastLeakCheckAt: row.lastLeakCheckAt ? new Date(row.lastLeakCheckAt).toISOString() : null,
+    nextLeakCheckDue: row.nextLeakCheckDue,
+    ptiValidUntil: row.ptiValidUntil,
+    ptiPassed: row.ptiPassed == null ? null : Boolean(row.ptiPassed),
+    pressureFlag: row.pressureFlag,
+    forecast: row.forecastDate
+      ? { date: row.forecastDate, earliest: row.forecastEarliest, latest: row.forecastLatest, overdue: Boolean(row.forecastOverdue) }
+      : null,
+    detail: (row.detail as Record<string, unknown> | null) ?? null,
+  };
+}

@@ -1,0 +1,227 @@
+// Inputs and outputs of the service history: recording a visit, voiding an event, reading a unit's history.
+import { z } from 'zod';
+import {
+  LEAK_CHECK_METHOD_IDS,
+  LEAK_LOCATION_IDS,
+  REPAIR_ACTION_IDS,
+  SIGHT_GLASS_STATE_IDS,
+} from '../domain/service-terms';
+import { MASS_UNITS, PRESSURE_UNITS, TEMPERATURE_UNITS } from '../domain/units';
+
+export const MAX_EVENTS_PER_VISIT = 20;
+export const MAX_PHOTOS_PER_EVENT = 8;
+export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
+export const MAX_NOTE_LENGTH = 2000;
+export const MAX_CYLINDER_LENGTH = 64;
+export const VOID_WINDOW_HOURS = 24;
+export const HISTORY_PAGE_SIZE = 50;
+export const UPLOAD_MIME_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
+export const UNIT_STATUS_VALUES = ['in_service', 'out_of_service', 'retired'] as const;
+
+const note = z.string().trim().max(MAX_NOTE_LENGTH, `Keep notes under ${MAX_NOTE_LENGTH} characters`);
+const optionalNote = note.optional();
+const otherText = z.string().trim().max(120).optional();
+const kg = z
+  .number({ message: 'Enter the mass in kg' })
+  .positive('The mass must be more than 0')
+  .max(1000, 'That mass is not plausible for a reefer unit');
+const cylinder = z.string().trim().min(1, 'Enter the cylinder or lot number').max(MAX_CYLINDER_LENGTH);
+const massEntered = z.object({ value: z.number(), unit: z.enum(MASS_UNITS) }).optional();
+const celsius = (label: string) => z.number({ message: `Enter the ${label} in °C` }).min(-80).max(90).optional();
+const kPaG = (label: string) =>
+  z
+    .number({ message: `Enter the ${label} pressure` })
+    .min(-101.325, `The ${label} pressure is below a perfect vacuum`)
+    .max(20_000, `The ${label} pressure is not plausible`)
+    .optional();
+
+const ptiEvent = z.object({ kind: z.literal('pti'), passed: z.boolean(), note: optionalNote });
+const leakCheckEvent = z
+  .object({
+    kind: z.literal('leak_check'),
+    method: z.enum(LEAK_CHECK_METHOD_IDS, { message: 'Choose how the unit was checked' }),
+    leakFound: z.boolean(),
+    location: z.enum(LEAK_LOCATION_IDS).optional(),
+    locationOther: otherText,
+    note: optionalNote,
+  })
+  .refine((e) => !e.leakFound || e.location, { message: 'Say where the leak is', path: ['location'] })
+  .refine((e) => e.location !== 'other' || e.locationOther, { message: 'Describe the location', path: ['locationOther'] });
+const repairEvent = z
+  .object({
+    kind: z.literal('repair'),
+    location: z.enum(LEAK_LOCATION_IDS, { message: 'Say where the repair was' }),
+    locationOther: otherText,
+    action: z.enum(REPAIR_ACTION_IDS, { message: 'Say what was done' }),
+    actionOther: otherText,
+    verified: z.boolean(),
+    note: optionalNote,
+  })
+  .refine((e) => e.location !== 'other' || e.locationOther, { message: 'Describe the location', path: ['locationOther'] })
+  .refine((e) => e.action !== 'other' || e.actionOther, { message: 'Describe what was done', path: ['actionOther'] });
+const componentEvent = z.object({
+  kind: z.literal('component_replacement'),
+  component: z.string().trim().min(1, 'Name the component').max(120),
+  note: optionalNote,
+});
+const statusEvent = z.object({ kind: z.literal('status_change'), status: z.enum(UNIT_STATUS_VALUES), note: optionalNote });
+const noteEvent = z.object({ kind: z.literal('note'), note: note.min(1, 'Write the note') });
+const topUpEvent = z.object({
+  kind: z.literal('top_up'),
+  kg,
+  enteredAs: massEntered,
+  cylinder,
+  reusedRecovered: z.boolean().optional(),
+  note: optionalNote,
+});
+const recoveryEvent = z.object({
+  kind: z.literal('recovery'),
+  kg,
+  enteredAs: massEntered,
+  cylinder: cylinder.describe('recovery cylinder'),
+  note: optionalNote,
+});
+const rechargeEvent = z.object({
+  kind: z.literal('recharge'),
+  kg,
+  enteredAs: massEntered,
+  cylinder,
+  reusedRecovered: z.boolean().optional(),
+  // A first fill or a retrofit charge is not made-up refrigerant (40 CFR 82.157(b)).
+  excludedFromLeakRate: z.boolean().optional(),
+  note: optionalNote,
+});
+const pressureEvent = z
+  .object({
+    kind: z.literal('pressure'),
+    suctionKPaG: kPaG('suction'),
+    dischargeKPaG: kPaG('discharge'),
+    ambientC: celsius('ambient temperature'),
+    setPointC: z.number().min(-40, 'Set points run from −40 to +30 °C').max(30, 'Set points run from −40 to +30 °C').optional(),
+    supplyAirC: celsius('supply air temperature'),
+    returnAirC: celsius('return air temperature'),
+    sightGlass: z.enum(SIGHT_GLASS_STATE_IDS).optional(),
+    enteredAs: z
+      .object({ pressureUnit: z.enum(PRESSURE_UNITS), temperatureUnit: z.enum(TEMPERATURE_UNITS) })
+      .optional(),
+    note: optionalNote,
+  })
+  .refine((e) => e.suctionKPaG !== undefined || e.dischargeKPaG !== undefined, {
+    message: 'Enter at least one gauge pressure',
+    path: ['dischargeKPaG'],
+  });
+
+export const visitEventSchema = z.discriminatedUnion('kind', [
+  ptiEvent,
+  leakCheckEvent,
+  repairEvent,
+  componentEvent,
+  statusEvent,
+  noteEvent,
+  topUpEvent,
+  recoveryEvent,
+  rechargeEvent,
+  pressureEvent,
+]);
+export type VisitEventInput = z.infer<typeof visitEventSchema>;
+export type VisitEventKind = VisitEventInput['kind'];
+
+export const recordVisitSchema = z.object({
+  idempotencyKey: z.string().min(8).max(64).regex(/^[\w-]+$/, 'Bad idempotency key'),
+  unitId: z.number().int().positive(),
+  siteId: z.number().int().positive().nullable().optional(),
+  occurredAt: z.iso.datetime({ offset: true, message: 'Enter when the work was done' }),
+  events: z
+    .array(visitEventSchema)
+    .min(1, 'Add at least one thing you did')
+    .max(MAX_EVENTS_PER_VISIT, `At most ${MAX_EVENTS_PER_VISIT} entries per visit`),
+});
+export type RecordVisitInput = z.infer<typeof recordVisitSchema>;
+
+export const voidEventSchema = z.object({
+  reason: z.string().trim().min(3, 'Say why this entry is wrong').max(500),
+});
+export type VoidEventInput = z.infer<typeof voidEventSchema>;
+
+export const historyQuerySchema = z.object({
+  before: z.coerce.number().int().positive().optional(),
+  limit: z.coerce.number().int().min(1).max(200).default(HISTORY_PAGE_SIZE),
+});
+
+// --- responses ---------------------------------------------------------------------------------------------
+
+export type AttachmentDto = {
+  id: number;
+  mimeType: string;
+  sizeBytes: number;
+  originalName: string;
+  url: string;
+  thumbnailUrl: string | null;
+};
+
+export type EventDto = {
+  id: number;
+  unitId: number;
+  visitId: number | null;
+  kind: string;
+  occurredAt: string;
+  enteredAt: string;
+  site: { id: number; name: string } | null;
+  recordedBy: { id: string; name: string };
+  kg: number | null;
+  cylinder: string | null;
+  reusedRecovered: boolean | null;
+  excludedFromLeakRate: boolean | null;
+  method: string | null;
+  leakFound: boolean | null;
+  location: string | null;
+  action: string | null;
+  verified: boolean | null;
+  passed: boolean | null;
+  suctionKPaG: number | null;
+  dischargeKPaG: number | null;
+  ambientC: number | null;
+  setPointC: number | null;
+  supplyAirC: number | null;
+  returnAirC: number | null;
+  sightGlass: string | null;
+  details: Record<string, unknown> | null;
+  note: string | null;
+  voidsEventId: number | null;
+  voided: { by: { id: string; name: string }; at: string; reason: string; eventId: number } | null;
+  attachments: AttachmentDto[];
+};
+
+export type UnitStatsDto = {
+  computedAt: string;
+  rollingLeakRatePct: number;
+  calendarYearSharePct: number;
+  score: number;
+  scoreBand: 'tight' | 'watch' | 'chronic';
+  co2eTonnes: number;
+  leakCheckIntervalMonths: number | null;
+  lastLeakCheckAt: string | null;
+  nextLeakCheckDue: string | null;
+  ptiValidUntil: string | null;
+  ptiPassed: boolean | null;
+  pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
+  forecast: { date: string; earliest: string | null; latest: string | null; overdue: boolean } | null;
+  /** The whole engine result: factors, per-visit rates, snapshots, reasons. */
+  detail: Record<string, unknown> | null;
+};
+
+export type RecordVisitResultDto = {
+  visitId: number;
+  replayed: boolean;
+  events: EventDto[];
+  stats: UnitStatsDto;
+};
+
+export type UnitHistoryDto = { events: EventDto[]; nextBefore: number | null };
+
+export type TimelineEventDto = Pick<
+  EventDto,
+  'id' | 'visitId' | 'kind' | 'occurredAt' | 'kg' | 'leakFound' | 'location' | 'verified' | 'passed' | 'suctionKPaG' | 'dischargeKPaG' | 'ambientC' | 'sightGlass'
+> & { voided: boolean };
+
+export type UnitOverviewDto = { stats: UnitStatsDto | null; history: UnitHistoryDto };
