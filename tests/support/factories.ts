@@ -1,9 +1,9 @@
 import request from 'supertest';
 import type { Express } from 'express';
 import type { Db } from '../../server/db/client';
-import { users } from '../../server/db/schema';
+import { units, users } from '../../server/db/schema';
 import { hashPassword } from '../../server/lib/password';
-import { newId } from '../../server/lib/ids';
+import { newId, newToken } from '../../server/lib/ids';
 import type { Role } from '../../shared/permissions';
 
 export const TEST_ORIGIN = 'http://localhost:3000';
@@ -39,4 +39,24 @@ export async function signInAs(app: Express, db: Db, role: Role) {
     .send({ email: user.email, password: TEST_PASSWORD });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status} ${JSON.stringify(res.body)}`);
   return { agent, user };
+}
+
+let unitCounter = 0;
+
+/** A unit row straight into the database (the registry API has its own tests). Container numbers need not be valid here. */
+export async function createTestUnit(
+  db: Db,
+  overrides: Partial<typeof units.$inferInsert> = {},
+) {
+  unitCounter += 1;
+  const row = {
+    containerNumber: `TSTU${String(Date.now() % 1_000_000).padStart(6, '0')}${unitCounter % 10}`.slice(0, 11),
+    refrigerant: 'R-134a',
+    nominalChargeKg: 5,
+    commissionedOn: '2020-01-01',
+    qrToken: newToken(),
+    ...overrides,
+  };
+  const [r] = await db.insert(units).values(row).$returningId();
+  return { ...row, id: r.id };
 }
