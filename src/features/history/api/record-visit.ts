@@ -1,0 +1,35 @@
+import { useMutation, useQueryClient, type QueryClient, type QueryKey } from '@tanstack/react-query';
+import type { RecordVisitInput, RecordVisitResultDto, UnitOverviewDto } from '../../../../shared/schemas/history';
+import { apiClient } from '../../../lib/api-client';
+import { historyKeys } from './keys';
+
+/** Sends one visit. The idempotency key makes a retry safe: the server answers a known key with the first result. */
+export async function recordVisit(input: RecordVisitInput): Promise<RecordVisitResultDto> {
+  return apiClient.post<RecordVisitResultDto>('/api/visits', input);
+}
+
+/** After a visit is saved: its figures at once, then everything of the unit fresh from the server. */
+export async function refreshAfterVisit(
+  queryClient: QueryClient,
+  result: RecordVisitResultDto,
+  unitId: number,
+  alsoInvalidate: QueryKey[] = [],
+) {
+  queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) => (old ? { ...old, stats: result.stats } : old));
+  await Promise.all([
+    queryClient.invalidateQueries({ queryKey: historyKeys.unit(unitId) }),
+    ...alsoInvalidate.map((queryKey) => queryClient.invalidateQueries({ queryKey })),
+  ]);
+}
+
+/** `alsoInvalidate`: keys of other features that a visit changes (the unit's own record, e.g. its status). */
+export function useRecordVisit(options: { alsoInvalidate?: (unitId: number) => QueryKey[] } = {}) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: recordVisit,
+    onSuccess: (result, input) => {
+      // Not awaited: the form shows "saved" at once; the unit page refetches in the background.
+      void refreshAfterVisit(queryClient, result, input.unitId, options.alsoInvalidate?.(input.unitId));
+    },
+  });
+}

@@ -1,0 +1,125 @@
+import { useId, useState, type ChangeEvent } from 'react';
+import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, type AttachmentDto } from '../../../../shared/schemas/history';
+import { cx } from '../../../components/ui/cx';
+import { Spinner } from '../../../components/ui/spinner';
+import { useUploadAttachments, type UploadProgress } from '../api/upload-attachments';
+
+const MB = 1024 * 1024;
+
+function CameraIcon() {
+  return (
+    <svg viewBox="0 0 24 24" aria-hidden="true" className="size-6 shrink-0 fill-none stroke-current stroke-2">
+      <path d="M4 7.5h3.2L9 5h6l1.8 2.5H20v11H4z" strokeLinejoin="round" />
+      <circle cx="12" cy="13" r="3.5" />
+    </svg>
+  );
+}
+
+/** Photos (or a PDF) for one saved entry: camera first on phones, progress while uploading, errors in words. */
+export function AttachPhotos({
+  unitId,
+  eventId,
+  label,
+  existing = 0,
+}: {
+  unitId: number;
+  eventId: number;
+  /** What the entry is, for the button's accessible name. */
+  label: string;
+  existing?: number;
+}) {
+  const id = useId();
+  const upload = useUploadAttachments(unitId);
+  const [progress, setProgress] = useState<UploadProgress | null>(null);
+  const [done, setDone] = useState<AttachmentDto[]>([]);
+  const [problem, setProblem] = useState<string | null>(null);
+  const room = MAX_PHOTOS_PER_EVENT - existing - done.length;
+
+  const onChange = (e: ChangeEvent<HTMLInputElement>) => {
+    const files = Array.from(e.target.files ?? []);
+    e.target.value = '';
+    if (files.length === 0) return;
+    setProblem(null);
+    if (files.length > room) {
+      setProblem(`At most ${MAX_PHOTOS_PER_EVENT} files per entry; there is room for ${Math.max(0, room)} more.`);
+      return;
+    }
+    const big = files.find((f) => f.size > MAX_UPLOAD_BYTES);
+    if (big) {
+      setProblem(`${big.name} is ${(big.size / MB).toFixed(1)} MB; each file must be ${MAX_UPLOAD_BYTES / MB} MB or less.`);
+      return;
+    }
+    setProgress({ loaded: 0, total: files.reduce((s, f) => s + f.size, 0) });
+    upload.mutate(
+      { eventId, files, onProgress: setProgress },
+      {
+        onSuccess: (attachments) => setDone((d) => [...d, ...attachments]),
+        onError: (error) => setProblem(error.message),
+        onSettled: () => setProgress(null),
+      },
+    );
+  };
+
+  const pct = progress && progress.total > 0 ? Math.round((progress.loaded / progress.total) * 100) : 0;
+
+  return (
+    <div className="flex flex-col gap-2">
+      {done.length > 0 && (
+        <ul className="flex flex-wrap gap-2" aria-label="Attached">
+          {done.map((a) => (
+            <li key={a.id}>
+              <a href={a.url} target="_blank" rel="noreferrer" className="block rounded-md border-2 border-ink-200">
+                {a.thumbnailUrl ? (
+                  <img src={a.thumbnailUrl} alt={`Photo ${a.originalName}`} className="size-20 rounded-sm object-cover" />
+                ) : (
+                  <span className="flex size-20 items-center justify-center text-sm font-semibold">PDF</span>
+                )}
+              </a>
+            </li>
+          ))}
+        </ul>
+      )}
+      {upload.isPending ? (
+        <div role="status" className="flex min-h-touch items-center gap-3 rounded-md border-2 border-fjord-700 bg-fjord-50 px-3">
+          <Spinner className="text-fjord-700" />
+          <span className="flex-1 font-semibold">Uploading… {pct} %</span>
+          <progress max={100} value={pct} className="h-2 w-24 accent-fjord-700" aria-label="Upload progress" />
+        </div>
+      ) : room > 0 ? (
+        <label
+          htmlFor={id}
+          className={cx(
+            'flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-dashed border-fjord-700 bg-white px-4',
+            'font-semibold text-fjord-700 hover:bg-fjord-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ink-950',
+          )}
+        >
+          <CameraIcon />
+          {done.length > 0 ? 'Add more photos' : 'Add photos'}
+          <span className="sr-only"> to the {label}</span>
+          <input
+            id={id}
+            type="file"
+            accept="image/*,application/pdf"
+            capture="environment"
+            multiple
+            className="sr-only"
+            onChange={onChange}
+            data-testid={`attach-${eventId}`}
+          />
+        </label>
+      ) : (
+        <p className="text-sm text-ink-600">{MAX_PHOTOS_PER_EVENT} files attached: that is the most an entry takes.</p>
+      )}
+      {done.length > 0 && !upload.isPending && (
+        <p className="text-sm font-semibold text-okay-700" role="status">
+          {done.length === 1 ? '1 file attached' : `${done.length} files attached`}
+        </p>
+      )}
+      {problem && (
+        <p role="alert" className="text-sm font-semibold text-alarm-700">
+          {problem}
+        </p>
+      )}
+    </div>
+  );
+}

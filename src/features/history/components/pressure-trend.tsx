@@ -1,0 +1,197 @@
+import { AxisBottom, AxisLeft } from '@visx/axis';
+import { Group } from '@visx/group';
+import { useParentSize } from '@visx/responsive';
+import { scaleLinear, scaleTime } from '@visx/scale';
+import { LinePath } from '@visx/shape';
+import { useTooltip } from '@visx/tooltip';
+import { parseISO } from 'date-fns';
+import { useMemo, type PointerEvent as ReactPointerEvent } from 'react';
+import type { PressureSnapshot } from '../../../../shared/domain';
+import type { UnitStatsDto } from '../../../../shared/schemas/history';
+import { fmtC, fmtDateTime, fmtK } from '../utils/labels';
+import { statsDetail } from '../utils/stats-detail';
+
+const C = { ink: '#0b161d', ink600: '#435762', ink300: '#a9b6bc', ink100: '#e3e8e8', fjord: '#005264', heed: '#7a4300', alarm: '#a3190f' };
+
+type Point = PressureSnapshot & { t: number };
+
+/**
+ * Condensing (from discharge) and evaporating (from suction) temperatures over time, with the condensing temperature
+ * the unit's own post-charge baseline expects at that ambient (ambient + baseline approach). A condensing line
+ * sinking below the expected one is the drift that hints at a low charge.
+ */
+export function PressureTrend({ stats }: { stats: UnitStatsDto | null }) {
+  const detail = statsDetail(stats);
+  const { parentRef, width } = useParentSize({ debounceTime: 50, initialSize: { width: 360 } });
+  const { tooltipOpen, tooltipData, tooltipLeft, showTooltip, hideTooltip } = useTooltip<Point>();
+  const points = useMemo<Point[]>(
+    () => (detail?.snapshots ?? []).map((s) => ({ ...s, t: parseISO(s.at).getTime() })),
+    [detail],
+  );
+  const health = detail?.pressureHealth;
+  const baseline = health?.baselineApproachK ?? null;
+
+  const usable = points.filter((p) => p.condensingC !== null || p.evaporatingC !== null);
+  if (!detail || usable.length === 0) {
+    return (
+      <p className="rounded-md border-2 border-dashed border-ink-300 bg-white px-4 py-3 text-ink-700">
+        No pressure readings with a saturation temperature yet. A pressure reading with suction and discharge draws the
+        trend here.
+      </p>
+    );
+  }
+
+  const height = width < 500 ? 220 : 260;
+  const m = { top: 12, right: 12, bottom: 30, left: 44 };
+  const innerW = Math.max(10, width - m.left - m.right);
+  const innerH = height - m.top - m.bottom;
+  const expected = (p: Point) => (baseline !== null && p.ambientC !== null ? p.ambientC + baseline : null);
+  const temps = usable.flatMap((p) => [p.condensingC, p.evaporatingC, expected(p)]).filter((v): v is number => v !== null);
+  const lo = Math.floor((Math.min(...temps) - 3) / 5) * 5;
+  const hi = Math.ceil((Math.max(...temps) + 3) / 5) * 5;
+  let t0 = usable[0].t;
+  let t1 = usable[usable.length - 1].t;
+  if (t1 - t0 < 7 * 86_400_000) {
+    t0 -= 3.5 * 86_400_000;
+    t1 += 3.5 * 86_400_000;
+  }
+  const x = scaleTime({ domain: [new Date(t0), new Date(t1)], range: [0, innerW] });
+  const y = scaleLinear({ domain: [lo, hi], range: [innerH, 0], nice: true });
+  const spanDays = (t1 - t0) / 86_400_000;
+
+  const onMove = (e: ReactPointerEvent<SVGRectElement>) => {
+    const box = e.currentTarget.getBoundingClientRect();
+    const px = e.clientX - box.left;
+    let best = usable[0];
+    for (const p of usable) if (Math.abs(x(new Date(p.t)) - px) < Math.abs(x(new Date(best.t)) - px)) best = p;
+    showTooltip({ tooltipData: best, tooltipLeft: x(new Date(best.t)) + m.left, tooltipTop: 0 });
+  };
+  const tipW = Math.min(240, width - 16);
+
+  return (
+    <div className="flex flex-col gap-2" data-testid="pressure-trend">
+      <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" aria-label="Key">
+        <li className="flex items-center gap-1.5">
+          <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.alarm} strokeWidth="3" /></svg>
+          Condensing (discharge)
+        </li>
+        <li className="flex items-center gap-1.5">
+          <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.fjord} strokeWidth="3" strokeDasharray="6 3" /></svg>
+          Evaporating (suction)
+        </li>
+        {baseline !== null && (
+          <li className="flex items-center gap-1.5">
+            <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.ink600} strokeWidth="2" strokeDasharray="2 3" /></svg>
+            Expected condensing (ambient + baseline)
+          </li>
+        )}
+      </ul>
+      <div ref={parentRef} className="relative w-full">
+        <svg
+          width={width}
+          height={height}
+          role="img"
+          aria-label={`Saturation temperatures of ${usable.length} pressure readings. ${health?.explanation ?? ''}`}
+          className="block"
+        >
+          <Group left={m.left} top={m.top}>
+            {y.ticks(5).map((v) => (
+              <line key={v} x1={0} x2={innerW} y1={y(v)} y2={y(v)} stroke={C.ink100} />
+            ))}
+            {baseline !== null && (
+              <LinePath<Point>
+                data={usable.filter((p) => expected(p) !== null)}
+                x={(p) => x(new Date(p.t))}
+                y={(p) => y(expected(p) ?? 0)}
+                stroke={C.ink600}
+                strokeWidth={2}
+                strokeDasharray="2 3"
+              />
+            )}
+            <LinePath<Point>
+              data={usable.filter((p) => p.condensingC !== null)}
+              x={(p) => x(new Date(p.t))}
+              y={(p) => y(p.condensingC ?? 0)}
+              stroke={C.alarm}
+              strokeWidth={3}
+            />
+            <LinePath<Point>
+              data={usable.filter((p) => p.evaporatingC !== null)}
+              x={(p) => x(new Date(p.t))}
+              y={(p) => y(p.evaporatingC ?? 0)}
+              stroke={C.fjord}
+              strokeWidth={3}
+              strokeDasharray="6 3"
+            />
+            {usable.map((p) => (
+              <g key={p.at}>
+                {p.condensingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.condensingC)} r={4} fill={C.alarm} />}
+                {p.evaporatingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.evaporatingC)} r={4} fill="#fff" stroke={C.fjord} strokeWidth={2} />}
+              </g>
+            ))}
+            {tooltipOpen && tooltipData && (
+              <line x1={x(new Date(tooltipData.t))} x2={x(new Date(tooltipData.t))} y1={0} y2={innerH} stroke={C.ink} strokeDasharray="3 2" />
+            )}
+            <rect
+              width={innerW}
+              height={innerH}
+              fill="transparent"
+              style={{ touchAction: 'pan-y' }}
+              onPointerMove={onMove}
+              onPointerDown={onMove}
+              onPointerLeave={(e) => e.pointerType === 'mouse' && hideTooltip()}
+            />
+            <AxisLeft
+              scale={y}
+              numTicks={5}
+              stroke={C.ink300}
+              tickStroke={C.ink300}
+              tickFormat={(v) => `${Number(v)}°`}
+              tickLabelProps={() => ({ fill: C.ink600, fontSize: 12, textAnchor: 'end', dx: -2, dy: 4, fontFamily: 'inherit' })}
+            />
+            <AxisBottom
+              top={innerH}
+              scale={x}
+              numTicks={Math.max(2, Math.floor(innerW / 90))}
+              stroke={C.ink300}
+              tickStroke={C.ink300}
+              tickFormat={(d) => {
+                const date = d instanceof Date ? d : new Date(Number(d));
+                return spanDays > 600
+                  ? String(date.getFullYear())
+                  : date.toLocaleDateString('en-GB', spanDays > 100 ? { month: 'short', year: '2-digit' } : { day: 'numeric', month: 'short' });
+              }}
+              tickLabelProps={() => ({ fill: C.ink600, fontSize: 12, textAnchor: 'middle', fontFamily: 'inherit' })}
+            />
+          </Group>
+        </svg>
+        {tooltipOpen && tooltipData && tooltipLeft !== undefined && (
+          <div
+            role="status"
+            className="pointer-events-none absolute top-2 z-10 rounded-md border-2 border-ink-950 bg-white px-3 py-2 text-sm shadow-raised"
+            style={{ width: tipW, left: Math.max(0, Math.min(width - tipW, tooltipLeft + 12 > width - tipW ? tooltipLeft - tipW - 12 : tooltipLeft + 12)) }}
+          >
+            <p className="font-bold">{fmtDateTime(tooltipData.at)}</p>
+            {tooltipData.condensingC !== null && <p>Condensing {fmtC(tooltipData.condensingC)}</p>}
+            {tooltipData.dischargeOutOfRange && <p>Discharge outside the saturation data</p>}
+            {tooltipData.evaporatingC !== null && <p>Evaporating {fmtC(tooltipData.evaporatingC)}</p>}
+            {tooltipData.ambientC !== null && <p>Ambient {fmtC(tooltipData.ambientC)}</p>}
+            {tooltipData.approachK !== null && <p>Approach {fmtK(tooltipData.approachK)}</p>}
+            {tooltipData.driftK !== null && <p className="font-semibold">Drift {fmtK(tooltipData.driftK)}</p>}
+          </div>
+        )}
+      </div>
+      <p className="text-sm text-ink-700">
+        {baseline !== null ? (
+          <>
+            Baseline approach {fmtK(baseline)} (condensing minus ambient, in the weeks after the last recharge or verified
+            repair){health?.driftK !== null && health?.driftK !== undefined ? <>; latest drift {fmtK(health.driftK)}</> : null}.{' '}
+          </>
+        ) : (
+          'No baseline yet: it forms from readings taken soon after a recharge or verified repair. '
+        )}
+        Dew points at standard atmosphere; site elevation ignored.
+      </p>
+    </div>
+  );
+}

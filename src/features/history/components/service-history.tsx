@@ -1,0 +1,123 @@
+import type { QueryKey } from '@tanstack/react-query';
+import type { ReactNode } from 'react';
+import { can } from '../../../../shared/permissions';
+import { Alert } from '../../../components/ui/alert';
+import { Button, ButtonLink } from '../../../components/ui/button';
+import { PlusIcon } from '../../../components/ui/icons';
+import { Spinner } from '../../../components/ui/spinner';
+import { useUser } from '../../../lib/auth';
+import { useOverview } from '../api/get-overview';
+import { useTimeline } from '../api/get-timeline';
+import { EventList } from './event-list';
+import { PendingVisitsBanner } from './pending-visits-banner';
+import { PressureTrend } from './pressure-trend';
+import { UnitFigures } from './unit-figures';
+import { UnitTimeline } from './unit-timeline';
+
+function Section({ id, title, children, aside }: { id: string; title: string; children: ReactNode; aside?: ReactNode }) {
+  return (
+    <section aria-labelledby={id} className="flex flex-col gap-3">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <h2 id={id} className="text-xl font-bold">
+          {title}
+        </h2>
+        {aside}
+      </div>
+      {children}
+    </section>
+  );
+}
+
+function Loading({ what }: { what: string }) {
+  return (
+    <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-5 text-ink-700">
+      <Spinner />
+      Loading {what}…
+    </div>
+  );
+}
+
+/**
+ * Everything of a unit's service history for its page: the figures, the timeline, the pressure trend and the
+ * entries. `recordHref` leads to the record-a-visit form; `alsoInvalidate` names other features' keys a void changes.
+ */
+export function ServiceHistory({
+  unitId,
+  commissionedOn,
+  recordHref,
+  alsoInvalidate,
+}: {
+  unitId: number;
+  commissionedOn?: string | null;
+  recordHref: string;
+  alsoInvalidate?: (unitId: number) => QueryKey[];
+}) {
+  const user = useUser();
+  const overview = useOverview(unitId);
+  const timeline = useTimeline(unitId);
+  const canRecord = can(user, 'record:event');
+  const hasHistory = (overview.data?.history.events.length ?? 0) > 0;
+
+  return (
+    <div className="flex flex-col gap-8" data-testid="service-history">
+      <PendingVisitsBanner userId={user.id} alsoInvalidate={alsoInvalidate} />
+
+      <Section
+        id="unit-figures-title"
+        title="Refrigerant health"
+        aside={
+          canRecord && (
+            <ButtonLink to={recordHref} size="lg">
+              <PlusIcon className="size-5" />
+              Record a visit
+            </ButtonLink>
+          )
+        }
+      >
+        {overview.isPending ? (
+          <Loading what="the figures" />
+        ) : overview.isError ? (
+          <Alert tone="alarm" title="The figures could not be loaded">
+            <p>{overview.error.message}</p>
+            <Button variant="secondary" className="mt-3" onClick={() => void overview.refetch()} pending={overview.isFetching}>
+              Try again
+            </Button>
+          </Alert>
+        ) : (
+          <UnitFigures stats={overview.data.stats} />
+        )}
+      </Section>
+
+      {hasHistory && (
+        <Section id="unit-timeline-title" title="Timeline">
+          {timeline.isPending ? (
+            <Loading what="the timeline" />
+          ) : timeline.isError ? (
+            <Alert tone="alarm" title="The timeline could not be loaded">
+              <p>{timeline.error.message}</p>
+              <Button variant="secondary" className="mt-3" onClick={() => void timeline.refetch()}>
+                Try again
+              </Button>
+            </Alert>
+          ) : (
+            <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
+              <UnitTimeline events={timeline.data} stats={overview.data?.stats ?? null} commissionedOn={commissionedOn} />
+            </div>
+          )}
+        </Section>
+      )}
+
+      {hasHistory && (
+        <Section id="unit-pressure-title" title="Pressure trend">
+          <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
+            <PressureTrend stats={overview.data?.stats ?? null} />
+          </div>
+        </Section>
+      )}
+
+      <Section id="unit-history-title" title="Service history">
+        <EventList unitId={unitId} user={user} recordHref={recordHref} alsoInvalidate={alsoInvalidate?.(unitId)} />
+      </Section>
+    </div>
+  );
+}
