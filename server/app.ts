@@ -17,6 +17,8 @@ import { errorHandler } from './middleware/error-handler';
 import { authRoutes } from './features/auth/auth.router';
 import { usersRoutes } from './features/users/users.router';
 import { healthRoutes } from './features/health/health.router';
+import { unitsRoutes } from './features/units/units.router';
+import { sitesRoutes } from './features/sites/sites.router';
 
 export type AppDeps = {
   db: Db;
@@ -31,7 +33,7 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {

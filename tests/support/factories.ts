@@ -5,6 +5,7 @@ import { units, users } from '../../server/db/schema';
 import { hashPassword } from '../../server/lib/password';
 import { newId, newToken } from '../../server/lib/ids';
 import type { Role } from '../../shared/permissions';
+import { halyardNumber } from './units';
 
 export const TEST_ORIGIN = 'http://localhost:3000';
 export const TEST_PASSWORD = 'correct-horse-battery';
@@ -43,14 +44,14 @@ export async function signInAs(app: Express, db: Db, role: Role) {
 
 let unitCounter = 0;
 
-/** A unit row straight into the database (the registry API has its own tests). Container numbers need not be valid here. */
+/** A unit row straight into the database (the registry API has its own tests), with a valid HRLU container number. */
 export async function createTestUnit(
   db: Db,
   overrides: Partial<typeof units.$inferInsert> = {},
 ) {
   unitCounter += 1;
   const row = {
-    containerNumber: `TSTU${String(Date.now() % 1_000_000).padStart(6, '0')}${unitCounter % 10}`.slice(0, 11),
+    containerNumber: halyardNumber(900_000 + unitCounter),
     refrigerant: 'R-134a',
     nominalChargeKg: 5,
     commissionedOn: '2020-01-01',

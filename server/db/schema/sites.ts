@@ -1,7 +1,8 @@
 import { datetime, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
 import { sql } from 'drizzle-orm';
+import { SITE_KINDS } from '../../../shared/schemas/sites';
 
-export const SITE_KINDS = ['depot', 'terminal', 'vessel', 'workshop'] as const;
+export { SITE_KINDS };
 
 export const sites = mysqlTable('sites', {
   id: int('id').autoincrement().primaryKey(),

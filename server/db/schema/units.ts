@@ -15,8 +15,9 @@ import {
 import { sql } from 'drizzle-orm';
 import { sites } from './sites';
 import { users } from './users';
+import { IMPORT_STATUSES, UNIT_STATUSES } from '../../../shared/schemas/units';
 
-export const UNIT_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
+export { IMPORT_STATUSES, UNIT_STATUSES };
 
 export const units = mysqlTable(
   'units',
@@ -69,8 +70,6 @@ export const unitChanges = mysqlTable(
   },
   (t) => [index('unit_changes_unit_at_idx').on(t.unitId, t.at)],
 );
-
-export const IMPORT_STATUSES = ['running', 'committed', 'failed'] as const;
 
 /** A fleet CSV import: who ran it, and its progress while the one transaction runs (read from other connections). */
 export const unitImports = mysqlTable(

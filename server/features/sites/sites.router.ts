@@ -1,0 +1,30 @@
+import { createSiteSchema, siteIdParamSchema, updateSiteSchema } from '../../../shared/schemas/sites';
+import type { AppContext } from '../../deps';
+import { route } from '../../routes';
+import { createSite, deleteSite, getSite, listSites, updateSite } from './sites.service';
+
+export function sitesRoutes(ctx: AppContext) {
+  return [
+    route('get', '/api/sites', 'view:unit', async (_req, res) => {
+      res.json({ sites: await listSites(ctx.db) });
+    }),
+    route('get', '/api/sites/:id', 'view:unit', async (req, res) => {
+      const { id } = siteIdParamSchema.parse(req.params);
+      res.json({ site: await getSite(ctx.db, id) });
+    }),
+    route('post', '/api/sites', 'manage:units', async (req, res) => {
+      const input = createSiteSchema.parse(req.body);
+      res.status(201).json({ site: await createSite(ctx.db, input) });
+    }),
+    route('patch', '/api/sites/:id', 'manage:units', async (req, res) => {
+      const { id } = siteIdParamSchema.parse(req.params);
+      const input = updateSiteSchema.parse(req.body);
+      res.json({ site: await updateSite(ctx.db, id, input) });
+    }),
+    route('delete', '/api/sites/:id', 'manage:units', async (req, res) => {
+      const { id } = siteIdParamSchema.parse(req.params);
+      await deleteSite(ctx.db, id);
+      res.status(204).end();
+    }),
+  ];
+}

@@ -1,0 +1,98 @@
+import { asc, count, eq } from 'drizzle-orm';
+import type { Db, DbOrTx } from '../../db/client';
+import { sites, units } from '../../db/schema';
+import { isDuplicateKeyError } from '../../lib/db-errors';
+import { conflict, notFound } from '../../lib/http-error';
+import type { CreateSiteInput, SiteDto, UpdateSiteInput } from '../../../shared/schemas/sites';
+
+type SiteRow = typeof sites.$inferSelect;
+
+function toSiteDto(s: SiteRow, unitCount: number): SiteDto {
+  return {
+    id: s.id,
+    code: s.code,
+    name: s.name,
+    kind: s.kind,
+    country: s.country ?? null,
+    unitCount,
+    createdAt: new Date(s.createdAt).toISOString(),
+  };
+}
+
+const codeTaken = () => conflict('A site with this code already exists.', { code: 'Already in use' });
+
+async function unitCountOf(db: DbOrTx, siteId: number): Promise<number> {
+  const [row] = await db.select({ n: count() }).from(units).where(eq(units.siteId, siteId));
+  return Number(row.n);
+}
+
+export async function listSites(db: Db): Promise<SiteDto[]> {
+  const [rows, counts] = await Promise.all([
+    db.select().from(sites).orderBy(asc(sites.code)),
+    db.select({ siteId: units.siteId, n: count() }).from(units).groupBy(units.siteId),
+  ]);
+  const bySite = new Map(counts.map((c) => [c.siteId, Number(c.n)]));
+  return rows.map((s) => toSiteDto(s, bySite.get(s.id) ?? 0));
+}
+
+export async function getSite(db: Db, id: number): Promise<SiteDto> {
+  const [row] = await db.select().from(sites).where(eq(sites.id, id));
+  if (!row) throw notFound('No such site.');
+  return toSiteDto(row, await unitCountOf(db, id));
+}
+
+export async function createSite(db: Db, input: CreateSiteInput): Promise<SiteDto> {
+  try {
+    return await db.transaction(async (tx) => {
+      const [taken] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.code, input.code)).limit(1);
+      if (taken) throw codeTaken();
+      const [{ id }] = await tx
+        .insert(sites)
+        .values({ code: input.code, name: input.name, kind: input.kind, country: input.country ?? null })
+        .$returningId();
+      const [row] = await tx.select().from(sites).where(eq(sites.id, id));
+      return toSiteDto(row, 0);
+    });
+  } catch (err) {
+    if (isDuplicateKeyError(err)) throw codeTaken();
+    throw err;
+  }
+}
+
+export async function updateSite(db: Db, id: number, input: UpdateSiteInput): Promise<SiteDto> {
+  try {
+    return await db.transaction(async (tx) => {
+      const [current] = await tx.select().from(sites).where(eq(sites.id, id)).for('update');
+      if (!current) throw notFound('No such site.');
+      if (input.code !== undefined && input.code !== current.code) {
+        const [taken] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.code, input.code)).limit(1);
+        if (taken) throw codeTaken();
+      }
+      await tx
+        .update(sites)
+        .set({
+          ...(input.code !== undefined && { code: input.code }),
+          ...(input.name !== undefined && { name: input.name }),
+          ...(input.kind !== undefined && { kind: input.kind }),
+          ...(input.country !== undefined && { country: input.country }),
+        })
+        .where(eq(sites.id, id));
+      const [row] = await tx.select().from(sites).where(eq(sites.id, id));
+      return toSiteDto(row, await unitCountOf(tx, id));
+    });
+  } catch (err) {
+    if (isDuplicateKeyError(err)) throw codeTaken();
+    throw err;
+  }
+}
+
+export async function deleteSite(db: Db, id: number): Promise<void> {
+  await db.transaction(async (tx) => {
+    const [current] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, id)).for('update');
+    if (!current) throw notFound('No such site.');
+    const n = await unitCountOf(tx, id);
+    // Units and their history name the site; it stays while anything refers to it.
+    if (n > 0) throw conflict(`${n} unit${n === 1 ? ' is' : 's are'} at this site; move them before removing it.`);
+    await tx.delete(sites).where(eq(sites.id, id));
+  });
+}

@@ -1,0 +1,62 @@
+import { z } from 'zod';
+
+export const SITE_KINDS = ['depot', 'terminal', 'vessel', 'workshop'] as const;
+export type SiteKind = (typeof SITE_KINDS)[number];
+
+export const SITE_KIND_LABELS: Record<SiteKind, string> = {
+  depot: 'Depot',
+  terminal: 'Terminal',
+  vessel: 'Vessel',
+  workshop: 'Workshop',
+};
+
+export const MAX_SITE_CODE_LENGTH = 16;
+export const MAX_SITE_NAME_LENGTH = 120;
+
+const siteCodeSchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .min(2, 'Use at least 2 characters')
+  .max(MAX_SITE_CODE_LENGTH, `Use at most ${MAX_SITE_CODE_LENGTH} characters`)
+  .regex(/^[A-Z0-9][A-Z0-9-]*$/, 'Letters, digits and hyphens only');
+
+const siteNameSchema = z.string().trim().min(1, 'Enter a name').max(MAX_SITE_NAME_LENGTH, 'Name is too long');
+
+// ISO 3166-1 alpha-2; blank means "not given" (a vessel has no country of its own).
+const countrySchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .transform((v) => (v === '' ? null : v))
+  .pipe(z.string().regex(/^[A-Z]{2}$/, 'Use the 2-letter country code, e.g. NL').nullable())
+  .nullable();
+
+export const createSiteSchema = z.object({
+  code: siteCodeSchema,
+  name: siteNameSchema,
+  kind: z.enum(SITE_KINDS, { message: 'Choose what kind of site this is' }),
+  country: countrySchema.optional(),
+});
+export type CreateSiteInput = z.infer<typeof createSiteSchema>;
+
+export const updateSiteSchema = createSiteSchema
+  .partial()
+  .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change' });
+export type UpdateSiteInput = z.infer<typeof updateSiteSchema>;
+
+export const siteIdParamSchema = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
+
+export const siteDto = z.object({
+  id: z.number(),
+  code: z.string(),
+  name: z.string(),
+  kind: z.enum(SITE_KINDS),
+  country: z.string().nullable(),
+  unitCount: z.number(),
+  createdAt: z.string(),
+});
+export type SiteDto = z.infer<typeof siteDto>;
+
+export const sitesListDto = z.object({ sites: z.array(siteDto) });
+export type SitesListDto = z.infer<typeof sitesListDto>;

@@ -1,0 +1,87 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import type TestAgent from 'supertest/lib/agent';
+import { createApp } from '../../server/app';
+import { openTestDb, resetDb } from '../support/db';
+import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
+import { createTestSite } from '../support/units';
+
+const { db, pool } = openTestDb();
+const { app } = createApp({ db, rateLimits: { signInPerIp: 1000 } });
+let engineer: TestAgent;
+let technician: TestAgent;
+
+beforeAll(async () => {
+  await resetDb(db);
+  engineer = (await signInAs(app, db, 'engineer')).agent;
+  technician = (await signInAs(app, db, 'technician')).agent;
+});
+afterAll(() => pool.end());
+
+const send = (agent: TestAgent, method: 'post' | 'patch' | 'delete', path: string, body: object = {}) =>
+  agent[method](path).set('Origin', TEST_ORIGIN).send(body);
+
+describe('sites', () => {
+  it('creates a site with its code in upper case and lists it with its unit count for everyone', async () => {
+    const res = await send(engineer, 'post', '/api/sites', { code: 'rtm-d1', name: 'Rotterdam east depot', kind: 'depot', country: 'nl' });
+    expect(res.status).toBe(201);
+    expect(res.body.site).toMatchObject({ code: 'RTM-D1', name: 'Rotterdam east depot', kind: 'depot', country: 'NL', unitCount: 0 });
+    await createTestUnit(db, { siteId: res.body.site.id });
+    const list = await technician.get('/api/sites');
+    expect(list.status).toBe(200);
+    expect(list.body.sites.find((s: { code: string }) => s.code === 'RTM-D1')).toMatchObject({ unitCount: 1 });
+    const one = await technician.get(`/api/sites/${res.body.site.id}`);
+    expect(one.body.site).toMatchObject({ code: 'RTM-D1', unitCount: 1 });
+  });
+
+  it('accepts a vessel without a country', async () => {
+    const res = await send(engineer, 'post', '/api/sites', { code: 'MV-HALYARD-STAR', name: 'MV Halyard Star', kind: 'vessel', country: '' });
+    expect(res.status).toBe(201);
+    expect(res.body.site.country).toBeNull();
+  });
+
+  it('answers 400 with fields for a bad kind, code or country', async () => {
+    const res = await send(engineer, 'post', '/api/sites', { code: 'a b', name: '', kind: 'warehouse', country: 'Netherlands' });
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields).sort()).toEqual(['code', 'country', 'kind', 'name']);
+  });
+
+  it('answers 409 for a code already in use, on create and on edit', async () => {
+    const a = await createTestSite(db, { code: 'DUP-A' });
+    await createTestSite(db, { code: 'DUP-B' });
+    expect((await send(engineer, 'post', '/api/sites', { code: 'dup-a', name: 'X', kind: 'terminal' })).status).toBe(409);
+    const edit = await send(engineer, 'patch', `/api/sites/${a.id}`, { code: 'DUP-B' });
+    expect(edit.status).toBe(409);
+    expect(edit.body.error.fields.code).toBeTruthy();
+  });
+
+  it('edits a site; 404 for an unknown one and 400 for an empty edit', async () => {
+    const site = await createTestSite(db);
+    const res = await send(engineer, 'patch', `/api/sites/${site.id}`, { name: 'Workshop north', kind: 'workshop' });
+    expect(res.status).toBe(200);
+    expect(res.body.site).toMatchObject({ name: 'Workshop north', kind: 'workshop', code: site.code });
+    expect((await send(engineer, 'patch', '/api/sites/999999', { name: 'X' })).status).toBe(404);
+    expect((await send(engineer, 'patch', `/api/sites/${site.id}`, {})).status).toBe(400);
+    expect((await technician.get('/api/sites/999999')).status).toBe(404);
+  });
+
+  it('removes an empty site, but not one that still has units (409)', async () => {
+    const empty = await createTestSite(db);
+    const busy = await createTestSite(db);
+    await createTestUnit(db, { siteId: busy.id });
+    expect((await send(engineer, 'delete', `/api/sites/${empty.id}`)).status).toBe(204);
+    expect((await technician.get(`/api/sites/${empty.id}`)).status).toBe(404);
+    const refused = await send(engineer, 'delete', `/api/sites/${busy.id}`);
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.message).toContain('1 unit is at this site');
+    expect((await send(engineer, 'delete', '/api/sites/999999')).status).toBe(404);
+  });
+
+  it('lets a technician read sites but not change them; a visitor gets 401', async () => {
+    const site = await createTestSite(db);
+    expect((await send(technician, 'post', '/api/sites', { code: 'TECH', name: 'X', kind: 'depot' })).status).toBe(403);
+    expect((await send(technician, 'patch', `/api/sites/${site.id}`, { name: 'X' })).status).toBe(403);
+    expect((await send(technician, 'delete', `/api/sites/${site.id}`)).status).toBe(403);
+    expect((await request(app).get('/api/sites')).status).toBe(401);
+  });
+});
