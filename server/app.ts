@@ -19,6 +19,7 @@ import { usersRoutes } from './features/users/users.router';
 import { healthRoutes } from './features/health/health.router';
 import { unitsRoutes } from './features/units/units.router';
 import { sitesRoutes } from './features/sites/sites.router';
+import { labelsRoutes } from './features/labels/labels.router';
 
 export type AppDeps = {
   db: Db;
@@ -33,7 +34,7 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {
