@@ -20,6 +20,7 @@ import { healthRoutes } from './features/health/health.router';
 import { unitsRoutes } from './features/units/units.router';
 import { sitesRoutes } from './features/sites/sites.router';
 import { labelsRoutes } from './features/labels/labels.router';
+import { unitImportsRoutes } from './features/unit-imports/unit-imports.router';
 
 export type AppDeps = {
   db: Db;
@@ -34,7 +35,7 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {

@@ -1,0 +1,56 @@
+import { importCommitFormSchema, importKeyParamSchema, importPreviewFormSchema, MAX_IMPORT_BYTES } from '../../../shared/schemas/units';
+import type { AppContext } from '../../deps';
+import { badRequest } from '../../lib/http-error';
+import { singleFileUpload } from '../../middleware/upload';
+import { route } from '../../routes';
+import { acceptCsvUpload } from './fleet-csv';
+import { commitImport, getImport, importTemplateCsv, previewImport } from './unit-imports.service';
+
+const csvUpload = singleFileUpload({
+  field: 'file',
+  maxBytes: MAX_IMPORT_BYTES,
+  limitText: `${MAX_IMPORT_BYTES / 1024 / 1024} MB`,
+  accept: acceptCsvUpload,
+});
+
+function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
+  if (!file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
+  return file;
+}
+
+export function unitImportsRoutes(ctx: AppContext) {
+  return [
+    route('get', '/api/unit-imports/template', 'manage:units', async (_req, res) => {
+      res.setHeader('Content-Type', 'text/csv; charset=utf-8');
+      res.setHeader('Content-Disposition', 'attachment; filename="tightloop-fleet-template.csv"');
+      res.send(await importTemplateCsv(ctx.db));
+    }),
+    route(
+      'post',
+      '/api/unit-imports/preview',
+      'manage:units',
+      async (req, res) => {
+        const file = requireFile(req.file);
+        const { mapping } = importPreviewFormSchema.parse(req.body ?? {});
+        res.json({ preview: await previewImport(ctx.db, file, mapping) });
+      },
+      [csvUpload],
+    ),
+    route(
+      'post',
+      '/api/unit-imports',
+      'manage:units',
+      async (req, res) => {
+        const file = requireFile(req.file);
+        const form = importCommitFormSchema.parse(req.body ?? {});
+        const result = await commitImport(ctx.db, ctx.logger, req.user!.id, () => ctx.clock.now(), file, form);
+        res.status(201).json({ import: result });
+      },
+      [csvUpload],
+    ),
+    route('get', '/api/unit-imports/:key', 'manage:units', async (req, res) => {
+      const { key } = importKeyParamSchema.parse(req.params);
+      res.json({ import: await getImport(ctx.db, key) });
+    }),
+  ];
+}
