@@ -168,5 +168,8 @@ export const unitStats = mysqlTable(
     index('unit_stats_forecast_idx').on(t.forecastDate),
     index('unit_stats_leak_check_idx').on(t.nextLeakCheckDue),
     index('unit_stats_pti_idx').on(t.ptiValidUntil),
+    // Fleet table: band filter with the score sort; CO2e sort.
+    index('unit_stats_band_score_idx').on(t.scoreBand, t.score),
+    index('unit_stats_co2e_idx').on(t.co2eTonnes),
   ],
 );

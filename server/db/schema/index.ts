@@ -3,3 +3,4 @@ export * from './sites';
 export * from './units';
 export * from './history';
 export * from './mail';
+export * from './fleet';

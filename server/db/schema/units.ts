@@ -48,6 +48,8 @@ export const units = mysqlTable(
     index('units_status_idx').on(t.status),
     index('units_refrigerant_idx').on(t.refrigerant),
     index('units_updated_at_idx').on(t.updatedAt),
+    // Fleet table: a site's units by container number (filter + sort, and the number-prefix search within a site).
+    index('units_site_number_idx').on(t.siteId, t.containerNumber),
   ],
 );
 
