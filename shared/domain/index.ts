@@ -149,3 +149,4 @@ export {
   type EmissionsRow,
 } from './fleet-analytics';
 export { computeUnitStats, type UnitInput, type UnitStats, type VisitStats } from './unit-stats';
+export { mergeRepairEffectiveness } from './repair-effectiveness-merge';

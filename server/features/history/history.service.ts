@@ -21,6 +21,7 @@ import {
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { getSettings } from '../settings/settings.service';
 import { recomputeUnitStats, toStatsDto, type UnitStatsRow } from './stats.service';
+import { applyToFleetMonthly } from '../fleet/fleet-monthly.service';
 
 export type StatsChangeHook = (
   tx: DbOrTx,
@@ -134,6 +135,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
           enteredAt: now,
         })),
       );
+      await applyToFleetMonthly(tx, [inserted.id]);
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
       if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
         await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
@@ -181,6 +183,7 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
       voidsEventId: eventId,
       note: reason,
     });
+    if (target.visitId != null) await applyToFleetMonthly(tx, [target.visitId]);
     const { before, after } = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx));
     await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
     return target.unitId;

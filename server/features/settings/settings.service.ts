@@ -1,7 +1,120 @@
-import type { DbOrTx } from '../../db/client';
-import { DEFAULT_SETTINGS, type Settings } from '../../../shared/schemas/settings';
+// The settings in force: the newest row of `settings` (append-only versions), defaults until the first save.
+import { desc, eq } from 'drizzle-orm';
+import type { Db, DbOrTx } from '../../db/client';
+import { settingsVersions, users } from '../../db/schema';
+import { conflict, forbidden } from '../../lib/http-error';
+import type { SessionUser } from '../../lib/session';
+import { can } from '../../../shared/permissions';
+import { DEFAULT_SETTINGS, settingsSchema, type Settings } from '../../../shared/schemas/settings';
+import {
+  changedSections,
+  RECOMPUTING_SECTIONS,
+  SETTINGS_SECTION_LABELS,
+  SETTINGS_SECTION_PERMISSION,
+  type SettingsDto,
+  type SettingsHistoryDto,
+  type SettingsSection,
+  type UpdateSettingsInput,
+} from '../../../shared/schemas/settings-api';
 
-/** The settings in force. Stored settings replace these defaults once the settings screen exists. */
-export async function getSettings(_db: DbOrTx): Promise<Settings> {
-  return DEFAULT_SETTINGS;
+type Current = { settings: Settings; version: number; updatedAt: Date | null; updatedBy: string | null };
+
+// Every write path reads the settings; a short cache keeps that off the database. A save here clears it at once;
+// other API processes behind the balancer see the change within the TTL.
+const CACHE_TTL_MS = 5_000;
+let cache: { value: Current; at: number } | null = null;
+
+export function invalidateSettingsCache(): void {
+  cache = null;
+}
+
+/** Parses a stored version; a row that no longer parses (schema grew a rule) falls back to the defaults per field. */
+function parseStored(data: unknown): Settings {
+  const parsed = settingsSchema.safeParse(data);
+  return parsed.success ? parsed.data : DEFAULT_SETTINGS;
+}
+
+async function readCurrent(db: DbOrTx): Promise<Current> {
+  const [row] = await db.select().from(settingsVersions).orderBy(desc(settingsVersions.id)).limit(1);
+  if (!row) return { settings: DEFAULT_SETTINGS, version: 0, updatedAt: null, updatedBy: null };
+  return { settings: parseStored(row.data), version: row.id, updatedAt: row.updatedAt, updatedBy: row.updatedBy };
+}
+
+async function current(db: DbOrTx): Promise<Current> {
+  const now = Date.now();
+  if (cache && now - cache.at < CACHE_TTL_MS) return cache.value;
+  const value = await readCurrent(db);
+  cache = { value, at: now };
+  return value;
+}
+
+/** The settings in force (cached for a few seconds per process). */
+export async function getSettings(db: DbOrTx): Promise<Settings> {
+  return (await current(db)).settings;
+}
+
+export async function getSettingsVersion(db: DbOrTx): Promise<{ settings: Settings; version: number }> {
+  const c = await current(db);
+  return { settings: c.settings, version: c.version };
+}
+
+export async function getSettingsDto(db: Db, recompute: SettingsDto['recompute']): Promise<SettingsDto> {
+  const c = await readCurrent(db);
+  let updatedBy: SettingsDto['updatedBy'] = null;
+  if (c.updatedBy) {
+    const [u] = await db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, c.updatedBy));
+    updatedBy = u ?? null;
+  }
+  return { settings: c.settings, version: c.version, updatedAt: c.updatedAt?.toISOString() ?? null, updatedBy, recompute };
+}
+
+export async function getSettingsHistory(db: Db, limit = 50): Promise<SettingsHistoryDto> {
+  const rows = await db
+    .select({ id: settingsVersions.id, updatedAt: settingsVersions.updatedAt, sections: settingsVersions.changedSections, userId: users.id, userName: users.name })
+    .from(settingsVersions)
+    .innerJoin(users, eq(users.id, settingsVersions.updatedBy))
+    .orderBy(desc(settingsVersions.id))
+    .limit(limit);
+  return {
+    versions: rows.map((r) => ({
+      version: r.id,
+      updatedAt: r.updatedAt.toISOString(),
+      updatedBy: { id: r.userId, name: r.userName },
+      sections: (r.sections ?? []) as SettingsSection[],
+    })),
+  };
+}
+
+/**
+ * Saves a new version when something changed. Each changed section needs its own permission; a version saved by
+ * someone else since `baseVersion` is a conflict. Returns whether unit statistics must be recomputed.
+ */
+export async function saveSettings(
+  db: Db,
+  user: SessionUser,
+  input: UpdateSettingsInput,
+  now: Date,
+): Promise<{ version: number; sections: SettingsSection[]; recompute: boolean }> {
+  const result = await db.transaction(async (tx) => {
+    // Serialise saves: the newest row, locked, is the base every concurrent save compares against.
+    const [latest] = await tx.select().from(settingsVersions).orderBy(desc(settingsVersions.id)).limit(1).for('update');
+    const base = latest ? parseStored(latest.data) : DEFAULT_SETTINGS;
+    const baseVersion = latest?.id ?? 0;
+    if ((input.baseVersion ?? 0) !== baseVersion) {
+      throw conflict('Someone else changed the settings since you opened them. Reload to see their change, then apply yours.');
+    }
+    const sections = changedSections(base, input.settings);
+    const refused = sections.filter((s) => !can(user, SETTINGS_SECTION_PERMISSION[s]));
+    if (refused.length) {
+      throw forbidden(`Your role cannot change ${refused.map((s) => SETTINGS_SECTION_LABELS[s].toLowerCase()).join(' or ')}.`);
+    }
+    if (!sections.length) return { version: baseVersion, sections, recompute: false };
+    const [row] = await tx
+      .insert(settingsVersions)
+      .values({ data: input.settings as unknown as Record<string, unknown>, changedSections: sections, updatedBy: user.id, updatedAt: now })
+      .$returningId();
+    return { version: row.id, sections, recompute: sections.some((s) => RECOMPUTING_SECTIONS.includes(s)) };
+  });
+  invalidateSettingsCache();
+  return result;
 }
