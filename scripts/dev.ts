@@ -5,12 +5,15 @@ import { createDb, migrateDb } from '../server/db/client';
 import { isEmpty, seedDemo } from '../seed/index';
 import { resolveDatabaseUrl } from './lib/database-url';
 import { PROJECT_ROOT } from './lib/mariadb';
+import { MAILBOX_PAGE, startDevMailbox } from './lib/dev-mailbox';
 
 const databaseUrl = await resolveDatabaseUrl();
 const { db, pool } = createDb(databaseUrl, { connectionLimit: 2 });
 await migrateDb(db);
 if (await isEmpty(db)) await seedDemo(db);
 await pool.end();
+// Outside the reloading API process, so mail survives reloads.
+const mailbox = await startDevMailbox(databaseUrl);
 
 const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
 const env = { ...process.env, DATABASE_URL: databaseUrl, PUBLIC_URL: process.env.PUBLIC_URL ?? 'http://localhost:5173' };
@@ -18,6 +21,10 @@ const children = [
   spawn(bin('tsx'), ['watch', 'server/index.ts'], { cwd: PROJECT_ROOT, env, stdio: 'inherit' }),
   spawn(bin('vite'), [], { cwd: PROJECT_ROOT, env, stdio: 'inherit' }),
 ];
-const stop = () => children.forEach((c) => c.kill('SIGTERM'));
+const stop = () => {
+  children.forEach((c) => c.kill('SIGTERM'));
+  void mailbox?.stop();
+};
+if (mailbox) console.log(`Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${env.PUBLIC_URL}${MAILBOX_PAGE} as the administrator.`);
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);

@@ -6,6 +6,7 @@ import { DEMO_ACCOUNTS, DEMO_COMPANY, DEMO_PASSWORD } from '../seed/demo-account
 import { ROLE_LABELS } from '../shared/permissions';
 import { resolveDatabaseUrl } from './lib/database-url';
 import { buildClientIfStale } from './lib/build-client';
+import { MAILBOX_PAGE, startDevMailbox } from './lib/dev-mailbox';
 
 const t0 = Date.now();
 const step = (s: string) => console.log(`[${((Date.now() - t0) / 1000).toFixed(1)} s] ${s}`);
@@ -21,8 +22,10 @@ if (await isEmpty(db)) {
 }
 await pool.end();
 buildClientIfStale(step);
+const mailbox = await startDevMailbox(databaseUrl);
 const { url } = await startServer({ databaseUrl });
 step(`Tightloop is running at ${url}`);
+if (mailbox) console.log(`Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${url}${MAILBOX_PAGE} as the administrator.`);
 console.log(`\nDemo sign-ins (${DEMO_COMPANY}, invented), password "${DEMO_PASSWORD}":`);
 for (const a of DEMO_ACCOUNTS) console.log(`  ${ROLE_LABELS[a.role].padEnd(16)} ${a.email}`);
 console.log('\nStop the server with Ctrl+C; stop the database with `npm run db:stop`.');

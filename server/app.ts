@@ -6,6 +6,8 @@ import type { Db } from './db/client';
 import { type Clock, systemClock } from './lib/clock';
 import { createLogger, type Logger } from './lib/logger';
 import { createSessionManager } from './lib/session';
+import { createSmtpMailer, smtpSettingsFrom, type Mailer } from './lib/mailer';
+import { readEnv } from './env';
 import { notFound } from './lib/http-error';
 import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './deps';
 import type { RouteSpec } from './routes';
@@ -21,6 +23,7 @@ import { unitsRoutes } from './features/units/units.router';
 import { sitesRoutes } from './features/sites/sites.router';
 import { labelsRoutes } from './features/labels/labels.router';
 import { unitImportsRoutes } from './features/unit-imports/unit-imports.router';
+import { mailRoutes } from './features/mail/mail.router';
 
 export type AppDeps = {
   db: Db;
@@ -28,6 +31,10 @@ export type AppDeps = {
   logger?: Logger;
   publicUrl?: string;
   rateLimits?: Partial<RateLimits>;
+  /** Defaults to SMTP with the settings from the environment. */
+  mailer?: Mailer;
+  /** Defaults to on unless NODE_ENV=production. */
+  devTools?: boolean;
   /** Folder of the built client; served with a history fallback when present. */
   clientDir?: string;
 };
@@ -35,7 +42,7 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {
@@ -48,6 +55,8 @@ export function createApp(deps: AppDeps) {
     sessions: createSessionManager(deps.db),
     publicUrl,
     rateLimits: { ...DEFAULT_RATE_LIMITS, ...deps.rateLimits },
+    mailer: deps.mailer ?? createSmtpMailer(smtpSettingsFrom(readEnv())),
+    devTools: deps.devTools ?? readEnv().NODE_ENV !== 'production',
   };
 
   const app = express();

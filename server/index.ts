@@ -4,18 +4,21 @@ import { createApp } from './app';
 import { createDb } from './db/client';
 import { publicUrl, readEnv } from './env';
 import { createLogger } from './lib/logger';
+import { createOutboxWorker } from './features/mail/outbox-worker';
 
 export async function startServer(opts: { databaseUrl: string; port?: number }) {
   const env = readEnv();
   const logger = createLogger(env.LOG_LEVEL);
   const { db, pool } = createDb(opts.databaseUrl);
   const port = opts.port ?? env.PORT;
-  const { app } = createApp({
+  const { app, ctx } = createApp({
     db,
     logger,
     publicUrl: env.PUBLIC_URL ?? `http://localhost:${port}`,
     clientDir: path.resolve(path.dirname(new URL(import.meta.url).pathname), '../dist'),
   });
+  const mailWorker = createOutboxWorker(ctx);
+  mailWorker.start();
   const server = app.listen(port);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
@@ -32,6 +35,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number }) 
     const force = setTimeout(() => server.closeAllConnections(), 5000);
     force.unref();
     await new Promise((r) => server.once('close', r));
+    await mailWorker.stop();
     await pool.end();
     process.exit(0);
   };

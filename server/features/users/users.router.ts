@@ -11,7 +11,7 @@ export function usersRoutes(ctx: AppContext) {
     }),
     route('post', '/api/users', 'manage:users', async (req, res) => {
       const input = createUserSchema.parse(req.body);
-      res.status(201).json({ user: await createUser(ctx.db, input) });
+      res.status(201).json({ user: await createUser(ctx.db, input, ctx) });
     }),
     route('patch', '/api/users/:id', 'manage:users', async (req, res) => {
       const { id } = idParamSchema.parse(req.params);

@@ -6,13 +6,15 @@ import { hashPassword } from '../../lib/password';
 import { newId } from '../../lib/ids';
 import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/users';
 import { toUserDto } from './users.mapper';
+import { queueInvitation } from '../account-links/account-links.service';
+import type { AppContext } from '../../deps';
 
 export async function listUsers(db: Db) {
   const rows = await db.select().from(users).orderBy(asc(users.name));
   return rows.map(toUserDto);
 }
 
-export async function createUser(db: Db, input: CreateUserInput) {
+export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppContext, 'publicUrl' | 'clock'>) {
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   const id = newId();
   return db.transaction(async (tx) => {
@@ -27,6 +29,7 @@ export async function createUser(db: Db, input: CreateUserInput) {
       passwordHash,
     });
     const [row] = await tx.select().from(users).where(eq(users.id, id));
+    if (!passwordHash) await queueInvitation(tx, ctx, row);
     return toUserDto(row);
   });
 }

@@ -1,0 +1,180 @@
+// The once-a-day mails: a digest per engineer for the sites they follow, and alerts for leaks left open too long.
+import { and, asc, count, eq, gte, inArray, isNotNull, lte, ne, type SQL } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { alertSubscriptions, mailOutbox, sites, units, unitStats, users } from '../../db/schema';
+import { can } from '../../../shared/permissions';
+import { formatContainerNumber } from '../../../shared/domain/container-number';
+import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
+import { enqueueMail } from '../mail/outbox';
+import { renderMail, type MailSection } from '../mail/layout';
+import { OPEN_LEAK_ALERT_DAYS, queueOpenLeakAlert, subscriptionFooter, type AlertContext } from './alerts.service';
+
+export const DIGEST_LEAK_CHECK_DAYS = 30;
+export const DIGEST_FORECAST_DAYS = 14;
+export const DIGEST_PTI_DAYS = 7;
+/** Rows per section; the rest is counted and left to the app. */
+export const DIGEST_SECTION_LIMIT = 25;
+
+const dayPlus = (asOf: Date, days: number) => isoDate(dayOf(asOf.getTime()) + days);
+
+async function section(
+  db: Db,
+  ctx: AlertContext,
+  siteIds: number[],
+  heading: string,
+  where: SQL,
+  order: SQL | typeof unitStats.nextLeakCheckDue,
+  detail: (s: typeof unitStats.$inferSelect, siteName: string) => string,
+): Promise<MailSection | null> {
+  const scope = and(inArray(units.siteId, siteIds), ne(units.status, 'retired'), where);
+  const rows = await db
+    .select({ unit: units, stats: unitStats, siteName: sites.name })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .innerJoin(sites, eq(sites.id, units.siteId))
+    .where(scope)
+    .orderBy(order, asc(units.containerNumber))
+    .limit(DIGEST_SECTION_LIMIT + 1);
+  if (rows.length === 0) return null;
+  let more: string | undefined;
+  if (rows.length > DIGEST_SECTION_LIMIT) {
+    const [{ n }] = await db
+      .select({ n: count() })
+      .from(unitStats)
+      .innerJoin(units, eq(units.id, unitStats.unitId))
+      .where(scope);
+    more = `…and ${n - DIGEST_SECTION_LIMIT} more in Tightloop.`;
+  }
+  return {
+    heading,
+    rows: rows.slice(0, DIGEST_SECTION_LIMIT).map((r) => ({
+      label: formatContainerNumber(r.unit.containerNumber),
+      detail: detail(r.stats, r.siteName),
+      url: `${ctx.publicUrl}/units/${r.unit.id}`,
+    })),
+    more,
+  };
+}
+
+async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf: Date): Promise<MailSection[]> {
+  const today = dayPlus(asOf, 0);
+  const found = await Promise.all([
+    section(
+      db,
+      ctx,
+      siteIds,
+      `Leak checks due within ${DIGEST_LEAK_CHECK_DAYS} days or overdue`,
+      lte(unitStats.nextLeakCheckDue, dayPlus(asOf, DIGEST_LEAK_CHECK_DAYS)),
+      asc(unitStats.nextLeakCheckDue),
+      (s, site) => `${s.nextLeakCheckDue! < today ? 'overdue since' : 'due'} ${s.nextLeakCheckDue} · ${site}`,
+    ),
+    section(
+      db,
+      ctx,
+      siteIds,
+      `Top-ups forecast within ${DIGEST_FORECAST_DAYS} days`,
+      lte(unitStats.forecastDate, dayPlus(asOf, DIGEST_FORECAST_DAYS)),
+      asc(unitStats.forecastDate),
+      (s, site) =>
+        `${s.forecastDate! < today || s.forecastOverdue ? 'expected already, since' : 'around'} ${s.forecastDate}` +
+        `${s.forecastEarliest && s.forecastLatest ? ` (${s.forecastEarliest} – ${s.forecastLatest})` : ''} · ${site}`,
+    ),
+    section(
+      db,
+      ctx,
+      siteIds,
+      `PTIs running out within ${DIGEST_PTI_DAYS} days`,
+      and(gte(unitStats.ptiValidUntil, today), lte(unitStats.ptiValidUntil, dayPlus(asOf, DIGEST_PTI_DAYS)))!,
+      asc(unitStats.ptiValidUntil),
+      (s, site) => `PTI valid until ${s.ptiValidUntil} · ${site}`,
+    ),
+  ]);
+  return found.filter((s): s is MailSection => s != null);
+}
+
+/** Queues today's digest for every person who follows it at some site (once per person and day). */
+export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
+  const today = dayPlus(asOf, 0);
+  const subs = await db
+    .select({ userId: users.id, email: users.email, role: users.role, siteId: alertSubscriptions.siteId, siteName: sites.name })
+    .from(alertSubscriptions)
+    .innerJoin(users, eq(users.id, alertSubscriptions.userId))
+    .innerJoin(sites, eq(sites.id, alertSubscriptions.siteId))
+    .where(and(eq(alertSubscriptions.kind, 'digest'), eq(users.active, true)))
+    .orderBy(asc(sites.name));
+  const people = new Map<string, { email: string; siteIds: number[]; siteNames: string[] }>();
+  for (const s of subs) {
+    if (!can(s, 'view:fleet')) continue;
+    const p = people.get(s.userId) ?? { email: s.email, siteIds: [], siteNames: [] };
+    p.siteIds.push(s.siteId);
+    p.siteNames.push(s.siteName);
+    people.set(s.userId, p);
+  }
+  if (people.size === 0) return 0;
+  const keyOf = (userId: string) => `digest:${userId}:${today}`;
+  const done = new Set(
+    (
+      await db
+        .select({ key: mailOutbox.dedupeKey })
+        .from(mailOutbox)
+        .where(inArray(mailOutbox.dedupeKey, [...people.keys()].map(keyOf)))
+    ).map((r) => r.key),
+  );
+
+  let queued = 0;
+  for (const [userId, p] of people) {
+    if (done.has(keyOf(userId))) continue;
+    const sections = await digestSections(db, ctx, p.siteIds, asOf);
+    if (sections.length === 0) continue;
+    const where = p.siteNames.length === 1 ? p.siteNames[0] : `${p.siteNames.length} sites`;
+    const subject = `Tightloop daily digest for ${where}, ${today}`;
+    await db.transaction(async (tx) => {
+      const { stopUrl, footer } = await subscriptionFooter(tx, ctx, userId, 'digest', p.siteNames.join(', '));
+      const mail = renderMail({
+        heading: subject,
+        paragraphs: ['What needs planning at the sites you follow. Each unit links to its record.'],
+        action: { label: 'Open Tightloop', url: `${ctx.publicUrl}/` },
+        sections,
+        footer,
+      });
+      const inserted = await enqueueMail(
+        tx,
+        { dedupeKey: keyOf(userId), kind: 'digest', to: p.email, subject, ...mail, headers: { 'List-Unsubscribe': `<${stopUrl}>` } },
+        asOf,
+      );
+      if (inserted) queued++;
+    });
+  }
+  return queued;
+}
+
+/** Leaks found more than the allowed days ago and not repaired, at sites someone follows for this alert. */
+export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
+  const followed = db
+    .selectDistinct({ siteId: alertSubscriptions.siteId })
+    .from(alertSubscriptions)
+    .where(eq(alertSubscriptions.kind, 'open_leak'));
+  const rows = await db
+    .select({ id: units.id, containerNumber: units.containerNumber, siteId: units.siteId, foundAt: unitStats.openLeakFoundAt })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .where(
+      and(
+        isNotNull(unitStats.openLeakFoundAt),
+        lte(unitStats.openLeakFoundAt, new Date(asOf.getTime() - OPEN_LEAK_ALERT_DAYS * MS_PER_DAY)),
+        ne(units.status, 'retired'),
+        inArray(units.siteId, followed),
+      ),
+    );
+  let queued = 0;
+  for (const r of rows) {
+    queued += await db.transaction((tx) =>
+      queueOpenLeakAlert(tx, ctx, { id: r.id, containerNumber: r.containerNumber, siteId: r.siteId! }, r.foundAt!, asOf),
+    );
+  }
+  return queued;
+}
+
+export async function runDailyMailJobs(db: Db, ctx: AlertContext, asOf: Date) {
+  return { openLeaks: await queueOverdueLeakAlerts(db, ctx, asOf), digests: await queueDailyDigest(db, ctx, asOf) };
+}
