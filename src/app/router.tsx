@@ -12,6 +12,12 @@ import * as signInRoute from './routes/auth/sign-in';
 import * as notFoundRoute from './routes/errors/not-found';
 import * as peopleRoute from './routes/people/people';
 import * as unitsRoute from './routes/units/units';
+import * as inviteRoute from './routes/auth/invite';
+import * as resetPasswordRoute from './routes/auth/reset-password';
+import * as forgotPasswordRoute from './routes/auth/forgot-password';
+import * as unsubscribeRoute from './routes/auth/unsubscribe';
+import * as alertSettingsRoute from './routes/settings/alerts';
+import * as mailboxRoute from './routes/admin/mailbox';
 
 /**
  * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
@@ -25,6 +31,12 @@ export function createAppRouter(queryClient: QueryClient) {
       errorElement: <FullPageRouteError />,
       hydrateFallbackElement: <AppSplash />,
     },
+    ...[
+      { path: paths.invitation.path, module: inviteRoute },
+      { path: paths.passwordReset.path, module: resetPasswordRoute },
+      { path: paths.forgotPassword.path, module: forgotPasswordRoute },
+      { path: paths.unsubscribe.path, module: unsubscribeRoute },
+    ].map(({ path, module }) => ({ path, ...page(module, queryClient), errorElement: <FullPageRouteError />, hydrateFallbackElement: <AppSplash /> })),
     {
       path: paths.home.path,
       ...page(protectedLayout, queryClient),
@@ -37,6 +49,8 @@ export function createAppRouter(queryClient: QueryClient) {
             { index: true, ...page(homeRoute, queryClient) },
             { path: paths.units.path, ...page(unitsRoute, queryClient, paths.units.permission) },
             { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
+            { path: paths.alertSettings.path, ...page(alertSettingsRoute, queryClient, paths.alertSettings.permission) },
+            { path: paths.mailbox.path, ...page(mailboxRoute, queryClient, paths.mailbox.permission) },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],
         },

@@ -1,4 +1,5 @@
 import type { Permission } from '../../shared/permissions';
+import { MAIL_PAGE_PATHS } from '../../shared/schemas/mail';
 
 /**
  * Every path of the app, in one place. Routes use `path`; links use `getHref(...)`; a page that needs a permission
@@ -38,9 +39,35 @@ export const paths = {
     getHref: () => '/people',
     permission: 'manage:users',
   },
+  forgotPassword: {
+    path: '/forgot-password',
+    getHref: () => '/forgot-password',
+  },
+  invitation: {
+    path: `${MAIL_PAGE_PATHS.invitation}/:token`,
+    getHref: (token: string) => `${MAIL_PAGE_PATHS.invitation}/${encodeURIComponent(token)}`,
+  },
+  passwordReset: {
+    path: `${MAIL_PAGE_PATHS.passwordReset}/:token`,
+    getHref: (token: string) => `${MAIL_PAGE_PATHS.passwordReset}/${encodeURIComponent(token)}`,
+  },
+  unsubscribe: {
+    path: MAIL_PAGE_PATHS.unsubscribe,
+    getHref: () => MAIL_PAGE_PATHS.unsubscribe,
+  },
+  alertSettings: {
+    path: MAIL_PAGE_PATHS.alertSettings,
+    getHref: () => MAIL_PAGE_PATHS.alertSettings,
+    permission: 'view:fleet',
+  },
+  mailbox: {
+    path: MAIL_PAGE_PATHS.mailbox,
+    getHref: () => MAIL_PAGE_PATHS.mailbox,
+    permission: 'manage:settings',
+  },
 } as const satisfies Record<string, PathEntry>;
 
-export type NavIcon = 'home' | 'units' | 'people';
+export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail';
 
 export type NavEntry = {
   label: string;
@@ -50,6 +77,8 @@ export type NavEntry = {
   permission?: Permission;
   /** Match the path exactly (for `/`), not as a prefix. */
   end?: boolean;
+  /** Only while the server runs its development helpers (see useDevTools). */
+  devOnly?: boolean;
 };
 
 /** Navigation, in display order. Phones show these as the bottom tab bar (keep it at five or fewer). */
@@ -57,4 +86,6 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Home', href: paths.home.getHref(), icon: 'home', end: true },
   { label: 'Units', href: paths.units.getHref(), icon: 'units', permission: paths.units.permission },
   { label: 'People', href: paths.people.getHref(), icon: 'people', permission: paths.people.permission },
+  { label: 'Alerts', href: paths.alertSettings.getHref(), icon: 'alerts', permission: paths.alertSettings.permission },
+  { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },
 ];

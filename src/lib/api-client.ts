@@ -89,5 +89,6 @@ export const apiClient = {
   get: <T>(url: string, options?: { signal?: AbortSignal }) => request<T>('GET', url, undefined, options?.signal),
   post: <T>(url: string, body?: unknown) => request<T>('POST', url, body),
   patch: <T>(url: string, body: unknown) => request<T>('PATCH', url, body),
+  put: <T>(url: string, body: unknown) => request<T>('PUT', url, body),
   delete: <T>(url: string) => request<T>('DELETE', url),
 };

@@ -4,6 +4,7 @@ import { can, ROLE_LABELS } from '../../../shared/permissions';
 import type { UserDto } from '../../../shared/schemas/auth';
 import { navEntries, paths } from '../../config/paths';
 import { useSignOut } from '../../lib/auth';
+import { useDevTools } from '../../lib/dev-tools';
 import { Alert } from '../ui/alert';
 import { Button } from '../ui/button';
 import { cx } from '../ui/cx';
@@ -31,7 +32,8 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
     mainRef.current?.focus({ preventScroll: true });
   }, [location.pathname]);
 
-  const entries = navEntries.filter((entry) => !entry.permission || can(user, entry.permission));
+  const devTools = useDevTools(can(user, 'manage:settings'));
+  const entries = navEntries.filter((entry) => (!entry.permission || can(user, entry.permission)) && (!entry.devOnly || devTools));
 
   return (
     <div className="min-h-dvh md:grid md:grid-cols-[var(--spacing-rail)_1fr] md:grid-rows-[auto_1fr]">

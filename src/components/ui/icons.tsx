@@ -74,8 +74,24 @@ export const PlusIcon = (p: IconProps) => (
   </Icon>
 );
 
+export const BellIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M6 16.5V11a6 6 0 0 1 12 0v5.5l1.5 2h-15l1.5-2Z" />
+    <path d="M10 20.5a2.2 2.2 0 0 0 4 0" />
+  </Icon>
+);
+
+export const MailIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <rect x="3" y="5.5" width="18" height="13" rx="1.5" />
+    <path d="m3.5 7 8.5 6.5L20.5 7" />
+  </Icon>
+);
+
 export const navIcons: Record<NavIcon, (p: IconProps) => ReactElement> = {
   home: HomeIcon,
   units: UnitsIcon,
   people: PeopleIcon,
+  alerts: BellIcon,
+  mail: MailIcon,
 };

@@ -1,8 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Alert } from '../../../components/ui/alert';
 import { AuthLayout } from '../../../components/layouts/auth-layout';
-import { safeNext } from '../../../config/paths';
+import { paths, safeNext } from '../../../config/paths';
 import { SignInForm } from '../../../features/auth/components/sign-in-form';
 import { meQuery } from '../../../lib/auth';
 
@@ -29,6 +29,9 @@ export default function SignInPage() {
         </Alert>
       )}
       <SignInForm onSignedIn={() => navigate(safeNext(next), { replace: true })} />
+      <Link to={paths.forgotPassword.getHref()} className="mt-4 inline-flex min-h-touch items-center font-semibold text-fjord-700 underline underline-offset-4">
+        Forgot password?
+      </Link>
     </AuthLayout>
   );
 }

@@ -114,7 +114,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
         Sign in
       </Button>
       <p className="text-sm text-ink-600">
-        No account yet, or forgot the password? Ask an administrator of your organisation.
+        No account yet? Ask an administrator of your organisation.
       </p>
     </form>
   );

@@ -1,0 +1,40 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { EmptyState, PageHeader } from '../../../components/ui/page';
+import { Spinner } from '../../../components/ui/spinner';
+import { subscriptionsQuery, useSubscriptions } from '../../../features/mail/api/subscriptions';
+import { SubscriptionsForm } from '../../../features/mail/components/subscriptions-form';
+
+export const loader = (queryClient: QueryClient) => async () => {
+  await queryClient.prefetchQuery(subscriptionsQuery());
+  return null;
+};
+
+export default function AlertSettingsPage() {
+  const subs = useSubscriptions();
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        title="Alerts by e-mail"
+        description="Choose, per site, which alerts reach your inbox. Every alert mail also has a link to stop that kind."
+      />
+      {subs.isPending ? (
+        <p className="flex items-center gap-3 text-ink-700">
+          <Spinner /> Loading your alert settings…
+        </p>
+      ) : subs.isError ? (
+        <Alert tone="alarm" title="Your alert settings could not be loaded">
+          <p>{subs.error.message}</p>
+          <Button variant="secondary" className="mt-3" onClick={() => void subs.refetch()} pending={subs.isFetching}>
+            Try again
+          </Button>
+        </Alert>
+      ) : subs.data.sites.length === 0 ? (
+        <EmptyState title="No sites yet">Alerts follow sites. Once sites are registered, they are listed here.</EmptyState>
+      ) : (
+        <SubscriptionsForm data={subs.data} />
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,17 @@
+import { useQuery } from '@tanstack/react-query';
+import { apiClient } from './api-client';
+
+/**
+ * Whether the server runs its development helpers. The built client is the same in development and production,
+ * so it asks: the mailbox route exists only in development (404 in production). Only admins may ask.
+ */
+export function useDevTools(enabled: boolean): boolean {
+  const probe = useQuery({
+    queryKey: ['dev-tools'],
+    queryFn: ({ signal }) => apiClient.get('/api/dev/mailbox?limit=1', { signal }).then(() => true),
+    enabled,
+    retry: false,
+    staleTime: Infinity,
+  });
+  return probe.data === true;
+}
