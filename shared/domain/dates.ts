@@ -15,19 +15,30 @@ export function daysInMonth(year: number, month: number): number {
   return month === 4 || month === 6 || month === 9 || month === 11 ? 30 : 31;
 }
 
-/** Reads `count` decimal digits at `start`; -1 when any is not a digit. */
-function digitsAt(s: string, start: number, count: number): number {
-  let value = 0;
-  for (let i = start; i < start + count; i++) {
-    const d = s.charCodeAt(i) - 48;
-    if (!(d >= 0 && d <= 9)) return -1;
-    value = value * 10 + d;
-  }
-  return value;
+/** Day number of a civil date (H. Hinnant's days-from-civil algorithm; years here are ≥ 1900). */
+export function dayFromCivil(year: number, month: number, day: number): number {
+  const y = month <= 2 ? year - 1 : year;
+  const era = Math.floor(y / 400);
+  const yoe = y - era * 400;
+  const doy = Math.floor((153 * (month > 2 ? month - 3 : month + 9) + 2) / 5) + day - 1;
+  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
+  return era * 146_097 + doe - 719_468;
+}
+
+let cachedYear = 0;
+let cachedMonth = 0;
+let cachedDay = 0;
+let cachedDayMs = 0;
+
+/** Two decimal digits at `i` as a number, or -1. The caller has checked that both characters exist. */
+function twoDigits(s: string, i: number): number {
+  const a = s.charCodeAt(i) - 48;
+  const b = s.charCodeAt(i + 1) - 48;
+  return a >= 0 && a <= 9 && b >= 0 && b <= 9 ? a * 10 + b : -1;
 }
 
 /**
- * Strict ISO 8601 reader: `YYYY-MM-DD`, optionally `THH:MM[:SS[.fff]]` and `Z` or `±HH:MM`.
+ * Strict ISO 8601 reader: `YYYY-MM-DD`, optionally `THH:MM[:SS[.fff]]` and `Z` or `±HH[:]MM`.
  * A time without a zone is read as UTC. Returns NaN for anything else (including 2024-02-30).
  * Hand-written because Date.parse accepts impossible days and free text, and is slower.
  */
@@ -35,23 +46,34 @@ export function isoToMs(s: string): number {
   if (typeof s !== 'string') return NaN;
   const n = s.length;
   if (n < 10 || s.charCodeAt(4) !== 45 || s.charCodeAt(7) !== 45) return NaN;
-  const year = digitsAt(s, 0, 4);
-  const month = digitsAt(s, 5, 2);
-  const day = digitsAt(s, 8, 2);
+  const hi = twoDigits(s, 0);
+  const lo = twoDigits(s, 2);
+  const month = twoDigits(s, 5);
+  const day = twoDigits(s, 8);
+  if (hi < 0 || lo < 0) return NaN;
+  const year = hi * 100 + lo;
   if (year < MIN_YEAR || year > MAX_YEAR || month < 1 || month > 12) return NaN;
   if (day < 1 || day > daysInMonth(year, month)) return NaN;
-  if (n === 10) return Date.UTC(year, month - 1, day);
+  // Consecutive events mostly share a date: reuse the last day computed.
+  if (year !== cachedYear || month !== cachedMonth || day !== cachedDay) {
+    cachedYear = year;
+    cachedMonth = month;
+    cachedDay = day;
+    cachedDayMs = dayFromCivil(year, month, day) * MS_PER_DAY;
+  }
+  const dayMs = cachedDayMs;
+  if (n === 10) return dayMs;
 
   const sep = s.charCodeAt(10);
   if ((sep !== 84 && sep !== 116 && sep !== 32) || n < 16 || s.charCodeAt(13) !== 58) return NaN;
-  const hour = digitsAt(s, 11, 2);
-  const minute = digitsAt(s, 14, 2);
+  const hour = twoDigits(s, 11);
+  const minute = twoDigits(s, 14);
   if (hour < 0 || hour > 23 || minute < 0 || minute > 59) return NaN;
   let i = 16;
   let second = 0;
   let millis = 0;
-  if (i < n && s.charCodeAt(i) === 58) {
-    second = digitsAt(s, i + 1, 2);
+  if (i + 3 <= n && s.charCodeAt(i) === 58) {
+    second = twoDigits(s, i + 1);
     if (second < 0 || second > 59) return NaN;
     i += 3;
     if (i < n && (s.charCodeAt(i) === 46 || s.charCodeAt(i) === 44)) {
@@ -73,14 +95,14 @@ export function isoToMs(s: string): number {
     const c = s.charCodeAt(i);
     if (c === 90 || c === 122) {
       i++;
-    } else if (c === 43 || c === 45) {
-      const oh = digitsAt(s, i + 1, 2);
+    } else if ((c === 43 || c === 45) && i + 5 <= n) {
+      const oh = twoDigits(s, i + 1);
       let om: number;
-      if (s.charCodeAt(i + 3) === 58) {
-        om = digitsAt(s, i + 4, 2);
+      if (s.charCodeAt(i + 3) === 58 && i + 6 <= n) {
+        om = twoDigits(s, i + 4);
         i += 6;
       } else {
-        om = digitsAt(s, i + 3, 2);
+        om = twoDigits(s, i + 3);
         i += 5;
       }
       if (oh < 0 || oh > 23 || om < 0 || om > 59) return NaN;
@@ -90,7 +112,7 @@ export function isoToMs(s: string): number {
     }
   }
   if (i !== n) return NaN;
-  return Date.UTC(year, month - 1, day, hour, minute, second, Math.floor(millis)) - offsetMinutes * 60_000;
+  return dayMs + ((hour * 60 + minute - offsetMinutes) * 60 + second) * 1000 + Math.floor(millis);
 }
 
 export function isDateOnly(s: string): boolean {
@@ -137,10 +159,19 @@ function pad2(n: number): string {
   return n < 10 ? `0${n}` : String(n);
 }
 
+/** `YYYY-MM-DD` of the UTC day of an ISO string already known to be valid, without recomputing it when the
+ * string is a date or a UTC timestamp. */
+export function isoDateOf(at: string, dayNumber: number): string {
+  const n = at.length;
+  if (n === 10) return at;
+  const last = at.charCodeAt(n - 1);
+  return last === 90 || last === 122 ? at.slice(0, 10) : isoDate(dayNumber);
+}
+
 /** `YYYY-MM-DD` of a day number. */
 export function isoDate(dayNumber: number): string {
-  const { year, month, day } = civilFromDay(dayNumber);
-  return `${year}-${pad2(month)}-${pad2(day)}`;
+  const c = civilFromDay(dayNumber);
+  return `${c.year}-${pad2(c.month)}-${pad2(c.day)}`;
 }
 
 /** `YYYY-MM` of a day number. */
@@ -159,5 +190,5 @@ export function addMonthsToDay(dayNumber: number, months: number): number {
   const total = year * 12 + (month - 1) + months;
   const y = Math.floor(total / 12);
   const m = total - y * 12 + 1;
-  return Math.floor(Date.UTC(y, m - 1, Math.min(day, daysInMonth(y, m))) / MS_PER_DAY);
+  return dayFromCivil(y, m, Math.min(day, daysInMonth(y, m)));
 }

@@ -59,18 +59,20 @@ export function repairEffectiveness(histories: readonly UnitHistory[], asOf: str
   };
 
   for (const h of histories) {
-    const { events, visits } = prepareHistory(h.events, asOfMs);
+    const history = prepareHistory(h.events, asOfMs);
+    const { visits } = history;
     const nextRecurrence = new Float64Array(visits.length);
     let next = Number.POSITIVE_INFINITY;
     for (let i = visits.length - 1; i >= 0; i--) {
       nextRecurrence[i] = next;
       if (visits[i].madeUpKg > 0 || visits[i].leakFound) next = visits[i].day;
     }
-    for (const p of events) {
-      const e = p.event;
+    for (let k = 0; k < history.count; k++) {
+      const e = history.source[history.order[k]];
       if (e.kind !== 'repair') continue;
-      const v = visits[p.visit];
-      const recurred = nextRecurrence[p.visit] - v.day <= hold;
+      const vi = history.visitOf[k];
+      const v = visits[vi];
+      const recurred = nextRecurrence[vi] - v.day <= hold;
       const judged = recurred || asOfDay - v.day >= hold;
       for (const row of [cell(cells, e.location ?? null, e.action ?? null), cell(locations, e.location ?? null, null)]) {
         if (!judged) row.pending++;

@@ -1,7 +1,9 @@
 /** Small numeric helpers shared by the topic files (not part of the public face). */
 
+const POWERS_OF_TEN = [1, 10, 100, 1000, 10_000, 100_000, 1_000_000];
+
 export function roundTo(value: number, decimals: number): number {
-  const f = 10 ** decimals;
+  const f = POWERS_OF_TEN[decimals] ?? 10 ** decimals;
   const r = Math.round(value * f) / f;
   return r === 0 ? 0 : r; // no negative zero in outputs
 }

@@ -2,7 +2,7 @@ import { MS_PER_DAY, parseIso } from './dates';
 import { DomainError } from './errors';
 import { median, roundTo } from './numbers';
 import { getRefrigerant, type RefrigerantCode } from './refrigerants';
-import { lookupSaturationK } from './saturation';
+import { ABOVE_RANGE, saturationKOrSentinel } from './saturation';
 import type { SightGlassState } from './service-terms';
 import { ABSOLUTE_ZERO_C, gaugeToAbsoluteKPa, STANDARD_ATMOSPHERE_KPA } from './units';
 import type { Settings } from '../schemas/settings';
@@ -39,7 +39,6 @@ export interface PressureHealth {
 }
 
 export interface PressureReading {
-  readonly ms: number;
   readonly at: string;
   readonly suctionKPaG?: number | null;
   readonly dischargeKPaG?: number | null;
@@ -47,12 +46,16 @@ export interface PressureReading {
   readonly sightGlass?: SightGlassState | null;
 }
 
-function dewC(code: RefrigerantCode, kPaG: number | null | undefined): { c: number | null; out: OutOfRange | null } {
-  if (kPaG === null || kPaG === undefined) return { c: null, out: null };
+/** Dew temperature (°C) of a gauge reading, or NaN with the reason in `outOfRange`. */
+function dewC(code: RefrigerantCode, kPaG: number, out: { reason: OutOfRange | null }): number {
   // Gauge readings use the dew point on both sides (DOMAIN.md §3); p_abs = p_g + 101.325 kPa.
-  const found = lookupSaturationK(code, Math.max(gaugeToAbsoluteKPa(kPaG), 1e-9), 'dew');
-  if (found.ok) return { c: found.tK + ABSOLUTE_ZERO_C, out: null };
-  return { c: null, out: found.reason === 'above_range' && code === 'R-744' ? 'supercritical' : found.reason };
+  const tK = saturationKOrSentinel(code, Math.max(gaugeToAbsoluteKPa(kPaG), 1e-9), 'dew');
+  if (tK > 0) {
+    out.reason = null;
+    return tK + ABSOLUTE_ZERO_C;
+  }
+  out.reason = tK === ABOVE_RANGE ? (code === 'R-744' ? 'supercritical' : 'above_range') : 'below_range';
+  return Number.NaN;
 }
 
 /**
@@ -64,6 +67,7 @@ function dewC(code: RefrigerantCode, kPaG: number | null | undefined): { c: numb
 export function pressureHealthFromReadings(
   refrigerant: RefrigerantCode,
   readings: readonly PressureReading[],
+  readingMs: ArrayLike<number>,
   resetsMs: readonly number[],
   settings: Settings = DEFAULT_SETTINGS,
 ): { snapshots: PressureSnapshot[]; health: PressureHealth } {
@@ -73,27 +77,32 @@ export function pressureHealthFromReadings(
   const segment = new Int32Array(n);
   const snapshots: PressureSnapshot[] = new Array<PressureSnapshot>(n);
   const windows: number[][] = [];
+  const cond = { reason: null as OutOfRange | null };
+  const evap = { reason: null as OutOfRange | null };
   let r = -1;
   for (let i = 0; i < n; i++) {
     const p = readings[i];
-    while (r + 1 < resetsMs.length && resetsMs[r + 1] <= p.ms) r++;
+    const t = readingMs[i];
+    while (r + 1 < resetsMs.length && resetsMs[r + 1] <= t) r++;
     segment[i] = r;
-    const cond = dewC(refrigerant, p.dischargeKPaG);
-    const evap = dewC(refrigerant, p.suctionKPaG);
+    const discharge = p.dischargeKPaG;
+    const suction = p.suctionKPaG;
+    const c = discharge == null ? Number.NaN : dewC(refrigerant, discharge, cond);
+    const ev = suction == null ? Number.NaN : dewC(refrigerant, suction, evap);
     const amb = p.ambientC ?? null;
-    const appr = cond.c !== null && amb !== null ? cond.c - amb : null;
-    approach[i] = appr ?? Number.NaN;
-    if (r >= 0 && appr !== null && p.ms <= resetsMs[r] + windowMs) (windows[r] ??= []).push(appr);
+    const appr = amb === null ? Number.NaN : c - amb;
+    approach[i] = appr;
+    if (r >= 0 && !Number.isNaN(appr) && t <= resetsMs[r] + windowMs) (windows[r] ??= []).push(appr);
     snapshots[i] = {
       at: p.at,
-      condensingC: cond.c === null ? null : roundTo(cond.c, 2),
-      evaporatingC: evap.c === null ? null : roundTo(evap.c, 2),
-      approachK: appr === null ? null : roundTo(appr, 2),
+      condensingC: Number.isNaN(c) ? null : roundTo(c, 2),
+      evaporatingC: Number.isNaN(ev) ? null : roundTo(ev, 2),
+      approachK: Number.isNaN(appr) ? null : roundTo(appr, 2),
       driftK: null,
       ambientC: amb,
       sightGlass: p.sightGlass ?? null,
-      dischargeOutOfRange: cond.out,
-      suctionOutOfRange: evap.out,
+      dischargeOutOfRange: discharge == null ? null : cond.reason,
+      suctionOutOfRange: suction == null ? null : evap.reason,
     };
   }
   const baselines = windows.map((w) => (w.length > 0 ? median(w) : Number.NaN));
@@ -114,7 +123,7 @@ export function pressureHealthFromReadings(
     return { snapshots, health: { latest: null, baselineApproachK: null, driftK: null, flag: 'unknown', explanation: 'No pressure readings yet.' } };
   }
   const latest = snapshots[n - 1];
-  const latestMs = readings[n - 1].ms;
+  const latestMs = readingMs[n - 1];
   if (resetsMs.length > 0 && resetsMs[resetsMs.length - 1] > latestMs) {
     return {
       snapshots,
@@ -182,9 +191,15 @@ export function assessPressureHealth(
         throw new DomainError(`Snapshot ${i + 1}: ${v} kPa(g) is below a perfect vacuum.`, `snapshots[${i}].${side}`);
       }
     }
-    return { ...s, ms: parseIso(s.at, `snapshots[${i}].at`, `Snapshot ${i + 1} date`) };
+    return { s, ms: parseIso(s.at, `snapshots[${i}].at`, `Snapshot ${i + 1} date`) };
   });
   readings.sort((a, b) => a.ms - b.ms);
   const resetMs = resets.map((r, i) => parseIso(r, `resets[${i}]`, `Reset ${i + 1} date`)).sort((a, b) => a - b);
-  return pressureHealthFromReadings(code, readings, resetMs, settings);
+  return pressureHealthFromReadings(
+    code,
+    readings.map((x) => x.s),
+    readings.map((x) => x.ms),
+    resetMs,
+    settings,
+  );
 }

@@ -145,39 +145,100 @@ export function saturationPressureKPa(refrigerant: string, tempC: number, side?:
   return Math.exp(lnPressure(c, Math.min(c.maxK, Math.max(c.minK, tK))));
 }
 
-/** Result of the inverse: a temperature in kelvin, or which end of the range the pressure fell off. */
-export type SaturationLookup = { ok: true; tK: number } | { ok: false; reason: 'below_range' | 'above_range' };
+/** Internal sentinels of the inverse for a pressure off either end of the curve. */
+export const BELOW_RANGE = -1;
+export const ABOVE_RANGE = -2;
 
-/**
- * T(p): Newton's method on ln p(T), kept inside a shrinking bracket and falling back to bisection when a
- * step would leave it, so it always converges on the monotonic curve.
- */
-function solveTemperatureK(c: Curve, pKPaAbs: number): SaturationLookup {
-  if (pKPaAbs < c.minKPa * (1 - 1e-12)) return { ok: false, reason: 'below_range' };
-  if (pKPaAbs > c.maxKPa * (1 + 1e-12)) return { ok: false, reason: 'above_range' };
-  const target = Math.log(pKPaAbs);
-  let lo = c.minK;
-  let hi = c.maxK;
-  // Start from a straight line between the ends in (1/T, ln p), where the curve is nearly straight.
-  const lnMin = Math.log(c.minKPa);
-  const frac = (target - lnMin) / (Math.log(c.maxKPa) - lnMin);
-  let t = 1 / (1 / c.minK + frac * (1 / c.maxK - 1 / c.minK));
-  if (!(t > lo && t < hi)) t = 0.5 * (lo + hi);
-  for (let i = 0; i < 200; i++) {
-    const f = lnPressure(c, t) - target;
-    if (f === 0) return { ok: true, tK: t };
-    if (f > 0) hi = t;
-    else lo = t;
-    let next = t - f / lnPressureSlope(c, t);
-    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-    if (Math.abs(next - t) < 1e-10) return { ok: true, tK: next };
-    t = next;
-  }
-  return { ok: true, tK: t };
+const TABLE_STEPS = 64;
+
+interface Table {
+  readonly lnMin: number;
+  readonly step: number;
+  /** T at each node, evenly spaced in ln p. */
+  readonly t: Float64Array;
+  /** dT/d(ln p) at each node. */
+  readonly slope: Float64Array;
 }
 
-/** Internal: saturation temperature (K) or which side of the range the pressure is, without throwing. */
-export function lookupSaturationK(code: RefrigerantCode, pKPaAbs: number, side: SaturationSide): SaturationLookup {
+/** Per curve, T and dT/d(ln p) at evenly spaced ln p over the range, found once by bisection. */
+const tables = new Map<Curve, Table>();
+function tableFor(c: Curve): Table {
+  const cached = tables.get(c);
+  if (cached) return cached;
+  const lnMin = Math.log(c.minKPa);
+  const step = (Math.log(c.maxKPa) - lnMin) / TABLE_STEPS;
+  const t = new Float64Array(TABLE_STEPS + 1);
+  const slope = new Float64Array(TABLE_STEPS + 1);
+  for (let i = 0; i <= TABLE_STEPS; i++) {
+    const target = lnMin + i * step;
+    let lo = c.minK;
+    let hi = c.maxK;
+    for (let j = 0; j < 80; j++) {
+      const mid = 0.5 * (lo + hi);
+      if (lnPressure(c, mid) > target) hi = mid;
+      else lo = mid;
+    }
+    t[i] = i === 0 ? c.minK : i === TABLE_STEPS ? c.maxK : 0.5 * (lo + hi);
+    slope[i] = 1 / lnPressureSlope(c, t[i]);
+  }
+  const table = { lnMin, step, t, slope };
+  tables.set(c, table);
+  return table;
+}
+
+/**
+ * T(p) in kelvin, or BELOW_RANGE / ABOVE_RANGE. Starts from a cubic Hermite guess between the two table nodes that
+ * bracket the answer, then Newton's method on ln p(T), bisecting whenever a step would leave the bracket, so it
+ * always converges on the monotonic curve (usually in one step).
+ */
+function solveTemperatureK(c: Curve, pKPaAbs: number): number {
+  if (!(pKPaAbs >= c.minKPa * (1 - 1e-12))) return BELOW_RANGE;
+  if (pKPaAbs > c.maxKPa * (1 + 1e-12)) return ABOVE_RANGE;
+  const tb = tableFor(c);
+  const target = Math.log(pKPaAbs);
+  const pos = (target - tb.lnMin) / tb.step;
+  const i = Math.min(TABLE_STEPS - 1, Math.max(0, Math.floor(pos)));
+  let lo = tb.t[i];
+  let hi = tb.t[i + 1];
+  const u = Math.min(1, Math.max(0, pos - i));
+  const u2 = u * u;
+  const u3 = u2 * u;
+  let t =
+    (2 * u3 - 3 * u2 + 1) * lo +
+    (u3 - 2 * u2 + u) * tb.step * tb.slope[i] +
+    (-2 * u3 + 3 * u2) * hi +
+    (u3 - u2) * tb.step * tb.slope[i + 1];
+  if (!(t >= lo && t <= hi)) t = 0.5 * (lo + hi);
+  for (let k = 0; k < 100; k++) {
+    // ln p and its slope from one evaluation of θ, √θ and the series.
+    const theta = Math.max(0, 1 - t / c.trK);
+    const r = Math.sqrt(theta);
+    const t2 = theta * theta;
+    let series: number;
+    let slope: number;
+    if (c.form === 'A') {
+      series = c.n1 * theta + c.n2 * theta * r + c.n3 * t2 + c.n4 * t2 * t2;
+      slope = c.n1 + 1.5 * c.n2 * r + 2 * c.n3 * theta + 4 * c.n4 * t2 * theta;
+    } else {
+      series = c.n1 * theta + c.n2 * theta * r + c.n3 * t2 * r + c.n4 * t2 * t2 * theta;
+      slope = c.n1 + 1.5 * c.n2 * r + 2.5 * c.n3 * theta * r + 5 * c.n4 * t2 * t2;
+    }
+    const ratio = c.trK / t;
+    const g = c.lnPr + ratio * series - target;
+    if (g === 0) return t;
+    if (g > 0) hi = t;
+    else lo = t;
+    let next = t - g / ((-ratio / t) * series - slope / t);
+    if (!(next >= lo && next <= hi)) next = 0.5 * (lo + hi);
+    // Newton converges quadratically: after a step this small the error is far below 1e-9 K.
+    if (Math.abs(next - t) < 1e-7) return next;
+    t = next;
+  }
+  return t;
+}
+
+/** Internal: saturation temperature (K) for a catalogue code, or BELOW_RANGE / ABOVE_RANGE, without throwing. */
+export function saturationKOrSentinel(code: RefrigerantCode, pKPaAbs: number, side: SaturationSide): number {
   return solveTemperatureK(CURVES[code][side], pKPaAbs);
 }
 
@@ -193,9 +254,9 @@ export function saturationTemperatureC(refrigerant: string, pressureKPaAbs: numb
       'pressureKPaAbs',
     );
   }
-  const found = solveTemperatureK(c, pressureKPaAbs);
-  if (found.ok) return found.tK + ABSOLUTE_ZERO_C;
-  if (found.reason === 'above_range' && c.endsAtCritical) {
+  const tK = solveTemperatureK(c, pressureKPaAbs);
+  if (tK > 0) return tK + ABSOLUTE_ZERO_C;
+  if (tK === ABOVE_RANGE && c.endsAtCritical) {
     throw new DomainError(
       `${fmtKPa(pressureKPaAbs)} is above the critical pressure of ${code} (${fmtKPa(c.maxKPa)}); there is no saturation temperature${code === 'R-744' ? ' (supercritical CO2)' : ''}.`,
       'pressureKPaAbs',

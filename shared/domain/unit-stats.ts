@@ -1,11 +1,11 @@
-import { addMonthsToDay, dayOf, isoDate, parseAsOf, parseIso, yearOfDay } from './dates';
+import { addMonthsToDay, dayFromCivil, dayOf, isoDate, parseAsOf, parseIso, yearOfDay } from './dates';
 import { co2eTonnes as co2eOf, leakCheckIntervalForPolicy, CHRONIC_CALENDAR_YEAR_SHARE_PCT } from './emissions';
 import { DomainError } from './errors';
-import { prepareHistory, type UnitEvent } from './events';
+import { prepareHistory, type PressureEvent, type UnitEvent } from './events';
 import { forecastFromVisits, type ForecastReason, type TopUpForecast } from './forecast';
 import { annualizedLeakRatePct, firstVisitInWindow, rollingSeries } from './leak-rate';
 import { isFiniteNumber, roundTo } from './numbers';
-import { pressureHealthFromReadings, type PressureHealth, type PressureReading, type PressureSnapshot } from './pressure-health';
+import { pressureHealthFromReadings, type PressureHealth, type PressureSnapshot } from './pressure-health';
 import { getRefrigerant, type RefrigerantCode } from './refrigerants';
 import { repeatLeakScore, scoreInputsFromVisits, type RepeatLeakScore } from './score';
 import type { LeakLocationId } from './service-terms';
@@ -100,16 +100,15 @@ export function computeUnitStats(
   const full = unit.nominalChargeKg;
   const { rollingDays } = settings.windows;
   const history = prepareHistory(events, asOfMs);
-  const { visits } = history;
-  const parsed = history.events;
-  const startDay = startMs !== null ? dayOf(startMs) : parsed.length > 0 ? parsed[0].day : asOfDay;
+  const { visits, count, order, source } = history;
+  const startDay = startMs !== null ? dayOf(startMs) : count > 0 ? history.day[0] : asOfDay;
 
   // Rates per visit and as of the day.
   const series = rollingSeries(visits, full, rollingDays);
   const visitStats: VisitStats[] = new Array<VisitStats>(visits.length);
   let lastAdditionDay = startDay;
   let calendarKg = 0;
-  const year = yearOfDay(asOfDay);
+  const yearStart = dayFromCivil(yearOfDay(asOfDay), 1, 1);
   for (let i = 0; i < visits.length; i++) {
     const v = visits[i];
     let annualized: number | null = null;
@@ -117,7 +116,7 @@ export function computeUnitStats(
     if (v.madeUpKg > 0) {
       since = Math.max(0, v.day - lastAdditionDay);
       annualized = annualizedLeakRatePct(v.madeUpKg, full, since);
-      if (yearOfDay(v.day) === year) calendarKg += v.madeUpKg;
+      if (v.day >= yearStart) calendarKg += v.madeUpKg;
     }
     if (v.added) lastAdditionDay = v.day;
     visitStats[i] = {
@@ -152,7 +151,8 @@ export function computeUnitStats(
   const { forecast, reason } = forecastFromVisits(visits, startDay, asOfDay);
 
   // One pass over the events for what is read straight off them.
-  const readings: PressureReading[] = [];
+  const readings: PressureEvent[] = [];
+  const readingMs: number[] = [];
   const resets: number[] = startMs !== null ? [startMs] : [];
   let topUps = 0;
   let repairs = 0;
@@ -162,36 +162,39 @@ export function computeUnitStats(
   let checkedAfterRepair = false;
   let lastPti: { at: string; day: number; passed: boolean } | null = null;
   let openLeak: { foundAt: string; location: LeakLocationId | null; visit: number } | null = null;
-  for (const p of parsed) {
-    const e = p.event;
+  for (let k = 0; k < count; k++) {
+    const e = source[order[k]];
+    const ms = history.ms[k];
+    const day = history.day[k];
     switch (e.kind) {
       case 'top_up':
         topUps++;
         break;
       case 'recharge':
-        if (e.kg > 0) resets.push(p.ms);
+        if (e.kg > 0) resets.push(ms);
         break;
       case 'leak_check':
         leakChecks++;
-        lastLeakCheck = { at: e.at, day: p.day };
-        if (lastRepairDay !== null && p.day > lastRepairDay) checkedAfterRepair = true;
+        lastLeakCheck = { at: e.at, day };
+        if (lastRepairDay !== null && day > lastRepairDay) checkedAfterRepair = true;
         if (e.leakFound) {
-          if (openLeak === null) openLeak = { foundAt: e.at, location: e.location ?? null, visit: p.visit };
+          if (openLeak === null) openLeak = { foundAt: e.at, location: e.location ?? null, visit: history.visitOf[k] };
           else if (openLeak.location === null && e.location) openLeak.location = e.location;
         }
         break;
       case 'repair':
         repairs++;
-        lastRepairDay = p.day;
+        lastRepairDay = day;
         checkedAfterRepair = false;
         openLeak = null;
-        if (e.verified === true) resets.push(p.ms);
+        if (e.verified === true) resets.push(ms);
         break;
       case 'pressure':
-        readings.push({ ms: p.ms, ...e });
+        readings.push(e);
+        readingMs.push(ms);
         break;
       case 'pti':
-        lastPti = { at: e.at, day: p.day, passed: e.passed };
+        lastPti = { at: e.at, day, passed: e.passed };
         break;
     }
   }
@@ -199,7 +202,7 @@ export function computeUnitStats(
   if (openLeak !== null && visits[openLeak.visit].repaired) openLeak = null;
   if (resets.length > 1 && startMs !== null) resets.sort((a, b) => a - b);
 
-  const pressure = pressureHealthFromReadings(code, readings, resets, settings);
+  const pressure = pressureHealthFromReadings(code, readings, readingMs, resets, settings);
 
   const tCO2e = co2eOf(code, full, settings.gwpBasis);
   const interval = leakCheckIntervalForPolicy(
@@ -240,7 +243,7 @@ export function computeUnitStats(
     visits: visitStats,
     snapshots: pressure.snapshots,
     counts: {
-      events: parsed.length,
+      events: count,
       visits: visits.length,
       topUps,
       repairs,
