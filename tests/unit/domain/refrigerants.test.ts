@@ -38,6 +38,8 @@ describe('GWP', () => {
     expect(gwp('R-404A', 'AR5')).toBe(3943);
     // R-513A AR5 = 0.56×1 + 0.44×1300 = 572.56 → 573
     expect(gwp('R-513A', 'AR5')).toBe(573);
+    // R-452A AR5 = 0.30×1 + 0.11×677 + 0.59×3170 = 0.3 + 74.47 + 1870.3 = 1945.07 → 1945
+    expect(gwp('R-452A', 'AR5')).toBe(1945);
   });
 
   it('returns the pure-fluid values unchanged', () => {
