@@ -24,6 +24,8 @@ import { sitesRoutes } from './features/sites/sites.router';
 import { labelsRoutes } from './features/labels/labels.router';
 import { unitImportsRoutes } from './features/unit-imports/unit-imports.router';
 import { mailRoutes } from './features/mail/mail.router';
+import { historyRoutes } from './features/history/history.router';
+import { createLocalStorage, type Storage } from './lib/storage';
 
 export type AppDeps = {
   db: Db;
@@ -37,12 +39,14 @@ export type AppDeps = {
   devTools?: boolean;
   /** Folder of the built client; served with a history fallback when present. */
   clientDir?: string;
+  /** Where uploads go; local disk under .data/uploads by default. */
+  storage?: Storage;
 };
 
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {
@@ -55,6 +59,7 @@ export function createApp(deps: AppDeps) {
     sessions: createSessionManager(deps.db),
     publicUrl,
     rateLimits: { ...DEFAULT_RATE_LIMITS, ...deps.rateLimits },
+    storage: deps.storage ?? createLocalStorage(path.resolve('.data/uploads')),
     mailer: deps.mailer ?? createSmtpMailer(smtpSettingsFrom(readEnv())),
     devTools: deps.devTools ?? readEnv().NODE_ENV !== 'production',
   };

@@ -3,6 +3,7 @@ import type { Clock } from './lib/clock';
 import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mailer';
 import type { SessionManager } from './lib/session';
+import type { Storage } from './lib/storage';
 
 export type RateLimits = {
   /** Sign-in attempts per IP per 15 minutes. */
@@ -24,6 +25,7 @@ export type AppContext = {
   sessions: SessionManager;
   publicUrl: string;
   rateLimits: RateLimits;
+  storage: Storage;
   mailer: Mailer;
   /** Development helpers (the fake SMTP mailbox); off when NODE_ENV=production. */
   devTools: boolean;

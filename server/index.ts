@@ -5,6 +5,7 @@ import { createDb } from './db/client';
 import { publicUrl, readEnv } from './env';
 import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './features/mail/outbox-worker';
+import { createLocalStorage } from './lib/storage';
 
 export async function startServer(opts: { databaseUrl: string; port?: number }) {
   const env = readEnv();
@@ -15,6 +16,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number }) 
     db,
     logger,
     publicUrl: env.PUBLIC_URL ?? `http://localhost:${port}`,
+    storage: createLocalStorage(path.resolve(env.STORAGE_DIR)),
     clientDir: path.resolve(path.dirname(new URL(import.meta.url).pathname), '../dist'),
   });
   const mailWorker = createOutboxWorker(ctx);

@@ -303,3 +303,40 @@ describe('reading a unit', () => {
     expect((await agent.get('/api/units/abc/history')).status).toBe(400);
   });
 });
+
+describe('alerts from the write path', () => {
+  it('queues one chronic-band alert for subscribed engineers when visits push a unit over, not one per later visit', async () => {
+    const { mailOutbox, sites } = await import('../../server/db/schema');
+    now = new Date('2026-06-01T12:00:00Z');
+    const [site] = await db.insert(sites).values({ code: 'ALR1', name: 'Alert Test Depot', kind: 'depot' }).$returningId();
+    const { agent: eng, user: engineer } = await signInAs(app, db, 'engineer');
+    const sub = await eng.put('/api/alerts/subscriptions').set('Origin', TEST_ORIGIN).send({ subscriptions: [{ siteId: site.id, kind: 'chronic' }] });
+    expect(sub.status).toBe(200);
+    const { agent: tech } = await signInAs(app, db, 'technician');
+    const unit = await createTestUnit(db, { nominalChargeKg: 5, siteId: site.id, commissionedOn: '2023-01-01' });
+    // The worked example of DOMAIN.md §6: score 64, "chronic", reached on the third visit.
+    const visitsToRecord = [
+      { at: '2025-08-05T10:00:00Z', events: [{ kind: 'top_up', kg: 1.0, cylinder: 'A1' }] },
+      { at: '2026-01-02T10:00:00Z', events: [
+        { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
+        { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true },
+        { kind: 'top_up', kg: 1.2, cylinder: 'A2' },
+      ] },
+      { at: '2026-04-22T10:00:00Z', events: [
+        { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
+        { kind: 'top_up', kg: 0.8, cylinder: 'A3' },
+      ] },
+      { at: '2026-05-20T10:00:00Z', events: [{ kind: 'top_up', kg: 0.4, cylinder: 'A4' }] },
+    ];
+    const bands: string[] = [];
+    for (const v of visitsToRecord) {
+      const res = await tech.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: v.at, events: v.events });
+      expect(res.status).toBe(201);
+      bands.push(res.body.stats.scoreBand);
+    }
+    expect(bands[2]).toBe('chronic');
+    const mails = await db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, engineer.email));
+    expect(mails).toHaveLength(1);
+    expect(mails[0].subject).toMatch(/chronic/);
+  });
+});

@@ -8,6 +8,7 @@ import type { Storage } from '../../lib/storage';
 import { historyQuerySchema, MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
 import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent, type StatsChangeHook } from './history.service';
 import { addAttachments, readAttachment } from './attachments.service';
+import { queueAlertsForStatsChange } from '../alerts/alerts.service';
 
 const numericId = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) });
 
@@ -28,17 +29,21 @@ function uploadFiles() {
     });
 }
 
-export function historyRoutes(ctx: AppContext & { storage: Storage; onStatsChange?: StatsChangeHook }) {
+export function historyRoutes(ctx: AppContext & { storage: Storage }) {
+  // Alerts are queued in the outbox inside the same transaction that changed the figures.
+  const onStatsChange: StatsChangeHook = async (tx, change) => {
+    await queueAlertsForStatsChange(tx, ctx, change);
+  };
   return [
     route('post', '/api/visits', 'record:event', async (req, res) => {
       const input = recordVisitSchema.parse(req.body);
-      const result = await recordVisit(ctx, req.user!, input, ctx.onStatsChange);
+      const result = await recordVisit(ctx, req.user!, input, onStatsChange);
       res.status(result.replayed ? 200 : 201).json(result);
     }),
     route('post', '/api/events/:id/void', 'void:event:own', async (req, res) => {
       const { id } = numericId.parse(req.params);
       const { reason } = voidEventSchema.parse(req.body);
-      res.status(201).json(await voidEvent(ctx, req.user!, id, reason, ctx.onStatsChange));
+      res.status(201).json(await voidEvent(ctx, req.user!, id, reason, onStatsChange));
     }),
     route(
       'post',
