@@ -16,7 +16,6 @@ type BodyParserError = Error & { type?: string; status?: number };
 
 export function errorHandler(logger: Logger) {
   // Express recognises an error handler by its four parameters.
-  // eslint-disable-next-line @typescript-eslint/no-unused-vars
   return (err: unknown, req: Request, res: Response, _next: NextFunction) => {
     const send = (status: number, code: string, message: string, fields?: Record<string, string>) => {
       if (res.headersSent) return;
