@@ -17,7 +17,8 @@ export default async function setup(project: TestProject) {
   buildClientIfStale();
   const shared = await sharedTestDb();
   const { db, pool } = createDb(shared.urls.e2e, { connectionLimit: 10 });
-  await seedDemo(db);
+  // A small fleet keeps the browser tests' start-up short.
+  await seedDemo(db, { units: 40 });
   // Bind first so the origin check knows the port.
   const http = await import('node:http');
   const server = http.createServer();

@@ -1,0 +1,192 @@
+// From a simulated unit to the rows the server itself would have written: units, visits, events (void markers
+// included) and the unit's statistics row, computed in memory with the server's own functions.
+import type { events, sites, units, users, visits } from '../../server/db/schema';
+import { engineUnit, statsRowFrom, toEngineEvent, type UnitStatsRow } from '../../server/features/history/stats.service';
+import { computeUnitStats } from '../../shared/domain';
+import type { Settings } from '../../shared/schemas/settings';
+import type { Fleet } from './fleet';
+import type { SimEvent, UnitSim } from './unit-sim';
+
+export type SiteRow = typeof sites.$inferInsert;
+export type UserRow = typeof users.$inferInsert;
+export type UnitRow = typeof units.$inferInsert;
+export type VisitRow = typeof visits.$inferInsert;
+export type EventRow = typeof events.$inferInsert;
+
+/** The next id of each table; advanced as rows are made. */
+export type IdCursor = { unit: number; visit: number; event: number };
+
+export type UnitRows = { unit: UnitRow; visits: VisitRow[]; events: EventRow[]; stats: UnitStatsRow };
+
+export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
+  const at = new Date((fleet.ctx.todayDay - Math.round(fleet.ctx.historyYears * 365.25) - 60) * 86_400_000);
+  return fleet.sites.map((s, i) => ({ id: firstId + i, code: s.code, name: s.name, kind: s.kind, country: s.country, createdAt: at }));
+}
+
+export function userRows(fleet: Fleet, demoPasswordHash: string | null): UserRow[] {
+  const at = new Date((fleet.ctx.todayDay - Math.round(fleet.ctx.historyYears * 365.25) - 60) * 86_400_000);
+  return fleet.people.map((p) => ({
+    id: p.id,
+    email: p.email,
+    name: p.name,
+    role: p.role,
+    // Only the demo sign-ins can sign in; the simulated staff would be invited.
+    passwordHash: p.demo ? demoPasswordHash : null,
+    certificateNumber: p.certificateNumber,
+    active: true,
+    createdAt: at,
+  }));
+}
+
+const NULL_EVENT = {
+  kg: null,
+  cylinder: null,
+  reusedRecovered: null,
+  excludedFromLeakRate: null,
+  method: null,
+  leakFound: null,
+  location: null,
+  action: null,
+  verified: null,
+  passed: null,
+  suctionKPaG: null,
+  dischargeKPaG: null,
+  ambientC: null,
+  setPointC: null,
+  supplyAirC: null,
+  returnAirC: null,
+  sightGlass: null,
+  details: null,
+  note: null,
+  voidsEventId: null,
+};
+
+export function rowsForUnit(
+  fleet: Fleet,
+  sim: UnitSim,
+  siteIds: readonly number[],
+  ids: IdCursor,
+  settings: Settings,
+): UnitRows {
+  const now = new Date(fleet.ctx.nowMs);
+  const people = fleet.people;
+  const u = sim.unit;
+  const unitId = ids.unit++;
+  const createdAt = new Date(u.createdMs);
+  const unit: UnitRow = {
+    id: unitId,
+    containerNumber: u.containerNumber,
+    refrigerant: u.refrigerant,
+    nominalChargeKg: u.nominalChargeKg,
+    commissionedOn: u.commissionedOn,
+    siteId: siteIds[u.homeSite],
+    status: u.status,
+    qrToken: u.qrToken,
+    machinerySerial: u.machinerySerial,
+    model: u.model,
+    manufactureYear: u.manufactureYear,
+    purchaseCost: u.purchaseCost,
+    residualValue: u.residualValue,
+    notes: null,
+    qrIssuedAt: createdAt,
+    createdAt,
+    updatedAt: new Date(u.updatedMs),
+  };
+
+  const visitRows: VisitRow[] = [];
+  const eventRows: EventRow[] = [];
+  const idOf = new Map<SimEvent, number>();
+  const voided = new Set<SimEvent>();
+  for (const v of sim.voids) voided.add(v.target);
+  const engineEvents: NonNullable<ReturnType<typeof toEngineEvent>>[] = [];
+
+  for (let k = 0; k < sim.visits.length; k++) {
+    const v = sim.visits[k];
+    const visitId = ids.visit++;
+    const occurredAt = new Date(v.occurredMs);
+    const enteredAt = new Date(v.enteredMs);
+    const siteId = v.site === null ? unit.siteId! : siteIds[v.site];
+    const recordedBy = people[v.by].id;
+    visitRows.push({
+      id: visitId,
+      unitId,
+      siteId,
+      recordedBy,
+      occurredAt,
+      enteredAt,
+      idempotencyKey: `sim-${fleet.ctx.seed}-${sim.index}-${k}`,
+      createdAt: enteredAt,
+    });
+    for (const e of v.events) {
+      const id = ids.event++;
+      idOf.set(e, id);
+      const row: EventRow = {
+        id,
+        unitId,
+        visitId,
+        siteId,
+        recordedBy,
+        kind: e.kind,
+        occurredAt,
+        enteredAt,
+        ...NULL_EVENT,
+        ...stripUndefined(e),
+        createdAt: enteredAt,
+      };
+      eventRows.push(row);
+      if (!voided.has(e)) {
+        const ee = toEngineEvent({
+          kind: e.kind,
+          occurredAt,
+          visitId,
+          kg: e.kg ?? null,
+          excludedFromLeakRate: e.excludedFromLeakRate ?? null,
+          leakFound: e.leakFound ?? null,
+          location: e.location ?? null,
+          action: e.action ?? null,
+          verified: e.verified ?? null,
+          passed: e.passed ?? null,
+          suctionKPaG: e.suctionKPaG ?? null,
+          dischargeKPaG: e.dischargeKPaG ?? null,
+          ambientC: e.ambientC ?? null,
+          sightGlass: e.sightGlass ?? null,
+        });
+        if (ee) engineEvents.push(ee);
+      }
+    }
+  }
+  for (const vd of sim.voids) {
+    const at = new Date(vd.atMs);
+    eventRows.push({
+      id: ids.event++,
+      unitId,
+      visitId: null,
+      siteId: vd.site === null ? unit.siteId! : siteIds[vd.site],
+      recordedBy: people[vd.by].id,
+      kind: 'void',
+      occurredAt: at,
+      enteredAt: at,
+      ...NULL_EVENT,
+      voidsEventId: idOf.get(vd.target)!,
+      note: vd.reason,
+      createdAt: at,
+    });
+  }
+
+  // Exactly what recomputeUnitStats does after a write, on the same events in the same order.
+  const result = computeUnitStats(
+    engineUnit({ refrigerant: u.refrigerant, nominalChargeKg: u.nominalChargeKg, commissionedOn: u.commissionedOn, createdAt }),
+    engineEvents,
+    now.toISOString(),
+    settings,
+  );
+  const last = engineEvents.length ? new Date(engineEvents[engineEvents.length - 1].at) : null;
+  const stats = statsRowFrom(unitId, result, now, last);
+  return { unit, visits: visitRows, events: eventRows, stats };
+}
+
+function stripUndefined(e: SimEvent): Partial<EventRow> {
+  const out: Record<string, unknown> = {};
+  for (const [k, v] of Object.entries(e)) if (v !== undefined) out[k] = v;
+  return out as Partial<EventRow>;
+}
