@@ -38,27 +38,24 @@ function MassFields({ control, index, kind, onUnitsChange }: Props) {
   const isLb = unit.field.value === 'lb';
   return (
     <>
-      <div className="flex flex-wrap items-end justify-between gap-3">
-        <p className="text-base font-semibold" id={`mass-${index}`}>
-          {kind === 'recovery' ? 'Recovered' : kind === 'recharge' ? 'Charged' : 'Added'}
-        </p>
-        <UnitSwitch
-          label="Mass unit"
-          value={unit.field.value as UnitPrefs['mass']}
-          units={MASS_CHOICES}
-          onChange={(u) => {
-            unit.field.onChange(u);
-            onUnitsChange({ mass: u });
-          }}
-        />
-      </div>
       <DecimalField
         control={control}
         name={`events.${index}.kg`}
-        label={kind === 'recovery' ? `Mass recovered (${isLb ? 'lb' : 'kg'})` : `Mass ${kind === 'recharge' ? 'charged' : 'added'} (${isLb ? 'lb' : 'kg'})`}
+        label={kind === 'recovery' ? 'Mass recovered' : kind === 'recharge' ? 'Mass charged' : 'Mass added'}
         unit={isLb ? 'lb' : 'kg'}
         step={isLb ? 0.25 : 0.1}
         big
+        labelAside={
+          <UnitSwitch
+            label="Mass unit"
+            value={unit.field.value as UnitPrefs['mass']}
+            units={MASS_CHOICES}
+            onChange={(u) => {
+              unit.field.onChange(u);
+              onUnitsChange({ mass: u });
+            }}
+          />
+        }
       />
       <TextInput
         control={control}
@@ -180,12 +177,17 @@ function PressureFields({ control, index, refrigerant, onUnitsChange }: Props) {
           aside={<SaturationReadout refrigerant={refrigerant} typed={discharge} pressureUnit={p} temperatureUnit={t} side="discharge" />}
         />
       </div>
-      <div className="grid grid-cols-2 gap-3">
-        <DecimalField control={control} name={`events.${index}.ambientC`} label="Ambient" unit={deg} allowNegative optional />
-        <DecimalField control={control} name={`events.${index}.setPointC`} label="Set point" unit={deg} allowNegative optional />
-        <DecimalField control={control} name={`events.${index}.supplyAirC`} label="Supply air" unit={deg} allowNegative optional />
-        <DecimalField control={control} name={`events.${index}.returnAirC`} label="Return air" unit={deg} allowNegative optional />
-      </div>
+      <fieldset className="flex flex-col gap-2">
+        <legend className="mb-1 text-base font-semibold">
+          Temperatures <span className="text-sm font-normal text-ink-600">(optional)</span>
+        </legend>
+        <div className="grid grid-cols-2 gap-3">
+          <DecimalField control={control} name={`events.${index}.ambientC`} label="Ambient" unit={deg} allowNegative />
+          <DecimalField control={control} name={`events.${index}.setPointC`} label="Set point" unit={deg} allowNegative />
+          <DecimalField control={control} name={`events.${index}.supplyAirC`} label="Supply air" unit={deg} allowNegative />
+          <DecimalField control={control} name={`events.${index}.returnAirC`} label="Return air" unit={deg} allowNegative />
+        </div>
+      </fieldset>
       <ChoiceChips
         control={control}
         name={`events.${index}.sightGlass`}

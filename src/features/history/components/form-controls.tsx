@@ -202,6 +202,7 @@ export function DecimalField({
   allowNegative = false,
   aside,
   big = false,
+  labelAside,
 }: {
   control: VisitControl;
   name: Name;
@@ -214,6 +215,8 @@ export function DecimalField({
   /** Under the field: e.g. the live saturation temperature. */
   aside?: ReactNode;
   big?: boolean;
+  /** Beside the label: e.g. the unit switch. */
+  labelAside?: ReactNode;
 }) {
   const { field } = useController({ control, name });
   const { error, warning } = useFieldMessage(control, name);
@@ -237,10 +240,13 @@ export function DecimalField({
   const describedBy = cx(hint ? `${id}-hint` : null, error || warning ? `${id}-msg` : null, aside ? `${id}-aside` : null);
   return (
     <div className="flex min-w-0 flex-col gap-1.5">
-      <label htmlFor={id} className="text-base font-semibold">
-        {label}
-        {optional && <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>}
-      </label>
+      <div className="flex flex-wrap items-end justify-between gap-2">
+        <label htmlFor={id} className="text-base font-semibold">
+          {label}
+          {optional && <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>}
+        </label>
+        {labelAside}
+      </div>
       {hint && (
         <p id={`${id}-hint`} className="text-sm text-ink-600">
           {hint}
@@ -281,7 +287,8 @@ export function DecimalField({
             aria-invalid={error ? true : undefined}
             aria-describedby={describedBy || undefined}
             className={cx(
-              'block min-h-touch-lg w-full min-w-0 rounded-md border-2 bg-white py-2 pr-16 pl-3 tabular-nums',
+              'block min-h-touch-lg w-full min-w-0 rounded-md border-2 bg-white py-2 pl-3 tabular-nums',
+              typeof unit === 'string' && unit.length <= 2 ? 'pr-10' : 'pr-14',
               'placeholder:text-ink-300 focus-visible:border-ink-950',
               big ? 'text-figure font-semibold' : 'text-lg font-semibold',
               error ? 'border-alarm-700' : warning ? 'border-heed-800' : 'border-ink-400',

@@ -111,7 +111,22 @@ export function RecordVisitForm({
     });
     return async (values, context, options) => {
       const result = await base(values, context, options);
-      if (Object.keys(result.errors).length > 0) return result;
+      if (Object.keys(result.errors).length > 0) {
+        // The shared messages name the SI unit; say the unit the person is typing in.
+        const list = (result.errors as { events?: Record<string, Record<string, FieldError | undefined>> }).events ?? {};
+        values.events.forEach((d, i) => {
+          const e = list[i];
+          if (!e) return;
+          if (d.massUnit === 'lb' && e.kg?.message) e.kg.message = e.kg.message.replace(' in kg', ' in lb');
+          if (d.temperatureUnit === 'F') {
+            for (const k of ['ambientC', 'supplyAirC', 'returnAirC'] as const) {
+              const err = e[k];
+              if (err?.message) err.message = err.message.replace('°C', '°F');
+            }
+          }
+        });
+        return result;
+      }
       // The same plausibility rules the server applies, with this unit's charge and refrigerant.
       const issues = visitPlausibilityIssues(unit, result.values as FormOutput, new Date());
       if (Object.keys(issues).length === 0) return result;

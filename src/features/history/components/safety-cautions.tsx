@@ -12,42 +12,41 @@ function Triangle({ className }: { className?: string }) {
 }
 
 /**
- * The cautions for one entry, open the first time they appear; a tap folds them to one line once read. The
- * precedence note is always there.
+ * The cautions for one entry: each hazard in one line, always on screen; a tap opens the full points. The precedence
+ * note is always there.
  */
 export function SafetyCautions({ cautions }: { cautions: Caution[] }) {
-  const [open, setOpen] = useState(true);
+  const [open, setOpen] = useState(false);
   if (cautions.length === 0) return null;
   return (
-    <aside
-      aria-label="Safety"
-      className="rounded-md border-2 border-heed-800 bg-heed-50 text-ink-950"
-    >
-      <button
-        type="button"
-        aria-expanded={open}
-        onClick={() => setOpen((o) => !o)}
-        className="flex min-h-touch w-full items-center gap-2 px-3 py-2 text-left font-semibold text-heed-800"
-      >
-        <Triangle />
-        <span className="flex-1">Safety: {cautions.map((c) => c.title).join(' · ')}</span>
-        <span className="text-sm underline underline-offset-2">{open ? 'Fold' : 'Read'}</span>
-      </button>
-      {open && (
-        <div className="flex flex-col gap-3 px-3 pb-3">
-          {cautions.map((c) => (
-            <div key={c.id}>
-              <p className="font-semibold">{c.title}</p>
-              <ul className="ml-5 list-disc text-sm leading-relaxed">
+    <aside aria-label="Safety" className="rounded-md border-2 border-heed-800 bg-heed-50 px-3 py-2 text-ink-950">
+      <p className="flex items-center gap-2 font-semibold text-heed-800">
+        <Triangle className="size-5" />
+        Safety
+      </p>
+      <ul className="mt-1 flex flex-col gap-1.5 text-sm leading-snug">
+        {cautions.map((c) => (
+          <li key={c.id}>
+            <span className="font-semibold">{c.title}:</span> {c.summary}
+            {open && (
+              <ul className="mt-1 mb-1 ml-5 list-disc">
                 {c.points.map((p) => (
                   <li key={p}>{p}</li>
                 ))}
               </ul>
-            </div>
-          ))}
-        </div>
-      )}
-      <p className="border-t border-heed-800/30 px-3 py-2 text-sm text-ink-800">{PRECEDENCE_NOTE}</p>
+            )}
+          </li>
+        ))}
+      </ul>
+      <p className="mt-1.5 text-sm text-ink-800">{PRECEDENCE_NOTE}</p>
+      <button
+        type="button"
+        aria-expanded={open}
+        onClick={() => setOpen((o) => !o)}
+        className="-mx-1 mt-1 min-h-touch px-1 text-sm font-semibold text-heed-800 underline underline-offset-2"
+      >
+        {open ? 'Show less' : 'Read the full cautions'}
+      </button>
     </aside>
   );
 }

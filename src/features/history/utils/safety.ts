@@ -1,7 +1,8 @@
 import { findRefrigerant } from '../../../../shared/domain';
 import type { VisitEventKind } from '../../../../shared/schemas/history';
 
-export type Caution = { id: string; title: string; points: string[] };
+/** `summary` is always on screen; `points` open on a tap. */
+export type Caution = { id: string; title: string; summary: string; points: string[] };
 
 export const PRECEDENCE_NOTE =
   "Local regulations and the equipment maker's service instructions take precedence over anything Tightloop computes.";
@@ -9,6 +10,7 @@ export const PRECEDENCE_NOTE =
 const HANDLING: Caution = {
   id: 'handling',
   title: 'Handling refrigerant',
+  summary: 'Certified technicians only. Frostbite and pressure hazard; displaces oxygen in closed spaces; never vent.',
   points: [
     'Only certified technicians may handle refrigerant.',
     'Liquid refrigerant causes frostbite: wear gloves and eye protection; never touch a leaking joint or hose.',
@@ -21,6 +23,7 @@ const HANDLING: Caution = {
 const RECOVERY: Caution = {
   id: 'recovery',
   title: 'Recovery',
+  summary: 'A rated recovery cylinder, one refrigerant per cylinder, filled no more than about 80 %.',
   points: [
     'Use a recovery cylinder rated for this refrigerant; never mix refrigerants in one cylinder.',
     'Do not fill a recovery cylinder past its safe fill weight (about 80 % of capacity); weigh it as you go.',
@@ -30,6 +33,7 @@ const RECOVERY: Caution = {
 const OPENING: Caution = {
   id: 'opening',
   title: 'Opening the circuit, brazing',
+  summary: 'Isolate and lock out the 380–460 V three-phase supply first. Recover the charge before brazing; fire risk.',
   points: [
     'Reefer units run on 380–460 V three-phase power: isolate and lock out the supply, and prove it dead, before opening the control box or the circuit.',
     'Recover the charge before cutting or brazing; purge with dry nitrogen while brazing.',
@@ -40,12 +44,14 @@ const OPENING: Caution = {
 const GAUGES: Caution = {
   id: 'gauges',
   title: 'Connecting gauges',
+  summary: 'Valves closed while connecting hoses; a spit of liquid refrigerant causes frostbite.',
   points: ['Connect and disconnect hoses with the valves closed; expect a spit of liquid refrigerant (frostbite).'],
 };
 
 const FLAMMABLE = (code: string): Caution => ({
   id: 'flammable',
   title: `${code} is flammable (class A2L)`,
+  summary: 'No flames or sparks near the unit; A2L-rated tools; recover fully before brazing.',
   points: [
     'No open flame or sparks near the unit while it holds refrigerant; recover the charge fully before brazing.',
     'Use a recovery machine, leak detector and tools rated for A2L refrigerants; ventilate well.',
@@ -55,6 +61,7 @@ const FLAMMABLE = (code: string): Caution => ({
 const HIGH_PRESSURE: Caution = {
   id: 'high-pressure',
   title: 'CO2 (R-744): very high pressures',
+  summary: 'Several times the pressure of HFC units: R-744-rated gauges, hoses and recovery gear only; never trap liquid.',
   points: [
     'Working pressures run several times higher than HFC units (well above 100 bar on the high side): use gauges, hoses and recovery equipment rated for R-744.',
     'Never trap liquid CO2 between closed valves; it can burst the line. Dry ice can form when pressure drops.',
