@@ -24,6 +24,10 @@ import { sitesRoutes } from './features/sites/sites.router';
 import { labelsRoutes } from './features/labels/labels.router';
 import { unitImportsRoutes } from './features/unit-imports/unit-imports.router';
 import { mailRoutes } from './features/mail/mail.router';
+import { fleetRoutes } from './features/fleet/fleet.router';
+import { refrigerantLogRoutes } from './features/refrigerant-log/refrigerant-log.router';
+import { decisionsRoutes } from './features/decisions/decisions.router';
+import { settingsRoutes } from './features/settings/settings.router';
 import { historyRoutes } from './features/history/history.router';
 import { createLocalStorage, type Storage } from './lib/storage';
 
@@ -46,7 +50,7 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx), ...fleetRoutes(ctx), ...refrigerantLogRoutes(ctx), ...decisionsRoutes(ctx), ...settingsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {

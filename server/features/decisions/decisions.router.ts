@@ -1,0 +1,24 @@
+import type { AppContext } from '../../deps';
+import { route } from '../../routes';
+import { candidatesQuerySchema, recordDecisionSchema } from '../../../shared/schemas/decisions';
+import { unitIdParam } from '../fleet/params';
+import { getUnitDecision, recordDecision, retirementCandidates } from './decisions.service';
+
+export function decisionsRoutes(ctx: AppContext) {
+  return [
+    route('get', '/api/decisions/candidates', 'decide:retirement', async (req, res) => {
+      const q = candidatesQuerySchema.parse(req.query);
+      res.json(await retirementCandidates(ctx.db, q, ctx.clock.now()));
+    }),
+    route('get', '/api/decisions/units/:id', 'decide:retirement', async (req, res) => {
+      const { id } = unitIdParam.parse(req.params);
+      res.json(await getUnitDecision(ctx.db, id, ctx.clock.now()));
+    }),
+    route('post', '/api/decisions/units/:id', 'decide:retirement', async (req, res) => {
+      const { id } = unitIdParam.parse(req.params);
+      const input = recordDecisionSchema.parse(req.body);
+      const result = await recordDecision(ctx.db, req.user!, id, input, ctx.clock.now());
+      res.status(result.replayed ? 200 : 201).json(result);
+    }),
+  ];
+}

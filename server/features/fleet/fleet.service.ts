@@ -1,0 +1,204 @@
+// The fleet table: units ⨝ unit_stats, filtered, sorted and paged in SQL, every sort backed by an index.
+import { and, asc, count, desc, eq, gt, isNotNull, isNull, like, lt, lte, or, sql, type SQL } from 'drizzle-orm';
+import type { MySqlColumn } from 'drizzle-orm/mysql-core';
+import type { Db } from '../../db/client';
+import { sites, units, unitStats } from '../../db/schema';
+import {
+  FLEET_COUNT_CAP,
+  type FleetCountDto,
+  type FleetFilters,
+  type FleetPageDto,
+  type FleetQuery,
+  type FleetRowDto,
+  type FleetSort,
+} from '../../../shared/schemas/fleet';
+
+export const todayOf = (now: Date) => now.toISOString().slice(0, 10);
+export const dayPlus = (day: string, days: number) => new Date(Date.parse(day) + days * 86_400_000).toISOString().slice(0, 10);
+
+const SORT_COLUMNS: Record<FleetSort, MySqlColumn> = {
+  score: unitStats.score,
+  rate: unitStats.rollingLeakRatePct,
+  forecast: unitStats.forecastDate,
+  leakCheck: unitStats.nextLeakCheckDue,
+  pti: unitStats.ptiValidUntil,
+  containerNumber: units.containerNumber,
+  co2e: unitStats.co2eTonnes,
+};
+/** Sorts whose column may be empty; empties go last in both directions. */
+const NULLABLE_SORTS: ReadonlySet<FleetSort> = new Set(['forecast', 'leakCheck', 'pti']);
+
+export function fleetWhere(f: FleetFilters, today: string): SQL[] {
+  const w: SQL[] = [];
+  if (f.siteId) w.push(eq(units.siteId, f.siteId));
+  if (f.refrigerant) w.push(eq(units.refrigerant, f.refrigerant));
+  if (f.status) w.push(eq(units.status, f.status));
+  if (f.band) w.push(eq(unitStats.scoreBand, f.band));
+  if (f.rateAbove !== undefined) w.push(gt(unitStats.rollingLeakRatePct, f.rateAbove));
+  if (f.forecastDays !== undefined) w.push(lte(unitStats.forecastDate, dayPlus(today, f.forecastDays)));
+  if (f.forecastOverdue) w.push(lt(unitStats.forecastDate, today));
+  if (f.leakCheckOverdue) w.push(lt(unitStats.nextLeakCheckDue, today));
+  if (f.ptiExpired) w.push(or(isNull(unitStats.ptiValidUntil), lt(unitStats.ptiValidUntil, today))!);
+  // A prefix LIKE on the unique index; the normalised query has letters and digits only, so no wildcard escapes.
+  if (f.q) w.push(like(units.containerNumber, `${f.q}%`));
+  return w;
+}
+
+const hasFilters = (f: FleetFilters) =>
+  Boolean(f.siteId || f.refrigerant || f.status || f.band || f.q || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired) ||
+  f.rateAbove !== undefined ||
+  f.forecastDays !== undefined;
+
+const rowFields = {
+  unitId: units.id,
+  containerNumber: units.containerNumber,
+  refrigerant: units.refrigerant,
+  nominalChargeKg: units.nominalChargeKg,
+  status: units.status,
+  siteId: sites.id,
+  siteCode: sites.code,
+  siteName: sites.name,
+  score: unitStats.score,
+  scoreBand: unitStats.scoreBand,
+  rollingLeakRatePct: unitStats.rollingLeakRatePct,
+  co2eTonnes: unitStats.co2eTonnes,
+  forecastDate: unitStats.forecastDate,
+  nextLeakCheckDue: unitStats.nextLeakCheckDue,
+  ptiValidUntil: unitStats.ptiValidUntil,
+  ptiPassed: unitStats.ptiPassed,
+  pressureFlag: unitStats.pressureFlag,
+  lastEventAt: unitStats.lastEventAt,
+};
+/** Column order of a CSV/stream row (rowsAsArray follows the select list). */
+export const ROW_FIELD_NAMES = Object.keys(rowFields) as (keyof typeof rowFields)[];
+
+type RawRow = {
+  unitId: number;
+  containerNumber: string;
+  refrigerant: string;
+  nominalChargeKg: number;
+  status: FleetRowDto['status'];
+  siteId: number | null;
+  siteCode: string | null;
+  siteName: string | null;
+  score: number;
+  scoreBand: FleetRowDto['scoreBand'];
+  rollingLeakRatePct: number;
+  co2eTonnes: number;
+  forecastDate: string | Date | null;
+  nextLeakCheckDue: string | Date | null;
+  ptiValidUntil: string | Date | null;
+  ptiPassed: boolean | number | null;
+  pressureFlag: FleetRowDto['pressureFlag'];
+  lastEventAt: Date | string | null;
+};
+
+const dayText = (v: string | Date | null): string | null => (v == null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10));
+
+export function toFleetRow(r: RawRow, today: string): FleetRowDto {
+  const forecastDate = dayText(r.forecastDate);
+  const nextLeakCheckDue = dayText(r.nextLeakCheckDue);
+  const ptiValidUntil = dayText(r.ptiValidUntil);
+  return {
+    unitId: r.unitId,
+    containerNumber: r.containerNumber,
+    refrigerant: r.refrigerant,
+    nominalChargeKg: r.nominalChargeKg,
+    status: r.status,
+    site: r.siteId != null ? { id: r.siteId, code: r.siteCode ?? '', name: r.siteName ?? '' } : null,
+    score: r.score,
+    scoreBand: r.scoreBand,
+    rollingLeakRatePct: r.rollingLeakRatePct,
+    co2eTonnes: r.co2eTonnes,
+    forecastDate,
+    forecastOverdue: forecastDate !== null && forecastDate < today,
+    nextLeakCheckDue,
+    leakCheckOverdue: nextLeakCheckDue !== null && nextLeakCheckDue < today,
+    ptiValidUntil,
+    ptiValid: ptiValidUntil !== null && ptiValidUntil >= today,
+    pressureFlag: r.pressureFlag,
+    lastEventAt: r.lastEventAt == null ? null : new Date(r.lastEventAt).toISOString(),
+  };
+}
+
+/** The select of one part of the list; `nulls` picks the rows with or without a value in a nullable sort column. */
+export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetFilters, today: string, nulls?: 'only' | 'none') {
+  const col = SORT_COLUMNS[q.sort];
+  const where = fleetWhere(q, today);
+  if (nulls === 'only') where.push(isNull(col));
+  if (nulls === 'none') where.push(isNotNull(col));
+  const order = q.dir === 'asc' ? asc : desc;
+  // Ties broken by the unit id in the same direction, so the (column, unit_id) index order serves the sort.
+  const orderBy =
+    nulls === 'only'
+      ? [order(unitStats.unitId)]
+      : q.sort === 'containerNumber'
+        ? [order(units.containerNumber)]
+        : [order(col), order(unitStats.unitId)];
+  return db
+    .select(rowFields)
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .leftJoin(sites, eq(sites.id, units.siteId))
+    .where(where.length ? and(...where) : undefined)
+    .orderBy(...orderBy)
+    .$dynamic();
+}
+
+export async function countFleet(db: Db, f: FleetFilters, today: string): Promise<FleetCountDto> {
+  if (!hasFilters(f)) {
+    const [{ n }] = await db.select({ n: count() }).from(unitStats);
+    return { total: Number(n), capped: false };
+  }
+  const where = fleetWhere(f, today);
+  // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet.
+  const inner = db
+    .select({ one: sql`1` })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .where(and(...where))
+    .limit(FLEET_COUNT_CAP + 1)
+    .as('matches');
+  const [{ n }] = await db.select({ n: count() }).from(inner);
+  const total = Number(n);
+  return total > FLEET_COUNT_CAP ? { total: FLEET_COUNT_CAP, capped: true } : { total, capped: false };
+}
+
+export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<FleetPageDto> {
+  const today = todayOf(now);
+  const offset = (q.page - 1) * q.pageSize;
+  const limit = q.pageSize + 1;
+  let rows: RawRow[];
+  if (NULLABLE_SORTS.has(q.sort) && q.dir === 'asc') {
+    // Ascending, MariaDB puts empty values first; read the filled ones first and the empty ones after them.
+    const filled = (await fleetSelect(db, q, today, 'none').limit(limit).offset(offset)) as RawRow[];
+    rows = filled;
+    if (filled.length < limit) {
+      let filledTotal = offset + filled.length;
+      if (filled.length === 0 && offset > 0) {
+        const [{ n }] = await db
+          .select({ n: count() })
+          .from(unitStats)
+          .innerJoin(units, eq(units.id, unitStats.unitId))
+          .where(and(...fleetWhere(q, today), isNotNull(SORT_COLUMNS[q.sort])));
+        filledTotal = Number(n);
+      }
+      const empty = (await fleetSelect(db, q, today, 'only')
+        .limit(limit - filled.length)
+        .offset(Math.max(0, offset - filledTotal))) as RawRow[];
+      rows = [...filled, ...empty];
+    }
+  } else {
+    rows = (await fleetSelect(db, q, today).limit(limit).offset(offset)) as RawRow[];
+  }
+  const hasMore = rows.length > q.pageSize;
+  const page: FleetPageDto = {
+    rows: rows.slice(0, q.pageSize).map((r) => toFleetRow(r, today)),
+    page: q.page,
+    pageSize: q.pageSize,
+    hasMore,
+    asOf: today,
+  };
+  if (q.count) page.count = await countFleet(db, q, today);
+  return page;
+}

@@ -1,0 +1,165 @@
+// The fleet overview: leak-rate distribution, made-up refrigerant per month, the chronic leakers, repair
+// effectiveness and leak checks coming due. Every part reads an index or a small pre-aggregated table.
+import { and, asc, count, desc, eq, gt, gte, lt, lte, sql, type SQL } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats } from '../../db/schema';
+import { co2eTonnes } from '../../../shared/domain';
+import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
+import { getSettings } from '../settings/settings.service';
+import { dayPlus, todayOf } from './fleet.service';
+
+const BIN_PCT = 10;
+/** Sums of doubles carry float dust; the screen shows grams and kilograms of CO2e. */
+const roundTo = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
+const TOP_BIN = 10; // the last bin holds 100 % and above
+const CHRONIC_LIST = 10;
+const DUE_LIST = 20;
+
+/** The first month of a window of `months` months ending with the current one, as YYYY-MM. */
+export function monthsBack(today: string, months: number): string[] {
+  const y = Number(today.slice(0, 4));
+  const m = Number(today.slice(5, 7)) - 1;
+  const out: string[] = [];
+  for (let k = months - 1; k >= 0; k--) {
+    const d = new Date(Date.UTC(y, m - k, 1));
+    out.push(d.toISOString().slice(0, 7));
+  }
+  return out;
+}
+
+export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): Promise<FleetOverviewDto> {
+  const today = todayOf(now);
+  const settings = await getSettings(db);
+  const unitWhere: SQL[] = [];
+  if (q.siteId) unitWhere.push(eq(units.siteId, q.siteId));
+  if (q.refrigerant) unitWhere.push(eq(units.refrigerant, q.refrigerant));
+  const filtered = unitWhere.length > 0;
+  const months = monthsBack(today, q.months);
+
+  const bin = sql<number>`CASE WHEN ${unitStats.rollingLeakRatePct} <= 0 THEN -1 ELSE LEAST(FLOOR(${unitStats.rollingLeakRatePct} / ${BIN_PCT}), ${TOP_BIN}) END`;
+  const histogramQuery = filtered
+    ? db
+        .select({ bin, n: count() })
+        .from(unitStats)
+        .innerJoin(units, eq(units.id, unitStats.unitId))
+        .where(and(...unitWhere))
+        .groupBy(bin)
+    : db.select({ bin, n: count() }).from(unitStats).groupBy(bin);
+
+  const monthWhere: SQL[] = [gte(fleetMonthly.month, months[0])];
+  if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
+  if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
+  const emissionsQuery = db
+    .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
+    .from(fleetMonthly)
+    .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
+    .where(and(...monthWhere))
+    .orderBy(asc(fleetMonthly.month));
+
+  const chronicQuery = db
+    .select({
+      unitId: units.id,
+      containerNumber: units.containerNumber,
+      refrigerant: units.refrigerant,
+      siteName: sites.name,
+      score: unitStats.score,
+      scoreBand: unitStats.scoreBand,
+      rate: unitStats.rollingLeakRatePct,
+      factors: unitStats.scoreFactors,
+    })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .leftJoin(sites, eq(sites.id, units.siteId))
+    .where(and(gt(unitStats.score, 0), sql`${units.status} <> 'retired'`, ...unitWhere))
+    .orderBy(desc(unitStats.score), desc(unitStats.unitId))
+    .limit(CHRONIC_LIST);
+
+  const dueUntil = dayPlus(today, LEAK_CHECK_DUE_DAYS);
+  const dueWhere = and(gte(unitStats.nextLeakCheckDue, today), lte(unitStats.nextLeakCheckDue, dueUntil), sql`${units.status} <> 'retired'`, ...unitWhere);
+  const dueListQuery = db
+    .select({ unitId: units.id, containerNumber: units.containerNumber, siteName: sites.name, due: unitStats.nextLeakCheckDue })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .leftJoin(sites, eq(sites.id, units.siteId))
+    .where(dueWhere)
+    .orderBy(asc(unitStats.nextLeakCheckDue), asc(unitStats.unitId))
+    .limit(DUE_LIST);
+  const dueCountQuery = db.select({ n: count() }).from(unitStats).innerJoin(units, eq(units.id, unitStats.unitId)).where(dueWhere);
+  const overdueQuery = db
+    .select({ n: count() })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .where(and(lt(unitStats.nextLeakCheckDue, today), sql`${units.status} <> 'retired'`, ...unitWhere));
+
+  const [histogram, emissions, chronic, dueList, [dueCount], [overdue], repairs] = await Promise.all([
+    histogramQuery,
+    emissionsQuery,
+    chronicQuery,
+    dueListQuery,
+    dueCountQuery,
+    overdueQuery,
+    db.select().from(repairEffectivenessRows).orderBy(desc(repairEffectivenessRows.repairs)),
+  ]);
+
+  let zero = 0;
+  let total = 0;
+  const bins = Array.from({ length: TOP_BIN + 1 }, (_, i) => ({ fromPct: i * BIN_PCT, toPct: i === TOP_BIN ? null : (i + 1) * BIN_PCT, units: 0 }));
+  for (const h of histogram) {
+    const n = Number(h.n);
+    total += n;
+    const b = Number(h.bin);
+    if (b < 0) zero += n;
+    else bins[Math.min(TOP_BIN, b)].units += n;
+  }
+
+  // Sites are summed per month when the site has gone (the month keeps its figures, the name is unknown).
+  const basis = settings.gwpBasis;
+  const emissionRows = emissions.map((r) => ({
+    month: r.month,
+    site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null,
+    refrigerant: r.refrigerant,
+    madeUpKg: roundTo(r.kg, 3),
+    co2eTonnes: roundTo(co2eTonnes(r.refrigerant, Math.max(0, r.kg), basis), 4),
+  }));
+
+  const computedAt = repairs.length ? repairs.reduce((a, r) => (r.computedAt > a ? r.computedAt : a), repairs[0].computedAt) : null;
+
+  return {
+    asOf: today,
+    units: total,
+    leakRate: { zero, bins, thresholdPct: settings.leakRateThresholdPct },
+    emissions: { months, gwpBasis: basis, rows: emissionRows },
+    chronicLeakers: chronic.map((c) => ({
+      unitId: c.unitId,
+      containerNumber: c.containerNumber,
+      site: c.siteName,
+      refrigerant: c.refrigerant,
+      score: c.score,
+      scoreBand: c.scoreBand,
+      rollingLeakRatePct: c.rate,
+      factors: Object.entries((c.factors ?? {}) as Record<string, { points?: number; explanation?: string }>)
+        .map(([name, f]) => ({ name, points: Number(f?.points ?? 0), explanation: String(f?.explanation ?? '') }))
+        .sort((a, b) => b.points - a.points),
+    })),
+    repairEffectiveness: {
+      computedAt: computedAt ? computedAt.toISOString() : null,
+      holdDays: settings.windows.repairHoldDays,
+      minRepairs: settings.economics.minRepairsForRate,
+      rows: repairs.map((r) => ({
+        location: r.location,
+        action: r.action === '' ? null : r.action,
+        repairs: r.repairs,
+        held: r.held,
+        recurred: r.recurred,
+        pending: r.pending,
+        holdRatePct: r.holdRatePct,
+      })),
+    },
+    leakChecksDue: {
+      days: LEAK_CHECK_DUE_DAYS,
+      count: Number(dueCount.n),
+      overdue: Number(overdue.n),
+      units: dueList.map((d) => ({ unitId: d.unitId, containerNumber: d.containerNumber, site: d.siteName, due: String(d.due).slice(0, 10) })),
+    },
+  };
+}

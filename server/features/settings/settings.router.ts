@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import type { AppContext } from '../../deps';
+import { route } from '../../routes';
+import { updateSettingsSchema } from '../../../shared/schemas/settings-api';
+import { getJob, latestJob, resumeStaleJobs, startRepairEffectiveness, startStatsRecompute } from '../jobs/jobs.service';
+import { getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
+
+const jobIdSchema = z.object({ id: z.coerce.number({ message: 'Not a valid job id' }).int().positive().max(2_147_483_647) });
+
+export function settingsRoutes(ctx: AppContext) {
+  return [
+    route('get', '/api/settings', 'signed-in', async (_req, res) => {
+      await resumeStaleJobs(ctx);
+      res.json(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute')));
+    }),
+    // The route admits whoever may change any section (owners: prices); the service checks each changed section.
+    route('put', '/api/settings', 'manage:costs', async (req, res) => {
+      const input = updateSettingsSchema.parse(req.body);
+      const saved = await saveSettings(ctx.db, req.user!, input, ctx.clock.now());
+      if (saved.recompute) {
+        await startStatsRecompute(ctx, { settingsId: saved.version, userId: req.user!.id, message: 'Figures with the new settings.' });
+      }
+      // The hold window (thresholds) and the minimum repair count (economics) shape repair effectiveness.
+      if (saved.sections.includes('thresholds') || saved.sections.includes('economics')) await startRepairEffectiveness(ctx, req.user!.id);
+      res.json({ ...(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'))), changedSections: saved.sections });
+    }),
+    route('get', '/api/settings/history', 'signed-in', async (_req, res) => {
+      res.json(await getSettingsHistory(ctx.db));
+    }),
+    route('get', '/api/jobs/:id', 'signed-in', async (req, res) => {
+      const { id } = jobIdSchema.parse(req.params);
+      await resumeStaleJobs(ctx);
+      res.json({ job: await getJob(ctx.db, id) });
+    }),
+  ];
+}

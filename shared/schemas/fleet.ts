@@ -1,0 +1,220 @@
+// Fleet views: the fleet table (filters, sorting, pages), the overview charts, cylinder traceability.
+import { z } from 'zod';
+import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
+import { UNIT_STATUS_VALUES } from './history';
+
+export const FLEET_SORTS = ['score', 'rate', 'forecast', 'leakCheck', 'pti', 'containerNumber', 'co2e'] as const;
+export type FleetSort = (typeof FLEET_SORTS)[number];
+export const FLEET_PAGE_SIZES = [10, 25, 50, 100] as const;
+export const FLEET_DEFAULT_PAGE_SIZE = 25;
+/** Beyond this many matches the count says "more than"; counting further buys nothing on screen. */
+export const FLEET_COUNT_CAP = 10_000;
+/** Deepest page a client may ask for (offset paging; narrow the filters instead). */
+export const FLEET_MAX_PAGE = 4_000;
+export const SCORE_BANDS = ['tight', 'watch', 'chronic'] as const;
+export type ScoreBand = (typeof SCORE_BANDS)[number];
+
+/** Query-string flags: "1"/"true" on, "0"/"false"/absent off. */
+const flag = z
+  .enum(['1', '0', 'true', 'false'], { message: 'Use 1 or 0' })
+  .transform((v) => v === '1' || v === 'true')
+  .optional();
+
+export const refrigerantCodeSchema = z.string().transform((v, ctx) => {
+  const r = findRefrigerant(v);
+  if (!r) {
+    ctx.addIssue({ code: 'custom', message: `Unknown refrigerant. Use one of ${REFRIGERANT_CODES.join(', ')}.` });
+    return z.NEVER;
+  }
+  return r.code;
+});
+
+const positiveId = (what: string) => z.coerce.number({ message: `Not a valid ${what}` }).int().positive().max(2_147_483_647);
+
+export const fleetFiltersSchema = z.object({
+  siteId: positiveId('site').optional(),
+  refrigerant: refrigerantCodeSchema.optional(),
+  status: z.enum(UNIT_STATUS_VALUES, { message: 'Use in_service, out_of_service or retired' }).optional(),
+  band: z.enum(SCORE_BANDS, { message: 'Use tight, watch or chronic' }).optional(),
+  /** Rolling leak rate strictly above this, in % of the full charge. */
+  rateAbove: z.coerce.number({ message: 'Enter a leak rate in %' }).min(0).max(100_000).optional(),
+  /** Next top-up forecast on or before today + N days (overdue ones included). */
+  forecastDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(0).max(3650).optional(),
+  forecastOverdue: flag,
+  leakCheckOverdue: flag,
+  /** No passed PTI in force: expired, failed or never done. */
+  ptiExpired: flag,
+  /** The start of a container number, typed loosely ("hrlu 12"). */
+  q: z
+    .string()
+    .max(20, 'Type at most 11 characters')
+    .transform(normalizeContainerNumber)
+    .pipe(z.string().max(11, 'Type at most 11 characters').regex(/^[A-Z0-9]*$/, 'Letters and digits only'))
+    .optional(),
+});
+export type FleetFilters = z.output<typeof fleetFiltersSchema>;
+
+export const fleetQuerySchema = fleetFiltersSchema.extend({
+  sort: z.enum(FLEET_SORTS, { message: `Sort by one of ${FLEET_SORTS.join(', ')}` }).default('score'),
+  dir: z.enum(['asc', 'desc']).default('desc'),
+  page: z.coerce.number().int().min(1).max(FLEET_MAX_PAGE, `Pages go up to ${FLEET_MAX_PAGE}; narrow the filters`).default(1),
+  pageSize: z.coerce
+    .number()
+    .int()
+    .refine((n) => (FLEET_PAGE_SIZES as readonly number[]).includes(n), { message: `Use a page size of ${FLEET_PAGE_SIZES.join(', ')}` })
+    .default(FLEET_DEFAULT_PAGE_SIZE),
+  /** Also count the matches (the client asks only when the filters change). */
+  count: flag,
+});
+export type FleetQuery = z.output<typeof fleetQuerySchema>;
+
+export type FleetRowDto = {
+  unitId: number;
+  containerNumber: string;
+  refrigerant: string;
+  nominalChargeKg: number;
+  status: (typeof UNIT_STATUS_VALUES)[number];
+  site: { id: number; code: string; name: string } | null;
+  score: number;
+  scoreBand: ScoreBand;
+  rollingLeakRatePct: number;
+  co2eTonnes: number;
+  forecastDate: string | null;
+  forecastOverdue: boolean;
+  nextLeakCheckDue: string | null;
+  leakCheckOverdue: boolean;
+  ptiValidUntil: string | null;
+  ptiValid: boolean;
+  pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
+  lastEventAt: string | null;
+};
+
+export type FleetCountDto = { total: number; capped: boolean };
+
+export type FleetPageDto = {
+  rows: FleetRowDto[];
+  page: number;
+  pageSize: number;
+  hasMore: boolean;
+  /** Only when asked for with count=1. */
+  count?: FleetCountDto;
+  /** The day "overdue" and "expired" are judged against (UTC). */
+  asOf: string;
+};
+
+// --- overview ------------------------------------------------------------------------------------------------
+
+export const MAX_OVERVIEW_MONTHS = 36;
+export const LEAK_CHECK_DUE_DAYS = 30;
+
+export const fleetOverviewQuerySchema = z.object({
+  months: z.coerce.number().int().min(1).max(MAX_OVERVIEW_MONTHS).default(12),
+  siteId: positiveId('site').optional(),
+  refrigerant: refrigerantCodeSchema.optional(),
+});
+export type FleetOverviewQuery = z.output<typeof fleetOverviewQuerySchema>;
+
+export type LeakRateBinDto = { fromPct: number; toPct: number | null; units: number };
+
+export type FleetOverviewDto = {
+  asOf: string;
+  units: number;
+  leakRate: { zero: number; bins: LeakRateBinDto[]; thresholdPct: number };
+  emissions: {
+    months: string[];
+    gwpBasis: 'AR4' | 'AR5';
+    rows: { month: string; site: { id: number; name: string } | null; refrigerant: string; madeUpKg: number; co2eTonnes: number }[];
+  };
+  chronicLeakers: {
+    unitId: number;
+    containerNumber: string;
+    site: string | null;
+    refrigerant: string;
+    score: number;
+    scoreBand: ScoreBand;
+    rollingLeakRatePct: number;
+    /** Score factors with their points (DOMAIN.md §6), largest first. */
+    factors: { name: string; points: number; explanation: string }[];
+  }[];
+  repairEffectiveness: {
+    computedAt: string | null;
+    holdDays: number;
+    minRepairs: number;
+    rows: { location: string; action: string | null; repairs: number; held: number; recurred: number; pending: number; holdRatePct: number | null }[];
+  };
+  leakChecksDue: {
+    days: number;
+    count: number;
+    overdue: number;
+    units: { unitId: number; containerNumber: string; site: string | null; due: string }[];
+  };
+};
+
+// --- traceability ---------------------------------------------------------------------------------------------
+
+export const MAX_TRACE_ROWS = 2000;
+export const MAX_TRACE_DAYS = 731;
+export const MAX_MARK_UNITS = 5000;
+
+const isoDay = (label: string) => z.iso.date({ message: `Enter the ${label} as a date, e.g. 2026-03-31` });
+
+export const traceQuerySchema = z
+  .object({
+    cylinder: z.string().trim().min(2, 'Type at least 2 characters of the cylinder or lot').max(64).optional(),
+    siteId: positiveId('site').optional(),
+    from: isoDay('first day').optional(),
+    to: isoDay('last day').optional(),
+  })
+  .superRefine((q, ctx) => {
+    if (!q.cylinder && !q.siteId) {
+      ctx.addIssue({ code: 'custom', message: 'Search by cylinder or lot, or by site and dates', path: ['cylinder'] });
+    }
+    if (q.siteId && !q.cylinder && (!q.from || !q.to)) {
+      ctx.addIssue({ code: 'custom', message: 'Give the first and last day for a search by site', path: [q.from ? 'to' : 'from'] });
+    }
+    if (q.from && q.to) {
+      if (q.to < q.from) ctx.addIssue({ code: 'custom', message: 'The last day is before the first', path: ['to'] });
+      else if ((Date.parse(q.to) - Date.parse(q.from)) / 86_400_000 > MAX_TRACE_DAYS) {
+        ctx.addIssue({ code: 'custom', message: 'Search at most two years at a time', path: ['to'] });
+      }
+    }
+  });
+export type TraceQuery = z.output<typeof traceQuerySchema>;
+
+export type TraceChargeDto = {
+  eventId: number;
+  unitId: number;
+  containerNumber: string;
+  refrigerant: string;
+  kind: 'top_up' | 'recharge';
+  kg: number;
+  cylinder: string | null;
+  occurredAt: string;
+  site: { id: number; name: string } | null;
+  technician: { id: string; name: string };
+};
+
+export type TraceResultDto = {
+  charges: TraceChargeDto[];
+  /** All matching charges (the list stops at MAX_TRACE_ROWS). */
+  totalCharges: number;
+  units: { unitId: number; containerNumber: string; charges: number; kg: number; markedAt: string | null }[];
+  totalKg: number;
+  /** Voided charges are left out; this many matched. */
+  voidedExcluded: number;
+};
+
+export const markForInspectionSchema = z.object({
+  query: z.object({
+    cylinder: z.string().optional(),
+    siteId: z.number().int().positive().optional(),
+    from: z.string().optional(),
+    to: z.string().optional(),
+  }),
+  reason: z.string().trim().min(3, 'Say why these units are marked').max(500),
+  /** Chosen by the client: a retried request marks nothing twice. */
+  idempotencyKey: z.string().min(8).max(40).regex(/^[\w-]+$/, 'Bad idempotency key'),
+});
+export type MarkForInspectionInput = z.infer<typeof markForInspectionSchema>;
+
+export type MarkForInspectionResultDto = { marked: number; replayed: boolean; eventIds: number[] };

@@ -1,0 +1,212 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { parse } from 'csv-parse/sync';
+import { sql } from 'drizzle-orm';
+import { createApp } from '../../server/app';
+import { fleetMonthly, unitStats } from '../../server/db/schema';
+import { waitForJobs } from '../../server/features/jobs/jobs.service';
+import { co2eTonnes } from '../../shared/domain';
+import type { FleetPageDto } from '../../shared/schemas/fleet';
+import { openTestDb, resetDb } from '../support/db';
+import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
+import { createTestSite, halyardNumber } from '../support/units';
+import { chronicLeaker, recordVisits, tightUnit, waitForJob } from '../support/visits';
+
+const { db, pool } = openTestDb();
+const now = new Date('2026-06-01T12:00:00Z');
+const { app } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+
+type Agent = Awaited<ReturnType<typeof signInAs>>['agent'];
+let engineer: Agent;
+let siteA: { id: number; name: string };
+let siteB: { id: number; name: string };
+const ids: Record<string, number> = {};
+
+beforeAll(async () => {
+  await resetDb(db);
+  engineer = (await signInAs(app, db, 'engineer')).agent;
+  siteA = await createTestSite(db, { name: 'Harbour depot' });
+  siteB = await createTestSite(db, { name: 'River terminal' });
+  const make = async (name: string, serial: number, over: Record<string, unknown>) =>
+    (ids[name] = (await createTestUnit(db, { containerNumber: halyardNumber(serial), commissionedOn: '2022-01-01', ...over })).id);
+  await make('leakerA', 100001, { siteId: siteA.id, nominalChargeKg: 5 });
+  await make('leakerB', 100002, { siteId: siteB.id, nominalChargeKg: 4, refrigerant: 'R-404A' });
+  await make('tightA', 100003, { siteId: siteA.id, nominalChargeKg: 5 });
+  await make('tightB', 200001, { siteId: siteB.id, nominalChargeKg: 6 });
+  // Registered, never visited: still listed, with figures from its registry record alone.
+  await make('fresh', 200002, { siteId: siteB.id, nominalChargeKg: 5 });
+  await recordVisits(engineer, ids.leakerA, chronicLeaker());
+  await recordVisits(engineer, ids.leakerB, chronicLeaker());
+  await recordVisits(engineer, ids.tightA, tightUnit());
+  await recordVisits(engineer, ids.tightB, tightUnit());
+});
+afterAll(async () => {
+  await waitForJobs();
+  await pool.end();
+});
+
+const list = async (query: string, agent: Agent = engineer) => {
+  const res = await agent.get(`/api/fleet?${query}`);
+  expect(res.status, JSON.stringify(res.body)).toBe(200);
+  return res.body as FleetPageDto;
+};
+const numbers = (p: FleetPageDto) => p.rows.map((r) => r.containerNumber);
+
+describe('GET /api/fleet', () => {
+  it('returns 401 without a session and 403 for a technician', async () => {
+    expect((await request(app).get('/api/fleet')).status).toBe(401);
+    const { agent } = await signInAs(app, db, 'technician');
+    expect((await agent.get('/api/fleet')).status).toBe(403);
+  });
+
+  it('lists every unit by score, highest first, with a count when asked', async () => {
+    const page = await list('count=1');
+    expect(page.rows).toHaveLength(5);
+    expect(page.count).toEqual({ total: 5, capped: false });
+    expect(page.rows[0].score).toBeGreaterThanOrEqual(page.rows[1].score);
+    expect([ids.leakerA, ids.leakerB]).toContain(page.rows[0].unitId);
+    expect(page.rows.find((r) => r.unitId === ids.fresh)).toMatchObject({ score: 0, scoreBand: 'tight', forecastDate: null });
+    expect(page.asOf).toBe('2026-06-01');
+    expect(page.rows[0].site).toMatchObject({ id: expect.any(Number), name: expect.any(String) });
+  });
+
+  it('pages without repeating or losing a unit', async () => {
+    const p1 = await list('pageSize=10&sort=containerNumber&dir=asc');
+    expect(numbers(p1)).toEqual([...numbers(p1)].sort());
+    const first = await list('pageSize=10&sort=score&dir=desc&page=1');
+    expect(first.hasMore).toBe(false);
+  });
+
+  it('filters by site, refrigerant, status, band, leak rate and container-number prefix', async () => {
+    expect(new Set((await list(`siteId=${siteA.id}`)).rows.map((r) => r.unitId))).toEqual(new Set([ids.leakerA, ids.tightA]));
+    expect((await list('refrigerant=r-404a')).rows.map((r) => r.unitId)).toEqual([ids.leakerB]);
+    expect((await list('status=retired')).rows).toHaveLength(0);
+    const chronic = await list('band=chronic');
+    expect(chronic.rows.every((r) => r.scoreBand === 'chronic')).toBe(true);
+    expect((await list('rateAbove=5')).rows.map((r) => r.unitId).sort()).toEqual([ids.leakerA, ids.leakerB].sort());
+    const prefix = await list('q=hrlu%2010&sort=containerNumber&dir=asc&count=1');
+    expect(numbers(prefix)).toEqual([halyardNumber(100001), halyardNumber(100002), halyardNumber(100003)]);
+    expect(prefix.count?.total).toBe(3);
+    expect((await engineer.get(`/api/fleet/count?siteId=${siteB.id}`)).body).toEqual({ total: 3, capped: false });
+  });
+
+  it('filters forecast, leak-check and PTI states against today', async () => {
+    const forecast = await list('forecastDays=365');
+    expect(forecast.rows.map((r) => r.unitId).sort()).toEqual([ids.leakerA, ids.leakerB].sort());
+    for (const r of (await list('forecastOverdue=1')).rows) expect(r.forecastOverdue).toBe(true);
+    for (const r of (await list('leakCheckOverdue=1')).rows) expect(r.leakCheckOverdue).toBe(true);
+    const pti = await list('ptiExpired=1');
+    expect(pti.rows.every((r) => !r.ptiValid)).toBe(true);
+    // The unit never visited has no PTI at all.
+    expect(pti.rows.map((r) => r.unitId)).toContain(ids.fresh);
+  });
+
+  it('sorts by every column; units without a date come last both ways', async () => {
+    for (const sort of ['rate', 'forecast', 'leakCheck', 'pti', 'co2e', 'containerNumber', 'score']) {
+      for (const dir of ['asc', 'desc']) {
+        const p = await list(`sort=${sort}&dir=${dir}`);
+        expect(p.rows).toHaveLength(5);
+      }
+    }
+    const asc = await list('sort=forecast&dir=asc');
+    expect(asc.rows.slice(0, 2).every((r) => r.forecastDate !== null)).toBe(true);
+    expect(asc.rows.slice(2).every((r) => r.forecastDate === null)).toBe(true);
+    expect(asc.rows[0].forecastDate! <= asc.rows[1].forecastDate!).toBe(true);
+    // Page 2 of size 10 with only 5 units: empty, no error.
+    expect((await list('sort=forecast&dir=asc&page=2&pageSize=10')).rows).toHaveLength(0);
+    const co2e = await list('sort=co2e&dir=desc');
+    expect(co2e.rows[0].unitId).toBe(ids.leakerB); // R-404A: 4 kg × 3922 = 15.7 t
+  });
+
+  it('answers 400 for a bad filter, sort or page size', async () => {
+    for (const q of ['sort=price', 'pageSize=7', 'page=0', 'band=leaky', 'refrigerant=R-22', 'rateAbove=x', 'q=%25%25', 'ptiExpired=maybe', 'siteId=-1']) {
+      const res = await engineer.get(`/api/fleet?${q}`);
+      expect(res.status, q).toBe(400);
+      expect(res.body.error.code).toBe('invalid_input');
+    }
+  });
+});
+
+describe('GET /api/fleet/export.csv', () => {
+  it('streams the current view as CSV with the same filters', async () => {
+    const res = await engineer.get(`/api/fleet/export.csv?siteId=${siteA.id}&sort=containerNumber&dir=asc`).buffer(true);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/attachment; filename="fleet-2026-06-01\.csv"/);
+    const rows = parse(res.text.replace(/^\uFEFF/, ''), { columns: true }) as Record<string, string>[];
+    expect(rows.map((r) => r['Container number'])).toEqual([halyardNumber(100001), halyardNumber(100003)]);
+    expect(rows[0]).toMatchObject({ Site: 'Harbour depot', Refrigerant: 'R-134a', Band: expect.any(String) });
+  });
+
+  it('refuses a technician and bad filters', async () => {
+    const { agent } = await signInAs(app, db, 'technician');
+    expect((await agent.get('/api/fleet/export.csv')).status).toBe(403);
+    expect((await engineer.get('/api/fleet/export.csv?sort=nope')).status).toBe(400);
+  });
+});
+
+describe('GET /api/fleet/overview', () => {
+  it('shows the distribution, emissions per month from the visits, the chronic leakers and leak checks due', async () => {
+    const refresh = await engineer.post('/api/fleet/repair-effectiveness/refresh').set('Origin', TEST_ORIGIN);
+    expect(refresh.status).toBe(202);
+    expect(await waitForJob(engineer, refresh.body.job.id)).toMatchObject({ status: 'done' });
+
+    const res = await engineer.get('/api/fleet/overview?months=12');
+    expect(res.status).toBe(200);
+    const o = res.body;
+    expect(o.units).toBe(5);
+    const binned = o.leakRate.bins.reduce((s: number, b: { units: number }) => s + b.units, 0);
+    expect(o.leakRate.zero + binned).toBe(5);
+    expect(o.leakRate.thresholdPct).toBe(20);
+    expect(o.emissions.months).toHaveLength(12);
+    expect(o.emissions.months.at(-1)).toBe('2026-06');
+
+    // Made-up per visit (DOMAIN.md §4): 1.0, 1.1, max(0, 4.5 − 2.0) = 2.5, 0.9, 0.8 kg per leaker.
+    const kg = (month: string, refrigerant: string) =>
+      o.emissions.rows.filter((r: { month: string; refrigerant: string }) => r.month === month && r.refrigerant === refrigerant).reduce((s: number, r: { madeUpKg: number }) => s + r.madeUpKg, 0);
+    expect(kg('2025-12', 'R-134a')).toBeCloseTo(2.5, 6);
+    expect(kg('2025-07', 'R-134a')).toBeCloseTo(1.0, 6);
+    expect(kg('2026-05', 'R-404A')).toBeCloseTo(0.8, 6);
+    const dec404 = o.emissions.rows.find((r: { month: string; refrigerant: string }) => r.month === '2025-12' && r.refrigerant === 'R-404A');
+    expect(dec404.co2eTonnes).toBeCloseTo(co2eTonnes('R-404A', 2.5), 4);
+    expect(dec404.site).toEqual({ id: siteB.id, name: 'River terminal' });
+
+    expect(o.chronicLeakers.map((c: { unitId: number }) => c.unitId).sort()).toEqual([ids.leakerA, ids.leakerB].sort());
+    expect(o.chronicLeakers[0].factors[0]).toMatchObject({ name: expect.any(String), points: expect.any(Number), explanation: expect.any(String) });
+
+    // Two service-valve repairs, both leaked again within 180 days → fewer than 5: no rate.
+    const valve = o.repairEffectiveness.rows.find((r: { location: string; action: string | null }) => r.location === 'service_valve' && r.action === 'valve_core_replaced');
+    expect(valve).toMatchObject({ repairs: 2, recurred: 2, holdRatePct: null });
+    expect(o.repairEffectiveness).toMatchObject({ holdDays: 180, minRepairs: 5, computedAt: expect.any(String) });
+    expect(o.leakChecksDue).toMatchObject({ days: 30, count: expect.any(Number), overdue: expect.any(Number) });
+  });
+
+  it('keeps fleet_monthly equal to the visits after a void', async () => {
+    const unit = await createTestUnit(db, { containerNumber: halyardNumber(300001), siteId: siteA.id, nominalChargeKg: 5 });
+    const [[topUp]] = await recordVisits(engineer, unit.id, [{ at: '2026-04-10T10:00:00Z', events: [{ kind: 'top_up', kg: 0.7, cylinder: 'CYL-Z' }] }]);
+    const sumApril = async () =>
+      Number(
+        (await db.select({ kg: sql<number>`COALESCE(SUM(${fleetMonthly.madeUpKg}), 0)` }).from(fleetMonthly).where(sql`${fleetMonthly.month} = '2026-04' AND ${fleetMonthly.siteId} = ${siteA.id}`))[0].kg,
+      );
+    const before = await sumApril();
+    const v = await engineer.post(`/api/events/${topUp}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Entered on the wrong unit' });
+    expect(v.status).toBe(201);
+    expect(await sumApril()).toBeCloseTo(before - 0.7, 9);
+  });
+
+  it('filters by site and refrigerant, refuses technicians, and answers 400 for bad input', async () => {
+    const res = await engineer.get(`/api/fleet/overview?siteId=${siteB.id}&refrigerant=R-404A`);
+    expect(res.status).toBe(200);
+    expect(res.body.emissions.rows.every((r: { refrigerant: string }) => r.refrigerant === 'R-404A')).toBe(true);
+    expect(res.body.units).toBe(1);
+    const { agent } = await signInAs(app, db, 'technician');
+    expect((await agent.get('/api/fleet/overview')).status).toBe(403);
+    expect((await engineer.get('/api/fleet/overview?months=99')).status).toBe(400);
+    expect((await request(app).get('/api/fleet/overview')).status).toBe(401);
+  });
+
+  it('reads every unit as having a statistics row', async () => {
+    const [{ n }] = await db.select({ n: sql<number>`COUNT(*)` }).from(unitStats);
+    expect(Number(n)).toBe(6);
+  });
+});
