@@ -58,14 +58,13 @@ export type UnitEvent = RefrigerantMovementEvent | LeakCheckEvent | RepairEvent 
 
 /** What one visit did, in kg; made-up follows DOMAIN.md §4. */
 export interface Visit {
-  /** Index in time order. */
-  readonly index: number;
   readonly visitId: string | null;
   /** The `at` of the visit's first event, as given. */
   readonly at: string;
-  readonly ms: number;
-  readonly day: number;
+  /** UTC calendar day of the first event, YYYY-MM-DD. */
   readonly date: string;
+  /** The same day as a number (days since 1970-01-01, UTC). */
+  readonly day: number;
   site: string | number | null;
   toppedUpKg: number;
   rechargedKg: number;
@@ -83,6 +82,15 @@ export interface Visit {
   verifiedRepair: boolean;
 }
 
+/** A visit with its rates, as computeUnitStats returns it. */
+export interface VisitStats extends Visit {
+  /** Only for visits with made-up refrigerant. */
+  annualizedRatePct: number | null;
+  daysSincePreviousAddition: number | null;
+  /** Rolling rate as of this visit's day. */
+  rollingRatePct: number;
+}
+
 /**
  * A checked history in time order, as parallel arrays (no object per event): position k is the k-th event in time
  * order, `source[order[k]]` the event itself.
@@ -97,7 +105,8 @@ export interface PreparedHistory {
   readonly day: Int32Array;
   /** Visit index of the k-th event. */
   readonly visitOf: Int32Array;
-  readonly visits: Visit[];
+  /** Created with the VisitStats fields empty, so computeUnitStats can fill them in without copying. */
+  readonly visits: VisitStats[];
   /** Events dated after the "as of" moment, left out. */
   readonly afterAsOf: number;
   /** Events of other kinds (notes, status changes …), left out. */
@@ -119,9 +128,8 @@ function fail(e: UnitEvent, i: number, problem: string, field = ''): never {
   throw new DomainError(`Entry ${i + 1} (${String(e.kind).replace('_', ' ')}): ${problem}`, `events[${i}]${field}`);
 }
 
-/** Checks one event; throws a DomainError that names the entry and the field. */
-function checkEvent(e: UnitEvent, i: number): void {
-  if (e.visitId !== undefined && e.visitId !== null && typeof e.visitId !== 'string') fail(e, i, 'the visit id must be text.', '.visitId');
+/** Checks one event and throws a DomainError naming the entry and field; false for kinds the figures do not use. */
+function checkEvent(e: UnitEvent, i: number): boolean {
   switch (e.kind) {
     case 'top_up':
     case 'recovery':
@@ -129,15 +137,15 @@ function checkEvent(e: UnitEvent, i: number): void {
       if (!(typeof e.kg === 'number' && e.kg >= 0 && e.kg < Number.POSITIVE_INFINITY)) {
         fail(e, i, `the amount must be 0 kg or more, not ${String(e.kg)}.`, '.kg');
       }
-      return;
+      return true;
     case 'leak_check':
       if (typeof e.leakFound !== 'boolean') fail(e, i, 'say whether a leak was found.', '.leakFound');
       if (e.location != null && !isLeakLocation(e.location)) fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
-      return;
+      return true;
     case 'repair':
       if (e.location != null && !isLeakLocation(e.location)) fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
       if (e.action != null && !isRepairAction(e.action)) fail(e, i, `"${String(e.action)}" is not a known repair action.`, '.action');
-      return;
+      return true;
     case 'pressure': {
       const { suctionKPaG: suction, dischargeKPaG: discharge, ambientC: ambient } = e;
       if (!optionalNumber(suction) || !optionalNumber(discharge) || !optionalNumber(ambient)) {
@@ -151,28 +159,16 @@ function checkEvent(e: UnitEvent, i: number): void {
       }
       if (ambient != null && ambient < ABSOLUTE_ZERO_C) fail(e, i, 'the ambient temperature is below absolute zero.', '.ambientC');
       if (e.sightGlass != null && !isSightGlassState(e.sightGlass)) fail(e, i, `"${String(e.sightGlass)}" is not a sight-glass state.`, '.sightGlass');
-      return;
+      return true;
     }
     case 'pti':
       if (typeof e.passed !== 'boolean') fail(e, i, 'say whether the PTI passed.', '.passed');
-      return;
-  }
-}
-
-function isKnownKind(kind: unknown): boolean {
-  switch (kind) {
-    case 'top_up':
-    case 'recovery':
-    case 'recharge':
-    case 'leak_check':
-    case 'repair':
-    case 'pressure':
-    case 'pti':
       return true;
     default:
       return false;
   }
 }
+
 
 /** Largest index below which `sorted[i] < value` (binary search). */
 function lowerBound(sorted: Float64Array, value: number): number {
@@ -220,13 +216,13 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
   let prevMs = Number.NEGATIVE_INFINITY;
   for (let i = 0; i < n; i++) {
     const e = events[i];
-    if (e === null || typeof e !== 'object' || !isKnownKind((e as { kind?: unknown }).kind)) {
+    if (e === null || typeof e !== 'object' || !checkEvent(e, i)) {
       ignored++;
       continue;
     }
+    if (e.visitId != null && typeof e.visitId !== 'string') fail(e, i, 'the visit id must be text.', '.visitId');
     const ms = isoToMs(e.at);
     if (Number.isNaN(ms)) parseIso(e.at, `events[${i}].at`, `Entry ${i + 1} date`);
-    checkEvent(e, i);
     if (ms > asOfMs) {
       afterAsOf++;
       continue;
@@ -242,7 +238,7 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
   const day = new Int32Array(count);
   const visitOf = new Int32Array(count);
 
-  const visits: Visit[] = [];
+  const visits: VisitStats[] = [];
   const byId = new Map<string, number>();
   // In time order all id-less events of one day are consecutive among the id-less ones.
   let dayVisit = -1;
@@ -257,7 +253,7 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
     let vi = id !== null ? byId.get(id) : d === dayVisitDay ? dayVisit : undefined;
     if (vi === undefined) {
       vi = visits.length;
-      visits.push(newVisit(vi, id, e.at, t, d));
+      visits.push(newVisit(id, e.at, d));
       if (id !== null) byId.set(id, vi);
       else {
         dayVisit = vi;
@@ -307,14 +303,12 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
 
 const NO_LOCATIONS: readonly LeakLocationId[] = Object.freeze([]);
 
-function newVisit(index: number, visitId: string | null, at: string, ms: number, day: number): Visit {
+function newVisit(visitId: string | null, at: string, day: number): VisitStats {
   return {
-    index,
     visitId,
     at,
-    ms,
-    day,
     date: isoDateOf(at, day),
+    day,
     site: null,
     toppedUpKg: 0,
     rechargedKg: 0,
@@ -326,6 +320,9 @@ function newVisit(index: number, visitId: string | null, at: string, ms: number,
     leakLocations: NO_LOCATIONS,
     repaired: false,
     verifiedRepair: false,
+    annualizedRatePct: null,
+    daysSincePreviousAddition: null,
+    rollingRatePct: 0,
   };
 }
 

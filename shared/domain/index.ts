@@ -98,6 +98,7 @@ export {
   type PressureEvent,
   type PtiEvent,
   type Visit,
+  type VisitStats,
 } from './events';
 export { annualizedLeakRatePct, rollingLeakRatePct, calendarYearSharePct, type RateVisit } from './leak-rate';
 export {
@@ -148,5 +149,5 @@ export {
   type RepairEffectivenessRow,
   type EmissionsRow,
 } from './fleet-analytics';
-export { computeUnitStats, type UnitInput, type UnitStats, type VisitStats } from './unit-stats';
+export { computeUnitStats, type UnitInput, type UnitStats } from './unit-stats';
 export { mergeRepairEffectiveness } from './repair-effectiveness-merge';

@@ -1,7 +1,7 @@
 import { addMonthsToDay, dayFromCivil, dayOf, isoDate, parseAsOf, parseIso, yearOfDay } from './dates';
 import { co2eTonnes as co2eOf, leakCheckIntervalForPolicy, CHRONIC_CALENDAR_YEAR_SHARE_PCT } from './emissions';
 import { DomainError } from './errors';
-import { prepareHistory, type PressureEvent, type UnitEvent } from './events';
+import { prepareHistory, type PressureEvent, type PtiEvent, type UnitEvent, type VisitStats } from './events';
 import { forecastFromVisits, type ForecastReason, type TopUpForecast } from './forecast';
 import { annualizedLeakRatePct, firstVisitInWindow, rollingSeries } from './leak-rate';
 import { isFiniteNumber, roundTo } from './numbers';
@@ -22,23 +22,6 @@ export interface UnitInput {
   leakDetection?: boolean;
   /** Hermetically sealed (EU: no checks below 10 t CO2e). */
   hermetic?: boolean;
-}
-
-export interface VisitStats {
-  visitId: string | null;
-  at: string;
-  date: string;
-  madeUpKg: number;
-  /** Only for visits with made-up refrigerant. */
-  annualizedRatePct: number | null;
-  daysSincePreviousAddition: number | null;
-  /** Rolling rate as of this visit's day. */
-  rollingRatePct: number;
-  recoveredKg: number;
-  excludedKg: number;
-  leakFound: boolean;
-  repaired: boolean;
-  verifiedRepair: boolean;
 }
 
 export interface UnitStats {
@@ -105,34 +88,19 @@ export function computeUnitStats(
 
   // Rates per visit and as of the day.
   const series = rollingSeries(visits, full, rollingDays);
-  const visitStats: VisitStats[] = new Array<VisitStats>(visits.length);
   let lastAdditionDay = startDay;
   let calendarKg = 0;
   const yearStart = dayFromCivil(yearOfDay(asOfDay), 1, 1);
   for (let i = 0; i < visits.length; i++) {
     const v = visits[i];
-    let annualized: number | null = null;
-    let since: number | null = null;
     if (v.madeUpKg > 0) {
-      since = Math.max(0, v.day - lastAdditionDay);
-      annualized = annualizedLeakRatePct(v.madeUpKg, full, since);
+      const since = Math.max(0, v.day - lastAdditionDay);
+      v.daysSincePreviousAddition = since;
+      v.annualizedRatePct = roundTo(annualizedLeakRatePct(v.madeUpKg, full, since), 2);
       if (v.day >= yearStart) calendarKg += v.madeUpKg;
     }
     if (v.added) lastAdditionDay = v.day;
-    visitStats[i] = {
-      visitId: v.visitId,
-      at: v.at,
-      date: v.date,
-      madeUpKg: roundTo(v.madeUpKg, 3),
-      annualizedRatePct: annualized === null ? null : roundTo(annualized, 2),
-      daysSincePreviousAddition: since,
-      rollingRatePct: roundTo(series.pctAtVisit[i], 2),
-      recoveredKg: roundTo(v.recoveredKg, 3),
-      excludedKg: roundTo(v.excludedKg, 3),
-      leakFound: v.leakFound,
-      repaired: v.repaired,
-      verifiedRepair: v.verifiedRepair,
-    };
+    v.rollingRatePct = roundTo(series.pctAtVisit[i], 2);
   }
   const windowStart = firstVisitInWindow(visits, asOfDay, rollingDays);
   const from = Math.max(windowStart, series.lastRepair + 1);
@@ -157,49 +125,55 @@ export function computeUnitStats(
   let topUps = 0;
   let repairs = 0;
   let leakChecks = 0;
-  let lastLeakCheck: { at: string; day: number } | null = null;
+  // Positions (in time order) of the last leak check and PTI, and of the first leak found since the last repair.
+  let lastLeakCheck = -1;
+  let lastPti = -1;
+  let openLeak = -1;
+  let openLeakLocation: LeakLocationId | null = null;
   let lastRepairDay: number | null = null;
   let checkedAfterRepair = false;
-  let lastPti: { at: string; day: number; passed: boolean } | null = null;
-  let openLeak: { foundAt: string; location: LeakLocationId | null; visit: number } | null = null;
+  const { ms: msAt, day: dayAt } = history;
   for (let k = 0; k < count; k++) {
     const e = source[order[k]];
-    const ms = history.ms[k];
-    const day = history.day[k];
     switch (e.kind) {
       case 'top_up':
         topUps++;
         break;
       case 'recharge':
-        if (e.kg > 0) resets.push(ms);
+        if (e.kg > 0) resets.push(msAt[k]);
         break;
       case 'leak_check':
         leakChecks++;
-        lastLeakCheck = { at: e.at, day };
-        if (lastRepairDay !== null && day > lastRepairDay) checkedAfterRepair = true;
+        lastLeakCheck = k;
+        if (lastRepairDay !== null && dayAt[k] > lastRepairDay) checkedAfterRepair = true;
         if (e.leakFound) {
-          if (openLeak === null) openLeak = { foundAt: e.at, location: e.location ?? null, visit: history.visitOf[k] };
-          else if (openLeak.location === null && e.location) openLeak.location = e.location;
+          if (openLeak < 0) {
+            openLeak = k;
+            openLeakLocation = e.location ?? null;
+          } else if (openLeakLocation === null && e.location) openLeakLocation = e.location;
         }
         break;
       case 'repair':
         repairs++;
-        lastRepairDay = day;
+        lastRepairDay = dayAt[k];
         checkedAfterRepair = false;
-        openLeak = null;
-        if (e.verified === true) resets.push(ms);
+        openLeak = -1;
+        openLeakLocation = null;
+        if (e.verified === true) resets.push(msAt[k]);
         break;
       case 'pressure':
         readings.push(e);
-        readingMs.push(ms);
+        readingMs.push(msAt[k]);
         break;
       case 'pti':
-        lastPti = { at: e.at, day, passed: e.passed };
+        lastPti = k;
         break;
     }
   }
   // A repair recorded in the same visit as the find clears it, whatever order the two were entered in.
-  if (openLeak !== null && visits[openLeak.visit].repaired) openLeak = null;
+  if (openLeak >= 0 && visits[history.visitOf[openLeak]].repaired) openLeak = -1;
+  const pti = lastPti >= 0 ? (source[order[lastPti]] as PtiEvent) : null;
+  const leakCheckAt = lastLeakCheck >= 0 ? source[order[lastLeakCheck]].at : null;
   if (resets.length > 1 && startMs !== null) resets.sort((a, b) => a - b);
 
   const pressure = pressureHealthFromReadings(code, readings, readingMs, resets, settings);
@@ -211,11 +185,11 @@ export function computeUnitStats(
   );
   let dueDay: number | null = null;
   if (interval !== null) {
-    dueDay = addMonthsToDay(lastLeakCheck?.day ?? startDay, interval);
+    dueDay = addMonthsToDay(lastLeakCheck >= 0 ? dayAt[lastLeakCheck] : startDay, interval);
     // Re-check within one month of a repair (Reg. (EU) 2024/573), unless a leak check on a later day did it.
     if (lastRepairDay !== null && !checkedAfterRepair) dueDay = Math.min(dueDay, addMonthsToDay(lastRepairDay, 1));
   }
-  const ptiUntilDay = lastPti?.passed ? lastPti.day + settings.ptiValidityDays : null;
+  const ptiUntilDay = pti?.passed ? dayAt[lastPti] + settings.ptiValidityDays : null;
 
   return {
     asOf: isoDate(asOfDay),
@@ -228,19 +202,19 @@ export function computeUnitStats(
     totalMadeUpKg365: roundTo(madeUp365, 3),
     co2eTonnes: roundTo(tCO2e, 3),
     leakCheckIntervalMonths: interval,
-    lastLeakCheckAt: lastLeakCheck?.at ?? null,
+    lastLeakCheckAt: leakCheckAt,
     nextLeakCheckDue: dueDay === null ? null : isoDate(dueDay),
     leakCheckOverdue: dueDay !== null && dueDay < asOfDay,
-    lastPtiAt: lastPti?.at ?? null,
-    ptiPassed: lastPti?.passed ?? null,
+    lastPtiAt: pti?.at ?? null,
+    ptiPassed: pti?.passed ?? null,
     ptiValidUntil: ptiUntilDay === null ? null : isoDate(ptiUntilDay),
     ptiValid: ptiUntilDay !== null && asOfDay <= ptiUntilDay,
     score,
     forecast,
     forecastReason: reason,
     pressureHealth: pressure.health,
-    openLeak: openLeak === null ? null : { foundAt: openLeak.foundAt, location: openLeak.location },
-    visits: visitStats,
+    openLeak: openLeak < 0 ? null : { foundAt: source[order[openLeak]].at, location: openLeakLocation },
+    visits,
     snapshots: pressure.snapshots,
     counts: {
       events: count,

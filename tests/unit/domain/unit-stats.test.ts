@@ -181,7 +181,7 @@ describe('history edges', () => {
       { kind: 'top_up', at: day(-10), kg: 1 },
       { kind: 'top_up', at: `${D}T23:59:00Z`, kg: 1 },
       { kind: 'top_up', at: day(5), kg: 1 },
-      { kind: 'note', at: day(-1), note: 'checked the plug' },
+      { kind: 'note', at: day(-1), note: 'checked the plug', visitId: 12 },
     ] as unknown as UnitEvent[];
     const s = computeUnitStats(unit, events, D);
     // a date-only "as of" means the end of that day
@@ -235,6 +235,7 @@ describe('bad input', () => {
   it('names negative amounts, readings below vacuum and unknown words', () => {
     expectError(() => computeUnitStats(unit, [{ kind: 'top_up', at: D, kg: -0.5 }], D), 'events[0].kg', /0 kg or more/);
     expectError(() => computeUnitStats(unit, [{ kind: 'pressure', at: D, suctionKPaG: -120 }], D), 'events[0].suctionKPaG', /below a perfect vacuum/);
+    expectError(() => computeUnitStats(unit, [{ kind: 'pressure', at: D, dischargeKPaG: -200 }], D), 'events[0].dischargeKPaG', /discharge reading/);
     expectError(() => computeUnitStats(unit, [{ kind: 'pressure', at: D, dischargeKPaG: Number.NaN }], D), 'events[0]', /must be numbers/);
     expectError(() => computeUnitStats(unit, [{ kind: 'pressure', at: D, ambientC: -300 }], D), 'events[0].ambientC', /absolute zero/);
     expectError(() => computeUnitStats(unit, [{ kind: 'pressure', at: D, sightGlass: 'cloudy' as 'full' }], D), 'events[0].sightGlass', /sight-glass/);
