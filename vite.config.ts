@@ -2,7 +2,7 @@ import tailwindcss from '@tailwindcss/vite';
 import react from '@vitejs/plugin-react';
 import { defineConfig } from 'vite';
 
-// The Express server owns /api (JSON) and /u (QR label links); in development Vite forwards both to it.
+// The Express server owns /api; in development Vite forwards it there. /u/<token> (QR labels) is a client route.
 const apiOrigin = 'http://localhost:3000';
 
 export default defineConfig({
@@ -13,7 +13,6 @@ export default defineConfig({
     strictPort: true,
     proxy: {
       '/api': { target: apiOrigin },
-      '/u': { target: apiOrigin },
     },
   },
 });

@@ -5,13 +5,19 @@ import { FullPageRouteError, RouteError } from '../components/errors/route-error
 import { AppSplash } from '../components/layouts/app-splash';
 import { paths } from '../config/paths';
 import { setUnauthenticatedHandler } from '../lib/query-client';
-import { page } from './route-module';
+import { lazyPage, page } from './route-module';
 import * as protectedLayout from './routes/app/layout';
 import * as homeRoute from './routes/app/home';
 import * as signInRoute from './routes/auth/sign-in';
 import * as notFoundRoute from './routes/errors/not-found';
 import * as peopleRoute from './routes/people/people';
 import * as unitsRoute from './routes/units/units';
+import * as unitRoute from './routes/units/unit';
+import * as newUnitRoute from './routes/units/new-unit';
+import * as editUnitRoute from './routes/units/edit-unit';
+import * as unitImportRoute from './routes/units/import';
+import * as sitesRoute from './routes/units/sites';
+import * as labelLinkRoute from './routes/units/label-link';
 import * as inviteRoute from './routes/auth/invite';
 import * as resetPasswordRoute from './routes/auth/reset-password';
 import * as forgotPasswordRoute from './routes/auth/forgot-password';
@@ -48,6 +54,13 @@ export function createAppRouter(queryClient: QueryClient) {
           children: [
             { index: true, ...page(homeRoute, queryClient) },
             { path: paths.units.path, ...page(unitsRoute, queryClient, paths.units.permission) },
+            { path: paths.newUnit.path, ...page(newUnitRoute, queryClient, paths.newUnit.permission) },
+            { path: paths.unitImport.path, ...page(unitImportRoute, queryClient, paths.unitImport.permission) },
+            { path: paths.unit.path, ...page(unitRoute, queryClient, paths.unit.permission) },
+            { path: paths.editUnit.path, ...page(editUnitRoute, queryClient, paths.editUnit.permission) },
+            { path: paths.sites.path, ...page(sitesRoute, queryClient, paths.sites.permission) },
+            { path: paths.labelLink.path, ...page(labelLinkRoute, queryClient, paths.labelLink.permission) },
+            { path: paths.scan.path, ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission) },
             { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
             { path: paths.alertSettings.path, ...page(alertSettingsRoute, queryClient, paths.alertSettings.permission) },
             { path: paths.mailbox.path, ...page(mailboxRoute, queryClient, paths.mailbox.permission) },

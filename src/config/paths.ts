@@ -34,6 +34,43 @@ export const paths = {
     getHref: (q?: string) => (q ? `/units?q=${encodeURIComponent(q)}` : '/units'),
     permission: 'view:unit',
   },
+  scan: {
+    path: '/scan',
+    getHref: () => '/scan',
+    permission: 'view:unit',
+  },
+  unit: {
+    path: '/units/:id',
+    getHref: (id: number) => `/units/${id}`,
+    permission: 'view:unit',
+  },
+  newUnit: {
+    path: '/units/new',
+    getHref: (containerNumber?: string) =>
+      containerNumber ? `/units/new?number=${encodeURIComponent(containerNumber)}` : '/units/new',
+    permission: 'manage:units',
+  },
+  editUnit: {
+    path: '/units/:id/edit',
+    getHref: (id: number) => `/units/${id}/edit`,
+    permission: 'manage:units',
+  },
+  unitImport: {
+    path: '/units/import',
+    getHref: () => '/units/import',
+    permission: 'manage:units',
+  },
+  sites: {
+    path: '/sites',
+    getHref: () => '/sites',
+    permission: 'manage:units',
+  },
+  // What a QR label encodes (<PUBLIC_URL>/u/<token>); resolves the token and opens the unit.
+  labelLink: {
+    path: '/u/:token',
+    getHref: (token: string) => `/u/${encodeURIComponent(token)}`,
+    permission: 'view:unit',
+  },
   people: {
     path: '/people',
     getHref: () => '/people',
@@ -67,7 +104,7 @@ export const paths = {
   },
 } as const satisfies Record<string, PathEntry>;
 
-export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail';
+export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import';
 
 export type NavEntry = {
   label: string;
@@ -84,7 +121,9 @@ export type NavEntry = {
 /** Navigation, in display order. Phones show these as the bottom tab bar (keep it at five or fewer). */
 export const navEntries: readonly NavEntry[] = [
   { label: 'Home', href: paths.home.getHref(), icon: 'home', end: true },
+  { label: 'Scan', href: paths.scan.getHref(), icon: 'scan', permission: paths.scan.permission },
   { label: 'Units', href: paths.units.getHref(), icon: 'units', permission: paths.units.permission },
+  { label: 'Import', href: paths.unitImport.getHref(), icon: 'import', permission: paths.unitImport.permission },
   { label: 'People', href: paths.people.getHref(), icon: 'people', permission: paths.people.permission },
   { label: 'Alerts', href: paths.alertSettings.getHref(), icon: 'alerts', permission: paths.alertSettings.permission },
   { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },

@@ -34,6 +34,10 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
 
   const devTools = useDevTools(can(user, 'manage:settings'));
   const entries = navEntries.filter((entry) => (!entry.permission || can(user, entry.permission)) && (!entry.devOnly || devTools));
+  // The most specific entry is the current one: on /units/import only "Import" lights up, not "Units" too.
+  const current = entries
+    .filter((e) => location.pathname === e.href || (!e.end && location.pathname.startsWith(`${e.href.replace(/\/$/, '')}/`)))
+    .sort((a, b) => b.href.length - a.href.length)[0]?.href;
 
   return (
     <div className="min-h-dvh md:grid md:grid-cols-[var(--spacing-rail)_1fr] md:grid-rows-[auto_1fr]">
@@ -86,24 +90,25 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
                 <NavLink
                   to={entry.href}
                   end={entry.end}
-                  className={({ isActive }) =>
+                  aria-current={entry.href === current ? 'page' : 'false'}
+                  className={() =>
                     cx(
                       'relative flex min-h-tabbar flex-col items-center justify-center gap-1 px-2 text-sm font-semibold',
                       'md:min-h-touch md:flex-row md:justify-start md:gap-3 md:rounded-md md:px-3 md:text-base',
-                      isActive
+                      entry.href === current
                         ? 'text-lime-400 md:bg-fjord-50 md:text-fjord-900'
                         : 'text-ink-200 hover:text-white md:text-ink-800 md:hover:bg-ink-50 md:hover:text-ink-950',
                     )
                   }
                 >
-                  {({ isActive }) => (
+                  {() => (
                     <>
                       <span
                         aria-hidden="true"
                         className={cx(
                           'absolute top-0 inset-x-5 h-1 rounded-b-sm bg-lime-400',
                           'md:inset-x-auto md:inset-y-2 md:left-0 md:h-auto md:w-1 md:rounded-none md:rounded-r-sm md:bg-fjord-700',
-                          !isActive && 'hidden',
+                          entry.href !== current && 'hidden',
                         )}
                       />
                       <Icon className="size-7 md:size-6" />

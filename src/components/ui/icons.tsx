@@ -88,10 +88,28 @@ export const MailIcon = (p: IconProps) => (
   </Icon>
 );
 
+/** A QR finder pattern in a scan frame. */
+export const ScanIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M3.5 8V4.5h3.5M17 4.5h3.5V8M20.5 16v3.5H17M7 19.5H3.5V16" />
+    <rect x="8" y="8" width="8" height="8" rx="1" />
+  </Icon>
+);
+
+/** A sheet with rows going up into the registry. */
+export const ImportIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M6 3.5h8l4 4v13H6z" />
+    <path d="M12 17.5v-7M9 13l3-3 3 3" />
+  </Icon>
+);
+
 export const navIcons: Record<NavIcon, (p: IconProps) => ReactElement> = {
   home: HomeIcon,
   units: UnitsIcon,
   people: PeopleIcon,
+  scan: ScanIcon,
+  import: ImportIcon,
   alerts: BellIcon,
   mail: MailIcon,
 };

@@ -1,20 +1,10 @@
 import { useId, useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
+import { normalizeContainerNumber } from '../../../../shared/domain';
 import { paths } from '../../../config/paths';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { SearchIcon } from '../../../components/ui/icons';
-
-/** Spaces and case do not matter in a container number; the search gets it in one canonical form. */
-export function normalizeContainerQuery(input: string): string {
-  return input.replace(/[\s-]+/g, '').toUpperCase();
-}
-
-/** "HLYU3102763" → "HLYU 310276 3", the way it is painted; anything else is shown as typed. */
-export function formatContainerNumber(q: string): string {
-  const m = /^([A-Z]{4})(\d{6})(\d)$/.exec(q);
-  return m ? `${m[1]} ${m[2]} ${m[3]}` : q;
-}
 
 /** Find a unit by its ISO 6346 container number; goes to /units?q=… */
 export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: string; className?: string }) {
@@ -25,7 +15,7 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
 
   const onSubmit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
-    const q = normalizeContainerQuery(value);
+    const q = normalizeContainerNumber(value);
     if (!q) {
       setError('Enter a container number');
       return;
@@ -40,7 +30,7 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
         Container number
       </label>
       <p id={`${id}-hint`} className="text-sm text-ink-600">
-        Four letters and seven digits, as painted on the unit — for example HLYU 310276 3.
+        Four letters and seven digits, as painted on the unit — or just the start of it, for example HRLU 1000.
       </p>
       <div className="mt-1 flex flex-col gap-3 sm:flex-row">
         <input
@@ -54,7 +44,7 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
           spellCheck={false}
           enterKeyHint="search"
           maxLength={20}
-          placeholder="HLYU 310276 3"
+          placeholder="HRLU 100001 6"
           aria-invalid={error ? true : undefined}
           aria-describedby={cx(`${id}-hint`, error && `${id}-error`)}
           className={cx(

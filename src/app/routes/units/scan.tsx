@@ -1,0 +1,31 @@
+// Loaded lazily: the camera scanner brings @zxing/browser with it.
+import { useNavigate } from 'react-router-dom';
+import type { UnitDto } from '../../../../shared/schemas/units';
+import { PageHeader } from '../../../components/ui/page';
+import { paths } from '../../../config/paths';
+import { QrScanner } from '../../../features/units/components/qr-scanner';
+import { LookupMessage, ManualLookup, useUnitLookup } from '../../../features/units/components/unit-lookup';
+
+export default function ScanPage() {
+  const navigate = useNavigate();
+  const lookup = useUnitLookup((unit: UnitDto) => void navigate(paths.unit.getHref(unit.id)));
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader title="Scan a label" description="Point the camera at the unit’s Tightloop QR label, or type its container number." />
+      <div aria-live="polite">
+        <LookupMessage state={lookup.state} registerHref={paths.newUnit.getHref} />
+      </div>
+      <div className="grid gap-6 md:grid-cols-2 md:items-start">
+        <section aria-label="Camera" className="rounded-lg border-2 border-ink-950 bg-white p-3 md:p-4">
+          <QrScanner onCode={lookup.byScan} />
+        </section>
+        <section aria-labelledby="manual-title" className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6">
+          <h2 id="manual-title" className="text-xl font-bold">
+            No label? Type the number
+          </h2>
+          <ManualLookup onLookup={lookup.byNumber} busy={lookup.state.kind === 'looking'} />
+        </section>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,53 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { PlusIcon } from '../../../components/ui/icons';
+import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
+import { Spinner } from '../../../components/ui/spinner';
+import { sitesQuery, useSites } from '../../../features/units/api/get-sites';
+import { SiteForm } from '../../../features/units/components/site-form';
+import { SitesList } from '../../../features/units/components/sites-list';
+
+export const loader = (queryClient: QueryClient) => async () => {
+  await queryClient.prefetchQuery(sitesQuery());
+  return null;
+};
+
+export default function SitesPage() {
+  const sites = useSites();
+  const [adding, setAdding] = useState(false);
+  return (
+    <div className="flex flex-col gap-6">
+      <PageHeader
+        title="Sites"
+        description="Depots, terminals, vessels and workshops where units are kept and serviced."
+        actions={
+          !adding && (
+            <Button onClick={() => setAdding(true)}>
+              <PlusIcon className="size-5" /> Add site
+            </Button>
+          )
+        }
+      />
+      {adding && (
+        <Panel className="border-ink-950">
+          <SiteForm onSaved={() => setAdding(false)} onCancel={() => setAdding(false)} />
+        </Panel>
+      )}
+      {sites.isPending ? (
+        <p role="status" className="flex items-center gap-3 text-lg">
+          <Spinner /> Loading sites…
+        </p>
+      ) : sites.isError ? (
+        <Alert tone="alarm" title="The sites could not be loaded">
+          {sites.error.message}
+        </Alert>
+      ) : sites.data.length === 0 ? (
+        <EmptyState title="No sites yet">Add the depots and terminals where your units are, so each unit can name its place.</EmptyState>
+      ) : (
+        <SitesList sites={sites.data} />
+      )}
+    </div>
+  );
+}

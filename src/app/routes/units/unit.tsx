@@ -1,0 +1,78 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { NotFound } from '../../../components/errors/not-found';
+import { Alert } from '../../../components/ui/alert';
+import { Button, ButtonLink } from '../../../components/ui/button';
+import { Spinner } from '../../../components/ui/spinner';
+import { paths } from '../../../config/paths';
+import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
+import { UnitChanges } from '../../../features/units/components/unit-changes';
+import { UnitIdentity } from '../../../features/units/components/unit-identity';
+import { UnitLabelActions } from '../../../features/units/components/unit-label-actions';
+import { isApiError } from '../../../lib/api-client';
+import { Can } from '../../../lib/can';
+
+const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const id = idOf(params.id);
+    if (id !== null) await queryClient.prefetchQuery(unitQuery(id));
+    return null;
+  };
+
+export default function UnitPage() {
+  const id = idOf(useParams().id);
+  return id === null ? <NotFound /> : <UnitRecord id={id} />;
+}
+
+function UnitRecord({ id }: { id: number }) {
+  const unit = useUnit(id);
+
+  if (unit.isPending) {
+    return (
+      <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-lg text-ink-700">
+        <Spinner /> Opening the unit…
+      </div>
+    );
+  }
+  if (unit.isError) {
+    if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
+    return (
+      <Alert tone="alarm" title="The unit could not be loaded">
+        <p>{unit.error.message}</p>
+        <Button variant="secondary" className="mt-3" onClick={() => void unit.refetch()} pending={unit.isFetching}>
+          Try again
+        </Button>
+      </Alert>
+    );
+  }
+
+  return (
+    <div className="flex flex-col gap-6">
+      <UnitIdentity
+        unit={unit.data}
+        actions={
+          <Can permission="manage:units">
+            <ButtonLink to={paths.editUnit.getHref(unit.data.id)} variant="secondary">
+              Edit
+            </ButtonLink>
+          </Can>
+        }
+      />
+
+      {/*
+        ── SERVICE HISTORY SLOT ─────────────────────────────────────────────────────────────────────────────
+        The unit's timeline, figures and entries go here (features/history), between who the unit is and the
+        registry actions below. `unit.data` carries id and commissionedOn.
+        ──────────────────────────────────────────────────────────────────────────────────────────────────────
+      */}
+
+      <Can permission="manage:units">
+        <UnitLabelActions unit={unit.data} />
+      </Can>
+      <UnitChanges unitId={unit.data.id} />
+    </div>
+  );
+}

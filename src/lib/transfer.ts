@@ -1,0 +1,67 @@
+// Requests the JSON api-client does not cover: multipart uploads with progress, and files (PDF, CSV) to save.
+import { apiErrorDto } from '../../shared/schemas/common';
+import { ApiError } from './api-client';
+
+export type TransferProgress = { loaded: number; total: number };
+
+function errorFrom(status: number, body: unknown, fallback: string): ApiError {
+  const parsed = apiErrorDto.safeParse(body);
+  if (parsed.success) {
+    const { code, message, fields } = parsed.data.error;
+    return new ApiError(status, code, message, fields);
+  }
+  return new ApiError(status, status >= 500 ? 'server_error' : 'http_error', fallback);
+}
+
+/** POSTs a form; XMLHttpRequest rather than fetch because only it reports upload progress. Resolves the JSON answer. */
+export function uploadForm<T>(url: string, form: FormData, onProgress?: (p: TransferProgress) => void): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', url);
+    xhr.withCredentials = true;
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) onProgress?.({ loaded: e.loaded, total: e.total });
+    };
+    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'The upload did not get through. Check the connection and try again.'));
+    xhr.onload = () => {
+      let json: unknown = undefined;
+      try {
+        json = JSON.parse(xhr.responseText);
+      } catch {
+        // Not JSON: the status decides.
+      }
+      if (xhr.status >= 200 && xhr.status < 300) resolve(json as T);
+      else reject(errorFrom(xhr.status, json, xhr.status === 413 ? 'The file is too large.' : 'The upload failed. Try again.'));
+    };
+    xhr.send(form);
+  });
+}
+
+/** Fetches a file the server makes (a PDF) and hands it to the browser to open or save under `fileName`. */
+export async function saveFile(url: string, fileName: string, init: { method?: 'GET' | 'POST'; body?: unknown } = {}): Promise<void> {
+  let response: Response;
+  try {
+    response = await fetch(url, {
+      method: init.method ?? 'GET',
+      credentials: 'include',
+      headers: init.body === undefined ? undefined : { 'Content-Type': 'application/json' },
+      body: init.body === undefined ? undefined : JSON.stringify(init.body),
+    });
+  } catch {
+    throw new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');
+  }
+  if (!response.ok) {
+    const body: unknown = await response.json().catch(() => undefined);
+    throw errorFrom(response.status, body, 'The file could not be made. Try again.');
+  }
+  const href = URL.createObjectURL(await response.blob());
+  const a = document.createElement('a');
+  a.href = href;
+  a.download = fileName;
+  document.body.append(a);
+  a.click();
+  a.remove();
+  // Give the browser time to start the download before the object URL goes.
+  setTimeout(() => URL.revokeObjectURL(href), 60_000);
+}

@@ -1,0 +1,98 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { mkdtempSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { inArray } from 'drizzle-orm';
+import { createDb } from '../../server/db/client';
+import { units } from '../../server/db/schema';
+import { newToken } from '../../server/lib/ids';
+import { formatContainerNumber } from '../../shared/domain';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
+import { openBrowser, signInThroughForm } from '../support/browser';
+import { halyardNumber, withWrongCheckDigit } from '../support/units';
+import { writeQrY4m } from '../support/y4m';
+
+const technician = DEMO_ACCOUNTS.find((a) => a.role === 'technician')!;
+const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
+const tmp = mkdtempSync(path.join(os.tmpdir(), 'tightloop-scan-'));
+let unit: { id: number; containerNumber: string; qrToken: string };
+
+/** A unit of our own, on a serial the demo fleet does not use. */
+async function createUnit() {
+  const candidates = Array.from({ length: 20 }, (_, i) => halyardNumber(990_000 + ((Date.now() + i * 37) % 9_999)));
+  const taken = new Set((await db.select({ n: units.containerNumber }).from(units).where(inArray(units.containerNumber, candidates))).map((r) => r.n));
+  const containerNumber = candidates.find((c) => !taken.has(c))!;
+  const qrToken = newToken();
+  const [{ id }] = await db.insert(units).values({ containerNumber, refrigerant: 'R-134a', nominalChargeKg: 4.5, qrToken }).$returningId();
+  return { id, containerNumber, qrToken };
+}
+
+beforeAll(async () => {
+  unit = await createUnit();
+});
+afterAll(async () => {
+  await pool.end();
+  rmSync(tmp, { recursive: true, force: true });
+});
+
+describe('scanning a label', () => {
+  it('reads the QR label through the camera and lands on the unit page', async () => {
+    const video = path.join(tmp, 'label.y4m');
+    writeQrY4m(video, `${inject('baseUrl')}/u/${unit.qrToken}`);
+    const browser = await openBrowser({
+      extraArgs: ['--use-fake-ui-for-media-stream', '--use-fake-device-for-media-stream', `--use-file-for-fake-video-capture=${video}`],
+    });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Scan' }).click();
+      await page.waitForURL(new RegExp(`/units/${unit.id}$`), { timeout: 20_000 });
+      await page.getByRole('heading', { level: 1, name: formatContainerNumber(unit.containerNumber) }).waitFor();
+      expect(browser.pageErrors).toEqual([]);
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('says which check digit a typed number implies, then opens the unit once it is right', async () => {
+    const browser = await openBrowser();
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('link', { name: 'Home' }).first().waitFor();
+      await page.goto('/scan');
+      const { number, expected } = withWrongCheckDigit(unit.containerNumber);
+      const field = page.getByLabel('Container number', { exact: true });
+      await field.fill(number.toLowerCase());
+      await page.getByText(`Check digit should be ${expected}`).waitFor();
+      await page.getByRole('button', { name: 'Open unit' }).click();
+      await page.getByText(`gives ${expected}, not ${number.charAt(10)}`).waitFor();
+      expect(page.url()).toMatch(/\/scan$/);
+
+      await field.fill(formatContainerNumber(unit.containerNumber));
+      await page.getByText('Valid ISO 6346 number').waitFor();
+      await page.getByRole('button', { name: 'Open unit' }).click();
+      await page.waitForURL(new RegExp(`/units/${unit.id}$`));
+      expect(browser.pageErrors).toEqual([]);
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('opens the unit from the label address itself, after signing in', async () => {
+    const browser = await openBrowser();
+    try {
+      const { page } = browser;
+      await page.goto(`/u/${unit.qrToken}`);
+      await page.waitForURL(/\/sign-in\?next=/);
+      await page.getByLabel('E-mail').fill(technician.email);
+      await page.getByLabel('Password', { exact: true }).fill(DEMO_PASSWORD);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.waitForURL(new RegExp(`/units/${unit.id}$`));
+      await page.goto(`/u/${'x'.repeat(43)}`);
+      await page.getByText('This label is not linked to any unit').waitFor();
+    } finally {
+      await browser.close();
+    }
+  });
+});
