@@ -61,6 +61,10 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: paths.sites.path, ...page(sitesRoute, queryClient, paths.sites.permission) },
             { path: paths.labelLink.path, ...page(labelLinkRoute, queryClient, paths.labelLink.permission) },
             { path: paths.scan.path, ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission) },
+            {
+              path: paths.unitVisit.path,
+              ...lazyPage(() => import('./routes/units/record-visit'), queryClient, paths.unitVisit.permission),
+            },
             { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
             { path: paths.alertSettings.path, ...page(alertSettingsRoute, queryClient, paths.alertSettings.permission) },
             { path: paths.mailbox.path, ...page(mailboxRoute, queryClient, paths.mailbox.permission) },

@@ -71,6 +71,11 @@ export const paths = {
     getHref: (token: string) => `/u/${encodeURIComponent(token)}`,
     permission: 'view:unit',
   },
+  unitVisit: {
+    path: '/units/:id/visit',
+    getHref: (id: number) => `/units/${id}/visit`,
+    permission: 'record:event',
+  },
   people: {
     path: '/people',
     getHref: () => '/people',

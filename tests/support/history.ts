@@ -10,11 +10,14 @@ import { halyardNumber } from './units';
 
 let serial = 0;
 
-/** A unit with a valid HRLU number; serials from a time-based base so repeated runs on one database do not clash. */
+/**
+ * A unit with a valid container number under its own owner code (HLQU, apart from the demo fleet's), serials from a
+ * time-based base so repeated runs on one database do not clash.
+ */
 export async function createHistoryUnit(db: Db, overrides: Partial<typeof units.$inferInsert> = {}) {
   serial += 1;
   const row = {
-    containerNumber: halyardNumber(100_000 + ((Math.floor(Date.now() / 1000) * 10 + serial) % 800_000)),
+    containerNumber: halyardNumber(100_000 + ((Math.floor(Date.now() / 1000) * 10 + serial) % 800_000), 'HLQ'),
     refrigerant: 'R-134a',
     nominalChargeKg: 4.5,
     commissionedOn: '2019-04-10',

@@ -1,4 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { lazy, Suspense } from 'react';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { NotFound } from '../../../components/errors/not-found';
 import { Alert } from '../../../components/ui/alert';
@@ -6,11 +7,19 @@ import { Button, ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
+import { unitKeys } from '../../../features/units/api/keys';
 import { UnitChanges } from '../../../features/units/components/unit-changes';
 import { UnitIdentity } from '../../../features/units/components/unit-identity';
 import { UnitLabelActions } from '../../../features/units/components/unit-label-actions';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
+
+// The charts (visx) load with the history, not with the app shell.
+const ServiceHistory = lazy(() =>
+  import('../../../features/history/components/service-history').then((m) => ({ default: m.ServiceHistory })),
+);
+// A visit or a void can change the unit's own record (its status), so the registry's copy is refreshed too.
+const historyChangesUnit = (unitId: number) => [unitKeys.detail(unitId)];
 
 const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
 
@@ -68,6 +77,14 @@ function UnitRecord({ id }: { id: number }) {
         registry actions below. `unit.data` carries id and commissionedOn.
         ──────────────────────────────────────────────────────────────────────────────────────────────────────
       */}
+      <Suspense fallback={<Spinner />}>
+        <ServiceHistory
+          unitId={unit.data.id}
+          commissionedOn={unit.data.commissionedOn}
+          recordHref={paths.unitVisit.getHref(unit.data.id)}
+          alsoInvalidate={historyChangesUnit}
+        />
+      </Suspense>
 
       <Can permission="manage:units">
         <UnitLabelActions unit={unit.data} />

@@ -27,6 +27,9 @@ export function useRecordVisit(options: { alsoInvalidate?: (unitId: number) => Q
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: recordVisit,
+    // Try even when the browser says it is offline: a failed attempt is what puts the visit in the phone's queue
+    // (the default would hold the mutation in memory, lost with the page).
+    networkMode: 'always',
     onSuccess: (result, input) => {
       // Not awaited: the form shows "saved" at once; the unit page refetches in the background.
       void refreshAfterVisit(queryClient, result, input.unitId, options.alsoInvalidate?.(input.unitId));

@@ -57,6 +57,8 @@ export function uploadAttachments(
 export function useUploadAttachments(unitId: number) {
   const queryClient = useQueryClient();
   return useMutation({
+    // Offline, fail at once with a message instead of waiting silently.
+    networkMode: 'always',
     mutationFn: ({ eventId, files, onProgress }: { eventId: number; files: File[]; onProgress?: (p: UploadProgress) => void }) =>
       uploadAttachments({ eventId, files }, onProgress),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: historyKeys.unit(unitId) }),

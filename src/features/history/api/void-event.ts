@@ -11,6 +11,8 @@ export async function voidEvent({ eventId, reason }: { eventId: number; reason: 
 export function useVoidEvent(unitId: number, options: { alsoInvalidate?: QueryKey[] } = {}) {
   const queryClient = useQueryClient();
   return useMutation({
+    // Offline, fail at once with a message instead of waiting silently.
+    networkMode: 'always',
     mutationFn: voidEvent,
     onSuccess: async ({ stats }) => {
       queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) => (old ? { ...old, stats } : old));

@@ -101,16 +101,22 @@ function EntryDetails({ e }: { e: EventDto }) {
       break;
     case 'pressure': {
       const as = (enteredAs(e) ?? {}) as EnteredPressure;
-      const items: [string, string | null][] = [
-        ['Suction', pressure(e.suctionKPaG, as.pressureUnit)],
-        ['Discharge', pressure(e.dischargeKPaG, as.pressureUnit)],
-        ['Ambient', temperature(e.ambientC, as.temperatureUnit)],
-        ['Set point', temperature(e.setPointC, as.temperatureUnit)],
-        ['Supply air', temperature(e.supplyAirC, as.temperatureUnit)],
-        ['Return air', temperature(e.returnAirC, as.temperatureUnit)],
-        ['Sight glass', e.sightGlass ? termLabel(SIGHT_GLASS_STATES, e.sightGlass) : null],
-      ];
-      for (const [label, v] of items) if (v) rows.push(<Detail key={label} label={label}>{v}</Detail>);
+      const p = (v: number | null) => pressure(v, as.pressureUnit);
+      const t = (v: number | null) => temperature(v, as.temperatureUnit);
+      const pair = (a: string | null, b: string | null) => [a, b].filter(Boolean).join(' · ');
+      if (e.suctionKPaG !== null) rows.push(<Detail key="s" label="Suction">{p(e.suctionKPaG)}</Detail>);
+      if (e.dischargeKPaG !== null) rows.push(<Detail key="d" label="Discharge">{p(e.dischargeKPaG)}</Detail>);
+      const air = pair(
+        e.ambientC !== null ? `ambient ${t(e.ambientC)}` : null,
+        e.setPointC !== null ? `set point ${t(e.setPointC)}` : null,
+      );
+      if (air) rows.push(<Detail key="a" label="Temps">{air}</Detail>);
+      const sr = pair(
+        e.supplyAirC !== null ? `supply ${t(e.supplyAirC)}` : null,
+        e.returnAirC !== null ? `return ${t(e.returnAirC)}` : null,
+      );
+      if (sr) rows.push(<Detail key="sr" label="Air">{sr}</Detail>);
+      if (e.sightGlass) rows.push(<Detail key="g" label="Sight glass">{termLabel(SIGHT_GLASS_STATES, e.sightGlass)}</Detail>);
       break;
     }
     case 'pti':
@@ -159,6 +165,8 @@ function EntryItem({
   const [adding, setAdding] = useState(false);
   const [now] = useState(() => Date.now());
   const voided = e.voided;
+  // Photos are added to one's own entries (the API lets any recorder; the list keeps it to the author's).
+  const canAttach = can(user, 'record:event') && e.recordedBy.id === user.id;
   return (
     <li className={cx('flex flex-col gap-2 py-3', voided && 'opacity-75')} data-testid="history-entry" data-kind={e.kind} data-voided={voided ? 'true' : undefined}>
       <div className="flex items-start gap-3">
@@ -202,17 +210,21 @@ function EntryItem({
           )}
         </div>
       </div>
-      {!voided && (canVoid(user, e, now) || can(user, 'record:event')) && (
-        <div className="flex flex-wrap gap-2 pl-11">
-          {can(user, 'record:event') && !adding && (
+      {!voided && (canVoid(user, e, now) || canAttach) && (
+        <div className="flex flex-wrap justify-end gap-2">
+          {canAttach && !adding && (
             <Button variant="quiet" className="px-2" onClick={() => setAdding(true)}>
               Add photos<span className="sr-only"> to the {entryKindLabel(e.kind).toLowerCase()}</span>
             </Button>
           )}
           {canVoid(user, e, now) && (
-            <Button variant="quiet" className="px-2 text-alarm-700" onClick={() => onVoid(e)}>
-              Void<span className="sr-only"> the {entryKindLabel(e.kind).toLowerCase()}</span>
-            </Button>
+            <button
+              type="button"
+              onClick={() => onVoid(e)}
+              className="min-h-touch rounded-md px-3 font-semibold text-alarm-700 underline-offset-4 hover:bg-alarm-50 hover:underline"
+            >
+              Void…<span className="sr-only"> the {entryKindLabel(e.kind).toLowerCase()}</span>
+            </button>
           )}
         </div>
       )}
@@ -235,6 +247,8 @@ function groupByVisit(events: EventDto[]): VisitGroup[] {
     if (last && e.visitId !== null && last.events[0].visitId === e.visitId) last.events.push(e);
     else groups.push({ key: e.visitId !== null ? `v${e.visitId}` : `e${e.id}`, events: [e] });
   }
+  // Inside a visit, in the order the entries were made.
+  for (const g of groups) g.events.sort((a, b) => a.id - b.id);
   return groups;
 }
 

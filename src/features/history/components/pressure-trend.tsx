@@ -8,7 +8,7 @@ import { parseISO } from 'date-fns';
 import { useMemo, type PointerEvent as ReactPointerEvent } from 'react';
 import type { PressureSnapshot } from '../../../../shared/domain';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
-import { fmtC, fmtDateTime, fmtK } from '../utils/labels';
+import { fmtC, fmtDateTime, fmtK, timeTick } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
 
 const C = { ink: '#0b161d', ink600: '#435762', ink300: '#a9b6bc', ink100: '#e3e8e8', fjord: '#005264', heed: '#7a4300', alarm: '#a3190f' };
@@ -155,12 +155,7 @@ export function PressureTrend({ stats }: { stats: UnitStatsDto | null }) {
               numTicks={Math.max(2, Math.floor(innerW / 90))}
               stroke={C.ink300}
               tickStroke={C.ink300}
-              tickFormat={(d) => {
-                const date = d instanceof Date ? d : new Date(Number(d));
-                return spanDays > 600
-                  ? String(date.getFullYear())
-                  : date.toLocaleDateString('en-GB', spanDays > 100 ? { month: 'short', year: '2-digit' } : { day: 'numeric', month: 'short' });
-              }}
+              tickFormat={(d) => timeTick(d, spanDays)}
               tickLabelProps={() => ({ fill: C.ink600, fontSize: 12, textAnchor: 'middle', fontFamily: 'inherit' })}
             />
           </Group>

@@ -37,17 +37,20 @@ function Figure({
   detail,
   tone,
   testId,
+  className,
 }: {
   label: string;
   children: ReactNode;
   detail?: ReactNode;
   tone?: 'alarm' | 'heed' | 'okay';
   testId?: string;
+  className?: string;
 }) {
   return (
     <div
       data-testid={testId}
       className={cx(
+        className,
         'flex min-w-0 flex-col gap-0.5 rounded-md border-2 bg-white px-3 py-2.5',
         tone === 'alarm' ? 'border-alarm-700' : tone === 'heed' ? 'border-heed-800' : 'border-ink-200',
       )}
@@ -81,25 +84,25 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
         aria-expanded={open}
         aria-controls={panelId}
         onClick={() => setOpen((o) => !o)}
-        className="flex min-h-touch-lg w-full items-center gap-3 rounded-lg px-4 py-3 text-left"
+        className="flex min-h-touch-lg w-full flex-col gap-1 rounded-lg px-4 py-3 text-left"
       >
-        <span className="flex flex-col">
+        <span className="flex w-full items-center justify-between gap-2">
           <span className="text-sm font-semibold text-ink-800">Repeat-leak score</span>
+          <span className="text-sm font-semibold underline underline-offset-2">{open ? 'Hide why' : 'Why this score?'}</span>
+        </span>
+        <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
           <span className="flex items-baseline gap-1">
             <span className="text-3xl font-bold tabular-nums" data-testid="score-value">
               {stats.score}
             </span>
             <span className="text-sm text-ink-700">/ 100</span>
           </span>
-        </span>
-        <span className="flex min-w-0 flex-1 flex-col items-start gap-0.5">
-          <span className="flex items-center gap-1.5 text-lg font-bold" data-testid="score-band">
-            <BandGlyph band={band} />
+          <span className="flex items-center gap-1.5 text-xl font-bold" data-testid="score-band">
+            <BandGlyph band={band} className="size-7" />
             {words.label}
           </span>
-          <span className="text-sm text-ink-800">{words.blurb}</span>
         </span>
-        <span className="shrink-0 text-sm font-semibold underline underline-offset-2">{open ? 'Hide why' : 'Why?'}</span>
+        <span className="text-sm text-ink-800">{words.blurb}</span>
       </button>
       {open && (
         <div id={panelId} className="border-t-2 border-current/20 bg-white/70 px-4 py-3 text-ink-950">
@@ -259,6 +262,8 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
         </Figure>
         <Figure
           label="Pressures"
+          className="col-span-2 lg:col-span-1"
+          testId="pressure-health"
           tone={stats.pressureFlag === 'possible_low_charge' ? 'heed' : undefined}
           detail={
             health ? (

@@ -9,7 +9,7 @@ import { useMemo, useRef, useState, type PointerEvent as ReactPointerEvent } fro
 import { LEAK_LOCATIONS, SIGHT_GLASS_STATES, termLabel } from '../../../../shared/domain';
 import type { TimelineEventDto, UnitStatsDto } from '../../../../shared/schemas/history';
 import { cx } from '../../../components/ui/cx';
-import { entryKindLabel, fmtDateTime, fmtDay, fmtKg, fmtNumber } from '../utils/labels';
+import { entryKindLabel, fmtDateTime, fmtDay, fmtKg, fmtNumber, timeTick } from '../utils/labels';
 
 type BrushHandle = NonNullable<NonNullable<BrushProps['innerRef']>['current']>;
 
@@ -174,7 +174,8 @@ export function UnitTimeline({
 
   const full = useMemo<[number, number]>(() => {
     const times = items.map((i) => i.t);
-    if (commissionedOn) times.push(parseISO(commissionedOn).getTime());
+    // The commissioning date only frames an empty history; years of nothing before the first entry help no one.
+    if (commissionedOn && times.length === 0) times.push(parseISO(commissionedOn).getTime());
     times.push(now);
     if (forecast) times.push(parseISO(forecast.latest ?? forecast.date).getTime());
     let a = Math.min(...times);
@@ -215,7 +216,8 @@ export function UnitTimeline({
   const refBase = laneTop.refrigerant + 16 + (LANE_H.refrigerant - 16) * 0.72;
   const upRoom = refBase - laneTop.refrigerant - 18;
   const downRoom = laneTop.refrigerant + LANE_H.refrigerant - refBase - 2;
-  const barH = (kg: number | null, kind: string) => ((kg ?? 0) / maxKg) * (kind === 'recovery' ? downRoom : upRoom);
+  // Square root: a 0.5 kg top-up stays visible beside a 4.5 kg recharge, and more kg is still taller.
+  const barH = (kg: number | null, kind: string) => Math.sqrt(Math.max(0, kg ?? 0) / maxKg) * (kind === 'recovery' ? downRoom : upRoom);
   const laneY = (lane: Lane) => (lane === 'refrigerant' ? refBase : laneTop[lane] + LANE_H[lane] / 2 + 6);
 
   const brushRef = useRef<BrushHandle | null>(null);
@@ -276,6 +278,22 @@ export function UnitTimeline({
   const tipAt = (tip: Tip, px: number, py: number) => showTooltip({ tooltipData: tip, tooltipLeft: px + margin.left, tooltipTop: py });
 
   const visible = items.filter((i) => i.t >= current[0] - DAY && i.t <= current[1] + DAY);
+  // Service marks of one visit (a leak check and a repair on the same day) stack instead of hiding each other.
+  const offsets = new Map<number, number>();
+  {
+    const byCell = new Map<string, Item[]>();
+    for (const i of visible) {
+      if (i.lane !== 'service') continue;
+      const cell = `${Math.round(x(new Date(i.t)) / 10)}`;
+      const list = byCell.get(cell) ?? [];
+      list.push(i);
+      byCell.set(cell, list);
+    }
+    for (const list of byCell.values()) {
+      const gap = Math.min(14, 26 / Math.max(1, list.length - 1));
+      list.forEach((i, k) => offsets.set(i.e.id, list.length === 1 ? 0 : (k - (list.length - 1) / 2) * gap));
+    }
+  }
   const todayX = x(new Date(now));
   const spanDays = (current[1] - current[0]) / DAY;
   const numTicks = Math.max(2, Math.floor(innerW / 90));
@@ -384,7 +402,7 @@ export function UnitTimeline({
                     y={laneTop.refrigerant + 14}
                     fontSize={11}
                     fontWeight={700}
-                    textAnchor="middle"
+                    textAnchor={x(new Date(fDate)) > innerW - 24 ? 'end' : x(new Date(fDate)) < 24 ? 'start' : 'middle'}
                     fill={forecast.overdue ? C.alarm : C.fjord}
                   >
                     {forecast.overdue ? 'overdue' : 'next?'}
@@ -414,7 +432,7 @@ export function UnitTimeline({
               )}
               {visible.map((item) => {
                 const px = x(new Date(item.t));
-                const py = laneY(item.lane);
+                const py = laneY(item.lane) + (offsets.get(item.e.id) ?? 0);
                 const h = barH(item.e.kg, item.e.kind);
                 const tip = () => tipAt({ type: 'event', item }, px, item.lane === 'refrigerant' ? py - h : py);
                 return (
@@ -447,14 +465,7 @@ export function UnitTimeline({
               stroke={C.ink300}
               tickStroke={C.ink300}
               tickLabelProps={() => ({ fill: C.ink600, fontSize: 12, textAnchor: 'middle', fontFamily: 'inherit' })}
-              tickFormat={(d) => {
-                const date = d instanceof Date ? d : new Date(Number(d));
-                return spanDays > 600
-                  ? String(date.getFullYear())
-                  : spanDays > 100
-                    ? date.toLocaleDateString('en-GB', { month: 'short', year: '2-digit' })
-                    : date.toLocaleDateString('en-GB', { day: 'numeric', month: 'short' });
-              }}
+              tickFormat={(d) => timeTick(d, spanDays)}
             />
           </Group>
         </svg>
@@ -538,7 +549,7 @@ export function UnitTimeline({
 
       <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" aria-label="Key">
         <li className="flex items-center gap-1.5">
-          <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="14" fill={C.fjord} /></svg>Top-up (height = kg)
+          <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="14" fill={C.fjord} /></svg>Top-up (taller = more kg)
         </li>
         <li className="flex items-center gap-1.5">
           <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="14" fill="url(#tl-hatch)" stroke={C.fjord} /></svg>Recharge

@@ -61,3 +61,11 @@ export function fmtKg(kg: number): string {
 export const fmtPct = (pct: number) => `${fmtNumber(pct, pct < 10 ? 1 : 0)} %`;
 export const fmtC = (c: number) => `${c < 0 ? '−' : ''}${fmtNumber(Math.abs(c), 1)} °C`;
 export const fmtK = (k: number) => `${k > 0 ? '+' : k < 0 ? '−' : ''}${fmtNumber(Math.abs(k), 1)} K`;
+
+/** Axis tick: the year at a year's start, else the month (long spans) or the day (short ones). */
+export function timeTick(d: Date | { valueOf(): number }, spanDays: number): string {
+  const date = d instanceof Date ? d : new Date(d.valueOf());
+  if (date.getMonth() === 0 && date.getDate() === 1 && date.getHours() === 0) return String(date.getFullYear());
+  if (spanDays > 120) return format(date, 'MMM');
+  return format(date, 'd MMM');
+}

@@ -1,0 +1,90 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { formatContainerNumber } from '../../../../shared/domain';
+import { NotFound } from '../../../components/errors/not-found';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { PageHeader } from '../../../components/ui/page';
+import { Spinner } from '../../../components/ui/spinner';
+import { paths } from '../../../config/paths';
+import { RecordVisitForm } from '../../../features/history/components/record-visit-form';
+import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
+import { unitKeys } from '../../../features/units/api/keys';
+import { isApiError } from '../../../lib/api-client';
+import { useUser } from '../../../lib/auth';
+
+const unitIdOf = (raw: string | undefined) => {
+  const n = Number(raw);
+  return Number.isInteger(n) && n > 0 ? n : null;
+};
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const id = unitIdOf(params.id);
+    if (id) await queryClient.prefetchQuery(unitQuery(id));
+    return null;
+  };
+
+// A visit can change the unit's own record (a status change), so the registry's copy is refreshed too.
+const alsoInvalidate = (unitId: number) => [unitKeys.detail(unitId)];
+
+export default function RecordVisitPage() {
+  const unitId = unitIdOf(useParams().id);
+  const user = useUser();
+  const unit = useUnit(unitId ?? 0);
+
+  if (!unitId || (unit.isError && isApiError(unit.error) && unit.error.status === 404)) return <NotFound />;
+  if (unit.isPending) {
+    return (
+      <div role="status" className="flex items-center gap-3 p-6 text-ink-700">
+        <Spinner />
+        Loading the unit…
+      </div>
+    );
+  }
+  if (unit.isError) {
+    return (
+      <Alert tone="alarm" title="The unit could not be loaded">
+        <p>{unit.error.message}</p>
+        <Button variant="secondary" className="mt-3" onClick={() => void unit.refetch()} pending={unit.isFetching}>
+          Try again
+        </Button>
+      </Alert>
+    );
+  }
+  const u = unit.data;
+  const unitHref = paths.unit.getHref(u.id);
+  return (
+    <div className="flex flex-col gap-4">
+      <PageHeader
+        title="Record a visit"
+        description={
+          <>
+            <Link to={unitHref} className="font-semibold text-fjord-700 tabular-nums underline underline-offset-4">
+              {formatContainerNumber(u.containerNumber)}
+            </Link>{' '}
+            · {u.refrigerant} · {u.nominalChargeKg} kg full charge
+          </>
+        }
+      />
+      {u.status === 'retired' && (
+        <Alert tone="heed" title="This unit is retired">
+          Only notes and a status change can be recorded until it is back in service.
+        </Alert>
+      )}
+      <RecordVisitForm
+        unit={{
+          id: u.id,
+          containerNumber: formatContainerNumber(u.containerNumber),
+          refrigerant: u.refrigerant,
+          nominalChargeKg: u.nominalChargeKg,
+          siteName: u.site?.name ?? null,
+        }}
+        userId={user.id}
+        unitHref={unitHref}
+        alsoInvalidate={alsoInvalidate}
+      />
+    </div>
+  );
+}
