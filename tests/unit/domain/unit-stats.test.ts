@@ -189,6 +189,20 @@ describe('history edges', () => {
     expect(computeUnitStats(unit, events, `${D}T12:00:00Z`).counts.afterAsOf).toBe(2);
   });
 
+  it('orders events given out of order, keeping ties in the order they were entered', () => {
+    // Whole-second times (the fast sort) and millisecond times (the comparator sort) must agree.
+    for (const stamp of ['T10:00:00Z', 'T10:00:00.250Z']) {
+      const s = computeUnitStats(unit, [
+        { kind: 'pti', at: `${day(-1)}${stamp}`, passed: true },
+        { kind: 'pti', at: `${day(-1)}${stamp}`, passed: false },
+        { kind: 'pti', at: `${day(-20)}${stamp}`, passed: true },
+        { kind: 'top_up', at: `${day(-30)}${stamp}`, kg: 0.4 },
+      ], D);
+      expect(s.ptiPassed).toBe(false);
+      expect(s.visits.map((v) => v.date)).toEqual([day(-30), day(-20), day(-1)]);
+    }
+  });
+
   it('reads timestamps with offsets and without a zone', () => {
     const s = computeUnitStats(unit, [
       { kind: 'top_up', at: '2025-06-01T01:30:00+03:00', kg: 0.5 },
