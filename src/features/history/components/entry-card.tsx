@@ -1,10 +1,5 @@
 import { useController, useWatch } from 'react-hook-form';
-import {
-  LEAK_CHECK_METHODS,
-  LEAK_LOCATIONS,
-  REPAIR_ACTIONS,
-  SIGHT_GLASS_STATES,
-} from '../../../../shared/domain';
+import { LEAK_CHECK_METHODS, LEAK_LOCATIONS, REPAIR_ACTIONS, SIGHT_GLASS_STATES } from '../../../../shared/domain';
 import { UNIT_STATUS_VALUES, type VisitEventKind } from '../../../../shared/schemas/history';
 import { Button } from '../../../components/ui/button';
 import { ENTRY_KIND_LABELS, UNIT_STATUS_WORDS } from '../utils/labels';
@@ -31,37 +26,44 @@ type Props = {
   onRemove: () => void;
 };
 
-const terms = (list: readonly { id: string; label: string }[]): Choice[] => list.map((t) => ({ value: t.id, label: t.label }));
+const terms = (list: readonly { id: string; label: string }[]): Choice[] =>
+  list.map((t) => ({ value: t.id, label: t.label }));
 
 function MassFields({ control, index, kind, onUnitsChange }: Props) {
   const unit = useController({ control, name: `events.${index}.massUnit` });
   const isLb = unit.field.value === 'lb';
   return (
     <>
-      <DecimalField
-        control={control}
-        name={`events.${index}.kg`}
-        label={kind === 'recovery' ? 'Mass recovered' : kind === 'recharge' ? 'Mass charged' : 'Mass added'}
-        unit={isLb ? 'lb' : 'kg'}
-        step={isLb ? 0.25 : 0.1}
-        big
-        labelAside={
-          <UnitSwitch
-            label="Mass unit"
-            value={unit.field.value as UnitPrefs['mass']}
-            units={MASS_CHOICES}
-            onChange={(u) => {
-              unit.field.onChange(u);
-              onUnitsChange({ mass: u });
-            }}
-          />
-        }
-      />
+      <div className="sm:max-w-sm">
+        <DecimalField
+          control={control}
+          name={`events.${index}.kg`}
+          label={kind === 'recovery' ? 'Mass recovered' : kind === 'recharge' ? 'Mass charged' : 'Mass added'}
+          unit={isLb ? 'lb' : 'kg'}
+          step={isLb ? 0.25 : 0.1}
+          big
+          labelAside={
+            <UnitSwitch
+              label="Mass unit"
+              value={unit.field.value as UnitPrefs['mass']}
+              units={MASS_CHOICES}
+              onChange={(u) => {
+                unit.field.onChange(u);
+                onUnitsChange({ mass: u });
+              }}
+            />
+          }
+        />
+      </div>
       <TextInput
         control={control}
         name={`events.${index}.cylinder`}
         label={kind === 'recovery' ? 'Recovery cylinder' : 'Cylinder or lot'}
-        hint={kind === 'recovery' ? 'The number on the recovery cylinder.' : 'As printed on the cylinder: traces the gas if a batch is ever suspect.'}
+        hint={
+          kind === 'recovery'
+            ? 'The number on the recovery cylinder.'
+            : 'As printed on the cylinder: traces the gas if a batch is ever suspect.'
+        }
         autoCapitalize="characters"
         placeholder={kind === 'recovery' ? 'REC-07' : 'CYL-2231'}
       />
@@ -90,7 +92,12 @@ function LeakCheckFields({ control, index }: Props) {
   const location = useWatch({ control, name: `events.${index}.location` });
   return (
     <>
-      <ChoiceChips control={control} name={`events.${index}.method`} legend="Method" choices={terms(LEAK_CHECK_METHODS)} />
+      <ChoiceChips
+        control={control}
+        name={`events.${index}.method`}
+        legend="Method"
+        choices={terms(LEAK_CHECK_METHODS)}
+      />
       <ChoiceChips
         control={control}
         name={`events.${index}.leakFound`}
@@ -101,7 +108,12 @@ function LeakCheckFields({ control, index }: Props) {
         ]}
       />
       {found === 'yes' && (
-        <ChoiceChips control={control} name={`events.${index}.location`} legend="Where is the leak?" choices={terms(LEAK_LOCATIONS)} />
+        <ChoiceChips
+          control={control}
+          name={`events.${index}.location`}
+          legend="Where is the leak?"
+          choices={terms(LEAK_LOCATIONS)}
+        />
       )}
       {found === 'yes' && location === 'other' && (
         <TextInput control={control} name={`events.${index}.locationOther`} label="Describe the location" />
@@ -116,9 +128,18 @@ function RepairFields({ control, index }: Props) {
   return (
     <>
       <ChoiceChips control={control} name={`events.${index}.location`} legend="Where" choices={terms(LEAK_LOCATIONS)} />
-      {location === 'other' && <TextInput control={control} name={`events.${index}.locationOther`} label="Describe the location" />}
-      <ChoiceChips control={control} name={`events.${index}.action`} legend="What was done" choices={terms(REPAIR_ACTIONS)} />
-      {action === 'other' && <TextInput control={control} name={`events.${index}.actionOther`} label="Describe what was done" />}
+      {location === 'other' && (
+        <TextInput control={control} name={`events.${index}.locationOther`} label="Describe the location" />
+      )}
+      <ChoiceChips
+        control={control}
+        name={`events.${index}.action`}
+        legend="What was done"
+        choices={terms(REPAIR_ACTIONS)}
+      />
+      {action === 'other' && (
+        <TextInput control={control} name={`events.${index}.actionOther`} label="Describe what was done" />
+      )}
       <Toggle
         control={control}
         name={`events.${index}.verified`}
@@ -167,14 +188,30 @@ function PressureFields({ control, index, refrigerant, onUnitsChange }: Props) {
           label={`Suction (${p} gauge)`}
           unit={p}
           allowNegative
-          aside={<SaturationReadout refrigerant={refrigerant} typed={suction} pressureUnit={p} temperatureUnit={t} side="suction" />}
+          aside={
+            <SaturationReadout
+              refrigerant={refrigerant}
+              typed={suction}
+              pressureUnit={p}
+              temperatureUnit={t}
+              side="suction"
+            />
+          }
         />
         <DecimalField
           control={control}
           name={`events.${index}.dischargeKPaG`}
           label={`Discharge (${p} gauge)`}
           unit={p}
-          aside={<SaturationReadout refrigerant={refrigerant} typed={discharge} pressureUnit={p} temperatureUnit={t} side="discharge" />}
+          aside={
+            <SaturationReadout
+              refrigerant={refrigerant}
+              typed={discharge}
+              pressureUnit={p}
+              temperatureUnit={t}
+              side="discharge"
+            />
+          }
         />
       </div>
       <fieldset className="flex flex-col gap-2">
@@ -183,9 +220,27 @@ function PressureFields({ control, index, refrigerant, onUnitsChange }: Props) {
         </legend>
         <div className="grid grid-cols-2 gap-3">
           <DecimalField control={control} name={`events.${index}.ambientC`} label="Ambient" unit={deg} allowNegative />
-          <DecimalField control={control} name={`events.${index}.setPointC`} label="Set point" unit={deg} allowNegative />
-          <DecimalField control={control} name={`events.${index}.supplyAirC`} label="Supply air" unit={deg} allowNegative />
-          <DecimalField control={control} name={`events.${index}.returnAirC`} label="Return air" unit={deg} allowNegative />
+          <DecimalField
+            control={control}
+            name={`events.${index}.setPointC`}
+            label="Set point"
+            unit={deg}
+            allowNegative
+          />
+          <DecimalField
+            control={control}
+            name={`events.${index}.supplyAirC`}
+            label="Supply air"
+            unit={deg}
+            allowNegative
+          />
+          <DecimalField
+            control={control}
+            name={`events.${index}.returnAirC`}
+            label="Return air"
+            unit={deg}
+            allowNegative
+          />
         </div>
       </fieldset>
       <ChoiceChips
@@ -269,13 +324,7 @@ export function EntryCard(props: Props) {
       </div>
       <SafetyCautions cautions={cautionsFor(kind, refrigerant)} />
       <KindFields {...props} />
-      <TextInput
-        control={control}
-        name={`events.${index}.note`}
-        label="Note"
-        optional={kind !== 'note'}
-        multiline
-      />
+      <TextInput control={control} name={`events.${index}.note`} label="Note" optional={kind !== 'note'} multiline />
     </section>
   );
 }

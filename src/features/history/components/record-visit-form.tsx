@@ -4,7 +4,12 @@ import type { QueryKey } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type FieldError, type Path, type Resolver } from 'react-hook-form';
 import type { z } from 'zod';
-import { MAX_EVENTS_PER_VISIT, type RecordVisitInput, type RecordVisitResultDto, type VisitEventKind } from '../../../../shared/schemas/history';
+import {
+  MAX_EVENTS_PER_VISIT,
+  type RecordVisitInput,
+  type RecordVisitResultDto,
+  type VisitEventKind,
+} from '../../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../../shared/schemas/visit-rules';
 import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
@@ -113,7 +118,8 @@ export function RecordVisitForm({
       const result = await base(values, context, options);
       if (Object.keys(result.errors).length > 0) {
         // The shared messages name the SI unit; say the unit the person is typing in.
-        const list = (result.errors as { events?: Record<string, Record<string, FieldError | undefined>> }).events ?? {};
+        const list =
+          (result.errors as { events?: Record<string, Record<string, FieldError | undefined>> }).events ?? {};
         values.events.forEach((d, i) => {
           const e = list[i];
           if (!e) return;
@@ -169,7 +175,8 @@ export function RecordVisitForm({
     } catch {
       setFormError({
         title: 'The visit could not be kept on this phone',
-        message: "The phone's storage is full or blocked. Keep this page open and try again when the connection is back.",
+        message:
+          "The phone's storage is full or blocked. Keep this page open and try again when the connection is back.",
         canQueue: false,
       });
       return;
@@ -197,7 +204,11 @@ export function RecordVisitForm({
       },
       onError: (error) => {
         if (!isApiError(error)) {
-          setFormError({ title: 'The visit was not saved', message: 'Something unexpected went wrong. Try again.', canQueue: false });
+          setFormError({
+            title: 'The visit was not saved',
+            message: 'Something unexpected went wrong. Try again.',
+            canQueue: false,
+          });
           return;
         }
         if (error.status === 0) {
@@ -243,7 +254,7 @@ export function RecordVisitForm({
 
   if (outcome.state === 'saved') {
     return (
-      <div className="flex flex-col gap-5">
+      <div className="flex max-w-3xl flex-col gap-5">
         {banner}
         <VisitSaved unitId={unit.id} result={outcome.result} />
         <div className="flex flex-col gap-3 sm:flex-row">
@@ -260,11 +271,11 @@ export function RecordVisitForm({
 
   if (outcome.state === 'queued') {
     return (
-      <div className="flex flex-col gap-5">
+      <div className="flex max-w-3xl flex-col gap-5">
         <Alert tone="info" title="Kept on this phone: no connection right now">
-          The visit of {fmtDateTime(outcome.occurredAt)} ({outcome.count} {outcome.count === 1 ? 'entry' : 'entries'}) is saved
-          here and goes out by itself once the phone is back online. Sending it twice is not possible: the server knows it by
-          its key. Photos can be added once it has been sent.
+          The visit of {fmtDateTime(outcome.occurredAt)} ({outcome.count} {outcome.count === 1 ? 'entry' : 'entries'})
+          is saved here and goes out by itself once the phone is back online. Sending it twice is not possible: the
+          server knows it by its key. Photos can be added once it has been sent.
         </Alert>
         {banner}
         <div className="flex flex-col gap-3 sm:flex-row">
@@ -284,7 +295,7 @@ export function RecordVisitForm({
 
   return (
     <PreviewContext.Provider value={preview}>
-      <form onSubmit={onSubmit} noValidate aria-label="Record a visit" className="flex flex-col gap-6">
+      <form onSubmit={onSubmit} noValidate aria-label="Record a visit" className="flex max-w-3xl flex-col gap-6">
         {banner}
         {formError && (
           <Alert tone="alarm" title={formError.title}>
@@ -302,7 +313,11 @@ export function RecordVisitForm({
           </Alert>
         )}
 
-        <WhenField register={register} error={formState.errors.occurredAt?.message ?? preview.occurredAt} onNow={() => setValue('occurredAt', toLocalInputValue(new Date()), { shouldValidate: formState.isSubmitted })} />
+        <WhenField
+          register={register}
+          error={formState.errors.occurredAt?.message ?? preview.occurredAt}
+          onNow={() => setValue('occurredAt', toLocalInputValue(new Date()), { shouldValidate: formState.isSubmitted })}
+        />
 
         {count > 0 && (
           <div className="flex flex-col gap-4">
@@ -327,7 +342,9 @@ export function RecordVisitForm({
           <h2 id="add-entry-title" className="text-xl font-bold">
             {count === 0 ? 'What did you do?' : 'Add more to this visit'}
           </h2>
-          {count === 0 && <p className="text-ink-600">Tap everything done at this visit; each becomes an entry to fill in.</p>}
+          {count === 0 && (
+            <p className="text-ink-600">Tap everything done at this visit; each becomes an entry to fill in.</p>
+          )}
           <div className="grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-5">
             {PALETTE.map((kind) => (
               <button
@@ -430,20 +447,29 @@ function VisitSaved({ unitId, result }: { unitId: number; result: RecordVisitRes
           : `${result.events.length} ${result.events.length === 1 ? 'entry' : 'entries'} recorded. The unit's figures are up to date.`}
       </Alert>
       <h2 className="text-xl font-bold">Photos</h2>
-      <p className="-mt-2 text-ink-600">Optional: a photo of the leak, the gauge or the cylinder label. Photos and PDF documents.</p>
+      <p className="-mt-2 text-ink-600">
+        Optional: a photo of the leak, the gauge or the cylinder label. Photos and PDF documents.
+      </p>
       <ul className="flex flex-col gap-3">
-        {result.events.map((e) => (
-          <li key={e.id} className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4">
-            <div className="flex items-center gap-3">
-              <EntryGlyph kind={e.kind} className="size-8" />
-              <p className="font-semibold">
-                {ENTRY_KIND_LABELS[e.kind as VisitEventKind] ?? e.kind}
-                {e.kg != null && <span className="font-normal text-ink-600"> · {fmtKg(e.kg)}</span>}
-              </p>
-            </div>
-            <AttachPhotos unitId={unitId} eventId={e.id} label={ENTRY_KIND_LABELS[e.kind as VisitEventKind] ?? e.kind} existing={e.attachments.length} />
-          </li>
-        ))}
+        {[...result.events]
+          .sort((a, b) => a.id - b.id)
+          .map((e) => (
+            <li key={e.id} className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4">
+              <div className="flex items-center gap-3">
+                <EntryGlyph kind={e.kind} className="size-8" />
+                <p className="font-semibold">
+                  {ENTRY_KIND_LABELS[e.kind as VisitEventKind] ?? e.kind}
+                  {e.kg != null && <span className="font-normal text-ink-600"> · {fmtKg(e.kg)}</span>}
+                </p>
+              </div>
+              <AttachPhotos
+                unitId={unitId}
+                eventId={e.id}
+                label={ENTRY_KIND_LABELS[e.kind as VisitEventKind] ?? e.kind}
+                existing={e.attachments.length}
+              />
+            </li>
+          ))}
       </ul>
     </div>
   );

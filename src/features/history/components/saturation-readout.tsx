@@ -34,10 +34,19 @@ function readSaturation(refrigerant: string, typed: string, unit: UnitPrefs['pre
       const range = saturationRange(refrigerant, 'dew');
       const g = (kPa: number) => convertPressure(kPa, { unit: 'kPa', ref: 'absolute' }, { unit, ref: 'gauge' });
       const digits = unit === 'kPa' ? 0 : 1;
-      const top = range.endsAtCritical ? ' (its critical point)' : '';
+      const f = (kPa: number) => `${fmtNumber(g(kPa), digits)} ${unit} gauge`;
+      if (kPaAbs >= range.maxKPaAbs && range.endsAtCritical) {
+        return {
+          state: 'out',
+          message: `Above ${refrigerant}'s critical point (${f(range.maxKPaAbs)})${refrigerant === 'R-744' ? ': supercritical' : ''}. No saturation temperature exists here.`,
+        };
+      }
       return {
         state: 'out',
-        message: `Outside ${refrigerant}'s saturation data (${fmtNumber(g(range.minKPaAbs), digits)} to ${fmtNumber(g(range.maxKPaAbs), digits)} ${unit} gauge${top}); no temperature shown.`,
+        message:
+          kPaAbs < range.minKPaAbs
+            ? `Below ${refrigerant}'s saturation data (it starts at ${f(range.minKPaAbs)}); no temperature shown.`
+            : `Above ${refrigerant}'s saturation data (it ends at ${f(range.maxKPaAbs)}); no temperature shown.`,
       };
     } catch {
       return { state: 'out', message: `No saturation data for ${refrigerant}.` };

@@ -14,7 +14,17 @@ import { PressureTrend } from './pressure-trend';
 import { UnitFigures } from './unit-figures';
 import { UnitTimeline } from './unit-timeline';
 
-function Section({ id, title, children, aside }: { id: string; title: string; children: ReactNode; aside?: ReactNode }) {
+function Section({
+  id,
+  title,
+  children,
+  aside,
+}: {
+  id: string;
+  title: string;
+  children: ReactNode;
+  aside?: ReactNode;
+}) {
   return (
     <section aria-labelledby={id} className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end justify-between gap-3">
@@ -62,31 +72,39 @@ export function ServiceHistory({
     <div className="flex flex-col gap-8" data-testid="service-history">
       <PendingVisitsBanner userId={user.id} alsoInvalidate={alsoInvalidate} />
 
-      <Section
-        id="unit-figures-title"
-        title="Refrigerant health"
-        aside={
-          canRecord && (
-            <ButtonLink to={recordHref} size="lg">
-              <PlusIcon className="size-5" />
-              Record a visit
-            </ButtonLink>
-          )
-        }
-      >
-        {overview.isPending ? (
-          <Loading what="the figures" />
-        ) : overview.isError ? (
-          <Alert tone="alarm" title="The figures could not be loaded">
-            <p>{overview.error.message}</p>
-            <Button variant="secondary" className="mt-3" onClick={() => void overview.refetch()} pending={overview.isFetching}>
-              Try again
-            </Button>
-          </Alert>
-        ) : (
-          <UnitFigures stats={overview.data.stats} />
-        )}
-      </Section>
+      {(overview.isPending || overview.isError || overview.data.stats || hasHistory) && (
+        <Section
+          id="unit-figures-title"
+          title="Refrigerant health"
+          aside={
+            canRecord &&
+            hasHistory && (
+              <ButtonLink to={recordHref} size="lg">
+                <PlusIcon className="size-5" />
+                Record a visit
+              </ButtonLink>
+            )
+          }
+        >
+          {overview.isPending ? (
+            <Loading what="the figures" />
+          ) : overview.isError ? (
+            <Alert tone="alarm" title="The figures could not be loaded">
+              <p>{overview.error.message}</p>
+              <Button
+                variant="secondary"
+                className="mt-3"
+                onClick={() => void overview.refetch()}
+                pending={overview.isFetching}
+              >
+                Try again
+              </Button>
+            </Alert>
+          ) : (
+            <UnitFigures stats={overview.data.stats} />
+          )}
+        </Section>
+      )}
 
       {hasHistory && (
         <Section id="unit-timeline-title" title="Timeline">
@@ -101,7 +119,11 @@ export function ServiceHistory({
             </Alert>
           ) : (
             <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
-              <UnitTimeline events={timeline.data} stats={overview.data?.stats ?? null} commissionedOn={commissionedOn} />
+              <UnitTimeline
+                events={timeline.data}
+                stats={overview.data?.stats ?? null}
+                commissionedOn={commissionedOn}
+              />
             </div>
           )}
         </Section>
