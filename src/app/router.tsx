@@ -24,6 +24,9 @@ import * as forgotPasswordRoute from './routes/auth/forgot-password';
 import * as unsubscribeRoute from './routes/auth/unsubscribe';
 import * as alertSettingsRoute from './routes/settings/alerts';
 import * as mailboxRoute from './routes/admin/mailbox';
+import * as fleetRoute from './routes/fleet/fleet';
+import * as refrigerantLogRoute from './routes/refrigerant-log/refrigerant-log';
+import * as settingsRoute from './routes/settings/settings';
 
 /**
  * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
@@ -68,6 +71,13 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
             { path: paths.alertSettings.path, ...page(alertSettingsRoute, queryClient, paths.alertSettings.permission) },
             { path: paths.mailbox.path, ...page(mailboxRoute, queryClient, paths.mailbox.permission) },
+            { path: paths.fleet.path, ...page(fleetRoute, queryClient, paths.fleet.permission) },
+            { path: paths.fleetOverview.path, ...lazyPage(() => import('./routes/fleet/overview'), queryClient, paths.fleetOverview.permission) },
+            { path: paths.fleetTrace.path, ...lazyPage(() => import('./routes/fleet/trace'), queryClient, paths.fleetTrace.permission) },
+            { path: paths.refrigerantLog.path, ...page(refrigerantLogRoute, queryClient, paths.refrigerantLog.permission) },
+            { path: paths.decisions.path, ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission) },
+            { path: paths.unitDecision.path, ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission) },
+            { path: paths.settings.path, ...page(settingsRoute, queryClient) },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],
         },

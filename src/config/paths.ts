@@ -107,9 +107,44 @@ export const paths = {
     getHref: () => MAIL_PAGE_PATHS.mailbox,
     permission: 'manage:settings',
   },
+  fleet: {
+    path: '/fleet',
+    getHref: (search?: string) => (search ? `/fleet?${search}` : '/fleet'),
+    permission: 'view:fleet',
+  },
+  fleetOverview: {
+    path: '/fleet/overview',
+    getHref: () => '/fleet/overview',
+    permission: 'view:fleet',
+  },
+  fleetTrace: {
+    path: '/fleet/trace',
+    getHref: () => '/fleet/trace',
+    permission: 'view:fleet',
+  },
+  refrigerantLog: {
+    path: '/refrigerant-log',
+    getHref: () => '/refrigerant-log',
+    permission: 'view:fleet',
+  },
+  decisions: {
+    path: '/decisions',
+    getHref: () => '/decisions',
+    permission: 'decide:retirement',
+  },
+  unitDecision: {
+    path: '/decisions/:unitId',
+    getHref: (unitId: number) => `/decisions/${unitId}`,
+    permission: 'decide:retirement',
+  },
+  // Every signed-in role may read the settings; the page lets each change only its own sections.
+  settings: {
+    path: '/settings',
+    getHref: () => '/settings',
+  },
 } as const satisfies Record<string, PathEntry>;
 
-export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import';
+export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import' | 'fleet' | 'log' | 'decisions' | 'settings';
 
 export type NavEntry = {
   label: string;
@@ -123,13 +158,18 @@ export type NavEntry = {
   devOnly?: boolean;
 };
 
-/** Navigation, in display order. Phones show these as the bottom tab bar (keep it at five or fewer). */
+/** Navigation, in display order. Phones show the first four in the bottom tab bar and the rest under "More". */
 export const navEntries: readonly NavEntry[] = [
   { label: 'Home', href: paths.home.getHref(), icon: 'home', end: true },
   { label: 'Scan', href: paths.scan.getHref(), icon: 'scan', permission: paths.scan.permission },
   { label: 'Units', href: paths.units.getHref(), icon: 'units', permission: paths.units.permission },
+  { label: 'Fleet', href: paths.fleet.getHref(), icon: 'fleet', permission: paths.fleet.permission },
   { label: 'Import', href: paths.unitImport.getHref(), icon: 'import', permission: paths.unitImport.permission },
   { label: 'People', href: paths.people.getHref(), icon: 'people', permission: paths.people.permission },
   { label: 'Alerts', href: paths.alertSettings.getHref(), icon: 'alerts', permission: paths.alertSettings.permission },
+  { label: 'Log', href: paths.refrigerantLog.getHref(), icon: 'log', permission: paths.refrigerantLog.permission },
+  { label: 'Decisions', href: paths.decisions.getHref(), icon: 'decisions', permission: paths.decisions.permission },
+  // Shown to the roles that act on fleet-wide settings; the page itself is open to every signed-in user.
+  { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: 'view:fleet' },
   { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },
 ];

@@ -22,7 +22,7 @@ const PARALLEL_UNITS = 4;
 /** A running job whose heartbeat is older than this lost its process (restart, crash) and is picked up again. */
 const STALE_AFTER_MS = 60_000;
 /** Repair effectiveness is rebuilt when older than this (and after settings that change it). */
-export const REPAIR_EFFECTIVENESS_MAX_AGE_MS = 6 * 3600_000;
+export const REPAIR_EFFECTIVENESS_MAX_AGE_MS = 3600_000;
 
 // Jobs this process is running, so a job is never run twice here, and tests can wait for them.
 const active = new Map<number, Promise<void>>();

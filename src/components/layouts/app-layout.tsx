@@ -10,6 +10,7 @@ import { Button } from '../ui/button';
 import { cx } from '../ui/cx';
 import { navIcons, SignOutIcon } from '../ui/icons';
 import { Logo } from '../ui/logo';
+import { MoreSheet, TAB_BAR_SLOTS } from './more-sheet';
 
 /**
  * The signed-in shell. One <nav> that is a bottom tab bar on phones (thumb reach, big targets, dark so it reads in
@@ -83,10 +84,11 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
         )}
       >
         <ul className="grid auto-cols-fr grid-flow-col md:flex md:flex-col md:gap-1 md:p-3">
-          {entries.map((entry) => {
+          {entries.map((entry, i) => {
             const Icon = navIcons[entry.icon];
             return (
-              <li key={entry.href}>
+              // On phones the tab bar keeps the first slots; the rest wait under "More".
+              <li key={entry.href} className={cx(entries.length > TAB_BAR_SLOTS + 1 && i >= TAB_BAR_SLOTS && 'max-md:hidden')}>
                 <NavLink
                   to={entry.href}
                   end={entry.end}
@@ -119,6 +121,11 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
               </li>
             );
           })}
+          {entries.length > TAB_BAR_SLOTS + 1 && (
+            <li className="md:hidden">
+              <MoreSheet entries={entries.slice(TAB_BAR_SLOTS)} />
+            </li>
+          )}
         </ul>
       </nav>
 

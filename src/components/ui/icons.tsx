@@ -104,7 +104,53 @@ export const ImportIcon = (p: IconProps) => (
   </Icon>
 );
 
+/** Bars of a fleet ranking. */
+export const FleetIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M4 20V10M9.5 20V4M15 20v-7M20.5 20v-4" />
+  </Icon>
+);
+
+/** A clipboard: the refrigerant log. */
+export const LogIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <rect x="5" y="4.5" width="14" height="16" rx="1.5" />
+    <path d="M9 4.5V3h6v1.5M8.5 10h7M8.5 13.5h7M8.5 17h4" />
+  </Icon>
+);
+
+/** Two pans of a balance: repair or retire. */
+export const DecisionsIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M12 4v16M7 20h10M5 7h14" />
+    <path d="M5 7l-2.5 6a3 3 0 0 0 5 0L5 7ZM19 7l-2.5 6a3 3 0 0 0 5 0L19 7Z" />
+  </Icon>
+);
+
+/** Three sliders. */
+export const SettingsIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <path d="M4 6h9M17 6h3M4 12h3M11 12h9M4 18h11M19 18h1" />
+    <circle cx="15" cy="6" r="2" />
+    <circle cx="9" cy="12" r="2" />
+    <circle cx="17" cy="18" r="2" />
+  </Icon>
+);
+
+/** Three dots: more of the navigation. */
+export const MoreIcon = (p: IconProps) => (
+  <Icon {...p}>
+    <circle cx="5.5" cy="12" r="1.25" />
+    <circle cx="12" cy="12" r="1.25" />
+    <circle cx="18.5" cy="12" r="1.25" />
+  </Icon>
+);
+
 export const navIcons: Record<NavIcon, (p: IconProps) => ReactElement> = {
+  fleet: FleetIcon,
+  log: LogIcon,
+  decisions: DecisionsIcon,
+  settings: SettingsIcon,
   home: HomeIcon,
   units: UnitsIcon,
   people: PeopleIcon,

@@ -1,0 +1,19 @@
+// Rebuilds the fleet pre-aggregates (visit_made_up, fleet_monthly) from the history, and the repair-effectiveness
+// table. For histories loaded without the API (the demo fleet simulator, a migration from another system).
+// Usage: DATABASE_URL=… npx tsx scripts/rebuild-fleet-aggregates.ts
+import { createDb } from '../server/db/client';
+import { rebuildFleetMonthly } from '../server/features/fleet/fleet-monthly.service';
+import { startRepairEffectiveness, waitForJobs } from '../server/features/jobs/jobs.service';
+import { createLogger } from '../server/lib/logger';
+import { systemClock } from '../server/lib/clock';
+import { resolveDatabaseUrl } from './lib/database-url';
+
+const { db, pool } = createDb(await resolveDatabaseUrl(), { connectionLimit: 4 });
+const t0 = Date.now();
+await rebuildFleetMonthly(db, { onProgress: (v) => process.stdout.write(`\rvisits up to ${v}`) });
+console.log(`\nfleet_monthly rebuilt in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+const t1 = Date.now();
+await startRepairEffectiveness({ db, clock: systemClock, logger: createLogger('warn') });
+await waitForJobs();
+console.log(`repair effectiveness rebuilt in ${((Date.now() - t1) / 1000).toFixed(1)} s`);
+await pool.end();

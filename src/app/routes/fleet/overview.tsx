@@ -1,0 +1,230 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { LEAK_LOCATIONS, REFRIGERANT_CODES, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
+import { fleetOverviewQuerySchema, type FleetOverviewDto, type FleetOverviewQuery } from '../../../../shared/schemas/fleet';
+import { Alert } from '../../../components/ui/alert';
+import { Button } from '../../../components/ui/button';
+import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
+import { Spinner } from '../../../components/ui/spinner';
+import { fleetOverviewQuery, useFleetOverview } from '../../../features/fleet/api/get-overview';
+import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
+import { ScoreBadge } from '../../../features/fleet/components/band-badge';
+import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
+import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/components/overview-charts';
+import { fmtContainer, fmtDay, fmtPct, unitHref } from '../../../features/fleet/utils/format';
+import { toSearch } from '../../../features/fleet/utils/query-string';
+import { RefreshRepairs } from '../../../features/fleet/components/refresh-repairs';
+
+function readQuery(sp: URLSearchParams): FleetOverviewQuery {
+  const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
+  return parsed.success ? parsed.data : fleetOverviewQuerySchema.parse({});
+}
+
+export const loader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await queryClient.prefetchQuery(fleetOverviewQuery(readQuery(new URL(request.url).searchParams)));
+    return null;
+  };
+
+const select = 'min-h-touch rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
+
+export default function FleetOverviewPage() {
+  const [sp, setSp] = useSearchParams();
+  const q = readQuery(sp);
+  const overview = useFleetOverview(q);
+  const sites = useSiteOptions();
+  const set = (patch: Partial<FleetOverviewQuery>) => setSp(toSearch({ ...q, ...patch }, { months: 12 }), { preventScrollReset: true });
+
+  return (
+    <div className="flex flex-col gap-5">
+      <PageHeader title="Fleet overview" description="How much the fleet leaks, where, and which repairs hold." />
+      <FleetTabs />
+      <div className="flex flex-wrap gap-3">
+        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
+          Period
+          <select className={select} value={q.months} onChange={(e) => set({ months: Number(e.target.value) })}>
+            {[6, 12, 24, 36].map((m) => (
+              <option key={m} value={m}>
+                Last {m} months
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
+          Site
+          <select className={select} value={q.siteId ?? ''} onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}>
+            <option value="">All sites</option>
+            {(sites.data ?? []).map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </select>
+        </label>
+        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
+          Refrigerant
+          <select className={select} value={q.refrigerant ?? ''} onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}>
+            <option value="">All refrigerants</option>
+            {REFRIGERANT_CODES.map((r) => (
+              <option key={r}>{r}</option>
+            ))}
+          </select>
+        </label>
+      </div>
+      {overview.isPending ? (
+        <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
+          <Spinner /> Loading the overview…
+        </div>
+      ) : overview.isError && !overview.data ? (
+        <Alert tone="alarm" title="The overview could not be loaded">
+          <p>{overview.error.message}</p>
+          <Button variant="secondary" className="mt-3" onClick={() => void overview.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      ) : overview.data.units === 0 ? (
+        <EmptyState title="No units to show">There are no units here yet, or none match the site and refrigerant chosen.</EmptyState>
+      ) : (
+        <OverviewBody o={overview.data} busy={overview.isPlaceholderData} />
+      )}
+    </div>
+  );
+}
+
+function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
+  return (
+    <div className={busy ? 'opacity-70' : undefined}>
+      <div className="grid gap-5 lg:grid-cols-2">
+        <Panel aria-labelledby="ov-rate">
+          <h2 id="ov-rate" className="text-xl font-bold">
+            Leak-rate distribution
+          </h2>
+          <p className="mt-1 text-base text-ink-700">
+            {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in the last 365 days and are not drawn. Bars at or above the
+            alert threshold are red.
+          </p>
+          <div className="mt-3">
+            <LeakRateHistogram data={o.leakRate} />
+          </div>
+        </Panel>
+        <Panel aria-labelledby="ov-due">
+          <h2 id="ov-due" className="text-xl font-bold">
+            Leak checks due
+          </h2>
+          <p className="mt-1 text-base text-ink-700">
+            <strong>{o.leakChecksDue.count.toLocaleString('en-GB')}</strong> due in the next {o.leakChecksDue.days} days;{' '}
+            <strong className={o.leakChecksDue.overdue ? 'text-alarm-700' : undefined}>{o.leakChecksDue.overdue.toLocaleString('en-GB')}</strong> overdue.
+          </p>
+          {o.leakChecksDue.units.length === 0 ? (
+            <p className="mt-4 text-base text-ink-600">Nothing due in the next {o.leakChecksDue.days} days.</p>
+          ) : (
+            <ul className="mt-3 divide-y divide-ink-100">
+              {o.leakChecksDue.units.map((u) => (
+                <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
+                  <Link to={unitHref(u.unitId)} className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline">
+                    {fmtContainer(u.containerNumber)}
+                  </Link>
+                  <span className="min-w-0 flex-1 truncate text-sm text-ink-600">{u.site ?? 'No site'}</span>
+                  <span className="shrink-0 whitespace-nowrap tabular-nums">{fmtDay(u.due)}</span>
+                </li>
+              ))}
+            </ul>
+          )}
+        </Panel>
+      </div>
+      <Panel aria-labelledby="ov-emissions" className="mt-5">
+        <h2 id="ov-emissions" className="text-xl font-bold">
+          Refrigerant made up per month
+        </h2>
+        <p className="mt-1 text-base text-ink-700">Top-ups plus recharges beyond what was recovered in the same visit: what leaked out. An estimate of emissions.</p>
+        <div className="mt-3">
+          <EmissionsChart data={o.emissions} />
+        </div>
+      </Panel>
+      <div className="mt-5 grid gap-5 lg:grid-cols-2">
+        <Panel aria-labelledby="ov-chronic">
+          <h2 id="ov-chronic" className="text-xl font-bold">
+            Chronic leakers
+          </h2>
+          <p className="mt-1 text-base text-ink-700">The highest repeat-leak scores, with what drives each.</p>
+          {o.chronicLeakers.length === 0 ? (
+            <p className="mt-4 text-base text-ink-600">No unit has a repeat-leak score above 0.</p>
+          ) : (
+            <ol className="mt-3 flex flex-col gap-3" data-testid="chronic-leakers">
+              {o.chronicLeakers.map((c) => (
+                <li key={c.unitId} className="rounded-md border-2 border-ink-100 p-3">
+                  <div className="flex flex-wrap items-center justify-between gap-2">
+                    <Link to={unitHref(c.unitId)} className="font-bold text-fjord-700 underline-offset-4 hover:underline">
+                      {fmtContainer(c.containerNumber)}
+                    </Link>
+                    <ScoreBadge score={c.score} band={c.scoreBand} />
+                  </div>
+                  <p className="text-sm text-ink-600">
+                    {c.site ?? 'No site'} · {c.refrigerant} · {fmtPct(c.rollingLeakRatePct)} in 365 days
+                  </p>
+                  <ul className="mt-1 text-sm text-ink-800">
+                    {c.factors
+                      .filter((f) => f.points > 0)
+                      .slice(0, 2)
+                      .map((f) => (
+                        <li key={f.name}>
+                          <span className="font-semibold tabular-nums">+{f.points}</span> {f.explanation}
+                        </li>
+                      ))}
+                  </ul>
+                </li>
+              ))}
+            </ol>
+          )}
+        </Panel>
+        <Panel aria-labelledby="ov-repairs">
+          <h2 id="ov-repairs" className="text-xl font-bold">
+            Repair effectiveness
+          </h2>
+          <p className="mt-1 text-base text-ink-700">
+            Share of repairs with no top-up and no leak found for {o.repairEffectiveness.holdDays} days after. Fewer than {o.repairEffectiveness.minRepairs} repairs is too few to give a share.
+          </p>
+          {o.repairEffectiveness.rows.filter((r) => r.action).length === 0 ? (
+            <p className="mt-4 text-base text-ink-600">{o.repairEffectiveness.computedAt ? 'No repair has been judged yet.' : 'Not worked out yet.'}</p>
+          ) : (
+            <div className="mt-3 overflow-x-auto">
+              <table className="w-full text-left text-base">
+                <thead className="text-sm text-ink-700">
+                  <tr>
+                    <th className="py-2 pr-3">Leak at · repair</th>
+                    <th className="py-2 pr-3 text-right">Repairs</th>
+                    <th className="py-2 text-right">Held</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {o.repairEffectiveness.rows
+                    .filter((r) => r.action)
+                    .map((r) => (
+                      <tr key={`${r.location}|${r.action}`} className="border-t border-ink-100">
+                        <td className="py-2 pr-3">
+                          {termLabel(LEAK_LOCATIONS, r.location)} · <span className="text-ink-700">{termLabel(REPAIR_ACTIONS, r.action ?? '').toLowerCase()}</span>
+                          {r.pending > 0 && <span className="block text-sm text-ink-600">{r.pending} too recent to judge</span>}
+                        </td>
+                        <td className="py-2 pr-3 text-right tabular-nums">{r.repairs}</td>
+                        <td className="py-2 text-right">
+                          {r.holdRatePct === null ? (
+                            <span className="text-sm text-ink-600">too few to say</span>
+                          ) : (
+                            <span className="font-semibold tabular-nums">
+                              {r.holdRatePct} % <span className="text-sm font-normal text-ink-600">({r.held})</span>
+                            </span>
+                          )}
+                        </td>
+                      </tr>
+                    ))}
+                </tbody>
+              </table>
+            </div>
+          )}
+          <RefreshRepairs computedAt={o.repairEffectiveness.computedAt} />
+        </Panel>
+      </div>
+    </div>
+  );
+}

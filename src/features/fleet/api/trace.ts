@@ -1,0 +1,24 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { MarkForInspectionInput, MarkForInspectionResultDto, TraceQuery, TraceResultDto } from '../../../../shared/schemas/fleet';
+import { apiClient } from '../../../lib/api-client';
+import { toSearch } from '../utils/query-string';
+import { fleetKeys } from './keys';
+
+export function traceQuery(q: TraceQuery | null) {
+  return queryOptions({
+    queryKey: fleetKeys.trace(q ?? {}),
+    queryFn: ({ signal }) => apiClient.get<TraceResultDto>(`/api/traceability?${toSearch(q ?? {})}`, { signal }),
+    enabled: q !== null,
+  });
+}
+
+export const useTrace = (q: TraceQuery | null) => useQuery(traceQuery(q));
+export const traceExportHref = (q: TraceQuery) => `/api/traceability/export.csv?${toSearch(q)}`;
+
+export function useMarkForInspection() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: MarkForInspectionInput) => apiClient.post<MarkForInspectionResultDto>('/api/traceability/mark-for-inspection', input),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: fleetKeys.traces() }),
+  });
+}

@@ -1,0 +1,54 @@
+import { FLEET_PAGE_SIZES, type FleetCountDto } from '../../../../shared/schemas/fleet';
+import { Button } from '../../../components/ui/button';
+
+type Props = {
+  page: number;
+  pageSize: number;
+  hasMore: boolean;
+  count: FleetCountDto | undefined;
+  onPage: (page: number) => void;
+  onPageSize: (size: number) => void;
+};
+
+export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Props) {
+  const pages = count ? Math.max(1, Math.ceil(count.total / pageSize)) : null;
+  const from = (page - 1) * pageSize + 1;
+  return (
+    <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3">
+      <p className="text-base text-ink-700" aria-live="polite">
+        {count ? (
+          count.total === 0 ? (
+            'No units'
+          ) : (
+            <>
+              Units {from.toLocaleString('en-GB')}–{Math.min(from + pageSize - 1, count.total).toLocaleString('en-GB')} of{' '}
+              {count.capped ? `more than ${count.total.toLocaleString('en-GB')}` : count.total.toLocaleString('en-GB')}
+            </>
+          )
+        ) : (
+          `Page ${page}`
+        )}
+      </p>
+      <div className="flex items-center gap-2">
+        <label className="flex items-center gap-2 text-sm font-semibold text-ink-700">
+          Per page
+          <select className="min-h-touch rounded-md border-2 border-ink-400 bg-white px-2 text-base" value={pageSize} onChange={(e) => onPageSize(Number(e.target.value))}>
+            {FLEET_PAGE_SIZES.map((s) => (
+              <option key={s}>{s}</option>
+            ))}
+          </select>
+        </label>
+        <Button variant="secondary" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+          Previous
+        </Button>
+        <span className="min-w-16 text-center text-sm text-ink-700 tabular-nums">
+          {page}
+          {pages && !count?.capped ? ` / ${pages}` : ''}
+        </span>
+        <Button variant="secondary" disabled={!hasMore} onClick={() => onPage(page + 1)}>
+          Next
+        </Button>
+      </div>
+    </nav>
+  );
+}
