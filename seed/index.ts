@@ -4,6 +4,8 @@ import { users } from '../server/db/schema';
 import { hashPassword } from '../server/lib/password';
 import { newId } from '../server/lib/ids';
 import { getSettings } from '../server/features/settings/settings.service';
+import { startRepairEffectiveness, waitForJobs } from '../server/features/jobs/jobs.service';
+import { createLogger } from '../server/lib/logger';
 import { DEMO_ACCOUNTS, DEMO_COMPANY, DEMO_PASSWORD } from './demo-accounts';
 import { createFleet, STORY_UNITS, type Fleet } from './simulator/fleet';
 import { containerNumberFor } from './simulator/unit-sim';
@@ -51,11 +53,13 @@ export function storyUnits(fleet: Pick<Fleet, 'ctx' | 'units'>) {
 
 /**
  * Loads the whole demo: the four demo sign-ins, the invented fleet of Halyard Reefer Leasing (sites, staff, units
- * with years of simulated history) and every unit's statistics row, in one transaction.
+ * with years of simulated history), every unit's statistics row and the monthly made-up totals, in one
+ * transaction; then the repair-effectiveness table.
  */
 export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<SeedSummary> {
   const t0 = performance.now();
-  const fleet = createFleet({ seed: opts.seed, units: opts.units ?? DEMO_UNITS, now: opts.now ?? new Date(), historyYears: opts.historyYears });
+  const now = opts.now ?? new Date();
+  const fleet = createFleet({ seed: opts.seed, units: opts.units ?? DEMO_UNITS, now, historyYears: opts.historyYears });
   const settings = await getSettings(db);
   const hash = await hashPassword(DEMO_PASSWORD);
   const conn = await db.$client.getConnection();
@@ -86,6 +90,9 @@ export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<Seed
   } finally {
     conn.release();
   }
+  // The repair-effectiveness table is a cache the server rebuilds in the background; build it now with the same job.
+  await startRepairEffectiveness({ db, clock: { now: () => now }, logger: createLogger('silent') });
+  await waitForJobs();
   const summary: SeedSummary = {
     units: writer.counts.units,
     visits: writer.counts.visits,

@@ -1,6 +1,6 @@
 // From a simulated unit to the rows the server itself would have written: units, visits, events (void markers
 // included) and the unit's statistics row, computed in memory with the server's own functions.
-import type { events, sites, units, users, visits } from '../../server/db/schema';
+import type { events, sites, units, users, visitMadeUp, visits } from '../../server/db/schema';
 import { engineUnit, statsRowFrom, toEngineEvent, type UnitStatsRow } from '../../server/features/history/stats.service';
 import { computeUnitStats } from '../../shared/domain';
 import type { Settings } from '../../shared/schemas/settings';
@@ -12,11 +12,23 @@ export type UserRow = typeof users.$inferInsert;
 export type UnitRow = typeof units.$inferInsert;
 export type VisitRow = typeof visits.$inferInsert;
 export type EventRow = typeof events.$inferInsert;
+export type VisitMadeUpRow = typeof visitMadeUp.$inferInsert;
 
 /** The next id of each table; advanced as rows are made. */
 export type IdCursor = { unit: number; visit: number; event: number };
 
-export type UnitRows = { unit: UnitRow; visits: VisitRow[]; events: EventRow[]; stats: UnitStatsRow };
+export type EngineEvent = NonNullable<ReturnType<typeof toEngineEvent>>;
+
+/** The rows of one unit, and the engine's view of its history (what loadEngineHistory would read back). */
+export type UnitRows = {
+  unit: UnitRow;
+  visits: VisitRow[];
+  events: EventRow[];
+  stats: UnitStatsRow;
+  /** Each visit's made-up refrigerant (for visit_made_up and fleet_monthly), as the engine counts it. */
+  madeUp: VisitMadeUpRow[];
+  engineEvents: EngineEvent[];
+};
 
 export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
   const at = new Date((fleet.ctx.todayDay - Math.round(fleet.ctx.historyYears * 365.25) - 60) * 86_400_000);
@@ -98,7 +110,7 @@ export function rowsForUnit(
   const idOf = new Map<SimEvent, number>();
   const voided = new Set<SimEvent>();
   for (const v of sim.voids) voided.add(v.target);
-  const engineEvents: NonNullable<ReturnType<typeof toEngineEvent>>[] = [];
+  const engineEvents: EngineEvent[] = [];
 
   for (let k = 0; k < sim.visits.length; k++) {
     const v = sim.visits[k];
@@ -129,8 +141,26 @@ export function rowsForUnit(
         kind: e.kind,
         occurredAt,
         enteredAt,
-        ...NULL_EVENT,
-        ...stripUndefined(e),
+        kg: e.kg ?? null,
+        cylinder: e.cylinder ?? null,
+        reusedRecovered: e.reusedRecovered ?? null,
+        excludedFromLeakRate: e.excludedFromLeakRate ?? null,
+        method: e.method ?? null,
+        leakFound: e.leakFound ?? null,
+        location: e.location ?? null,
+        action: e.action ?? null,
+        verified: e.verified ?? null,
+        passed: e.passed ?? null,
+        suctionKPaG: e.suctionKPaG ?? null,
+        dischargeKPaG: e.dischargeKPaG ?? null,
+        ambientC: e.ambientC ?? null,
+        setPointC: e.setPointC ?? null,
+        supplyAirC: e.supplyAirC ?? null,
+        returnAirC: e.returnAirC ?? null,
+        sightGlass: e.sightGlass ?? null,
+        details: e.details ?? null,
+        note: e.note ?? null,
+        voidsEventId: null,
         createdAt: enteredAt,
       };
       eventRows.push(row);
@@ -182,11 +212,21 @@ export function rowsForUnit(
   );
   const last = engineEvents.length ? new Date(engineEvents[engineEvents.length - 1].at) : null;
   const stats = statsRowFrom(unitId, result, now, last);
-  return { unit, visits: visitRows, events: eventRows, stats };
-}
-
-function stripUndefined(e: SimEvent): Partial<EventRow> {
-  const out: Record<string, unknown> = {};
-  for (const [k, v] of Object.entries(e)) if (v !== undefined) out[k] = v;
-  return out as Partial<EventRow>;
+  // What applyToFleetMonthly would have recorded visit by visit: month of the visit (UTC), its site, the unit's
+  // refrigerant, and the made-up kg by the domain rule.
+  const madeUp: VisitMadeUpRow[] = [];
+  const siteOfVisit = new Map(visitRows.map((v) => [String(v.id), v.siteId ?? 0]));
+  for (const v of result.visits) {
+    if (!(v.madeUpKg > 0) || v.visitId === null) continue;
+    madeUp.push({
+      visitId: Number(v.visitId),
+      unitId,
+      month: v.date.slice(0, 7),
+      siteId: siteOfVisit.get(v.visitId) ?? 0,
+      refrigerant: u.refrigerant,
+      madeUpKg: v.madeUpKg,
+      createdAt: now,
+    });
+  }
+  return { unit, visits: visitRows, events: eventRows, stats, madeUp, engineEvents };
 }

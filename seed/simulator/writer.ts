@@ -1,9 +1,9 @@
 // Writes a simulated fleet as bulk multi-row INSERTs, parents before children, in statements of a few MB.
-import { sites, units, unitStats, users, visits, events } from '../../server/db/schema';
+import { sites, units, unitStats, users, visitMadeUp, visits, events } from '../../server/db/schema';
 import type { Settings } from '../../shared/schemas/settings';
 import { simulateFleetUnit, unitCount, type Fleet } from './fleet';
 import { rowsForUnit, siteRows, userRows, type IdCursor, type UnitRows } from './rows';
-import { InsertBuffer } from './sql';
+import { InsertBuffer, quote } from './sql';
 import type { UnitSim } from './unit-sim';
 
 /** Runs one SQL statement; may queue it (the writer waits on the returned promise only when told to). */
@@ -19,8 +19,32 @@ export const STATEMENT_BYTES = 4 * 1024 * 1024;
 
 export type WriteCounts = { units: number; visits: number; events: number; stats: number };
 
+const EVENT_COMMON = ['id', 'unitId', 'visitId', 'siteId', 'recordedBy', 'kind', 'occurredAt', 'enteredAt', 'details', 'note', 'createdAt'];
+/** Event rows go in by kind, each with only its own columns: the rest are NULL anyway, and the statements shrink. */
+const EVENT_GROUPS: Record<string, string[]> = {
+  pressure: [...EVENT_COMMON, 'suctionKPaG', 'dischargeKPaG', 'ambientC', 'setPointC', 'supplyAirC', 'returnAirC', 'sightGlass'],
+  movement: [...EVENT_COMMON, 'kg', 'cylinder', 'reusedRecovered', 'excludedFromLeakRate'],
+  check: [...EVENT_COMMON, 'method', 'leakFound', 'location', 'action', 'verified', 'passed'],
+  plain: EVENT_COMMON,
+  void: [...EVENT_COMMON, 'voidsEventId'],
+};
+const GROUP_OF: Record<string, string> = {
+  pressure: 'pressure',
+  top_up: 'movement',
+  recovery: 'movement',
+  recharge: 'movement',
+  leak_check: 'check',
+  repair: 'check',
+  pti: 'check',
+  void: 'void',
+};
+
 export class FleetWriter {
-  private readonly buffers: InsertBuffer[];
+  /** Buffers with their dependency level: a buffer flushes every buffer of a lower level first. */
+  private readonly buffers: { level: number; buf: InsertBuffer }[];
+  private readonly eventBuffers = new Map<string, number>();
+  /** fleet_monthly, summed in memory over the whole load (a few thousand cells). */
+  private readonly monthly = new Map<string, { month: string; siteId: number; refrigerant: string; kg: number; visits: number }>();
   private pending: Promise<void>[] = [];
   readonly counts: WriteCounts = { units: 0, visits: 0, events: 0, stats: 0 };
 
@@ -32,14 +56,32 @@ export class FleetWriter {
       this.pending.push(quiet(this.exec(sql)));
     };
     // Dependency order: a buffer flushes the ones before it first, so foreign keys hold statement by statement.
-    this.buffers = [units, visits, events, unitStats].map((t) => new InsertBuffer(t, push));
+    this.buffers = [
+      { level: 0, buf: new InsertBuffer(units, push) },
+      { level: 1, buf: new InsertBuffer(visits, push) },
+      { level: 3, buf: new InsertBuffer(unitStats, push) },
+      { level: 3, buf: new InsertBuffer(visitMadeUp, push) },
+    ];
+    for (const [group, keys] of Object.entries(EVENT_GROUPS)) {
+      this.eventBuffers.set(group, this.buffers.length);
+      this.buffers.push({ level: 2, buf: new InsertBuffer(events, push, keys) });
+    }
   }
 
   add(rows: UnitRows): void {
     this.put(0, rows.unit);
     for (const v of rows.visits) this.put(1, v);
-    for (const e of rows.events) this.put(2, e);
-    this.put(3, rows.stats as unknown as Record<string, unknown>);
+    for (const e of rows.events) this.put(this.eventBuffers.get(GROUP_OF[e.kind] ?? 'plain')!, e);
+    this.put(2, rows.stats as unknown as Record<string, unknown>);
+    for (const m of rows.madeUp) {
+      this.put(3, m);
+      const key = `${m.month}|${m.siteId}|${m.refrigerant}`;
+      const cell = this.monthly.get(key);
+      if (cell) {
+        cell.kg += m.madeUpKg;
+        cell.visits++;
+      } else this.monthly.set(key, { month: m.month, siteId: m.siteId, refrigerant: m.refrigerant, kg: m.madeUpKg, visits: 1 });
+    }
     this.counts.units++;
     this.counts.visits += rows.visits.length;
     this.counts.events += rows.events.length;
@@ -47,14 +89,31 @@ export class FleetWriter {
   }
 
   private put(k: number, row: Record<string, unknown>) {
-    if (this.buffers[k].size >= this.maxBytes) for (let i = 0; i <= k; i++) this.buffers[i].end();
-    this.buffers[k].add(row);
+    const { level, buf } = this.buffers[k];
+    if (buf.size >= this.maxBytes) {
+      for (const b of this.buffers) if (b.level < level) b.buf.end();
+      buf.end();
+    }
+    buf.add(row);
   }
 
   /** Emits everything buffered and waits for every statement handed out so far. */
   async flush(): Promise<void> {
-    for (const b of this.buffers) b.end();
+    for (const level of [0, 1, 2, 3]) for (const b of this.buffers) if (b.level === level) b.buf.end();
     await this.settle();
+    // Added onto what is there, the same way applyToFleetMonthly keeps the table.
+    const cells = [...this.monthly.values()];
+    this.monthly.clear();
+    for (let i = 0; i < cells.length; i += 2000) {
+      const values = cells
+        .slice(i, i + 2000)
+        .map((c) => `(${quote(c.month)},${c.siteId},${quote(c.refrigerant)},${c.kg},${c.visits})`)
+        .join(',');
+      await this.exec(
+        `INSERT INTO fleet_monthly (month, site_id, refrigerant, made_up_kg, visits) VALUES ${values} ` +
+          'ON DUPLICATE KEY UPDATE made_up_kg = made_up_kg + VALUES(made_up_kg), visits = visits + VALUES(visits)',
+      );
+    }
   }
 
   /** Waits for the statements handed out so far. */
@@ -62,6 +121,11 @@ export class FleetWriter {
     const list = this.pending;
     this.pending = [];
     await Promise.all(list);
+  }
+
+  /** Waits for the oldest statements until at most `max` are outstanding (keeps memory bounded, the pipe full). */
+  async drain(max: number): Promise<void> {
+    while (this.pending.length > max) await this.pending.shift();
   }
 
   get inFlight(): number {
