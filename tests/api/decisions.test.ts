@@ -104,7 +104,7 @@ describe('POST /api/decisions/units/:id', () => {
   it('answers 400 for a bad choice or assumptions, 404 for an unknown unit, 403 for an engineer', async () => {
     const d = (await owner.get(`/api/decisions/units/${leaker}`)).body as UnitDecisionDto;
     const good = { choice: 'retire', economics: d.economics, inputs: { topUpIntervalDays: null, madeUpKgPerVisit: null, leakLocation: 'other' }, idempotencyKey: randomUUID() };
-    const post = (agent: Agent, id: number, b: unknown) => agent.post(`/api/decisions/units/${id}`).set('Origin', TEST_ORIGIN).send(b);
+    const post = (agent: Agent, id: number, b: object) => agent.post(`/api/decisions/units/${id}`).set('Origin', TEST_ORIGIN).send(b);
     expect((await post(owner, leaker, { ...good, choice: 'sell' })).status).toBe(400);
     const negative = await post(owner, leaker, { ...good, economics: { ...d.economics, discountRatePct: -5 } });
     expect(negative.status).toBe(400);

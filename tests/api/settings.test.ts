@@ -21,7 +21,7 @@ afterAll(async () => {
   await pool.end();
 });
 
-const put = (agent: Awaited<ReturnType<typeof signInAs>>['agent'], body: unknown) => agent.put('/api/settings').set('Origin', TEST_ORIGIN).send(body);
+const put = (agent: Awaited<ReturnType<typeof signInAs>>['agent'], body: object) => agent.put('/api/settings').set('Origin', TEST_ORIGIN).send(body);
 const clone = (s: Settings): Settings => JSON.parse(JSON.stringify(s)) as Settings;
 
 describe('reading the settings', () => {

@@ -111,7 +111,7 @@ describe('POST /api/traceability/mark-for-inspection', () => {
   });
 
   it('answers 400 without a reason, for a search that finds nothing, or a bad search', async () => {
-    const post = (b: unknown) => engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(b);
+    const post = (b: object) => engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(b);
     expect((await post({ ...body(), reason: '' })).status).toBe(400);
     expect((await post({ ...body(), query: { cylinder: 'NO-SUCH-LOT' } })).status).toBe(400);
     expect((await post({ ...body(), query: {} })).status).toBe(400);
