@@ -13,7 +13,7 @@ const BIN_PCT = 10;
 const roundTo = (v: number, d: number) => Math.round(v * 10 ** d) / 10 ** d;
 const TOP_BIN = 10; // the last bin holds 100 % and above
 const CHRONIC_LIST = 10;
-const DUE_LIST = 20;
+const DUE_LIST = 10;
 
 /** The first month of a window of `months` months ending with the current one, as YYYY-MM. */
 export function monthsBack(today: string, months: number): string[] {

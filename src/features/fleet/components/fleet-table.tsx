@@ -27,7 +27,7 @@ const columns = [
           {fmtContainer(c.getValue())}
         </Link>
         <span className="text-sm text-ink-600">
-          {c.row.original.site?.name ?? 'No site'} · {c.row.original.refrigerant}
+          {c.row.original.site?.name ?? 'No site'} · <span className="whitespace-nowrap">{c.row.original.refrigerant}</span>
           {c.row.original.status !== 'in_service' && ` · ${c.row.original.status === 'retired' ? 'Retired' : 'Out of service'}`}
         </span>
       </span>
