@@ -340,3 +340,21 @@ describe('alerts from the write path', () => {
     expect(mails[0].subject).toMatch(/chronic/);
   });
 });
+
+describe('voiding by role', () => {
+  it('lets an owner void an entry and marks it voided in the timeline', async () => {
+    now = new Date('2026-06-01T12:00:00Z');
+    const { agent: tech } = await signInAs(app, db, 'technician');
+    const { agent: owner } = await signInAs(app, db, 'owner');
+    const unit = await createTestUnit(db);
+    const res = await tech
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'top_up', kg: 0.6, cylinder: 'C-1' }, { kind: 'note', note: 'kept' }] });
+    const topUpId = res.body.events.find((e: { kind: string }) => e.kind === 'top_up').id;
+    expect((await owner.post(`/api/events/${topUpId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status).toBe(201);
+    const timeline = await owner.get(`/api/units/${unit.id}/timeline`);
+    const byKind = Object.fromEntries(timeline.body.events.map((e: { kind: string; voided: boolean }) => [e.kind, e.voided]));
+    expect(byKind).toEqual({ top_up: true, note: false });
+  });
+});

@@ -40,7 +40,9 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       const result = await recordVisit(ctx, req.user!, input, onStatsChange);
       res.status(result.replayed ? 200 : 201).json(result);
     }),
-    route('post', '/api/events/:id/void', 'void:event:own', async (req, res) => {
+    // Every role may void something: technicians and engineers their own recent entries, engineers, owners and admins
+    // any entry; the service applies the rule for the role.
+    route('post', '/api/events/:id/void', 'signed-in', async (req, res) => {
       const { id } = numericId.parse(req.params);
       const { reason } = voidEventSchema.parse(req.body);
       res.status(201).json(await voidEvent(ctx, req.user!, id, reason, onStatsChange));

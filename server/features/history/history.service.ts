@@ -166,6 +166,7 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
     const [unit] = await tx.select().from(units).where(eq(units.id, target.unitId)).for('update');
     if (target.kind === 'void') throw conflict('A correction cannot itself be voided.');
     if (!can(user, 'void:event:any')) {
+      if (!can(user, 'void:event:own')) throw forbidden('Your role cannot void entries.');
       if (target.recordedBy !== user.id) throw forbidden('You can void only entries you recorded.');
       if (now.getTime() - target.enteredAt.getTime() > VOID_WINDOW_HOURS * 3600 * 1000) {
         throw forbidden(`Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`);
@@ -315,7 +316,7 @@ export async function getUnitTimeline(db: Db, unitId: number): Promise<{ events:
       dischargeKPaG: events.dischargeKPaG,
       ambientC: events.ambientC,
       sightGlass: events.sightGlass,
-      voided: sql<number>`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`,
+      voided: sql<number>`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = \`events\`.\`id\`)`,
     })
     .from(events)
     .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`))

@@ -89,7 +89,7 @@ export async function loadEngineHistory(db: DbOrTx, unitId: number): Promise<Eng
       and(
         eq(events.unitId, unitId),
         sql`${events.kind} <> 'void'`,
-        sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`,
+        sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = \`events\`.\`id\`)`,
       ),
     )
     .orderBy(asc(events.occurredAt), asc(events.id));
