@@ -29,7 +29,12 @@ const countrySchema = z
   .trim()
   .toUpperCase()
   .transform((v) => (v === '' ? null : v))
-  .pipe(z.string().regex(/^[A-Z]{2}$/, 'Use the 2-letter country code, e.g. NL').nullable())
+  .pipe(
+    z
+      .string()
+      .regex(/^[A-Z]{2}$/, 'Use the 2-letter country code, e.g. NL')
+      .nullable(),
+  )
   .nullable();
 
 export const createSiteSchema = z.object({

@@ -42,7 +42,10 @@ export const containerNumberSchema = z.string({ error: 'Enter the container numb
 export const refrigerantSchema = z.string({ error: 'Choose the refrigerant' }).transform((v, ctx) => {
   const r = findRefrigerant(v);
   if (!r) {
-    ctx.addIssue({ code: 'custom', message: `Unknown refrigerant "${v}". Use one of ${REFRIGERANT_CODES.join(', ')}.` });
+    ctx.addIssue({
+      code: 'custom',
+      message: `Unknown refrigerant "${v}". Use one of ${REFRIGERANT_CODES.join(', ')}.`,
+    });
     return z.NEVER;
   }
   return r.code;
@@ -67,7 +70,13 @@ const moneySchema = z.preprocess(
 
 const statusSchema = z.preprocess(
   // "In service", "out-of-service" and the like from spreadsheets.
-  (v) => (typeof v === 'string' ? v.trim().toLowerCase().replace(/[\s-]+/g, '_') : v),
+  (v) =>
+    typeof v === 'string'
+      ? v
+          .trim()
+          .toLowerCase()
+          .replace(/[\s-]+/g, '_')
+      : v,
   z.enum(UNIT_STATUSES, { message: 'Use in_service, out_of_service or retired' }),
 );
 
@@ -243,7 +252,7 @@ export const MAX_REPORTED_IMPORT_ERRORS = 200;
 
 /** The columns of the fleet CSV, in template order; `header` is the template's column name. */
 export const IMPORT_COLUMNS = [
-  { field: 'containerNumber', header: 'container_number', required: true, example: 'HRLU1000013' },
+  { field: 'containerNumber', header: 'container_number', required: true, example: 'HRLU1000016' },
   { field: 'refrigerant', header: 'refrigerant', required: true, example: 'R-134a' },
   { field: 'nominalChargeKg', header: 'nominal_charge_kg', required: true, example: '4.5' },
   { field: 'commissionedOn', header: 'commissioned_on', required: false, example: '2021-03-15' },
@@ -265,10 +274,12 @@ export const importRowSchema = z.object({
   refrigerant: unitFields.refrigerant,
   nominalChargeKg: unitFields.nominalChargeKg,
   commissionedOn: unitFields.commissionedOn.optional(),
-  siteCode: z.preprocess(
-    (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim().toUpperCase()) : v),
-    z.string().max(16, 'A site code has at most 16 characters').nullable(),
-  ).optional(),
+  siteCode: z
+    .preprocess(
+      (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim().toUpperCase()) : v),
+      z.string().max(16, 'A site code has at most 16 characters').nullable(),
+    )
+    .optional(),
   status: z.preprocess((v) => (blankToNull(v) === null ? undefined : v), statusSchema.optional()),
   machinerySerial: unitFields.machinerySerial.optional(),
   model: unitFields.model.optional(),
@@ -301,7 +312,10 @@ export const importPreviewFormSchema = z.object({
 });
 export const importCommitFormSchema = importPreviewFormSchema.extend({
   importKey: z.string().regex(/^[A-Za-z0-9_-]{16,43}$/, 'An import key is 16–43 URL-safe characters'),
-  skipExisting: z.enum(['true', 'false']).transform((v) => v === 'true').optional(),
+  skipExisting: z
+    .enum(['true', 'false'])
+    .transform((v) => v === 'true')
+    .optional(),
 });
 export const importKeyParamSchema = z.object({ key: z.string().min(1).max(64) });
 

@@ -23,7 +23,8 @@ export function uploadForm<T>(url: string, form: FormData, onProgress?: (p: Tran
     xhr.upload.onprogress = (e) => {
       if (e.lengthComputable) onProgress?.({ loaded: e.loaded, total: e.total });
     };
-    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'The upload did not get through. Check the connection and try again.'));
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network_error', 'The upload did not get through. Check the connection and try again.'));
     xhr.onload = () => {
       let json: unknown = undefined;
       try {
@@ -32,14 +33,21 @@ export function uploadForm<T>(url: string, form: FormData, onProgress?: (p: Tran
         // Not JSON: the status decides.
       }
       if (xhr.status >= 200 && xhr.status < 300) resolve(json as T);
-      else reject(errorFrom(xhr.status, json, xhr.status === 413 ? 'The file is too large.' : 'The upload failed. Try again.'));
+      else
+        reject(
+          errorFrom(xhr.status, json, xhr.status === 413 ? 'The file is too large.' : 'The upload failed. Try again.'),
+        );
     };
     xhr.send(form);
   });
 }
 
 /** Fetches a file the server makes (a PDF) and hands it to the browser to open or save under `fileName`. */
-export async function saveFile(url: string, fileName: string, init: { method?: 'GET' | 'POST'; body?: unknown } = {}): Promise<void> {
+export async function saveFile(
+  url: string,
+  fileName: string,
+  init: { method?: 'GET' | 'POST'; body?: unknown } = {},
+): Promise<void> {
   let response: Response;
   try {
     response = await fetch(url, {

@@ -34,16 +34,29 @@ const fleetCsv = (from: number, n: number, edit?: (i: number, line: string) => s
 };
 
 const unitsWithPrefix = async (prefix: string) =>
-  Number((await db.select({ n: count() }).from(units).where(like(units.containerNumber, `${prefix}%`)))[0].n);
+  Number(
+    (
+      await db
+        .select({ n: count() })
+        .from(units)
+        .where(like(units.containerNumber, `${prefix}%`))
+    )[0].n,
+  );
 
 function preview(agent: TestAgent, csv: string | Buffer, name = 'fleet.csv', fields: Record<string, string> = {}) {
   const req = agent.post('/api/unit-imports/preview').set('Origin', TEST_ORIGIN);
   for (const [k, v] of Object.entries(fields)) req.field(k, v);
-  return req.attach('file', Buffer.from(csv), { filename: name, contentType: name.endsWith('.csv') ? 'text/csv' : 'application/octet-stream' });
+  return req.attach('file', Buffer.from(csv), {
+    filename: name,
+    contentType: name.endsWith('.csv') ? 'text/csv' : 'application/octet-stream',
+  });
 }
 
 function commit(agent: TestAgent, csv: string | Buffer, fields: Record<string, string> = {}, name = 'fleet.csv') {
-  const req = agent.post('/api/unit-imports').set('Origin', TEST_ORIGIN).field('importKey', fields.importKey ?? newToken());
+  const req = agent
+    .post('/api/unit-imports')
+    .set('Origin', TEST_ORIGIN)
+    .field('importKey', fields.importKey ?? newToken());
   for (const [k, v] of Object.entries(fields)) if (k !== 'importKey') req.field(k, v);
   return req.attach('file', Buffer.from(csv), { filename: name, contentType: 'text/csv' });
 }
@@ -54,7 +67,9 @@ describe('fleet import: template and preview', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toContain('text/csv');
     const lines = res.text.trim().split('\n');
-    expect(lines[0]).toBe('container_number,refrigerant,nominal_charge_kg,commissioned_on,site_code,status,machinery_serial,model,manufacture_year,purchase_cost,residual_value,notes');
+    expect(lines[0]).toBe(
+      'container_number,refrigerant,nominal_charge_kg,commissioned_on,site_code,status,machinery_serial,model,manufacture_year,purchase_cost,residual_value,notes',
+    );
     const checked = await preview(engineer, res.text, 'template.csv');
     expect(checked.status).toBe(200);
     expect(checked.body.preview).toMatchObject({ totalRows: 2, errorCount: 0, readyCount: 2 });
@@ -63,7 +78,7 @@ describe('fleet import: template and preview', () => {
   it('previews the first rows with per-row errors naming row, column and problem', async () => {
     const csv = fleetCsv(300000, 30, (i, line) => {
       if (i === 1) return line.replace(/^HRLU\d{7}/, withWrongCheckDigit(halyardNumber(300001)).number);
-      if (i === 2) return line.replace('R-134a', 'R-22').replace(',4.5,', ',-1,');
+      if (i === 2) return line.replace('R-134a', 'R-22').replace(',4.5,', ',-1,').replace('IMP-DEPOT', 'NOWHERE-2');
       if (i === 3) return line.replace('IMP-DEPOT', 'NOWHERE');
       if (i === 4) return `${halyardNumber(300000)},R-134a,4.5,,,`;
       return line;
@@ -71,25 +86,56 @@ describe('fleet import: template and preview', () => {
     const res = await preview(engineer, csv);
     expect(res.status).toBe(200);
     const p = res.body.preview;
-    expect(p).toMatchObject({ fileName: 'fleet.csv', totalRows: 30, rowsWithErrors: 4, readyCount: 26, existingCount: 0 });
+    expect(p).toMatchObject({
+      fileName: 'fleet.csv',
+      totalRows: 30,
+      rowsWithErrors: 4,
+      readyCount: 26,
+      existingCount: 0,
+    });
     expect(p.columns).toEqual(HEADER.split(','));
     expect(p.mapping).toMatchObject({ containerNumber: 'container_number', siteCode: 'site_code' });
     expect(p.sample).toHaveLength(10);
-    expect(p.sample[0]).toMatchObject({ row: 2, values: { containerNumber: halyardNumber(300000), refrigerant: 'R-134a' }, errors: [] });
+    expect(p.sample[0]).toMatchObject({
+      row: 2,
+      values: { containerNumber: halyardNumber(300000), refrigerant: 'R-134a' },
+      errors: [],
+    });
     const at = (row: number) => p.errors.filter((e: { row: number }) => e.row === row);
-    expect(at(3)).toEqual([expect.objectContaining({ column: 'container_number', field: 'containerNumber', message: expect.stringContaining(`gives ${halyardNumber(300001).charAt(10)}`) })]);
-    expect(at(4).map((e: { column: string }) => e.column).sort()).toEqual(['nominal_charge_kg', 'refrigerant']);
-    expect(at(5)).toEqual([expect.objectContaining({ column: 'site_code', message: expect.stringContaining('NOWHERE') })]);
-    expect(at(6)).toEqual([expect.objectContaining({ column: 'container_number', message: expect.stringContaining('also on row 2') })]);
+    expect(at(3)).toEqual([
+      expect.objectContaining({
+        column: 'container_number',
+        field: 'containerNumber',
+        message: expect.stringContaining(`gives ${halyardNumber(300001).charAt(10)}`),
+      }),
+    ]);
+    expect(
+      at(4)
+        .map((e: { column: string }) => e.column)
+        .sort(),
+    ).toEqual(['nominal_charge_kg', 'refrigerant', 'site_code']);
+    expect(at(5)).toEqual([
+      expect.objectContaining({ column: 'site_code', message: expect.stringContaining('NOWHERE') }),
+    ]);
+    expect(at(6)).toEqual([
+      expect.objectContaining({ column: 'container_number', message: expect.stringContaining('also on row 2') }),
+    ]);
   });
 
   it('maps columns the file names its own way, with semicolons and decimal commas', async () => {
     const csv = `Unit;Gas;Charge;Depot\n${halyardNumber(310000)};R-513A;5,2;IMP-DEPOT\n`;
     const auto = await preview(engineer, csv);
     expect(auto.status).toBe(200);
-    expect(auto.body.preview.mapping).toEqual({ containerNumber: 'Unit', refrigerant: 'Gas', nominalChargeKg: 'Charge', siteCode: 'Depot' });
+    expect(auto.body.preview.mapping).toEqual({
+      containerNumber: 'Unit',
+      refrigerant: 'Gas',
+      nominalChargeKg: 'Charge',
+      siteCode: 'Depot',
+    });
     expect(auto.body.preview.errorCount).toBe(0);
-    const chosen = await preview(engineer, csv, 'fleet.csv', { mapping: JSON.stringify({ containerNumber: 'Unit', refrigerant: 'Gas', nominalChargeKg: 'Depot' }) });
+    const chosen = await preview(engineer, csv, 'fleet.csv', {
+      mapping: JSON.stringify({ containerNumber: 'Unit', refrigerant: 'Gas', nominalChargeKg: 'Depot' }),
+    });
     expect(chosen.body.preview.errors[0]).toMatchObject({ row: 2, column: 'Depot', field: 'nominalChargeKg' });
   });
 
@@ -97,7 +143,13 @@ describe('fleet import: template and preview', () => {
     const res = await preview(engineer, `container_number,refrigerant\n${halyardNumber(320000)},R-134a\n`);
     expect(res.status).toBe(400);
     expect(res.body.error.fields['mapping.nominalChargeKg']).toBeTruthy();
-    const wrong = await preview(engineer, fleetCsv(320000, 1), 'fleet.csv', { mapping: JSON.stringify({ containerNumber: 'nope', refrigerant: 'refrigerant', nominalChargeKg: 'nominal_charge_kg' }) });
+    const wrong = await preview(engineer, fleetCsv(320000, 1), 'fleet.csv', {
+      mapping: JSON.stringify({
+        containerNumber: 'nope',
+        refrigerant: 'refrigerant',
+        nominalChargeKg: 'nominal_charge_kg',
+      }),
+    });
     expect(wrong.status).toBe(400);
     expect(wrong.body.error.fields['mapping.containerNumber']).toContain('nope');
     const badJson = await preview(engineer, fleetCsv(320000, 1), 'fleet.csv', { mapping: '{' });
@@ -108,7 +160,11 @@ describe('fleet import: template and preview', () => {
     const byName = await preview(engineer, 'a,b\n1,2\n', 'fleet.xlsx');
     expect(byName.status).toBe(415);
     expect(byName.body.error.message).toContain('not a CSV file');
-    const workbook = await preview(engineer, Buffer.concat([Buffer.from('PK\u0003\u0004'), Buffer.alloc(200, 1)]), 'fleet.csv');
+    const workbook = await preview(
+      engineer,
+      Buffer.concat([Buffer.from('PK\u0003\u0004'), Buffer.alloc(200, 1)]),
+      'fleet.csv',
+    );
     expect(workbook.status).toBe(415);
     expect(workbook.body.error.message).toContain('spreadsheet workbook');
     const binary = await preview(engineer, Buffer.from([0x41, 0x00, 0x42, 0x0a]), 'fleet.csv');
@@ -129,7 +185,9 @@ describe('fleet import: template and preview', () => {
     const existing = await createTestUnit(db, { containerNumber: halyardNumber(330001) });
     const res = await preview(engineer, fleetCsv(330000, 3));
     expect(res.body.preview).toMatchObject({ existingCount: 1, readyCount: 2, errorCount: 0 });
-    expect(res.body.preview.existing).toEqual([{ row: 3, containerNumber: existing.containerNumber, unitId: existing.id }]);
+    expect(res.body.preview.existing).toEqual([
+      { row: 3, containerNumber: existing.containerNumber, unitId: existing.id },
+    ]);
   });
 });
 
@@ -138,12 +196,22 @@ describe('fleet import: commit', () => {
     const importKey = newToken();
     const res = await commit(engineer, fleetCsv(400000, 250), { importKey });
     expect(res.status).toBe(201);
-    expect(res.body.import).toMatchObject({ key: importKey, status: 'committed', totalRows: 250, processedRows: 250, insertedRows: 250 });
+    expect(res.body.import).toMatchObject({
+      key: importKey,
+      status: 'committed',
+      totalRows: 250,
+      processedRows: 250,
+      insertedRows: 250,
+    });
     expect(await unitsWithPrefix('HRLU400')).toBe(250);
     const progress = await engineer.get(`/api/unit-imports/${importKey}`);
     expect(progress.body.import).toMatchObject({ status: 'committed', insertedRows: 250 });
     const listed = await technician.get('/api/units').query({ q: 'HRLU4000', siteId: undefined });
-    expect(listed.body.units[0]).toMatchObject({ containerNumber: halyardNumber(400000), site: { code: siteCode }, status: 'in_service' });
+    expect(listed.body.units[0]).toMatchObject({
+      containerNumber: halyardNumber(400000),
+      site: { code: siteCode },
+      status: 'in_service',
+    });
   });
 
   it('leaves the table unchanged when one row of 10,000 is bad', async () => {
@@ -174,7 +242,10 @@ describe('fleet import: commit', () => {
     const importKey = newToken();
     expect((await commit(engineer, fleetCsv(610000, 1), { importKey })).status).toBe(201);
     expect((await commit(engineer, fleetCsv(610100, 1), { importKey })).status).toBe(409);
-    const noKey = await engineer.post('/api/unit-imports').set('Origin', TEST_ORIGIN).attach('file', Buffer.from(fleetCsv(610200, 1)), 'fleet.csv');
+    const noKey = await engineer
+      .post('/api/unit-imports')
+      .set('Origin', TEST_ORIGIN)
+      .attach('file', Buffer.from(fleetCsv(610200, 1)), 'fleet.csv');
     expect(noKey.status).toBe(400);
     expect(noKey.body.error.fields.importKey).toBeTruthy();
   });
@@ -187,7 +258,10 @@ describe('fleet import: commit', () => {
     expect((await commit(technician, fleetCsv(620000, 1))).status).toBe(403);
     expect((await preview(technician, fleetCsv(620000, 1))).status).toBe(403);
     expect((await technician.get('/api/unit-imports/template')).status).toBe(403);
-    const anon = await request(app).post('/api/unit-imports').set('Origin', TEST_ORIGIN).attach('file', Buffer.from(fleetCsv(620000, 1)), 'fleet.csv');
+    const anon = await request(app)
+      .post('/api/unit-imports')
+      .set('Origin', TEST_ORIGIN)
+      .attach('file', Buffer.from(fleetCsv(620000, 1)), 'fleet.csv');
     expect(anon.status).toBe(401);
     expect(await unitsWithPrefix('HRLU620')).toBe(0);
   });
@@ -196,7 +270,9 @@ describe('fleet import: commit', () => {
 // Timed on demand: IMPORT_BENCH=1 npx vitest run --project api tests/api/import.test.ts
 describe.skipIf(!process.env.IMPORT_BENCH)('fleet import: 100,000 rows', () => {
   it('imports 100,000 rows in under a minute', { timeout: 120_000 }, async () => {
-    const csv = fleetCsv(0, 100_000, (i, line) => line.replace(/^HRLU/, 'HBXU').replace(/^HBXU\d{7}/, halyardNumber(i, 'HBX')));
+    const csv = fleetCsv(0, 100_000, (i, line) =>
+      line.replace(/^HRLU/, 'HBXU').replace(/^HBXU\d{7}/, halyardNumber(i, 'HBX')),
+    );
     const started = Date.now();
     const res = await commit(engineer, csv);
     const seconds = (Date.now() - started) / 1000;

@@ -8,7 +8,6 @@ import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 import { decodePdfQrCodes } from '../support/pdf-qr';
 
-
 const PUBLIC_URL = TEST_ORIGIN;
 const { db, pool } = openTestDb();
 const { app } = createApp({ db, publicUrl: PUBLIC_URL, rateLimits: { signInPerIp: 1000 } });
@@ -28,11 +27,11 @@ const binary = (res: request.Response, cb: (err: Error | null, body: Buffer) => 
   res.on('end', () => cb(null, Buffer.concat(chunks)));
 };
 
-
 describe('QR label sheets', () => {
   it('prints eight labels to an A4 page; each QR decodes to its unit’s address', async () => {
     const unitsToPrint = [];
-    for (let i = 0; i < 9; i++) unitsToPrint.push(await createTestUnit(db, { refrigerant: i % 2 ? 'R-513A' : 'R-134a' }));
+    for (let i = 0; i < 9; i++)
+      unitsToPrint.push(await createTestUnit(db, { refrigerant: i % 2 ? 'R-513A' : 'R-134a' }));
     const res = await engineer
       .post('/api/labels')
       .set('Origin', TEST_ORIGIN)
@@ -66,7 +65,10 @@ describe('QR label sheets', () => {
 
   it('answers 404 naming unknown units, 400 for an empty or oversized selection', async () => {
     const unit = await createTestUnit(db);
-    const missing = await engineer.post('/api/labels').set('Origin', TEST_ORIGIN).send({ unitIds: [unit.id, 999999] });
+    const missing = await engineer
+      .post('/api/labels')
+      .set('Origin', TEST_ORIGIN)
+      .send({ unitIds: [unit.id, 999999] });
     expect(missing.status).toBe(404);
     expect(missing.body.error.message).toContain('999999');
     expect((await engineer.post('/api/labels').set('Origin', TEST_ORIGIN).send({ unitIds: [] })).status).toBe(400);
@@ -77,7 +79,14 @@ describe('QR label sheets', () => {
 
   it('is for those who manage units: 403 for a technician, 401 without a session', async () => {
     const unit = await createTestUnit(db);
-    expect((await technician.post('/api/labels').set('Origin', TEST_ORIGIN).send({ unitIds: [unit.id] })).status).toBe(403);
+    expect(
+      (
+        await technician
+          .post('/api/labels')
+          .set('Origin', TEST_ORIGIN)
+          .send({ unitIds: [unit.id] })
+      ).status,
+    ).toBe(403);
     expect((await technician.get(`/api/units/${unit.id}/label`)).status).toBe(403);
     expect((await request(app).get(`/api/units/${unit.id}/label`)).status).toBe(401);
   });

@@ -23,9 +23,20 @@ const send = (agent: TestAgent, method: 'post' | 'patch' | 'delete', path: strin
 
 describe('sites', () => {
   it('creates a site with its code in upper case and lists it with its unit count for everyone', async () => {
-    const res = await send(engineer, 'post', '/api/sites', { code: 'rtm-d1', name: 'Rotterdam east depot', kind: 'depot', country: 'nl' });
+    const res = await send(engineer, 'post', '/api/sites', {
+      code: 'rtm-d1',
+      name: 'Rotterdam east depot',
+      kind: 'depot',
+      country: 'nl',
+    });
     expect(res.status).toBe(201);
-    expect(res.body.site).toMatchObject({ code: 'RTM-D1', name: 'Rotterdam east depot', kind: 'depot', country: 'NL', unitCount: 0 });
+    expect(res.body.site).toMatchObject({
+      code: 'RTM-D1',
+      name: 'Rotterdam east depot',
+      kind: 'depot',
+      country: 'NL',
+      unitCount: 0,
+    });
     await createTestUnit(db, { siteId: res.body.site.id });
     const list = await technician.get('/api/sites');
     expect(list.status).toBe(200);
@@ -35,13 +46,23 @@ describe('sites', () => {
   });
 
   it('accepts a vessel without a country', async () => {
-    const res = await send(engineer, 'post', '/api/sites', { code: 'MV-HALYARD-STAR', name: 'MV Halyard Star', kind: 'vessel', country: '' });
+    const res = await send(engineer, 'post', '/api/sites', {
+      code: 'MV-HALYARD-STAR',
+      name: 'MV Halyard Star',
+      kind: 'vessel',
+      country: '',
+    });
     expect(res.status).toBe(201);
     expect(res.body.site.country).toBeNull();
   });
 
   it('answers 400 with fields for a bad kind, code or country', async () => {
-    const res = await send(engineer, 'post', '/api/sites', { code: 'a b', name: '', kind: 'warehouse', country: 'Netherlands' });
+    const res = await send(engineer, 'post', '/api/sites', {
+      code: 'a b',
+      name: '',
+      kind: 'warehouse',
+      country: 'Netherlands',
+    });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['code', 'country', 'kind', 'name']);
   });
@@ -49,7 +70,9 @@ describe('sites', () => {
   it('answers 409 for a code already in use, on create and on edit', async () => {
     const a = await createTestSite(db, { code: 'DUP-A' });
     await createTestSite(db, { code: 'DUP-B' });
-    expect((await send(engineer, 'post', '/api/sites', { code: 'dup-a', name: 'X', kind: 'terminal' })).status).toBe(409);
+    expect((await send(engineer, 'post', '/api/sites', { code: 'dup-a', name: 'X', kind: 'terminal' })).status).toBe(
+      409,
+    );
     const edit = await send(engineer, 'patch', `/api/sites/${a.id}`, { code: 'DUP-B' });
     expect(edit.status).toBe(409);
     expect(edit.body.error.fields.code).toBeTruthy();

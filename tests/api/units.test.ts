@@ -67,23 +67,43 @@ describe('registering a unit', () => {
 
   it('answers 400 naming the expected check digit when the number has a typo', async () => {
     const { number, expected } = withWrongCheckDigit(halyardNumber(100002));
-    const res = await post(engineer, '/api/units', { containerNumber: number, refrigerant: 'R-134a', nominalChargeKg: 4 });
+    const res = await post(engineer, '/api/units', {
+      containerNumber: number,
+      refrigerant: 'R-134a',
+      nominalChargeKg: 4,
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.fields.containerNumber).toContain(`gives ${expected}`);
   });
 
   it('answers 400 for an unknown refrigerant, a zero charge and an unknown site', async () => {
-    const res = await post(engineer, '/api/units', { containerNumber: halyardNumber(100003), refrigerant: 'R-22', nominalChargeKg: 0 });
+    const res = await post(engineer, '/api/units', {
+      containerNumber: halyardNumber(100003),
+      refrigerant: 'R-22',
+      nominalChargeKg: 0,
+    });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields).toMatchObject({ refrigerant: expect.stringContaining('R-134a'), nominalChargeKg: expect.any(String) });
-    const noSite = await post(engineer, '/api/units', { containerNumber: halyardNumber(100003), refrigerant: 'R-744', nominalChargeKg: 5, siteId: 999999 });
+    expect(res.body.error.fields).toMatchObject({
+      refrigerant: expect.stringContaining('R-134a'),
+      nominalChargeKg: expect.any(String),
+    });
+    const noSite = await post(engineer, '/api/units', {
+      containerNumber: halyardNumber(100003),
+      refrigerant: 'R-744',
+      nominalChargeKg: 5,
+      siteId: 999999,
+    });
     expect(noSite.status).toBe(400);
     expect(noSite.body.error.fields.siteId).toBeTruthy();
   });
 
   it('answers 409 for a container number already registered', async () => {
     const unit = await createTestUnit(db);
-    const res = await post(engineer, '/api/units', { containerNumber: unit.containerNumber, refrigerant: 'R-134a', nominalChargeKg: 4 });
+    const res = await post(engineer, '/api/units', {
+      containerNumber: unit.containerNumber,
+      refrigerant: 'R-134a',
+      nominalChargeKg: 4,
+    });
     expect(res.status).toBe(409);
     expect(res.body.error.fields.containerNumber).toBe('Already registered');
   });
@@ -119,14 +139,18 @@ describe('finding units', () => {
   });
 
   it('filters by site, status and refrigerant together', async () => {
-    const res = await technician.get('/api/units').query({ q: 'HRLU55', siteId: siteA, status: 'out_of_service', refrigerant: 'R 513A' });
+    const res = await technician
+      .get('/api/units')
+      .query({ q: 'HRLU55', siteId: siteA, status: 'out_of_service', refrigerant: 'R 513A' });
     expect(res.status).toBe(200);
     // i in 0..3 (R-513A), even (site A), divisible by 3 (out of service): 0 only.
     expect(res.body.units.map((u: { containerNumber: string }) => u.containerNumber)).toEqual([halyardNumber(550000)]);
   });
 
   it('sorts by charge, largest first', async () => {
-    const res = await technician.get('/api/units').query({ q: 'HRLU55', sort: 'nominalChargeKg', dir: 'desc', pageSize: 3 });
+    const res = await technician
+      .get('/api/units')
+      .query({ q: 'HRLU55', sort: 'nominalChargeKg', dir: 'desc', pageSize: 3 });
     expect(res.body.units.map((u: { nominalChargeKg: number }) => u.nominalChargeKg)).toEqual([4.1, 4, 3.9]);
   });
 
@@ -182,9 +206,20 @@ describe('editing a unit', () => {
   it('keeps one change record per changed field, with who and when', async () => {
     const site = await createTestSite(db, { code: 'EDIT-NEW' });
     const unit = await createTestUnit(db, { nominalChargeKg: 4.5, status: 'in_service' });
-    const res = await patch(engineer, `/api/units/${unit.id}`, { nominalChargeKg: 4.8, status: 'out_of_service', siteId: site.id, model: 'HX-40', refrigerant: 'R-134a' });
+    const res = await patch(engineer, `/api/units/${unit.id}`, {
+      nominalChargeKg: 4.8,
+      status: 'out_of_service',
+      siteId: site.id,
+      model: 'HX-40',
+      refrigerant: 'R-134a',
+    });
     expect(res.status).toBe(200);
-    expect(res.body.unit).toMatchObject({ nominalChargeKg: 4.8, status: 'out_of_service', model: 'HX-40', site: { code: 'EDIT-NEW' } });
+    expect(res.body.unit).toMatchObject({
+      nominalChargeKg: 4.8,
+      status: 'out_of_service',
+      model: 'HX-40',
+      site: { code: 'EDIT-NEW' },
+    });
     expect(new Date(res.body.unit.updatedAt).getTime()).toBeGreaterThan(Date.now() - 60_000);
 
     const history = await technician.get(`/api/units/${unit.id}/changes`);
@@ -192,7 +227,12 @@ describe('editing a unit', () => {
     const byField = Object.fromEntries(history.body.changes.map((c: { field: string }) => [c.field, c]));
     // The unchanged refrigerant is not recorded.
     expect(Object.keys(byField).sort()).toEqual(['model', 'nominalChargeKg', 'site', 'status']);
-    expect(byField.nominalChargeKg).toMatchObject({ before: '4.5', after: '4.8', label: 'Full charge (kg)', user: { id: engineerId } });
+    expect(byField.nominalChargeKg).toMatchObject({
+      before: '4.5',
+      after: '4.8',
+      label: 'Full charge (kg)',
+      user: { id: engineerId },
+    });
     expect(byField.site).toMatchObject({ before: null, after: 'EDIT-NEW' });
     expect(byField.status).toMatchObject({ before: 'in_service', after: 'out_of_service' });
   });

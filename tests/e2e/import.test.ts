@@ -17,10 +17,16 @@ describe('fleet import in the browser', () => {
     let numbers: string[] = [];
     for (let base = 980_000 + (Date.now() % 9_000); numbers.length === 0; base += 3) {
       const candidates = [0, 1, 2].map((i) => halyardNumber(base + i));
-      const taken = await db.select({ n: units.containerNumber }).from(units).where(inArray(units.containerNumber, candidates));
+      const taken = await db
+        .select({ n: units.containerNumber })
+        .from(units)
+        .where(inArray(units.containerNumber, candidates));
       if (taken.length === 0) numbers = candidates;
     }
-    const csv = ['container_number,refrigerant,nominal_charge_kg,status', ...numbers.map((n, i) => `${n},R-513A,${4 + i / 2},in_service`)].join('\n');
+    const csv = [
+      'container_number,refrigerant,nominal_charge_kg,status',
+      ...numbers.map((n, i) => `${n},R-513A,${4 + i / 2},in_service`),
+    ].join('\n');
 
     const browser = await openBrowser({ viewport: DESKTOP });
     try {
@@ -28,7 +34,9 @@ describe('fleet import in the browser', () => {
       await signInThroughForm(page, engineer.email, DEMO_PASSWORD);
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Import' }).click();
       await page.getByRole('heading', { name: 'Import the fleet' }).waitFor();
-      await page.locator('input[type=file]').setInputFiles({ name: 'halyard-fleet.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+      await page
+        .locator('input[type=file]')
+        .setInputFiles({ name: 'halyard-fleet.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
       const summary = page.getByTestId('import-summary');
       await summary.getByText('Ready to import').waitFor();
       expect(await summary.textContent()).toContain('Ready to import3');

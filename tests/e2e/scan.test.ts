@@ -20,10 +20,17 @@ let unit: { id: number; containerNumber: string; qrToken: string };
 /** A unit of our own, on a serial the demo fleet does not use. */
 async function createUnit() {
   const candidates = Array.from({ length: 20 }, (_, i) => halyardNumber(990_000 + ((Date.now() + i * 37) % 9_999)));
-  const taken = new Set((await db.select({ n: units.containerNumber }).from(units).where(inArray(units.containerNumber, candidates))).map((r) => r.n));
+  const taken = new Set(
+    (await db.select({ n: units.containerNumber }).from(units).where(inArray(units.containerNumber, candidates))).map(
+      (r) => r.n,
+    ),
+  );
   const containerNumber = candidates.find((c) => !taken.has(c))!;
   const qrToken = newToken();
-  const [{ id }] = await db.insert(units).values({ containerNumber, refrigerant: 'R-134a', nominalChargeKg: 4.5, qrToken }).$returningId();
+  const [{ id }] = await db
+    .insert(units)
+    .values({ containerNumber, refrigerant: 'R-134a', nominalChargeKg: 4.5, qrToken })
+    .$returningId();
   return { id, containerNumber, qrToken };
 }
 
@@ -40,7 +47,11 @@ describe('scanning a label', () => {
     const video = path.join(tmp, 'label.y4m');
     writeQrY4m(video, `${inject('baseUrl')}/u/${unit.qrToken}`);
     const browser = await openBrowser({
-      extraArgs: ['--use-fake-ui-for-media-stream', '--use-fake-device-for-media-stream', `--use-file-for-fake-video-capture=${video}`],
+      extraArgs: [
+        '--use-fake-ui-for-media-stream',
+        '--use-fake-device-for-media-stream',
+        `--use-file-for-fake-video-capture=${video}`,
+      ],
     });
     try {
       const { page } = browser;

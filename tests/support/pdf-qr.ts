@@ -8,7 +8,11 @@ import { QR_MARK, QR_QUIET_ZONE } from '../../server/features/labels/label-sheet
 function streamText(doc: PDFDocument, obj: PDFObject | undefined): string {
   if (obj === undefined) return '';
   const o = doc.context.lookup(obj);
-  if (o instanceof PDFArray) return o.asArray().map((x) => streamText(doc, x)).join('\n');
+  if (o instanceof PDFArray)
+    return o
+      .asArray()
+      .map((x) => streamText(doc, x))
+      .join('\n');
   if (o instanceof PDFRawStream) {
     const flate = o.dict.get(PDFName.of('Filter')) === PDFName.of('FlateDecode');
     return (flate ? inflateSync(o.contents) : Buffer.from(o.contents)).toString('latin1');
@@ -23,7 +27,9 @@ export async function decodePdfQrCodes(pdf: Uint8Array): Promise<string[][]> {
   return doc.getPages().map((page) => {
     const content = streamText(doc, page.node.get(PDFName.of('Contents')));
     return [...content.matchAll(blockRe)].map(([, block]) => {
-      const rects = [...block.matchAll(/(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re/g)].map((m) => m.slice(1, 5).map(Number));
+      const rects = [...block.matchAll(/(-?[\d.]+) (-?[\d.]+) (-?[\d.]+) (-?[\d.]+) re/g)].map((m) =>
+        m.slice(1, 5).map(Number),
+      );
       return decodeRects(rects);
     });
   });

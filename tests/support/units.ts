@@ -18,7 +18,13 @@ export function withWrongCheckDigit(containerNumber: string): { number: string; 
 let siteCounter = 0;
 export async function createTestSite(db: Db, overrides: Partial<typeof sites.$inferInsert> = {}) {
   siteCounter += 1;
-  const row = { code: `T-${Date.now() % 100000}-${siteCounter}`, name: `Test depot ${siteCounter}`, kind: 'depot' as const, country: 'NL', ...overrides };
+  const row = {
+    code: `T-${Date.now() % 100000}-${siteCounter}`,
+    name: `Test depot ${siteCounter}`,
+    kind: 'depot' as const,
+    country: 'NL',
+    ...overrides,
+  };
   const [{ id }] = await db.insert(sites).values(row).$returningId();
   return { id, ...row };
 }

@@ -3,7 +3,11 @@
 import { writeFileSync } from 'node:fs';
 import QRCode from 'qrcode';
 
-export function writeQrY4m(file: string, text: string, opts: { width?: number; height?: number; frames?: number } = {}) {
+export function writeQrY4m(
+  file: string,
+  text: string,
+  opts: { width?: number; height?: number; frames?: number } = {},
+) {
   const width = opts.width ?? 640;
   const height = opts.height ?? 480;
   const { modules } = QRCode.create(text, { errorCorrectionLevel: 'Q' });

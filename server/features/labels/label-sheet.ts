@@ -2,6 +2,7 @@
 // left, refrigerant and full charge on the right, and the container number in large white-on-black type along the
 // bottom, readable from a metre away. Pure black on white for contrast in poor light and on dirty labels.
 import {
+  LineCapStyle,
   PDFDocument,
   StandardFonts,
   beginMarkedContent,
@@ -68,7 +69,9 @@ function drawQr(page: PDFPage, text: string, x: number, y: number, side: number)
       }
       const start = col;
       while (col < n && modules.get(row, col)) col++;
-      ops.push(rectangle(x + (QR_QUIET_ZONE + start) * m, y + side - (QR_QUIET_ZONE + row + 1) * m, (col - start) * m, m));
+      ops.push(
+        rectangle(x + (QR_QUIET_ZONE + start) * m, y + side - (QR_QUIET_ZONE + row + 1) * m, (col - start) * m, m),
+      );
     }
   }
   ops.push(fill(), popGraphicsState(), endMarkedContent());
@@ -83,17 +86,40 @@ function fitSize(font: PDFFont, text: string, maxWidth: number, maxSize: number)
 
 type Fonts = { bold: PDFFont; regular: PDFFont };
 
-/** The product mark: a closed ring (the tight loop) beside the name. */
+/** The product mark of the app (components/ui/logo.tsx), in black and white: a nearly closed ring and a dot on a tile. */
 function drawMark(page: PDFPage, fonts: Fonts, x: number, yTop: number) {
-  const r = 4.2;
-  page.drawCircle({ x: x + r, y: yTop - r, size: r, borderColor: BLACK, borderWidth: 2.2 });
-  page.drawCircle({ x: x + r, y: yTop - r, size: 1.2, color: BLACK });
-  page.drawText('TIGHTLOOP', { x: x + 2 * r + 4, y: yTop - 2 * r + 1.2, size: 9.5, font: fonts.bold, color: BLACK });
+  const tile = 13;
+  // The logo is drawn on a 32-unit grid; drawSvgPath puts the path's origin at (x, y) with y pointing down.
+  const k = tile / 32;
+  page.drawSvgPath('M8 0H24A8 8 0 0 1 32 8V24A8 8 0 0 1 24 32H8A8 8 0 0 1 0 24V8A8 8 0 0 1 8 0Z', {
+    x,
+    y: yTop,
+    scale: k,
+    color: BLACK,
+  });
+  page.drawSvgPath('M22.01 9.99A8.5 8.5 0 1 1 16 7.5', {
+    x,
+    y: yTop,
+    scale: k,
+    borderColor: WHITE,
+    borderWidth: 4,
+    borderLineCap: LineCapStyle.Round,
+  });
+  page.drawCircle({ x: x + 16 * k, y: yTop - 16 * k, size: 2.75 * k, color: WHITE });
+  page.drawText('TIGHTLOOP', { x: x + tile + 4, y: yTop - tile + 3, size: 9.5, font: fonts.bold, color: BLACK });
 }
 
 function drawLabel(page: PDFPage, fonts: Fonts, label: LabelContent, x0: number, y0: number, guides: boolean) {
   if (guides) {
-    page.drawRectangle({ x: x0, y: y0, width: LABEL_WIDTH, height: LABEL_HEIGHT, borderColor: GUIDE, borderWidth: 0.4, borderDashArray: [2, 3] });
+    page.drawRectangle({
+      x: x0,
+      y: y0,
+      width: LABEL_WIDTH,
+      height: LABEL_HEIGHT,
+      borderColor: GUIDE,
+      borderWidth: 0.4,
+      borderDashArray: [2, 3],
+    });
   }
   const left = x0 + INSET;
   const right = x0 + LABEL_WIDTH - INSET;
@@ -118,7 +144,14 @@ function drawLabel(page: PDFPage, fonts: Fonts, label: LabelContent, x0: number,
   page.drawText(numberText, { x: textX, y: baseline, size, font: fonts.bold, color: WHITE });
   if (check) {
     const boxX = textX + numberWidth + boxGap;
-    page.drawRectangle({ x: boxX, y: baseline - 3.5, width: boxWidth, height: capHeight + 7, borderColor: WHITE, borderWidth: 1.6 });
+    page.drawRectangle({
+      x: boxX,
+      y: baseline - 3.5,
+      width: boxWidth,
+      height: capHeight + 7,
+      borderColor: WHITE,
+      borderWidth: 1.6,
+    });
     page.drawText(check, { x: boxX + 3, y: baseline, size, font: fonts.bold, color: WHITE });
   }
 
@@ -143,7 +176,13 @@ function drawLabel(page: PDFPage, fonts: Fonts, label: LabelContent, x0: number,
   caption('FULL CHARGE');
   y -= 1.5 * MM;
   value(formatKg(label.nominalChargeKg));
-  page.drawText('Scan for the service record', { x: colX, y: bottom + bandHeight + 2.5 * MM, size: 6.5, font: fonts.regular, color: BLACK });
+  page.drawText('Scan for the service record', {
+    x: colX,
+    y: bottom + bandHeight + 2.5 * MM,
+    size: 6.5,
+    font: fonts.regular,
+    color: BLACK,
+  });
 }
 
 async function newDocument(title: string) {
@@ -151,7 +190,10 @@ async function newDocument(title: string) {
   doc.setTitle(title);
   doc.setCreator('Tightloop');
   doc.setProducer('Tightloop');
-  const fonts = { bold: await doc.embedFont(StandardFonts.HelveticaBold), regular: await doc.embedFont(StandardFonts.Helvetica) };
+  const fonts = {
+    bold: await doc.embedFont(StandardFonts.HelveticaBold),
+    regular: await doc.embedFont(StandardFonts.Helvetica),
+  };
   return { doc, fonts };
 }
 

@@ -6,7 +6,11 @@ import { IMPORT_COLUMNS, MAX_IMPORT_ROWS, type ImportField, type ImportMapping }
 export type FleetCsv = { columns: string[]; rows: string[][] };
 
 const notCsv = (why: string) =>
-  new HttpError(415, 'not_csv', `${why} Upload the fleet as a CSV file (.csv); in a spreadsheet, use "Save as CSV UTF-8".`);
+  new HttpError(
+    415,
+    'not_csv',
+    `${why} Upload the fleet as a CSV file (.csv); in a spreadsheet, use "Save as CSV UTF-8".`,
+  );
 
 /** Refuses a file by its name and type before it is read (multer's fileFilter). */
 export function acceptCsvUpload(file: { originalname: string; mimetype: string }) {
@@ -52,7 +56,8 @@ export function readFleetCsv(buffer: Buffer): FleetCsv {
   } catch (err) {
     throw badRequest(`The CSV could not be read: ${(err as Error).message}`);
   }
-  if (records.length === 0) throw badRequest('The file is empty. Start from the template: a header row, then one unit per row.');
+  if (records.length === 0)
+    throw badRequest('The file is empty. Start from the template: a header row, then one unit per row.');
   const [header, ...rows] = records;
   const columns = header.map((h) => h.trim());
   const seen = new Set<string>();
@@ -62,7 +67,9 @@ export function readFleetCsv(buffer: Buffer): FleetCsv {
   }
   if (rows.length === 0) throw badRequest('The file has a header row but no units below it.');
   if (rows.length > MAX_IMPORT_ROWS) {
-    throw badRequest(`The file has ${rows.length} rows; import at most ${MAX_IMPORT_ROWS.toLocaleString('en')} at a time.`);
+    throw badRequest(
+      `The file has ${rows.length} rows; import at most ${MAX_IMPORT_ROWS.toLocaleString('en')} at a time.`,
+    );
   }
   return { columns, rows };
 }

@@ -1,4 +1,9 @@
-import { importCommitFormSchema, importKeyParamSchema, importPreviewFormSchema, MAX_IMPORT_BYTES } from '../../../shared/schemas/units';
+import {
+  importCommitFormSchema,
+  importKeyParamSchema,
+  importPreviewFormSchema,
+  MAX_IMPORT_BYTES,
+} from '../../../shared/schemas/units';
 import type { AppContext } from '../../deps';
 import { badRequest } from '../../lib/http-error';
 import { singleFileUpload } from '../../middleware/upload';

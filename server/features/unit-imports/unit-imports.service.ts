@@ -64,21 +64,35 @@ async function checkRows(db: DbOrTx, file: UploadedFile, requested: ImportMappin
         const field = String(issue.path[0] ?? '');
         if (seen.has(field)) continue;
         seen.add(field);
-        rowErrors.push({ row, column: mapping[field as ImportField] ?? null, field: field || null, message: issue.message });
+        rowErrors.push({
+          row,
+          column: mapping[field as ImportField] ?? null,
+          field: field || null,
+          message: issue.message,
+        });
       }
     }
-    let siteId: number | null = null;
+    // The site is checked even when other cells failed, so one pass over the file shows every problem of a row.
+    const siteCode = raw.siteCode?.trim().toUpperCase();
+    const siteId = siteCode ? (siteByCode.get(siteCode) ?? null) : null;
+    if (siteCode && siteId === null && !rowErrors.some((e) => e.field === 'siteCode')) {
+      rowErrors.push({
+        row,
+        column: mapping.siteCode ?? null,
+        field: 'siteCode',
+        message: `No site has the code "${siteCode}"; add it under Sites first`,
+      });
+    }
     if (parsed.success) {
-      const { containerNumber, siteCode } = parsed.data;
-      if (siteCode) {
-        siteId = siteByCode.get(siteCode) ?? null;
-        if (siteId === null) {
-          rowErrors.push({ row, column: mapping.siteCode ?? null, field: 'siteCode', message: `No site has the code "${siteCode}"; add it under Sites first` });
-        }
-      }
+      const { containerNumber } = parsed.data;
       const first = firstRowOf.get(containerNumber);
       if (first !== undefined) {
-        rowErrors.push({ row, column: mapping.containerNumber ?? null, field: 'containerNumber', message: `${formatContainerNumber(containerNumber)} is also on row ${first}` });
+        rowErrors.push({
+          row,
+          column: mapping.containerNumber ?? null,
+          field: 'containerNumber',
+          message: `${formatContainerNumber(containerNumber)} is also on row ${first}`,
+        });
       } else {
         firstRowOf.set(containerNumber, row);
       }
@@ -101,7 +115,12 @@ async function findExisting(db: DbOrTx, valid: ValidRow[]) {
     const rows = await db
       .select({ id: units.id, containerNumber: units.containerNumber })
       .from(units)
-      .where(inArray(units.containerNumber, chunk.map((r) => r.data.containerNumber)));
+      .where(
+        inArray(
+          units.containerNumber,
+          chunk.map((r) => r.data.containerNumber),
+        ),
+      );
     if (rows.length === 0) continue;
     const idOf = new Map(rows.map((r) => [r.containerNumber, r.id]));
     for (const r of chunk) {
@@ -112,7 +131,11 @@ async function findExisting(db: DbOrTx, valid: ValidRow[]) {
   return found;
 }
 
-export async function previewImport(db: Db, file: UploadedFile, mapping: ImportMapping | undefined): Promise<ImportPreviewDto> {
+export async function previewImport(
+  db: Db,
+  file: UploadedFile,
+  mapping: ImportMapping | undefined,
+): Promise<ImportPreviewDto> {
   const checked = await checkRows(db, file, mapping);
   const existing = await findExisting(db, checked.valid);
   const index = resolveMapping(checked.csv.columns, checked.mapping);
@@ -182,7 +205,8 @@ export async function commitImport(
       createdAt: now(),
     });
   } catch (err) {
-    if (isDuplicateKeyError(err)) throw conflict('This import has already been started.', { importKey: 'Already used' });
+    if (isDuplicateKeyError(err))
+      throw conflict('This import has already been started.', { importKey: 'Already used' });
     throw err;
   }
   const progress = (values: Partial<typeof unitImports.$inferInsert>) =>
@@ -191,7 +215,8 @@ export async function commitImport(
   try {
     if (checked.errors.length > 0) {
       const fields: Record<string, string> = {};
-      for (const e of checked.errors.slice(0, MAX_ERRORS_IN_FIELDS)) fields[`rows.${e.row}.${e.field ?? '_'}`] = e.message;
+      for (const e of checked.errors.slice(0, MAX_ERRORS_IN_FIELDS))
+        fields[`rows.${e.row}.${e.field ?? '_'}`] = e.message;
       throw badRequest(
         `${checked.rowsWithErrors} of ${total} rows need fixing; nothing was imported. Preview the file to see every problem.`,
         fields,
@@ -201,7 +226,8 @@ export async function commitImport(
       const existing = await findExisting(tx, checked.valid);
       if (existing.length > 0 && !opts.skipExisting) {
         const fields: Record<string, string> = {};
-        for (const e of existing.slice(0, MAX_ERRORS_IN_FIELDS)) fields[`rows.${e.row}.containerNumber`] = 'Already registered';
+        for (const e of existing.slice(0, MAX_ERRORS_IN_FIELDS))
+          fields[`rows.${e.row}.containerNumber`] = 'Already registered';
         throw conflict(
           `${existing.length} unit${existing.length === 1 ? ' is' : 's are'} already registered; nothing was imported. Skip them or take them out of the file.`,
           fields,
@@ -238,10 +264,17 @@ export async function commitImport(
     });
     await progress({ status: 'committed', processedRows: total, insertedRows: inserted, finishedAt: now() });
   } catch (err) {
-    const refused = err instanceof HttpError ? err : isDuplicateKeyError(err) ? conflict('A unit in the file was registered by someone else meanwhile; nothing was imported. Try again.') : null;
-    await progress({ status: 'failed', message: (refused?.message ?? 'The import failed on our side.').slice(0, 500), finishedAt: now() }).catch(
-      (e: unknown) => logger.warn({ err: e }, 'could not mark the import failed'),
-    );
+    const refused =
+      err instanceof HttpError
+        ? err
+        : isDuplicateKeyError(err)
+          ? conflict('A unit in the file was registered by someone else meanwhile; nothing was imported. Try again.')
+          : null;
+    await progress({
+      status: 'failed',
+      message: (refused?.message ?? 'The import failed on our side.').slice(0, 500),
+      finishedAt: now(),
+    }).catch((e: unknown) => logger.warn({ err: e }, 'could not mark the import failed'));
     throw refused ?? err;
   }
   return getImport(db, opts.importKey);
@@ -260,7 +293,15 @@ export async function importTemplateCsv(db: Db): Promise<string> {
       c.field === 'containerNumber' ? example('100001') : c.field === 'siteCode' ? (site?.code ?? '') : c.example,
     ),
     IMPORT_COLUMNS.map((c) =>
-      c.field === 'containerNumber' ? example('100002') : c.field === 'refrigerant' ? 'R-513A' : c.field === 'siteCode' ? (site?.code ?? '') : c.required ? c.example : '',
+      c.field === 'containerNumber'
+        ? example('100002')
+        : c.field === 'refrigerant'
+          ? 'R-513A'
+          : c.field === 'siteCode'
+            ? (site?.code ?? '')
+            : c.required
+              ? c.example
+              : '',
     ),
   ];
   return stringify(rows);

@@ -18,7 +18,9 @@ import {
 import { toUnitDto } from './units.mapper';
 
 const numberTaken = (containerNumber: string) =>
-  conflict(`${formatContainerNumber(containerNumber)} is already registered.`, { containerNumber: 'Already registered' });
+  conflict(`${formatContainerNumber(containerNumber)} is already registered.`, {
+    containerNumber: 'Already registered',
+  });
 
 const SORT_COLUMNS = {
   containerNumber: units.containerNumber,
@@ -49,7 +51,9 @@ export async function listUnits(db: Db, q: UnitListQuery): Promise<UnitListDto> 
   const [rows, [{ n }]] = await Promise.all([
     selectUnitsWithSite(db)
       .where(where)
-      .orderBy(...(q.sort === 'containerNumber' ? [order(sortColumn)] : [order(sortColumn), asc(units.containerNumber)]))
+      .orderBy(
+        ...(q.sort === 'containerNumber' ? [order(sortColumn)] : [order(sortColumn), asc(units.containerNumber)]),
+      )
       .limit(q.pageSize)
       .offset((q.page - 1) * q.pageSize),
     db.select({ n: count() }).from(units).where(where),
@@ -124,7 +128,13 @@ export async function createUnit(db: Db, now: Date, input: CreateUnitInput): Pro
 type ChangeValue = string | number | null | undefined;
 const asText = (v: ChangeValue) => (v === null || v === undefined ? null : String(v));
 
-export async function updateUnit(db: Db, actorId: string, now: Date, id: number, input: UpdateUnitInput): Promise<UnitDto> {
+export async function updateUnit(
+  db: Db,
+  actorId: string,
+  now: Date,
+  id: number,
+  input: UpdateUnitInput,
+): Promise<UnitDto> {
   try {
     return await db.transaction(async (tx) => {
       const [current] = await tx.select().from(units).where(eq(units.id, id)).for('update');
@@ -225,11 +235,18 @@ export async function listUnitChanges(db: Db, id: number): Promise<UnitChangeDto
 export async function unitsForLabels(db: Db, ids: number[]) {
   const unique = [...new Set(ids)];
   const rows = await db
-    .select({ id: units.id, containerNumber: units.containerNumber, refrigerant: units.refrigerant, nominalChargeKg: units.nominalChargeKg, qrToken: units.qrToken })
+    .select({
+      id: units.id,
+      containerNumber: units.containerNumber,
+      refrigerant: units.refrigerant,
+      nominalChargeKg: units.nominalChargeKg,
+      qrToken: units.qrToken,
+    })
     .from(units)
     .where(unique.length === 1 ? eq(units.id, unique[0]) : inArray(units.id, unique));
   const byId = new Map(rows.map((r) => [r.id, r]));
   const missing = unique.filter((id) => !byId.has(id));
-  if (missing.length > 0) throw notFound(`No such unit: ${missing.slice(0, 10).join(', ')}${missing.length > 10 ? ' …' : ''}.`);
+  if (missing.length > 0)
+    throw notFound(`No such unit: ${missing.slice(0, 10).join(', ')}${missing.length > 10 ? ' …' : ''}.`);
   return unique.map((id) => byId.get(id)!);
 }

@@ -17,7 +17,10 @@ export const loader =
   (queryClient: QueryClient) =>
   async ({ params }: LoaderFunctionArgs) => {
     const id = idOf(params.id);
-    await Promise.all([id !== null ? queryClient.prefetchQuery(unitQuery(id)) : null, queryClient.prefetchQuery(sitesQuery())]);
+    await Promise.all([
+      id !== null ? queryClient.prefetchQuery(unitQuery(id)) : null,
+      queryClient.prefetchQuery(sitesQuery()),
+    ]);
     return null;
   };
 
@@ -39,12 +42,19 @@ function EditUnit({ id }: { id: number }) {
   }
   if (unit.isError) {
     if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
-    return <Alert tone="alarm" title="The unit could not be loaded">{unit.error.message}</Alert>;
+    return (
+      <Alert tone="alarm" title="The unit could not be loaded">
+        {unit.error.message}
+      </Alert>
+    );
   }
   const back = () => void navigate(paths.unit.getHref(id));
   return (
     <div className="flex flex-col gap-6">
-      <PageHeader title={`Edit ${formatContainerNumber(unit.data.containerNumber)}`} description="Every change is kept in the unit’s record changes, with your name." />
+      <PageHeader
+        title={`Edit ${formatContainerNumber(unit.data.containerNumber)}`}
+        description="Every change is kept in the unit’s record changes, with your name."
+      />
       <Panel>
         <UnitForm unit={unit.data} sites={sites.data ?? []} onSaved={back} onCancel={back} />
       </Panel>

@@ -21,8 +21,15 @@ export default function LabelLinkPage() {
   if (unit.isError) {
     const unknown = isApiError(unit.error) && (unit.error.status === 404 || unit.error.status === 400);
     return (
-      <Alert tone={unknown ? 'heed' : 'alarm'} title={unknown ? 'This label is not linked to any unit' : 'The unit could not be opened'}>
-        <p>{unknown ? 'It may be an old label that was replaced. Type the container number painted on the unit instead.' : unit.error.message}</p>
+      <Alert
+        tone={unknown ? 'heed' : 'alarm'}
+        title={unknown ? 'This label is not linked to any unit' : 'The unit could not be opened'}
+      >
+        <p>
+          {unknown
+            ? 'It may be an old label that was replaced. Type the container number painted on the unit instead.'
+            : unit.error.message}
+        </p>
         <div className="mt-3 flex flex-wrap gap-3">
           <ButtonLink to={paths.scan.getHref()}>Scan or type a number</ButtonLink>
           <Can permission="manage:units">

@@ -19,7 +19,10 @@ export default function NewUnitPage() {
   const number = normalizeContainerNumber(params.get('number') ?? '').slice(0, 11);
   return (
     <div className="flex flex-col gap-6">
-      <PageHeader title="Register a unit" description="The unit gets its record and a QR label code; print the label from its page." />
+      <PageHeader
+        title="Register a unit"
+        description="The unit gets its record and a QR label code; print the label from its page."
+      />
       <Panel>
         <UnitForm
           sites={sites.data ?? []}

@@ -11,7 +11,10 @@ export default function ScanPage() {
   const lookup = useUnitLookup((unit: UnitDto) => void navigate(paths.unit.getHref(unit.id)));
   return (
     <div className="flex flex-col gap-6">
-      <PageHeader title="Scan a label" description="Point the camera at the unit’s Tightloop QR label, or type its container number." />
+      <PageHeader
+        title="Scan a label"
+        description="Point the camera at the unit’s Tightloop QR label, or type its container number."
+      />
       <div aria-live="polite">
         <LookupMessage state={lookup.state} registerHref={paths.newUnit.getHref} />
       </div>
@@ -19,7 +22,10 @@ export default function ScanPage() {
         <section aria-label="Camera" className="rounded-lg border-2 border-ink-950 bg-white p-3 md:p-4">
           <QrScanner onCode={lookup.byScan} />
         </section>
-        <section aria-labelledby="manual-title" className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6">
+        <section
+          aria-labelledby="manual-title"
+          className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+        >
           <h2 id="manual-title" className="text-xl font-bold">
             No label? Type the number
           </h2>

@@ -44,7 +44,9 @@ export default function SitesPage() {
           {sites.error.message}
         </Alert>
       ) : sites.data.length === 0 ? (
-        <EmptyState title="No sites yet">Add the depots and terminals where your units are, so each unit can name its place.</EmptyState>
+        <EmptyState title="No sites yet">
+          Add the depots and terminals where your units are, so each unit can name its place.
+        </EmptyState>
       ) : (
         <SitesList sites={sites.data} />
       )}

@@ -41,7 +41,10 @@ function UnitRecord({ id }: { id: number }) {
 
   if (unit.isPending) {
     return (
-      <div role="status" className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-lg text-ink-700">
+      <div
+        role="status"
+        className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-lg text-ink-700"
+      >
         <Spinner /> Opening the unit…
       </div>
     );

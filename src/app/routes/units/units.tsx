@@ -22,7 +22,16 @@ function filtersFrom(params: URLSearchParams): UnitListFilters & UnitFilterValue
   const raw = Object.fromEntries(params);
   const parsed = unitListQuerySchema.safeParse({ ...raw, pageSize: PAGE_SIZE });
   const v = parsed.success ? parsed.data : unitListQuerySchema.parse({ pageSize: PAGE_SIZE });
-  return { q: v.q ?? '', siteId: v.siteId, status: v.status, refrigerant: v.refrigerant, sort: v.sort, dir: v.dir, page: v.page, pageSize: PAGE_SIZE };
+  return {
+    q: v.q ?? '',
+    siteId: v.siteId,
+    status: v.status,
+    refrigerant: v.refrigerant,
+    sort: v.sort,
+    dir: v.dir,
+    page: v.page,
+    pageSize: PAGE_SIZE,
+  };
 }
 
 export const loader =
@@ -66,8 +75,9 @@ export default function UnitsPage() {
   const togglePage = (ids: number[], on: boolean) =>
     setSelected((s) => {
       const n = new Set(s);
-      for (const id of ids) if (on) n.add(id);
-      else n.delete(id);
+      for (const id of ids)
+        if (on) n.add(id);
+        else n.delete(id);
       return n;
     });
 
@@ -102,13 +112,19 @@ export default function UnitsPage() {
       {canPrint && selected.size > 0 && (
         <div className="sticky top-20 z-10 flex flex-wrap items-center gap-3 rounded-lg border-2 border-fjord-700 bg-fjord-50 p-3">
           <p className="text-base font-semibold">{selected.size} selected</p>
-          <Button onClick={() => printLabels.mutate([...selected])} pending={printLabels.isPending} pendingLabel="Making labels…">
+          <Button
+            onClick={() => printLabels.mutate([...selected])}
+            pending={printLabels.isPending}
+            pendingLabel="Making labels…"
+          >
             Print labels ({selected.size})
           </Button>
           <Button variant="quiet" onClick={() => setSelected(new Set())}>
             Clear selection
           </Button>
-          {printLabels.isError && <p className="w-full text-base font-semibold text-alarm-700">{printLabels.error.message}</p>}
+          {printLabels.isError && (
+            <p className="w-full text-base font-semibold text-alarm-700">{printLabels.error.message}</p>
+          )}
         </div>
       )}
 
@@ -120,19 +136,28 @@ export default function UnitsPage() {
         ) : units.isError && !data ? (
           <Alert tone="alarm" title="The units could not be loaded">
             <p>{units.error.message}</p>
-            <Button variant="secondary" className="mt-3" onClick={() => void units.refetch()} pending={units.isFetching}>
+            <Button
+              variant="secondary"
+              className="mt-3"
+              onClick={() => void units.refetch()}
+              pending={units.isFetching}
+            >
               Try again
             </Button>
           </Alert>
         ) : !data || data.total === 0 ? (
           filtered ? (
             <EmptyState icon={<UnitsIcon className="size-10" />} title="No unit matches">
-              Nothing starts with “{filters.q}”{filters.siteId || filters.status || filters.refrigerant ? ' with these filters' : ''}. Check the number, or clear the
-              filters.
+              Nothing starts with “{filters.q}”
+              {filters.siteId || filters.status || filters.refrigerant ? ' with these filters' : ''}. Check the number,
+              or clear the filters.
             </EmptyState>
           ) : (
             <EmptyState icon={<UnitsIcon className="size-10" />} title="No units are registered yet">
-              <Can permission="manage:units" fallback="A fleet engineer registers units or imports the fleet from a CSV file.">
+              <Can
+                permission="manage:units"
+                fallback="A fleet engineer registers units or imports the fleet from a CSV file."
+              >
                 Register the first unit, or import the whole fleet from a CSV file.
               </Can>
             </EmptyState>
@@ -147,7 +172,13 @@ export default function UnitsPage() {
               hrefOf={paths.unit.getHref}
               selection={canPrint ? { selected, onToggle: toggle, onTogglePage: togglePage } : undefined}
             />
-            <Pager page={data.page} pageSize={data.pageSize} total={data.total} busy={units.isFetching} onPage={(page) => update({ page })} />
+            <Pager
+              page={data.page}
+              pageSize={data.pageSize}
+              total={data.total}
+              busy={units.isFetching}
+              onPage={(page) => update({ page })}
+            />
           </>
         )}
       </section>

@@ -24,7 +24,8 @@ type PreviewArgs = { file: File; mapping?: ImportMapping; onProgress?: (p: Trans
 
 export async function previewImport({ file, mapping, onProgress }: PreviewArgs): Promise<ImportPreviewDto> {
   const form = importForm(file, { mapping: mapping && JSON.stringify(mapping) });
-  return z.object({ preview: importPreviewDto }).parse(await uploadForm('/api/unit-imports/preview', form, onProgress)).preview;
+  return z.object({ preview: importPreviewDto }).parse(await uploadForm('/api/unit-imports/preview', form, onProgress))
+    .preview;
 }
 
 export function usePreviewImport() {
@@ -33,8 +34,18 @@ export function usePreviewImport() {
 
 type CommitArgs = PreviewArgs & { importKey: string; skipExisting: boolean };
 
-export async function commitImport({ file, mapping, importKey, skipExisting, onProgress }: CommitArgs): Promise<UnitImportDto> {
-  const form = importForm(file, { importKey, skipExisting: String(skipExisting), mapping: mapping && JSON.stringify(mapping) });
+export async function commitImport({
+  file,
+  mapping,
+  importKey,
+  skipExisting,
+  onProgress,
+}: CommitArgs): Promise<UnitImportDto> {
+  const form = importForm(file, {
+    importKey,
+    skipExisting: String(skipExisting),
+    mapping: mapping && JSON.stringify(mapping),
+  });
   return unitImportResponseDto.parse(await uploadForm('/api/unit-imports', form, onProgress)).import;
 }
 
@@ -42,12 +53,17 @@ export function useCommitImport() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: commitImport,
-    onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: unitKeys.all }), queryClient.invalidateQueries({ queryKey: siteKeys.all })]),
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: unitKeys.all }),
+        queryClient.invalidateQueries({ queryKey: siteKeys.all }),
+      ]),
   });
 }
 
 export async function getImportProgress(key: string, signal?: AbortSignal): Promise<UnitImportDto> {
-  return unitImportResponseDto.parse(await apiClient.get(`/api/unit-imports/${encodeURIComponent(key)}`, { signal })).import;
+  return unitImportResponseDto.parse(await apiClient.get(`/api/unit-imports/${encodeURIComponent(key)}`, { signal }))
+    .import;
 }
 
 /** Polled while the commit request runs; the import row appears once the server has checked every row. */
@@ -63,6 +79,7 @@ export function useImportProgress(key: string | null) {
   return useQuery({
     ...importProgressQuery(key ?? ''),
     enabled: key !== null,
-    refetchInterval: (q) => (q.state.data?.status === 'running' || q.state.status === 'error' || !q.state.data ? 700 : false),
+    refetchInterval: (q) =>
+      q.state.data?.status === 'running' || q.state.status === 'error' || !q.state.data ? 700 : false,
   });
 }

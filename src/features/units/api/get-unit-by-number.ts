@@ -5,7 +5,9 @@ import { unitKeys } from './keys';
 
 /** `containerNumber` as typed; the server normalises it and answers 400 naming the check digit when it is wrong. */
 export async function getUnitByNumber(containerNumber: string, signal?: AbortSignal): Promise<UnitDto> {
-  return unitResponseDto.parse(await apiClient.get(`/api/units/by-number/${encodeURIComponent(containerNumber)}`, { signal })).unit;
+  return unitResponseDto.parse(
+    await apiClient.get(`/api/units/by-number/${encodeURIComponent(containerNumber)}`, { signal }),
+  ).unit;
 }
 
 export function unitByNumberQuery(containerNumber: string) {

@@ -4,7 +4,8 @@ import { apiClient } from '../../../lib/api-client';
 import { unitKeys } from './keys';
 
 export async function getUnitByToken(token: string, signal?: AbortSignal): Promise<UnitDto> {
-  return unitResponseDto.parse(await apiClient.get(`/api/units/by-token/${encodeURIComponent(token)}`, { signal })).unit;
+  return unitResponseDto.parse(await apiClient.get(`/api/units/by-token/${encodeURIComponent(token)}`, { signal }))
+    .unit;
 }
 
 export function unitByTokenQuery(token: string) {

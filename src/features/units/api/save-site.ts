@@ -23,7 +23,11 @@ function useSiteMutation<V, R>(mutationFn: (v: V) => Promise<R>) {
   return useMutation({
     mutationFn,
     // Units show their site's code and name.
-    onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: siteKeys.all }), queryClient.invalidateQueries({ queryKey: unitKeys.all })]),
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: siteKeys.all }),
+        queryClient.invalidateQueries({ queryKey: unitKeys.all }),
+      ]),
   });
 }
 

@@ -1,5 +1,10 @@
 import { useId, type ComponentProps } from 'react';
-import { containerCheckDigit, formatContainerNumber, normalizeContainerNumber, parseContainerNumber } from '../../../../shared/domain';
+import {
+  containerCheckDigit,
+  formatContainerNumber,
+  normalizeContainerNumber,
+  parseContainerNumber,
+} from '../../../../shared/domain';
 import { cx } from '../../../components/ui/cx';
 
 type Hint = { tone: 'okay' | 'alarm' | 'info'; text: string } | null;
@@ -11,13 +16,19 @@ const unbroken = (s: string) => s.replace(/ /g, '\u00a0');
 export function containerNumberHint(input: string): Hint {
   const s = normalizeContainerNumber(input);
   if (s.length === 10 && /^[A-Z]{3}[UJZ]\d{6}$/.test(s)) {
-    return { tone: 'info', text: `The check digit for ${unbroken(`${s.slice(0, 4)} ${s.slice(4)}`)} is ${containerCheckDigit(s)}.` };
+    return {
+      tone: 'info',
+      text: `The check digit for ${unbroken(`${s.slice(0, 4)} ${s.slice(4)}`)} is ${containerCheckDigit(s)}.`,
+    };
   }
   if (s.length < 11) return null;
   const r = parseContainerNumber(s);
   if (r.ok) return { tone: 'okay', text: `Valid ISO 6346 number: ${unbroken(formatContainerNumber(r.value))}` };
   if (r.expectedCheckDigit !== undefined) {
-    return { tone: 'alarm', text: `Check digit should be ${r.expectedCheckDigit}: ${unbroken(formatContainerNumber(`${s.slice(0, 10)}${r.expectedCheckDigit}`))}. Check the number for a typo.` };
+    return {
+      tone: 'alarm',
+      text: `Check digit should be ${r.expectedCheckDigit}: ${unbroken(formatContainerNumber(`${s.slice(0, 10)}${r.expectedCheckDigit}`))}. Check the number for a typo.`,
+    };
   }
   return { tone: 'alarm', text: r.error };
 }
@@ -61,7 +72,11 @@ export function ContainerNumberField({ label, value, error, scale = 'lg', classN
         )}
         {...props}
       />
-      <p id={`${id}-status`} aria-live="polite" className={cx('min-h-6 text-base font-semibold', error ? 'text-alarm-700' : hint ? hintTone[hint.tone] : '')}>
+      <p
+        id={`${id}-status`}
+        aria-live="polite"
+        className={cx('min-h-6 text-base font-semibold', error ? 'text-alarm-700' : hint ? hintTone[hint.tone] : '')}
+      >
         {error ?? hint?.text ?? ''}
       </p>
     </div>

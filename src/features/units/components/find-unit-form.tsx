@@ -25,7 +25,13 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
   };
 
   return (
-    <form role="search" aria-label="Find a unit" onSubmit={onSubmit} noValidate className={cx('flex flex-col gap-2', className)}>
+    <form
+      role="search"
+      aria-label="Find a unit"
+      onSubmit={onSubmit}
+      noValidate
+      className={cx('flex flex-col gap-2', className)}
+    >
       <label htmlFor={id} className="text-lg font-semibold">
         Container number
       </label>

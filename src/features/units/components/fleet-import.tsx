@@ -25,14 +25,29 @@ function ProgressBar({ label, value, max }: { label: string; value: number; max:
         <span>{label}</span>
         <span className="tabular-nums">{pct} %</span>
       </div>
-      <div role="progressbar" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={pct} className="h-4 overflow-hidden rounded-full bg-ink-100">
+      <div
+        role="progressbar"
+        aria-label={label}
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={pct}
+        className="h-4 overflow-hidden rounded-full bg-ink-100"
+      >
         <div className="h-full bg-fjord-700 transition-[width] duration-300" style={{ width: `${pct}%` }} />
       </div>
     </div>
   );
 }
 
-function MappingForm({ preview, onChange, busy }: { preview: ImportPreviewDto; onChange: (m: ImportMapping) => void; busy: boolean }) {
+function MappingForm({
+  preview,
+  onChange,
+  busy,
+}: {
+  preview: ImportPreviewDto;
+  onChange: (m: ImportMapping) => void;
+  busy: boolean;
+}) {
   return (
     <fieldset className="flex flex-col gap-3" disabled={busy}>
       <legend className="mb-2 text-lg font-bold">Which column holds what</legend>
@@ -41,7 +56,11 @@ function MappingForm({ preview, onChange, busy }: { preview: ImportPreviewDto; o
           <label key={col.field} className="flex flex-col gap-1">
             <span className="text-base font-semibold">
               {col.header}
-              {col.required ? <span className="ml-1 text-alarm-700">*</span> : <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>}
+              {col.required ? (
+                <span className="ml-1 text-alarm-700">*</span>
+              ) : (
+                <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>
+              )}
             </span>
             <select
               className="min-h-touch-lg rounded-md border-2 border-ink-400 bg-white px-3 text-base"
@@ -89,7 +108,13 @@ function SampleTable({ preview }: { preview: ImportPreviewDto }) {
                   {r.row}
                 </th>
                 {fields.map((f) => (
-                  <td key={f.field} className={cx('px-3 py-2', bad.has(f.field) && 'font-semibold text-alarm-700 underline decoration-2')}>
+                  <td
+                    key={f.field}
+                    className={cx(
+                      'px-3 py-2',
+                      bad.has(f.field) && 'font-semibold text-alarm-700 underline decoration-2',
+                    )}
+                  >
                     {r.values[f.field] || <span className="text-ink-300">—</span>}
                   </td>
                 ))}
@@ -109,7 +134,10 @@ function Problems({ preview }: { preview: ImportPreviewDto }) {
       <h3 id="import-problems-title" className="text-lg font-bold text-alarm-700">
         {count.format(preview.rowsWithErrors)} row{preview.rowsWithErrors === 1 ? '' : 's'} to fix
       </h3>
-      <ul className="flex max-h-96 flex-col gap-1 overflow-y-auto rounded-lg border-2 border-alarm-700 bg-white p-3" data-testid="import-errors">
+      <ul
+        className="flex max-h-96 flex-col gap-1 overflow-y-auto rounded-lg border-2 border-alarm-700 bg-white p-3"
+        data-testid="import-errors"
+      >
         {preview.errors.map((e, i) => (
           <li key={i} className="text-base">
             <span className="font-semibold tabular-nums">Row {e.row}</span>
@@ -172,7 +200,10 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
       <Alert tone="okay" title={`${count.format(done.insertedRows)} units imported`}>
         <p>
           From {done.fileName}
-          {done.totalRows > done.insertedRows ? `; ${count.format(done.totalRows - done.insertedRows)} already registered were skipped` : ''}.
+          {done.totalRows > done.insertedRows
+            ? `; ${count.format(done.totalRows - done.insertedRows)} already registered were skipped`
+            : ''}
+          .
         </p>
         <div className="mt-3 flex flex-wrap gap-3">
           <ButtonLink to={unitsHref}>See the units</ButtonLink>
@@ -194,13 +225,16 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
   const server = progress.data;
   return (
     <div className="flex flex-col gap-6">
-      <section className="flex flex-col gap-3 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6" aria-labelledby="import-file-title">
+      <section
+        className="flex flex-col gap-3 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6"
+        aria-labelledby="import-file-title"
+      >
         <h2 id="import-file-title" className="text-xl font-bold">
           1 · Choose the CSV file
         </h2>
         <p className="text-base text-ink-600">
-          One unit per row, with a header row. Up to {count.format(MAX_IMPORT_ROWS)} rows and {MAX_IMPORT_BYTES / 1024 / 1024} MB. Spreadsheets: save as “CSV UTF-8”
-          first.
+          One unit per row, with a header row. Up to {count.format(MAX_IMPORT_ROWS)} rows and{' '}
+          {MAX_IMPORT_BYTES / 1024 / 1024} MB. Spreadsheets: save as “CSV UTF-8” first.
         </p>
         <div className="flex flex-wrap gap-3">
           <label className={cx(buttonClasses({ variant: 'primary', size: 'lg' }), 'cursor-pointer')}>
@@ -220,8 +254,12 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
           </a>
         </div>
         {file && <p className="text-base font-semibold">{file.name}</p>}
-        {preview.isPending && upload && <ProgressBar label="Uploading to check" value={upload.loaded} max={upload.total} />}
-        {preview.isPending && (!upload || upload.loaded >= upload.total) && <p className="text-base text-ink-700">Checking every row…</p>}
+        {preview.isPending && upload && (
+          <ProgressBar label="Uploading to check" value={upload.loaded} max={upload.total} />
+        )}
+        {preview.isPending && (!upload || upload.loaded >= upload.total) && (
+          <p className="text-base text-ink-700">Checking every row…</p>
+        )}
         {preview.isError && (
           <Alert tone="alarm" title="The file could not be checked">
             {preview.error.message}
@@ -237,7 +275,10 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
       </section>
 
       {p && (
-        <section className="flex flex-col gap-5 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6" aria-labelledby="import-check-title">
+        <section
+          className="flex flex-col gap-5 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+          aria-labelledby="import-check-title"
+        >
           <h2 id="import-check-title" className="text-xl font-bold">
             2 · Check the rows
           </h2>
@@ -268,7 +309,12 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
                 {p.existingCount > 5 ? ', …' : ''}
               </p>
               <label className="flex min-h-touch cursor-pointer items-center gap-3 text-base font-semibold">
-                <input type="checkbox" className="size-6 accent-fjord-700" checked={skipExisting} onChange={(e) => setSkipExisting(e.target.checked)} />
+                <input
+                  type="checkbox"
+                  className="size-6 accent-fjord-700"
+                  checked={skipExisting}
+                  onChange={(e) => setSkipExisting(e.target.checked)}
+                />
                 Skip them and import the rest
               </label>
             </div>
@@ -277,16 +323,27 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
       )}
 
       {p && (
-        <section className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6" aria-labelledby="import-go-title">
+        <section
+          className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+          aria-labelledby="import-go-title"
+        >
           <h2 id="import-go-title" className="text-xl font-bold">
             3 · Import
           </h2>
-          <p className="text-base text-ink-600">Every row goes in, or none does: if anything fails, the registry stays as it was.</p>
-          {commit.isPending && upload && upload.loaded < upload.total && <ProgressBar label="Uploading" value={upload.loaded} max={upload.total} />}
+          <p className="text-base text-ink-600">
+            Every row goes in, or none does: if anything fails, the registry stays as it was.
+          </p>
+          {commit.isPending && upload && upload.loaded < upload.total && (
+            <ProgressBar label="Uploading" value={upload.loaded} max={upload.total} />
+          )}
           {commit.isPending && (!upload || upload.loaded >= upload.total) && (
             <div aria-live="polite">
               {server && server.processedRows > 0 ? (
-                <ProgressBar label={`Saving units: ${count.format(server.processedRows)} of ${count.format(server.totalRows)}`} value={server.processedRows} max={server.totalRows} />
+                <ProgressBar
+                  label={`Saving units: ${count.format(server.processedRows)} of ${count.format(server.totalRows)}`}
+                  value={server.processedRows}
+                  max={server.totalRows}
+                />
               ) : (
                 <p className="text-base font-semibold text-ink-700">Checking every row before saving…</p>
               )}
@@ -297,7 +354,14 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
               {commit.error.message}
             </Alert>
           )}
-          <Button size="lg" disabled={blocked || preview.isPending} pending={commit.isPending} pendingLabel="Importing…" onClick={startImport} className="self-start">
+          <Button
+            size="lg"
+            disabled={blocked || preview.isPending}
+            pending={commit.isPending}
+            pendingLabel="Importing…"
+            onClick={startImport}
+            className="self-start"
+          >
             Import {p ? count.format(p.readyCount) : ''} units
           </Button>
           {blocked && !commit.isPending && (

@@ -19,7 +19,8 @@ type CameraState =
 function stateOf(error: unknown): CameraState {
   const name = (error as { name?: string } | null)?.name;
   if (name === 'NotAllowedError' || name === 'SecurityError') return { kind: 'denied' };
-  if (name === 'NotFoundError' || name === 'OverconstrainedError' || name === 'DevicesNotFoundError') return { kind: 'no-camera' };
+  if (name === 'NotFoundError' || name === 'OverconstrainedError' || name === 'DevicesNotFoundError')
+    return { kind: 'no-camera' };
   if (name === 'NotReadableError' || name === 'TrackStartError') return { kind: 'busy' };
   return { kind: 'failed', message: (error as Error)?.message || 'The camera could not be started.' };
 }
@@ -48,7 +49,9 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
     let cancelled = false;
     setState({ kind: 'starting' });
     const reader = new BrowserQRCodeReader(undefined, { delayBetweenScanAttempts: 120 });
-    const video: MediaTrackConstraints = deviceId ? { deviceId: { exact: deviceId } } : { facingMode: { ideal: 'environment' } };
+    const video: MediaTrackConstraints = deviceId
+      ? { deviceId: { exact: deviceId } }
+      : { facingMode: { ideal: 'environment' } };
     reader
       .decodeFromConstraints({ video, audio: false }, videoRef.current ?? undefined, (result) => {
         if (!result) return;
@@ -84,7 +87,10 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       title: 'Camera permission was refused',
       body: 'Allow camera access for Tightloop in the browser’s site settings, then try again — or type the container number below.',
     },
-    'no-camera': { title: 'No camera found', body: 'This device has no camera Tightloop can use. Type the container number below.' },
+    'no-camera': {
+      title: 'No camera found',
+      body: 'This device has no camera Tightloop can use. Type the container number below.',
+    },
     busy: { title: 'The camera is in use', body: 'Another app is using the camera. Close it and try again.' },
   } as const;
   const problem = state.kind in message ? message[state.kind as keyof typeof message] : null;
@@ -94,7 +100,10 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       <div className="relative aspect-[4/3] w-full overflow-hidden rounded-lg bg-ink-950">
         <video ref={videoRef} muted playsInline className="size-full object-cover" aria-label="Camera view" />
         {state.kind === 'scanning' && (
-          <div aria-hidden="true" className="pointer-events-none absolute inset-[12%] rounded-lg border-4 border-lime-400/90" />
+          <div
+            aria-hidden="true"
+            className="pointer-events-none absolute inset-[12%] rounded-lg border-4 border-lime-400/90"
+          />
         )}
         {(state.kind === 'starting' || problem || state.kind === 'stopped' || state.kind === 'failed') && (
           <div className="absolute inset-0 flex flex-col items-center justify-center gap-3 p-6 text-center text-white">
@@ -111,7 +120,9 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       <p className="sr-only" aria-live="polite">
         {state.kind === 'scanning' ? 'Camera on. Hold the label inside the frame.' : ''}
       </p>
-      {state.kind === 'scanning' && <p className="text-base text-ink-700">Hold the label inside the frame, about a hand’s width away.</p>}
+      {state.kind === 'scanning' && (
+        <p className="text-base text-ink-700">Hold the label inside the frame, about a hand’s width away.</p>
+      )}
       {problem && (
         <Alert tone="heed" title={problem.title}>
           {problem.body}

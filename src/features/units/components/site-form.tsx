@@ -2,7 +2,13 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { createSiteSchema, SITE_KIND_LABELS, SITE_KINDS, type SiteDto, type UpdateSiteInput } from '../../../../shared/schemas/sites';
+import {
+  createSiteSchema,
+  SITE_KIND_LABELS,
+  SITE_KINDS,
+  type SiteDto,
+  type UpdateSiteInput,
+} from '../../../../shared/schemas/sites';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { SelectField, TextField } from '../../../components/ui/field';
@@ -14,7 +20,15 @@ type FormOutput = z.output<typeof createSiteSchema>;
 const FIELDS = ['code', 'name', 'kind', 'country'] as const;
 
 /** Add a site, or edit one (`site`). */
-export function SiteForm({ site, onSaved, onCancel }: { site?: SiteDto; onSaved: (site: SiteDto) => void; onCancel: () => void }) {
+export function SiteForm({
+  site,
+  onSaved,
+  onCancel,
+}: {
+  site?: SiteDto;
+  onSaved: (site: SiteDto) => void;
+  onCancel: () => void;
+}) {
   const create = useCreateSite();
   const update = useUpdateSite();
   const [formError, setFormError] = useState<string | null>(null);
@@ -25,7 +39,9 @@ export function SiteForm({ site, onSaved, onCancel }: { site?: SiteDto; onSaved:
     formState: { errors },
   } = useForm<FormInput, unknown, FormOutput>({
     resolver: zodResolver(createSiteSchema),
-    defaultValues: site ? { code: site.code, name: site.name, kind: site.kind, country: site.country ?? '' } : { code: '', name: '', country: '' },
+    defaultValues: site
+      ? { code: site.code, name: site.name, kind: site.kind, country: site.country ?? '' }
+      : { code: '', name: '', country: '' },
   });
 
   const onError = (error: Error) => {
@@ -48,14 +64,27 @@ export function SiteForm({ site, onSaved, onCancel }: { site?: SiteDto; onSaved:
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5" aria-label={site ? `Edit site ${site.code}` : 'Add a site'}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-5"
+      aria-label={site ? `Edit site ${site.code}` : 'Add a site'}
+    >
       {formError && (
         <Alert tone="alarm" title="The site was not saved">
           {formError}
         </Alert>
       )}
       <div className="grid gap-5 md:grid-cols-2">
-        <TextField label="Code" hint="Short and unique, e.g. RTM-D1." autoCapitalize="characters" autoComplete="off" spellCheck={false} error={errors.code?.message} {...register('code')} />
+        <TextField
+          label="Code"
+          hint="Short and unique, e.g. RTM-D1."
+          autoCapitalize="characters"
+          autoComplete="off"
+          spellCheck={false}
+          error={errors.code?.message}
+          {...register('code')}
+        />
         <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
         <SelectField label="Kind" defaultValue={site?.kind ?? ''} error={errors.kind?.message} {...register('kind')}>
           <option value="" disabled>
@@ -67,7 +96,16 @@ export function SiteForm({ site, onSaved, onCancel }: { site?: SiteDto; onSaved:
             </option>
           ))}
         </SelectField>
-        <TextField label="Country" optional hint="Two letters, e.g. NL. Leave empty for a vessel." maxLength={2} autoCapitalize="characters" autoComplete="off" error={errors.country?.message} {...register('country')} />
+        <TextField
+          label="Country"
+          optional
+          hint="Two letters, e.g. NL. Leave empty for a vessel."
+          maxLength={2}
+          autoCapitalize="characters"
+          autoComplete="off"
+          error={errors.country?.message}
+          {...register('country')}
+        />
       </div>
       <div className="flex flex-col-reverse gap-3 sm:flex-row">
         <Button variant="secondary" onClick={onCancel}>

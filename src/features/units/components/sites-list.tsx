@@ -18,7 +18,11 @@ function SiteRow({ site }: { site: SiteDto }) {
     );
   }
   return (
-    <li data-testid="site-row" data-site-code={site.code} className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4 md:flex-row md:items-center">
+    <li
+      data-testid="site-row"
+      data-site-code={site.code}
+      className="flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-4 md:flex-row md:items-center"
+    >
       <div className="min-w-0 flex-1">
         <p className="text-lg font-bold">
           {site.code} <span className="font-normal text-ink-700">· {site.name}</span>

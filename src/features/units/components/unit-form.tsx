@@ -144,7 +144,12 @@ export function UnitForm({
   const error = (field: Field) => errors[field]?.message as string | undefined;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label={unit ? 'Edit unit' : 'Register a unit'}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-6"
+      aria-label={unit ? 'Edit unit' : 'Register a unit'}
+    >
       {formError && (
         <Alert tone="alarm" title={unit ? 'The changes were not saved' : 'The unit was not registered'}>
           {formError}
@@ -200,17 +205,50 @@ export function UnitForm({
             error={error('nominalChargeKg')}
             {...register('nominalChargeKg')}
           />
-          <TextField label="Commissioned on" type="date" optional error={error('commissionedOn')} {...register('commissionedOn')} />
-          <TextField label="Year of manufacture" inputMode="numeric" optional error={error('manufactureYear')} {...register('manufactureYear')} />
+          <TextField
+            label="Commissioned on"
+            type="date"
+            optional
+            error={error('commissionedOn')}
+            {...register('commissionedOn')}
+          />
+          <TextField
+            label="Year of manufacture"
+            inputMode="numeric"
+            optional
+            error={error('manufactureYear')}
+            {...register('manufactureYear')}
+          />
           <TextField label="Model" optional autoComplete="off" error={error('model')} {...register('model')} />
-          <TextField label="Machinery serial" optional autoComplete="off" spellCheck={false} error={error('machinerySerial')} {...register('machinerySerial')} />
+          <TextField
+            label="Machinery serial"
+            optional
+            autoComplete="off"
+            spellCheck={false}
+            error={error('machinerySerial')}
+            {...register('machinerySerial')}
+          />
         </div>
       </Section>
 
       <Section title="Value">
         <div className="grid gap-5 md:grid-cols-2">
-          <TextField label="Purchase cost" inputMode="decimal" optional hint="In the fleet's accounting currency." error={error('purchaseCost')} {...register('purchaseCost')} />
-          <TextField label="Residual value" inputMode="decimal" optional hint="What the unit would fetch if sold today." error={error('residualValue')} {...register('residualValue')} />
+          <TextField
+            label="Purchase cost"
+            inputMode="decimal"
+            optional
+            hint="In the fleet's accounting currency."
+            error={error('purchaseCost')}
+            {...register('purchaseCost')}
+          />
+          <TextField
+            label="Residual value"
+            inputMode="decimal"
+            optional
+            hint="What the unit would fetch if sold today."
+            error={error('residualValue')}
+            {...register('residualValue')}
+          />
         </div>
         <Notes error={error('notes')} registration={register('notes')} />
       </Section>
@@ -239,7 +277,10 @@ function Notes({ error, registration }: { error?: string; registration: UseFormR
         maxLength={MAX_NOTES_LENGTH}
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? 'unit-notes-error' : undefined}
-        className={cx('block w-full rounded-md border-2 bg-white px-3 py-2 text-base', error ? 'border-alarm-700' : 'border-ink-400')}
+        className={cx(
+          'block w-full rounded-md border-2 bg-white px-3 py-2 text-base',
+          error ? 'border-alarm-700' : 'border-ink-400',
+        )}
         {...registration}
       />
       {error && (

@@ -23,7 +23,12 @@ export function ContainerNumber({ value, className }: { value: string; className
   );
 }
 
-const dateFormat = new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
+const dateFormat = new Intl.DateTimeFormat(undefined, {
+  day: 'numeric',
+  month: 'short',
+  year: 'numeric',
+  timeZone: 'UTC',
+});
 const money = new Intl.NumberFormat(undefined, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 export const formatDay = (isoDay: string) => dateFormat.format(new Date(`${isoDay}T00:00:00Z`));
 
@@ -42,7 +47,10 @@ const none = <span className="text-ink-400">—</span>;
 export function UnitIdentity({ unit, actions }: { unit: UnitDto; actions?: ReactNode }) {
   const refrigerant = findRefrigerant(unit.refrigerant);
   return (
-    <section aria-labelledby="unit-title" className="flex flex-col gap-5 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6">
+    <section
+      aria-labelledby="unit-title"
+      className="flex flex-col gap-5 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6"
+    >
       <div className="flex flex-wrap items-center justify-between gap-3">
         <h1 id="unit-title" className="text-3xl font-bold tracking-wide md:text-4xl">
           <ContainerNumber value={unit.containerNumber} />
@@ -65,7 +73,9 @@ export function UnitIdentity({ unit, actions }: { unit: UnitDto; actions?: React
       </div>
       {refrigerant && (refrigerant.flammable || refrigerant.highPressure) && (
         <p className="flex flex-wrap gap-2">
-          {refrigerant.flammable && <Badge tone="neutral">{refrigerant.safetyClass}: mildly flammable refrigerant</Badge>}
+          {refrigerant.flammable && (
+            <Badge tone="neutral">{refrigerant.safetyClass}: mildly flammable refrigerant</Badge>
+          )}
           {refrigerant.highPressure && <Badge tone="neutral">CO2 system: very high pressures</Badge>}
         </p>
       )}

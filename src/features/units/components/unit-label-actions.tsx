@@ -14,7 +14,10 @@ export function UnitLabelActions({ unit }: { unit: UnitDto }) {
   const [reissued, setReissued] = useState(false);
 
   return (
-    <section aria-labelledby="label-actions-title" className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6">
+    <section
+      aria-labelledby="label-actions-title"
+      className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+    >
       <div>
         <h2 id="label-actions-title" className="text-xl font-bold">
           QR label
@@ -32,10 +35,20 @@ export function UnitLabelActions({ unit }: { unit: UnitDto }) {
         </Alert>
       )}
       <div className="flex flex-wrap gap-3">
-        <a href={singleLabelHref(unit.id)} target="_blank" rel="noreferrer" className={buttonClasses({ variant: 'primary' })}>
+        <a
+          href={singleLabelHref(unit.id)}
+          target="_blank"
+          rel="noreferrer"
+          className={buttonClasses({ variant: 'primary' })}
+        >
           Print label
         </a>
-        <a href={singleLabelHref(unit.id, 'sheet')} target="_blank" rel="noreferrer" className={buttonClasses({ variant: 'secondary' })}>
+        <a
+          href={singleLabelHref(unit.id, 'sheet')}
+          target="_blank"
+          rel="noreferrer"
+          className={buttonClasses({ variant: 'secondary' })}
+        >
           On an A4 label sheet
         </a>
         {!confirming && (
@@ -45,7 +58,11 @@ export function UnitLabelActions({ unit }: { unit: UnitDto }) {
         )}
       </div>
       {confirming && (
-        <div role="group" aria-labelledby="reissue-title" className="flex flex-col gap-3 rounded-md border-2 border-heed-800 bg-heed-50 p-4">
+        <div
+          role="group"
+          aria-labelledby="reissue-title"
+          className="flex flex-col gap-3 rounded-md border-2 border-heed-800 bg-heed-50 p-4"
+        >
           <p id="reissue-title" className="text-base font-semibold">
             Issue a new label code? The label on the unit now will stop working.
           </p>

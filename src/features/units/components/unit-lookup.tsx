@@ -64,13 +64,22 @@ export function useUnitLookup(onFound: (unit: UnitDto) => void) {
 }
 
 /** What the last lookup found out, with a way on: register the unit (for those who may) or try again. */
-export function LookupMessage({ state, registerHref }: { state: LookupState; registerHref: (containerNumber?: string) => string }) {
+export function LookupMessage({
+  state,
+  registerHref,
+}: {
+  state: LookupState;
+  registerHref: (containerNumber?: string) => string;
+}) {
   switch (state.kind) {
     case 'idle':
       return null;
     case 'looking':
       return (
-        <div role="status" className="flex items-center gap-3 rounded-md border-2 border-fjord-700 bg-fjord-50 px-4 py-3 text-lg font-semibold">
+        <div
+          role="status"
+          className="flex items-center gap-3 rounded-md border-2 border-fjord-700 bg-fjord-50 px-4 py-3 text-lg font-semibold"
+        >
           <Spinner /> Opening {state.what}…
         </div>
       );

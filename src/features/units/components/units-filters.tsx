@@ -73,7 +73,11 @@ export function UnitsFilters({
         </div>
       </form>
       <div className="grid grid-cols-2 gap-3 lg:grid-cols-4">
-        <SelectField label="Site" value={values.siteId ?? ''} onChange={(e) => onChange({ siteId: e.target.value ? Number(e.target.value) : undefined })}>
+        <SelectField
+          label="Site"
+          value={values.siteId ?? ''}
+          onChange={(e) => onChange({ siteId: e.target.value ? Number(e.target.value) : undefined })}
+        >
           <option value="">All sites</option>
           {sites.map((s) => (
             <option key={s.id} value={s.id}>
@@ -81,7 +85,11 @@ export function UnitsFilters({
             </option>
           ))}
         </SelectField>
-        <SelectField label="Status" value={values.status ?? ''} onChange={(e) => onChange({ status: e.target.value || undefined })}>
+        <SelectField
+          label="Status"
+          value={values.status ?? ''}
+          onChange={(e) => onChange({ status: e.target.value || undefined })}
+        >
           <option value="">Any status</option>
           {UNIT_STATUSES.map((s) => (
             <option key={s} value={s}>
@@ -89,7 +97,11 @@ export function UnitsFilters({
             </option>
           ))}
         </SelectField>
-        <SelectField label="Refrigerant" value={values.refrigerant ?? ''} onChange={(e) => onChange({ refrigerant: e.target.value || undefined })}>
+        <SelectField
+          label="Refrigerant"
+          value={values.refrigerant ?? ''}
+          onChange={(e) => onChange({ refrigerant: e.target.value || undefined })}
+        >
           <option value="">Any refrigerant</option>
           {REFRIGERANT_CODES.map((r) => (
             <option key={r} value={r}>

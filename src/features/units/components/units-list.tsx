@@ -7,10 +7,22 @@ import { UnitStatusBadge } from './unit-status-badge';
 
 export const formatKg = (kg: number) => `${Number(kg.toFixed(2))} kg`;
 
-type Selection = { selected: ReadonlySet<number>; onToggle: (id: number) => void; onTogglePage: (ids: number[], on: boolean) => void };
+type Selection = {
+  selected: ReadonlySet<number>;
+  onToggle: (id: number) => void;
+  onTogglePage: (ids: number[], on: boolean) => void;
+};
 
 /** The units found, as cards on phones and rows on wide screens; with a selection box each when labels can be printed. */
-export function UnitsList({ units, hrefOf, selection }: { units: UnitDto[]; hrefOf: (id: number) => string; selection?: Selection }) {
+export function UnitsList({
+  units,
+  hrefOf,
+  selection,
+}: {
+  units: UnitDto[];
+  hrefOf: (id: number) => string;
+  selection?: Selection;
+}) {
   const pageIds = units.map((u) => u.id);
   const allOnPage = selection ? pageIds.every((id) => selection.selected.has(id)) : false;
   return (
@@ -52,7 +64,9 @@ export function UnitsList({ units, hrefOf, selection }: { units: UnitDto[]; href
               to={hrefOf(u.id)}
               className="flex min-h-touch-lg flex-1 flex-col justify-center gap-1 rounded-r-md px-4 py-3 hover:bg-ink-50 md:flex-row md:items-center md:gap-4"
             >
-              <span className="text-xl font-bold whitespace-nowrap tabular-nums tracking-wide md:w-52">{formatContainerNumber(u.containerNumber)}</span>
+              <span className="text-xl font-bold whitespace-nowrap tabular-nums tracking-wide md:w-52">
+                {formatContainerNumber(u.containerNumber)}
+              </span>
               <span className="flex flex-wrap items-center justify-between gap-x-4 gap-y-1 md:contents">
                 <span className="text-base whitespace-nowrap text-ink-700 md:w-36">
                   {u.refrigerant} · {formatKg(u.nominalChargeKg)}
@@ -60,7 +74,9 @@ export function UnitsList({ units, hrefOf, selection }: { units: UnitDto[]; href
                 <span className="md:order-last md:ml-auto">
                   <UnitStatusBadge status={u.status} />
                 </span>
-                <span className="w-full truncate text-base text-ink-600 md:w-auto md:flex-1">{u.site ? `${u.site.code} · ${u.site.name}` : 'No site'}</span>
+                <span className="w-full truncate text-base text-ink-600 md:w-auto md:flex-1">
+                  {u.site ? `${u.site.code} · ${u.site.name}` : 'No site'}
+                </span>
               </span>
             </Link>
           </li>
@@ -70,7 +86,19 @@ export function UnitsList({ units, hrefOf, selection }: { units: UnitDto[]; href
   );
 }
 
-export function Pager({ page, pageSize, total, onPage, busy }: { page: number; pageSize: number; total: number; onPage: (page: number) => void; busy?: boolean }) {
+export function Pager({
+  page,
+  pageSize,
+  total,
+  onPage,
+  busy,
+}: {
+  page: number;
+  pageSize: number;
+  total: number;
+  onPage: (page: number) => void;
+  busy?: boolean;
+}) {
   const pages = Math.max(1, Math.ceil(total / pageSize));
   if (pages <= 1) return null;
   return (
