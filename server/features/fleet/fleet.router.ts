@@ -9,7 +9,7 @@ import {
 } from '../../../shared/schemas/fleet';
 import { ensureStatsRows, refreshRepairEffectivenessIfStale, startRepairEffectiveness } from '../jobs/jobs.service';
 import { dayText, sendCsv, streamRows } from './csv-stream';
-import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, todayOf, toFleetRow } from './fleet.service';
+import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, shouldForceSortIndex, todayOf, toFleetRow } from './fleet.service';
 import { fleetOverview } from './overview.service';
 import { markForInspection, traceCharges, traceChargesQuery } from './traceability.service';
 
@@ -52,7 +52,8 @@ export function fleetRoutes(ctx: AppContext) {
       await ensureStatsRows(ctx);
       const today = todayOf(ctx.clock.now());
       const nullable = ['forecast', 'leakCheck', 'pti'].includes(q.sort) && q.dir === 'asc';
-      const parts = nullable ? [fleetSelect(ctx.db, q, today, 'none'), fleetSelect(ctx.db, q, today, 'only')] : [fleetSelect(ctx.db, q, today)];
+      const force = await shouldForceSortIndex(ctx.db, q);
+      const parts = nullable ? [fleetSelect(ctx.db, q, today, 'none', force), fleetSelect(ctx.db, q, today, 'only')] : [fleetSelect(ctx.db, q, today, undefined, force)];
       async function* records() {
         for (const part of parts) {
           for await (const raw of streamRows(ctx.db, part)) {

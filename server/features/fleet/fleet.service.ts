@@ -25,6 +25,15 @@ const SORT_COLUMNS: Record<FleetSort, MySqlColumn> = {
   containerNumber: units.containerNumber,
   co2e: unitStats.co2eTonnes,
 };
+/** The index that returns unit_stats rows in each sort's order (InnoDB appends the unit id, the tie-breaker). */
+const SORT_INDEXES: Partial<Record<FleetSort, string>> = {
+  score: 'unit_stats_score_idx',
+  rate: 'unit_stats_rate_idx',
+  forecast: 'unit_stats_forecast_idx',
+  leakCheck: 'unit_stats_leak_check_idx',
+  pti: 'unit_stats_pti_idx',
+  co2e: 'unit_stats_co2e_idx',
+};
 /** Sorts whose column may be empty; empties go last in both directions. */
 const NULLABLE_SORTS: ReadonlySet<FleetSort> = new Set(['forecast', 'leakCheck', 'pti']);
 
@@ -122,7 +131,7 @@ export function toFleetRow(r: RawRow, today: string): FleetRowDto {
 }
 
 /** The select of one part of the list; `nulls` picks the rows with or without a value in a nullable sort column. */
-export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetFilters, today: string, nulls?: 'only' | 'none') {
+export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetFilters, today: string, nulls?: 'only' | 'none', forceSortIndex = false) {
   const col = SORT_COLUMNS[q.sort];
   const where = fleetWhere(q, today);
   if (nulls === 'only') where.push(isNull(col));
@@ -135,14 +144,53 @@ export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetF
       : q.sort === 'containerNumber'
         ? [order(units.containerNumber)]
         : [order(col), order(unitStats.unitId)];
+  const index = forceSortIndex && nulls !== 'only' ? SORT_INDEXES[q.sort] : undefined;
   return db
     .select(rowFields)
-    .from(unitStats)
+    .from(unitStats, index ? { forceIndex: index } : undefined)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .leftJoin(sites, eq(sites.id, units.siteId))
     .where(where.length ? and(...where) : undefined)
     .orderBy(...orderBy)
     .$dynamic();
+}
+
+const hasStatsFilters = (f: FleetFilters) =>
+  Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired || f.q) || f.rateAbove !== undefined || f.forecastDays !== undefined;
+const hasUnitFilters = (f: FleetFilters) => Boolean(f.siteId || f.refrigerant || f.status || f.q);
+
+// Share of the fleet a site / refrigerant / status filter keeps, cached for a few minutes (fleets change slowly).
+const shareCache = new Map<string, { share: number; at: number }>();
+const SHARE_TTL_MS = 5 * 60_000;
+/** Below this share, reading the filter's own index and sorting the few rows beats walking the sort index. */
+const WIDE_FILTER_SHARE = 0.02;
+
+async function unitFilterShare(db: Db, f: FleetFilters): Promise<number> {
+  const key = JSON.stringify([f.siteId, f.refrigerant, f.status]);
+  const hit = shareCache.get(key);
+  if (hit && Date.now() - hit.at < SHARE_TTL_MS) return hit.share;
+  const w: SQL[] = [];
+  if (f.siteId) w.push(eq(units.siteId, f.siteId));
+  if (f.refrigerant) w.push(eq(units.refrigerant, f.refrigerant));
+  if (f.status) w.push(eq(units.status, f.status));
+  const [[{ n }], [{ total }]] = await Promise.all([
+    db.select({ n: count() }).from(units).where(and(...w)),
+    db.select({ total: count() }).from(units),
+  ]);
+  const share = Number(total) ? Number(n) / Number(total) : 1;
+  shareCache.set(key, { share, at: Date.now() });
+  return share;
+}
+
+/**
+ * Whether to walk the sort column's index (and stop after one page) rather than let the optimizer read a filter's
+ * rows and sort them. MariaDB picks the filesort for a site filter or a deep page, which is slow on a big fleet;
+ * with only wide filters on the unit, the sort index reaches a page after a few hundred rows.
+ */
+export async function shouldForceSortIndex(db: Db, q: Pick<FleetQuery, 'sort'> & FleetFilters): Promise<boolean> {
+  if (!SORT_INDEXES[q.sort] || hasStatsFilters(q)) return false;
+  if (!hasUnitFilters(q)) return true;
+  return (await unitFilterShare(db, q)) >= WIDE_FILTER_SHARE;
 }
 
 export async function countFleet(db: Db, f: FleetFilters, today: string): Promise<FleetCountDto> {
@@ -152,10 +200,9 @@ export async function countFleet(db: Db, f: FleetFilters, today: string): Promis
   }
   const where = fleetWhere(f, today);
   // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet.
-  const inner = db
-    .select({ one: sql`1` })
-    .from(unitStats)
-    .innerJoin(units, eq(units.id, unitStats.unitId))
+  // Filters on the statistics alone are counted on unit_stats' own indexes, without the join.
+  const base = db.select({ one: sql`1` }).from(unitStats).$dynamic();
+  const inner = (hasUnitFilters(f) ? base.innerJoin(units, eq(units.id, unitStats.unitId)) : base)
     .where(and(...where))
     .limit(FLEET_COUNT_CAP + 1)
     .as('matches');
@@ -168,10 +215,11 @@ export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<Fleet
   const today = todayOf(now);
   const offset = (q.page - 1) * q.pageSize;
   const limit = q.pageSize + 1;
+  const force = await shouldForceSortIndex(db, q);
   let rows: RawRow[];
   if (NULLABLE_SORTS.has(q.sort) && q.dir === 'asc') {
     // Ascending, MariaDB puts empty values first; read the filled ones first and the empty ones after them.
-    const filled = (await fleetSelect(db, q, today, 'none').limit(limit).offset(offset)) as RawRow[];
+    const filled = (await fleetSelect(db, q, today, 'none', force).limit(limit).offset(offset)) as RawRow[];
     rows = filled;
     if (filled.length < limit) {
       let filledTotal = offset + filled.length;
@@ -189,7 +237,7 @@ export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<Fleet
       rows = [...filled, ...empty];
     }
   } else {
-    rows = (await fleetSelect(db, q, today).limit(limit).offset(offset)) as RawRow[];
+    rows = (await fleetSelect(db, q, today, undefined, force).limit(limit).offset(offset)) as RawRow[];
   }
   const hasMore = rows.length > q.pageSize;
   const page: FleetPageDto = {
