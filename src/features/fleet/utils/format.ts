@@ -1,3 +1,4 @@
+import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 import { formatContainerNumber } from '../../../../shared/domain';
 
 export const fmtNumber = (v: number, digits = 1) => v.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 });
@@ -11,6 +12,10 @@ export function fmtDay(iso: string | null | undefined): string {
   return d.toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
 }
 export const fmtContainer = (n: string) => formatContainerNumber(n);
-export const BAND_LABELS = { tight: 'Tight', watch: 'Watch', chronic: 'Chronic' } as const;
+export const BAND_LABELS = {
+  tight: SCORE_BAND_WORDS.tight.label,
+  watch: SCORE_BAND_WORDS.watch.label,
+  chronic: SCORE_BAND_WORDS.chronic.label,
+} as const;
 /** The unit's own page. */
 export const unitHref = (id: number) => `/units/${id}`;

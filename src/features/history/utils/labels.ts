@@ -1,5 +1,6 @@
 import { format, formatDistanceStrict, parseISO } from 'date-fns';
 import type { ScoreBand } from '../../../../shared/domain';
+import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 import type { VisitEventKind } from '../../../../shared/schemas/history';
 
 /** What each kind of entry is called in Tightloop. */
@@ -20,15 +21,7 @@ export function entryKindLabel(kind: string): string {
   return (ENTRY_KIND_LABELS as Record<string, string>)[kind] ?? kind;
 }
 
-/**
- * The repeat-leak score's three bands in our own words. The engine's ids stay internal; the words, the tile colours
- * and the loop glyph (closed, opened, broken) carry the meaning together, so none of them relies on colour alone.
- */
-export const BAND_LABELS: Record<ScoreBand, { label: string; blurb: string }> = {
-  tight: { label: 'Holding', blurb: 'The loop holds its charge.' },
-  watch: { label: 'Slipping', blurb: 'Losing refrigerant; watch the next visits.' },
-  chronic: { label: 'Repeat leaker', blurb: 'Leaks again and again; a proper repair or a decision is due.' },
-};
+export const BAND_LABELS = SCORE_BAND_WORDS;
 
 export const BAND_TONES: Record<ScoreBand, string> = {
   tight: 'border-fjord-700 bg-fjord-50 text-fjord-900',
