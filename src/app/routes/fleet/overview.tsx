@@ -145,7 +145,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
       <div className="mt-5 grid gap-5 lg:grid-cols-2">
         <Panel aria-labelledby="ov-chronic">
           <h2 id="ov-chronic" className="text-xl font-bold">
-            Chronic leakers
+            Repeat leakers
           </h2>
           <p className="mt-1 text-base text-ink-700">The highest repeat-leak scores, with what drives each.</p>
           {o.chronicLeakers.length === 0 ? (

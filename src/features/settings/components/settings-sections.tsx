@@ -120,8 +120,8 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
             <div className="grid gap-3 sm:grid-cols-3">
               <Num {...p} path="leakRateThresholdPct" label="Alert at rolling leak rate (%)" hint="20 % is the US commercial-refrigeration threshold" />
               <Num {...p} path="score.rateCapPct" label="Leak rate for a full rate factor (%)" />
-              <Num {...p} path="score.watchFrom" label="“Watch” from score" step="1" />
-              <Num {...p} path="score.chronicFrom" label="“Chronic” from score" step="1" />
+              <Num {...p} path="score.watchFrom" label="“Slipping” from score" step="1" />
+              <Num {...p} path="score.chronicFrom" label="“Repeat leaker” from score" step="1" />
             </div>
             <fieldset>
               <legend className="mb-2 text-base font-bold">Score weights (add up to 1)</legend>
