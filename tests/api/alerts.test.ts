@@ -93,7 +93,7 @@ describe('alerts on a statistics change', () => {
     expect(smtp.messages).toHaveLength(1);
     const mail = smtp.messages[0];
     expect(mail.envelopeTo).toEqual([user.email]);
-    expect(mail.subject).toBe(`HLXU ${unit.containerNumber.slice(4, 10)} ${unit.containerNumber[10]} is now a chronic leaker (score 66 of 100)`);
+    expect(mail.subject).toBe(`HLXU ${unit.containerNumber.slice(4, 10)} ${unit.containerNumber[10]} is now a repeat leaker (score 66 of 100)`);
     expect(mail.text).toContain(`${PUBLIC_URL}/units/${unit.id}`);
     expect(mail.html).toContain(`${PUBLIC_URL}/units/${unit.id}`);
     expect(mail.text).toContain('Harbour Row Depot');

@@ -337,7 +337,7 @@ describe('alerts from the write path', () => {
     expect(bands[2]).toBe('chronic');
     const mails = await db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, engineer.email));
     expect(mails).toHaveLength(1);
-    expect(mails[0].subject).toMatch(/chronic/);
+    expect(mails[0].subject).toMatch(/repeat leaker/);
   });
 });
 

@@ -136,9 +136,9 @@ export async function queueAlertsForStatsChange(tx: DbOrTx, ctx: AlertContext, c
 
   if (after.scoreBand === 'chronic' && before?.scoreBand !== 'chronic') {
     queued += await queueUnitAlert(tx, ctx, 'chronic', unit, day, (siteName) => ({
-      subject: `${shown} is now a chronic leaker (score ${after.score} of 100)`,
+      subject: `${shown} is now a repeat leaker (score ${after.score} of 100)`,
       paragraphs: [
-        `Unit ${shown} at ${siteName} now scores ${after.score} of 100 on the repeat-leak score, which puts it in the chronic band.`,
+        `Unit ${shown} at ${siteName} now scores ${after.score} of 100 on the repeat-leak score, which puts it in the “repeat leaker” band.`,
         `Rolling 365-day leak rate: ${pct(after.rollingLeakRatePct)}. The unit page shows which factors drive the score and what a repair or retirement would cost.`,
       ],
     }));

@@ -60,7 +60,7 @@ export default function CandidatesPage() {
       ) : (
         <>
           <p className="text-base text-ink-700">
-            The {list.data.considered} units with a score in the watch or chronic band were priced; {list.data.candidates.length} would save by a change.
+            The {list.data.considered} units with a score in the “slipping” or “repeat leaker” band were priced; {list.data.candidates.length} would save by a change.
           </p>
           <ol className="flex flex-col gap-3" aria-label="Candidates">
             {list.data.candidates.map((c, i) => (
