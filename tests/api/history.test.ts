@@ -358,3 +358,25 @@ describe('voiding by role', () => {
     expect(byKind).toEqual({ top_up: true, note: false });
   });
 });
+
+describe('history paging with late entries', () => {
+  it('keeps an entry recorded late for an earlier date on the right page', async () => {
+    const { agent } = await signInAs(app, db, 'technician');
+    const unit = await createTestUnit(db);
+    const record = (at: string, note: string) =>
+      agent.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: at, events: [{ kind: 'note', note }] });
+    await record('2026-03-01T10:00:00Z', 'march');
+    await record('2026-04-01T10:00:00Z', 'april');
+    await record('2026-05-01T10:00:00Z', 'may');
+    await record('2026-02-01T10:00:00Z', 'february, entered last');
+    const seen: string[] = [];
+    let before: number | null = null;
+    do {
+      const res = await agent.get(`/api/units/${unit.id}/history?limit=1${before ? `&before=${before}` : ''}`);
+      expect(res.status).toBe(200);
+      seen.push(...res.body.events.map((e: { note: string }) => e.note));
+      before = res.body.nextBefore;
+    } while (before);
+    expect(seen).toEqual(['may', 'april', 'march', 'february, entered last']);
+  });
+});
