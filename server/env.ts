@@ -12,11 +12,8 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   SMTP_FROM: z.string().default('Tightloop <no-reply@tightloop.example>'),
-  STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
+  STORAGE_DRIVER: z.enum(['local'], { message: 'Only local storage is available in this version' }).default('local'),
   STORAGE_DIR: z.string().default('.data/uploads'),
-  S3_ENDPOINT: z.string().optional(),
-  S3_BUCKET: z.string().optional(),
-  S3_REGION: z.string().default('us-east-1'),
 });
 
 export type Env = z.infer<typeof envSchema>;
