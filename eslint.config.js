@@ -15,7 +15,7 @@ const boundary = (from, banned) => ({
 });
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'coverage/**', '.data/**', 'drizzle/**', 'bench/**'] },
+  { ignores: ['dist/**', 'node_modules/**', 'coverage/**', '.data/**', '.tmp/**', 'drizzle/**', 'bench/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
