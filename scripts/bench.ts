@@ -1,0 +1,438 @@
+// `npm run bench`: the app against the benchmark fleet (run `npm run seed:bench -- --units 100000` first), driven over
+// loopback with autocannon, beside a bare Express + one primary-key select measured in the same run; then the
+// forecast backtest on the simulated fleet. Writes bench/results.json, bench/results.md and the README section.
+//   --duration <s>   seconds per scenario (default 10)     --repeat <n>  runs of each scenario, medians quoted (3)
+//   --connections    concurrent connections (16)           --backtest-units <n>  units in the backtest (4000)
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import autocannon from 'autocannon';
+import mysql from 'mysql2/promise';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../seed/demo-accounts';
+import { backtestForecast, type BacktestResult } from '../seed/simulator/backtest';
+import { createFleet, DEFAULT_SEED } from '../seed/simulator/fleet';
+import { createRng } from '../seed/simulator/prng';
+import { DEFAULT_SETTINGS } from '../shared/schemas/settings';
+import { ensureProjectDatabase, freePort, PROJECT_ROOT } from './lib/mariadb';
+import { BENCH_DATABASE, BENCH_SEED_INFO } from './lib/bench-paths';
+
+function arg(name: string, fallback: number): number {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 && process.argv[i + 1] ? Number(process.argv[i + 1]) : fallback;
+}
+const DURATION_S = arg('duration', 10);
+const REPEAT = arg('repeat', 3);
+const CONNECTIONS = arg('connections', 16);
+const BACKTEST_UNITS = arg('backtest-units', 4000);
+const TARGETS = { unitPageP95Ms: 30, fleetTableP95Ms: 100, visitWriteP95Ms: 50, unitPageBaselineShare: 0.4 };
+
+const url = process.env.DATABASE_URL ?? (await ensureProjectDatabase(BENCH_DATABASE));
+const seedInfo = existsSync(BENCH_SEED_INFO) ? (JSON.parse(readFileSync(BENCH_SEED_INFO, 'utf8')) as Record<string, unknown>) : null;
+
+// --- what to ask for ---------------------------------------------------------------------------------------------
+const sql = await mysql.createConnection({ uri: url, timezone: 'Z' });
+const one = async <T>(q: string, params: unknown[] = []): Promise<T[]> => (await sql.query(q, params))[0] as T[];
+const [{ n: unitTotal }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM units').catch(() => [{ n: 0 }]);
+if (!Number(unitTotal)) {
+  console.error('The benchmark database is empty. Run `npm run seed:bench -- --units 100000` first.');
+  process.exit(1);
+}
+const [{ n: eventTotal }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM events');
+const [busiest] = await one<{ unitId: number }>('SELECT unit_id AS unitId FROM unit_stats ORDER BY event_count DESC LIMIT 1');
+const [{ n: busyEvents }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM events WHERE unit_id = ?', [busiest.unitId]);
+const busy = { unitId: busiest.unitId, events: Number(busyEvents) };
+const rng = createRng(20_260_601);
+const inService = (await one<{ id: number }>("SELECT id FROM units WHERE status = 'in_service' AND id <> ?", [busy.unitId])).map((r) => r.id);
+const sample = (list: number[], k: number) => Array.from({ length: k }, () => list[Math.floor(rng.next() * list.length)]);
+const unitIds = sample(inService, 5000);
+const writeIds = sample(inService, 5000);
+const tokens = (await one<{ t: string }>('SELECT qr_token AS t FROM units WHERE id IN (?)', [sample(inService, 2000)])).map((r) => r.t);
+const [site] = await one<{ id: number }>('SELECT site_id AS id FROM units GROUP BY site_id ORDER BY COUNT(*) DESC LIMIT 1');
+await sql.end();
+console.log(
+  `Benchmark database: ${Number(unitTotal).toLocaleString('en')} units, ${Number(eventTotal).toLocaleString('en')} events; ` +
+    `busiest unit ${busy.unitId} with ${busy.events} events.`,
+);
+
+// --- servers -------------------------------------------------------------------------------------------------
+const tsx = path.join(PROJECT_ROOT, 'node_modules', '.bin', 'tsx');
+const children: ChildProcess[] = [];
+async function startServer(mode: 'app' | 'baseline'): Promise<string> {
+  const port = await freePort();
+  const child = spawn(tsx, [path.join(PROJECT_ROOT, 'scripts/lib/bench-server.ts'), mode, String(port)], {
+    env: { ...process.env, DATABASE_URL: url, NODE_ENV: 'production', LOG_LEVEL: 'silent' },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  children.push(child);
+  await new Promise<void>((resolve, reject) => {
+    child.once('exit', (code) => reject(new Error(`bench ${mode} server exited (${code})`)));
+    child.stdout!.on('data', (b: Buffer) => {
+      if (b.toString().includes('ready')) resolve();
+    });
+  });
+  return `http://127.0.0.1:${port}`;
+}
+const stopAll = () => {
+  for (const c of children) if (c.exitCode === null) c.kill('SIGTERM');
+};
+process.once('exit', stopAll);
+process.once('SIGINT', () => {
+  stopAll();
+  process.exit(130);
+});
+
+const appUrl = await startServer('app');
+const baselineUrl = await startServer('baseline');
+const signIn = await fetch(`${appUrl}/api/auth/sign-in`, {
+  method: 'POST',
+  headers: { 'content-type': 'application/json', origin: appUrl },
+  body: JSON.stringify({ email: DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!.email, password: DEMO_PASSWORD }),
+});
+if (signIn.status !== 200) throw new Error(`Signing in as the demo engineer failed: ${signIn.status} ${await signIn.text()}`);
+const cookie = signIn.headers
+  .getSetCookie()
+  .map((c) => c.split(';')[0])
+  .join('; ');
+
+// --- scenarios -----------------------------------------------------------------------------------------------
+type Scenario = {
+  id: string;
+  title: string;
+  target?: { p95Ms: number };
+  probe: string;
+  requests: () => autocannon.Request[];
+  /** Fewer connections than the others, said in the title. */
+  connections?: number;
+};
+let seq = 0;
+const pick = <T>(xs: readonly T[]) => xs[Math.floor(rng.next() * xs.length)];
+const fleetQueries = [
+  'sort=score&dir=desc',
+  'sort=rate&dir=desc',
+  'sort=forecast&dir=asc',
+  `sort=score&dir=desc&siteId=${site.id}`,
+  'sort=score&dir=desc&band=chronic',
+];
+const get = (p: () => string): autocannon.Request[] => [
+  {
+    method: 'GET',
+    setupRequest: (req) => ({ ...req, path: p() }),
+  },
+];
+const scenarios: Scenario[] = [
+  {
+    id: 'unitPage',
+    title: 'Unit page `GET /api/units/:id/overview`, random units',
+    target: { p95Ms: TARGETS.unitPageP95Ms },
+    probe: `/api/units/${unitIds[0]}/overview`,
+    requests: () => get(() => `/api/units/${pick(unitIds)}/overview`),
+  },
+  {
+    id: 'unitPageBusy',
+    title: `Unit page, the unit with ${busy.events.toLocaleString('en')} events`,
+    probe: `/api/units/${busy.unitId}/overview`,
+    requests: () => get(() => `/api/units/${busy.unitId}/overview`),
+  },
+  {
+    id: 'fleetTable',
+    title: 'Fleet table `GET /api/fleet` (3 sorts, site and band filters, pages 1–5)',
+    target: { p95Ms: TARGETS.fleetTableP95Ms },
+    probe: `/api/fleet?${fleetQueries[0]}`,
+    requests: () => get(() => `/api/fleet?${pick(fleetQueries)}&page=${1 + Math.floor(rng.next() * 5)}`),
+  },
+  {
+    id: 'fleetOverview',
+    title: 'Fleet overview `GET /api/fleet/overview`',
+    probe: '/api/fleet/overview',
+    requests: () => get(() => '/api/fleet/overview'),
+  },
+  {
+    id: 'visitWrite',
+    title: 'Visit write `POST /api/visits` (pressure reading + PTI, unique keys)',
+    target: { p95Ms: TARGETS.visitWriteP95Ms },
+    probe: '',
+    requests: () => [
+      {
+        method: 'POST',
+        setupRequest: (req) => ({ ...req, path: '/api/visits', body: JSON.stringify(visitBody()) }),
+      },
+    ],
+  },
+  {
+    id: 'scanLookup',
+    title: 'Scan lookup `GET /api/units/by-token/:token`',
+    probe: `/api/units/by-token/${tokens[0]}`,
+    requests: () => get(() => `/api/units/by-token/${pick(tokens)}`),
+  },
+];
+const runTag = Date.now().toString(36);
+function visitBody() {
+  seq++;
+  return {
+    idempotencyKey: `bench-${runTag}-${seq}`,
+    unitId: pick(writeIds),
+    occurredAt: new Date(Date.now() - 60_000).toISOString(),
+    events: [
+      { kind: 'pressure', suctionKPaG: 95, dischargeKPaG: 880, ambientC: 21.5, setPointC: -18, sightGlass: 'full' },
+      { kind: 'pti', passed: true },
+    ],
+  };
+}
+
+type Run = { rps: number; p50: number; p95: number; p99: number; requests: number; errors: number; non2xx: number };
+
+function percentile(sorted: Float64Array, p: number): number {
+  if (!sorted.length) return NaN;
+  const i = Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1));
+  return sorted[i];
+}
+
+async function measure(
+  base: string,
+  requests: autocannon.Request[],
+  seconds: number,
+  headers: Record<string, string>,
+  connections = CONNECTIONS,
+): Promise<Run> {
+  const times: number[] = [];
+  let non2xx = 0;
+  const instance = autocannon({
+    url: base,
+    connections,
+    duration: seconds,
+    headers,
+    requests,
+  });
+  instance.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
+    times.push(ms);
+    if (status < 200 || status >= 300) non2xx++;
+  });
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    instance.once('done', resolve);
+    instance.once('error', reject);
+  });
+  const sorted = Float64Array.from(times).sort();
+  return {
+    rps: times.length / result.duration,
+    p50: percentile(sorted, 50),
+    p95: percentile(sorted, 95),
+    p99: percentile(sorted, 99),
+    requests: times.length,
+    errors: result.errors + result.timeouts,
+    non2xx,
+  };
+}
+
+const appHeaders = { cookie, origin: appUrl, 'content-type': 'application/json', accept: 'application/json' };
+const available = new Map<string, number>();
+for (const s of scenarios) {
+  if (!s.probe) {
+    available.set(s.id, 200);
+    continue;
+  }
+  const res = await fetch(`${appUrl}${s.probe}`, { headers: appHeaders });
+  await res.arrayBuffer();
+  available.set(s.id, res.status);
+}
+const baselineRequests = get(() => `/units/${pick(unitIds)}`);
+
+// The first overview read starts the repair-effectiveness rebuild in the app (a background job): let it finish.
+{
+  const jobs = await mysql.createConnection({ uri: url, timezone: 'Z' });
+  const t = Date.now();
+  for (;;) {
+    const [rows] = (await jobs.query("SELECT status FROM background_jobs WHERE kind = 'repair_effectiveness' ORDER BY id DESC LIMIT 1")) as unknown as [
+      { status: string }[],
+    ];
+    if (rows[0]?.status !== 'running') break;
+    if (Date.now() - t > 600_000) throw new Error('The repair-effectiveness job did not finish in 10 minutes.');
+    await new Promise((r) => setTimeout(r, 1000));
+  }
+  if (Date.now() - t > 1500) console.log(`Waited ${((Date.now() - t) / 1000).toFixed(0)} s for the app's repair-effectiveness job.`);
+  await jobs.end();
+}
+
+/** Waits until the app has worked off what the last scenario left in flight (its health check answers quickly). */
+async function settle(base: string) {
+  const t = Date.now();
+  let quick = 0;
+  while (quick < 3 && Date.now() - t < 120_000) {
+    const t0 = performance.now();
+    await fetch(`${base}/api/health`).then((r) => r.arrayBuffer());
+    quick = performance.now() - t0 < 20 ? quick + 1 : 0;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+}
+
+// Every scenario once before measuring: JIT, pools, buffer pool, and first-request work (the fleet routes check
+// for units without statistics on their first read in a process) stay out of the figures.
+const WARM_S = Math.min(3, DURATION_S);
+console.log(`Warming up (${WARM_S} s per scenario)…`);
+await measure(baselineUrl, baselineRequests, WARM_S, {});
+for (const s of scenarios) {
+  if (available.get(s.id) === 404) continue;
+  await settle(appUrl);
+  await measure(appUrl, s.requests(), WARM_S, appHeaders, s.connections);
+}
+
+const runs: Record<string, Run[]> = { baseline: [] };
+for (const s of scenarios) runs[s.id] = [];
+const ratios: Record<string, number[]> = {};
+for (let r = 1; r <= REPEAT; r++) {
+  await settle(appUrl);
+  const base = await measure(baselineUrl, baselineRequests, DURATION_S, {});
+  runs.baseline.push(base);
+  console.log(`run ${r}/${REPEAT}  baseline                ${fmtRun(base)}`);
+  for (const s of scenarios) {
+    const status = available.get(s.id)!;
+    if (status === 404) continue;
+    await settle(appUrl);
+    const run = await measure(appUrl, s.requests(), DURATION_S, appHeaders, s.connections);
+    runs[s.id].push(run);
+    (ratios[s.id] ??= []).push(run.rps / base.rps);
+    console.log(`run ${r}/${REPEAT}  ${s.id.padEnd(22)}  ${fmtRun(run)}`);
+  }
+}
+stopAll();
+
+function fmtRun(x: Run) {
+  return `p50 ${x.p50.toFixed(1)} ms  p95 ${x.p95.toFixed(1)} ms  p99 ${x.p99.toFixed(1)} ms  ${Math.round(x.rps)} req/s${x.non2xx ? `  (${x.non2xx} non-2xx)` : ''}${x.errors ? `  (${x.errors} errors)` : ''}`;
+}
+const med = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+const summary = (list: Run[]) =>
+  list.length
+    ? {
+        p50Ms: +med(list.map((x) => x.p50)).toFixed(2),
+        p95Ms: +med(list.map((x) => x.p95)).toFixed(2),
+        p99Ms: +med(list.map((x) => x.p99)).toFixed(2),
+        rps: Math.round(med(list.map((x) => x.rps))),
+        requests: list.reduce((s, x) => s + x.requests, 0),
+        non2xx: list.reduce((s, x) => s + x.non2xx, 0),
+        errors: list.reduce((s, x) => s + x.errors, 0),
+      }
+    : null;
+
+// --- forecast backtest -----------------------------------------------------------------------------------------
+console.log(`Forecast backtest over the first ${BACKTEST_UNITS.toLocaleString('en')} simulated units…`);
+const fleet = createFleet({
+  seed: Number(seedInfo?.seed ?? DEFAULT_SEED),
+  units: Number(seedInfo?.units ?? unitTotal) - 1,
+  now: new Date(String(seedInfo?.asOf ?? new Date().toISOString())),
+  busyUnitEvents: 0,
+});
+const backtest: BacktestResult = backtestForecast(fleet, DEFAULT_SETTINGS, { to: Math.min(BACKTEST_UNITS, fleet.units) });
+
+// --- results -----------------------------------------------------------------------------------------------------
+const cpu = (() => {
+  try {
+    return /model name\s*:\s*(.+)/.exec(readFileSync('/proc/cpuinfo', 'utf8'))?.[1]?.trim() ?? os.cpus()[0]?.model;
+  } catch {
+    return os.cpus()[0]?.model ?? 'unknown';
+  }
+})();
+const machine = { cpu, cores: os.cpus().length, memoryGiB: Math.round(os.totalmem() / 2 ** 30), node: process.version, os: `${os.type()} ${os.release()}` };
+const baselineSummary = summary(runs.baseline)!;
+const results = {
+  date: new Date().toISOString(),
+  machine,
+  settings: { durationS: DURATION_S, repeat: REPEAT, connections: CONNECTIONS },
+  dataset: { units: Number(unitTotal), events: Number(eventTotal), busyUnitEvents: busy.events, seed: seedInfo },
+  baseline: { title: 'Bare Express + one mysql2 primary-key select (`SELECT * FROM units WHERE id = ?`)', ...baselineSummary },
+  scenarios: scenarios.map((s) => {
+    const status = available.get(s.id)!;
+    const sum = summary(runs[s.id]);
+    return {
+      id: s.id,
+      title: s.title,
+      available: status !== 404,
+      probeStatus: status,
+      ...(sum ?? {}),
+      baselineRatio: ratios[s.id] ? +med(ratios[s.id]).toFixed(3) : null,
+      targetP95Ms: s.target?.p95Ms ?? null,
+      meetsTarget: s.target && sum ? sum.p95Ms <= s.target.p95Ms : null,
+    };
+  }),
+  targets: TARGETS,
+  backtest: {
+    ...backtest,
+    forecastMaeDays: +backtest.forecastMaeDays.toFixed(1),
+    naiveMaeDays: +backtest.naiveMaeDays.toFixed(1),
+    forecastCloserShare: +backtest.forecastCloserShare.toFixed(3),
+  },
+};
+const unitRatio = results.scenarios.find((s) => s.id === 'unitPage')?.baselineRatio;
+
+const md: string[] = [];
+md.push(`Measured ${results.date.slice(0, 10)} on ${machine.cpu}, ${machine.cores} cores, ${machine.memoryGiB} GiB, Node ${machine.node}; `);
+md.push(
+  `${results.dataset.units.toLocaleString('en')} units, ${results.dataset.events.toLocaleString('en')} events; ${CONNECTIONS} connections over loopback, ` +
+    `${DURATION_S} s per scenario, medians of ${REPEAT} runs; server, load generator and MariaDB share the machine.\n`,
+);
+md.push('| scenario | p50 ms | p95 ms | p99 ms | req/s | vs baseline req/s | target |');
+md.push('|---|---:|---:|---:|---:|---:|---|');
+md.push(`| ${results.baseline.title} | ${baselineSummary.p50Ms} | ${baselineSummary.p95Ms} | ${baselineSummary.p99Ms} | ${baselineSummary.rps} | 1.00 | |`);
+for (const s of results.scenarios) {
+  if (!s.available) {
+    md.push(`| ${s.title} | | | | | | not yet available (404) |`);
+    continue;
+  }
+  const target =
+    s.id === 'unitPage'
+      ? `p95 ≤ ${TARGETS.unitPageP95Ms} ms ${s.meetsTarget ? '✓' : '✗'}; ≥ 40 % of baseline ${unitRatio !== null && unitRatio !== undefined && unitRatio >= TARGETS.unitPageBaselineShare ? '✓' : '✗'}`
+      : s.targetP95Ms
+        ? `p95 ≤ ${s.targetP95Ms} ms ${s.meetsTarget ? '✓' : '✗'}`
+        : '';
+  const flags = s.non2xx ? ` (${s.non2xx} non-2xx)` : '';
+  md.push(`| ${s.title}${flags} | ${s.p50Ms} | ${s.p95Ms} | ${s.p99Ms} | ${s.rps} | ${s.baselineRatio?.toFixed(2)} | ${target} |`);
+}
+md.push('');
+md.push(
+  `Forecast backtest (DOMAIN.md §7) over ${backtest.units.toLocaleString('en')} simulated units with hidden leaks, a cut-off every ${backtest.stepDays} days, ` +
+    `${backtest.cases.toLocaleString('en')} cases: next top-up forecast MAE **${results.backtest.forecastMaeDays} days** ` +
+    `(median ${backtest.forecastMedianErrorDays} days) vs **${results.backtest.naiveMaeDays} days** (median ${backtest.naiveMedianErrorDays}) for ` +
+    `"the last interval repeats"; the forecast is closer in ${(backtest.forecastCloserShare * 100).toFixed(0)} % of cases.`,
+);
+md.push('');
+md.push('| backtest cases | n | forecast MAE (bias) days | naive MAE (bias) days |');
+md.push('|---|---:|---:|---:|');
+for (const b of backtest.breakdown) md.push(`| ${b.group} | ${b.cases} | ${b.forecastMaeDays} (${b.forecastBiasDays >= 0 ? '+' : ''}${b.forecastBiasDays}) | ${b.naiveMaeDays} (${b.naiveBiasDays >= 0 ? '+' : ''}${b.naiveBiasDays}) |`);
+if (seedInfo) {
+  md.push('');
+  md.push(
+    `Benchmark fleet: \`npm run seed:bench -- --units ${Number(seedInfo.units) - 1}\` loaded ${Number(seedInfo.units).toLocaleString('en')} units and ` +
+      `${Number(seedInfo.events).toLocaleString('en')} events in ${(Number(seedInfo.seconds) / 60).toFixed(1)} min.`,
+  );
+}
+md.push('');
+md.push('Reproduce: `npm run seed:bench -- --units 100000`, then `npm run bench` (options: `--duration`, `--repeat`, `--connections`).');
+// Hand-written findings (what misses its target and why) live beside the results and are quoted with them.
+const notesFile = path.join(PROJECT_ROOT, 'bench', 'notes.md');
+if (existsSync(notesFile)) md.push('', readFileSync(notesFile, 'utf8').trim());
+const mdText = md.join('\n') + '\n';
+
+const outDir = path.join(PROJECT_ROOT, 'bench');
+mkdirSync(outDir, { recursive: true });
+writeFileSync(path.join(outDir, 'results.json'), JSON.stringify(results, null, 2) + '\n');
+writeFileSync(path.join(outDir, 'results.md'), `# Benchmark results\n\n${mdText}`);
+updateReadme(mdText);
+console.log(`\n${mdText}`);
+console.log('Wrote bench/results.json, bench/results.md and the Performance section of README.md.');
+process.exit(0);
+
+function updateReadme(text: string) {
+  const file = path.join(PROJECT_ROOT, 'README.md');
+  const start = '<!-- bench:start -->';
+  const end = '<!-- bench:end -->';
+  let readme = readFileSync(file, 'utf8');
+  const block = `${start}\n${text}${end}`;
+  const i = readme.indexOf(start);
+  const j = readme.indexOf(end);
+  if (i >= 0 && j > i) readme = readme.slice(0, i) + block + readme.slice(j + end.length);
+  else readme = `${readme.replace(/\s*$/, '\n')}\n## Performance\n\n${block}\n`;
+  writeFileSync(file, readme);
+}
