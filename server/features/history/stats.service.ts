@@ -65,25 +65,28 @@ export function toEngineEvent(e: {
   }
 }
 
+/** The event columns the engine reads (see toEngineEvent). */
+export const ENGINE_EVENT_COLUMNS = {
+  kind: events.kind,
+  occurredAt: events.occurredAt,
+  visitId: events.visitId,
+  kg: events.kg,
+  excludedFromLeakRate: events.excludedFromLeakRate,
+  leakFound: events.leakFound,
+  location: events.location,
+  action: events.action,
+  verified: events.verified,
+  passed: events.passed,
+  suctionKPaG: events.suctionKPaG,
+  dischargeKPaG: events.dischargeKPaG,
+  ambientC: events.ambientC,
+  sightGlass: events.sightGlass,
+};
+
 /** Every event of the unit that counts: voided ones and the void markers themselves drop out. */
 export async function loadEngineHistory(db: DbOrTx, unitId: number): Promise<EngineEvent[]> {
   const rows = await db
-    .select({
-      kind: events.kind,
-      occurredAt: events.occurredAt,
-      visitId: events.visitId,
-      kg: events.kg,
-      excludedFromLeakRate: events.excludedFromLeakRate,
-      leakFound: events.leakFound,
-      location: events.location,
-      action: events.action,
-      verified: events.verified,
-      passed: events.passed,
-      suctionKPaG: events.suctionKPaG,
-      dischargeKPaG: events.dischargeKPaG,
-      ambientC: events.ambientC,
-      sightGlass: events.sightGlass,
-    })
+    .select(ENGINE_EVENT_COLUMNS)
     .from(events)
     .where(
       and(

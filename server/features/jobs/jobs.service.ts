@@ -11,7 +11,7 @@ import { mergeRepairEffectiveness, repairEffectiveness, type RepairEffectiveness
 import { settingsSchema, type Settings } from '../../../shared/schemas/settings';
 import type { JobDto } from '../../../shared/schemas/settings-api';
 import { getSettings } from '../settings/settings.service';
-import { recomputeUnitStats, toEngineEvent } from '../history/stats.service';
+import { ENGINE_EVENT_COLUMNS, recomputeUnitStats, toEngineEvent } from '../history/stats.service';
 
 export type JobContext = { db: Db; clock: Clock; logger: Logger };
 type JobRow = typeof backgroundJobs.$inferSelect;
@@ -246,24 +246,7 @@ async function runRepairEffectiveness(ctx: JobContext, jobId: number): Promise<v
     if (!(await stillRunning(ctx.db, jobId))) return;
     const chunk = unitIds.slice(i, i + CHUNK_UNITS);
     const rows = await ctx.db
-      .select({
-        unitId: events.unitId,
-        refrigerant: units.refrigerant,
-        kind: events.kind,
-        occurredAt: events.occurredAt,
-        visitId: events.visitId,
-        kg: events.kg,
-        excludedFromLeakRate: events.excludedFromLeakRate,
-        leakFound: events.leakFound,
-        location: events.location,
-        action: events.action,
-        verified: events.verified,
-        passed: events.passed,
-        suctionKPaG: events.suctionKPaG,
-        dischargeKPaG: events.dischargeKPaG,
-        ambientC: events.ambientC,
-        sightGlass: events.sightGlass,
-      })
+      .select({ unitId: events.unitId, refrigerant: units.refrigerant, ...ENGINE_EVENT_COLUMNS })
       .from(events)
       .innerJoin(units, eq(units.id, events.unitId))
       .where(and(inArray(events.unitId, chunk), inArray(events.kind, ['top_up', 'recovery', 'recharge', 'leak_check', 'repair']), notVoided))
