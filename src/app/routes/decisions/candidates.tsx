@@ -1,9 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, useSearchParams } from 'react-router-dom';
-import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
+import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { candidatesQuery, useCandidates } from '../../../features/decisions/api/get-candidates';
 import { EstimateNotice } from '../../../features/decisions/components/estimate-notice';
 import { fmtMoney } from '../../../features/decisions/components/money';
@@ -43,16 +41,9 @@ export default function CandidatesPage() {
         </select>
       </label>
       {list.isPending ? (
-        <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
-          <Spinner /> Pricing the candidates…
-        </div>
+        <LoadingPanel>Pricing the candidates…</LoadingPanel>
       ) : list.isError ? (
-        <Alert tone="alarm" title="The candidates could not be priced">
-          <p>{list.error.message}</p>
-          <Button variant="secondary" className="mt-3" onClick={() => void list.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="The candidates could not be priced" error={list.error} onRetry={() => void list.refetch()} />
       ) : list.data.candidates.length === 0 ? (
         <EmptyState title="No candidates">
           Among the {list.data.considered} highest-scoring units, keeping on topping up is the cheapest for every one.

@@ -2,11 +2,10 @@ import type { QueryClient } from '@tanstack/react-query';
 import type { LoaderFunctionArgs } from 'react-router-dom';
 import { useSearchParams } from 'react-router-dom';
 import { FLEET_SORTS, type FleetFilters, type FleetQuery, type FleetSort } from '../../../../shared/schemas/fleet';
-import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { UnitsIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
+import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetExportHref, fleetQuery, useFleet, useFleetCount } from '../../../features/fleet/api/get-fleet';
 import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
 import { FleetFiltersPanel } from '../../../features/fleet/components/fleet-filters';
@@ -70,16 +69,9 @@ export default function FleetPage() {
 
       <section aria-label="Fleet units" className="flex flex-col gap-4">
         {fleet.isPending ? (
-          <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
-            <Spinner /> Loading the fleet…
-          </div>
+          <LoadingPanel>Loading the fleet…</LoadingPanel>
         ) : fleet.isError && !fleet.data ? (
-          <Alert tone="alarm" title="The fleet could not be loaded">
-            <p>{fleet.error.message}</p>
-            <Button variant="secondary" className="mt-3" onClick={() => void fleet.refetch()} pending={fleet.isFetching}>
-              Try again
-            </Button>
-          </Alert>
+          <LoadError title="The fleet could not be loaded" error={fleet.error} onRetry={() => void fleet.refetch()} retrying={fleet.isFetching} />
         ) : fleet.data.rows.length === 0 ? (
           <EmptyState icon={<UnitsIcon className="size-10" />} title={Object.keys(filters).length ? 'No unit matches these filters' : 'No units in the fleet yet'}>
             {Object.keys(filters).length ? 'Loosen a filter or clear them all.' : 'Units appear here once they are registered.'}

@@ -2,10 +2,8 @@ import type { QueryClient } from '@tanstack/react-query';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { LEAK_LOCATIONS, REFRIGERANT_CODES, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
 import { fleetOverviewQuerySchema, type FleetOverviewDto, type FleetOverviewQuery } from '../../../../shared/schemas/fleet';
-import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
+import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetOverviewQuery, useFleetOverview } from '../../../features/fleet/api/get-overview';
 import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
@@ -73,16 +71,9 @@ export default function FleetOverviewPage() {
         </label>
       </div>
       {overview.isPending ? (
-        <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
-          <Spinner /> Loading the overview…
-        </div>
+        <LoadingPanel>Loading the overview…</LoadingPanel>
       ) : overview.isError && !overview.data ? (
-        <Alert tone="alarm" title="The overview could not be loaded">
-          <p>{overview.error.message}</p>
-          <Button variant="secondary" className="mt-3" onClick={() => void overview.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="The overview could not be loaded" error={overview.error} onRetry={() => void overview.refetch()} />
       ) : overview.data.units === 0 ? (
         <EmptyState title="No units to show">There are no units here yet, or none match the site and refrigerant chosen.</EmptyState>
       ) : (

@@ -4,7 +4,7 @@ import { refrigerantLogQuerySchema, type RefrigerantLogEntryDto, type Refrigeran
 import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
+import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
 import { fmtContainer, fmtKg, fmtNumber, unitHref } from '../../../features/fleet/utils/format';
 import { toSearch } from '../../../features/fleet/utils/query-string';
@@ -101,16 +101,9 @@ export default function RefrigerantLogPage() {
       </Panel>
 
       {log.isPending ? (
-        <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
-          <Spinner /> Loading the log…
-        </div>
+        <LoadingPanel>Loading the log…</LoadingPanel>
       ) : log.isError && !log.data ? (
-        <Alert tone="alarm" title="The log could not be loaded">
-          <p>{log.error.message}</p>
-          <Button variant="secondary" className="mt-3" onClick={() => void log.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError title="The log could not be loaded" error={log.error} onRetry={() => void log.refetch()} />
       ) : (
         <>
           <Totals totals={first?.totals ?? []} />
