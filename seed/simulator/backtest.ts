@@ -64,7 +64,7 @@ export function backtestForecast(fleet: Fleet, settings: Settings, opts: { from?
       createdAt: new Date(sim.unit.createdMs),
     });
     // The engine's own view of the full history: the visits with made-up refrigerant are the "actual" top-ups.
-    const full = (rows.stats.detail as unknown as ReturnType<typeof computeUnitStats>).visits;
+    const full = rows.visitStats;
     const additionDays = full.filter((v) => v.madeUpKg > 0).map((v) => dayOfIso(v.date));
     if (additionDays.length < 3) continue;
     const events = rows.engineEvents;

@@ -28,6 +28,8 @@ export type UnitRows = {
   /** Each visit's made-up refrigerant (for visit_made_up and fleet_monthly), as the engine counts it. */
   madeUp: VisitMadeUpRow[];
   engineEvents: EngineEvent[];
+  /** The engine's per-visit figures for the whole history (the statistics row keeps only the summary). */
+  visitStats: ReturnType<typeof computeUnitStats>['visits'];
 };
 
 export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
@@ -228,5 +230,5 @@ export function rowsForUnit(
       createdAt: now,
     });
   }
-  return { unit, visits: visitRows, events: eventRows, stats, madeUp, engineEvents };
+  return { unit, visits: visitRows, events: eventRows, stats, madeUp, engineEvents, visitStats: result.visits };
 }

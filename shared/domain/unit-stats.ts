@@ -30,6 +30,8 @@ export interface UnitStats {
   rollingLeakRatePct: number;
   /** Start of the rolling window (ISO date): the day after the last verified repair, or 364 days back. */
   rollingSince: string;
+  /** True when a verified repair inside the window moved its start (rollingSince is then the day after it). */
+  rollingSinceRepair: boolean;
   leakRateAboveThreshold: boolean;
   calendarYearSharePct: number;
   /** Calendar-year share ≥ 125 % (40 CFR 82.157(m)). */
@@ -196,6 +198,7 @@ export function computeUnitStats(
     refrigerant: code,
     rollingLeakRatePct: roundTo(rollingPct, 2),
     rollingSince: isoDate(rollingSinceDay),
+    rollingSinceRepair: repairCutsWindow,
     leakRateAboveThreshold: rollingPct >= settings.leakRateThresholdPct,
     calendarYearSharePct: roundTo(calendarPct, 2),
     chronicallyLeaking: calendarPct >= CHRONIC_CALENDAR_YEAR_SHARE_PCT,

@@ -7,6 +7,8 @@ import {
   SIGHT_GLASS_STATE_IDS,
 } from '../domain/service-terms';
 import { MASS_UNITS, PRESSURE_UNITS, TEMPERATURE_UNITS } from '../domain/units';
+import type { PressureSnapshot } from '../domain/pressure-health';
+import type { UnitStats } from '../domain/unit-stats';
 
 export const MAX_EVENTS_PER_VISIT = 20;
 export const MAX_PHOTOS_PER_EVENT = 8;
@@ -206,9 +208,12 @@ export type UnitStatsDto = {
   ptiPassed: boolean | null;
   pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
   forecast: { date: string; earliest: string | null; latest: string | null; overdue: boolean } | null;
-  /** The whole engine result: factors, per-visit rates, snapshots, reasons. */
-  detail: Record<string, unknown> | null;
+  /** The engine's result without its per-visit and per-snapshot series (those come with the timeline). */
+  detail: UnitStatsSummary | null;
 };
+
+/** What the statistics row keeps of `computeUnitStats`: every figure and reason, not the series. */
+export type UnitStatsSummary = Omit<UnitStats, 'visits' | 'snapshots'>;
 
 export type RecordVisitResultDto = {
   visitId: number;
@@ -223,5 +228,8 @@ export type TimelineEventDto = Pick<
   EventDto,
   'id' | 'visitId' | 'kind' | 'occurredAt' | 'kg' | 'leakFound' | 'location' | 'verified' | 'passed' | 'suctionKPaG' | 'dischargeKPaG' | 'ambientC' | 'sightGlass'
 > & { voided: boolean };
+
+/** The timeline's events, and the pressure snapshots with saturation temperatures the engine derives from them. */
+export type UnitTimelineDto = { events: TimelineEventDto[]; snapshots: PressureSnapshot[] };
 
 export type UnitOverviewDto = { stats: UnitStatsDto | null; history: UnitHistoryDto };

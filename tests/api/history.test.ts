@@ -50,8 +50,20 @@ describe('recording a visit', () => {
     expect(new Set(res.body.events.map((e: { visitId: number }) => e.visitId))).toEqual(new Set([res.body.visitId]));
     expect(res.body.stats).toMatchObject({ scoreBand: expect.any(String), co2eTonnes: expect.any(Number) });
     // Made-up refrigerant of the visit: max(0, 5.0 − 1.9) = 3.1 kg (DOMAIN.md §4).
-    const visit = (res.body.stats.detail.visits as { madeUpKg: number }[])[0];
-    expect(visit.madeUpKg).toBeCloseTo(3.1, 6);
+    expect(res.body.stats.detail.totalMadeUpKg365).toBeCloseTo(3.1, 6);
+    // The figures travel without the per-visit and per-snapshot series; the timeline brings the snapshots.
+    expect(res.body.stats.detail).not.toHaveProperty('visits');
+    expect(res.body.stats.detail).not.toHaveProperty('snapshots');
+    const timeline = await agent.get(`/api/units/${unit.id}/timeline`);
+    expect(timeline.status).toBe(200);
+    const engine = computeUnitStats(
+      { refrigerant: unit.refrigerant, nominalChargeKg: 5, commissionedOn: unit.commissionedOn },
+      [{ kind: 'pressure', at: '2026-06-01T09:30:00.000Z', visitId: String(res.body.visitId), suctionKPaG: 120, dischargeKPaG: 950, ambientC: 24, sightGlass: 'full' }],
+      now.toISOString(),
+      DEFAULT_SETTINGS,
+    );
+    expect(timeline.body.snapshots).toEqual(JSON.parse(JSON.stringify(engine.snapshots)));
+    expect(timeline.body.snapshots[0].condensingC).toEqual(expect.any(Number));
   });
 
   it('saves nothing when one entry is invalid, and names the failing field', async () => {

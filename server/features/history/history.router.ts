@@ -84,7 +84,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
     }),
     route('get', '/api/units/:id/timeline', 'view:unit', async (req, res) => {
       const { id } = numericId.parse(req.params);
-      res.json(await getUnitTimeline(ctx.db, id));
+      res.json(await getUnitTimeline(ctx.db, id, ctx.clock.now()));
     }),
   ];
 }

@@ -14,13 +14,15 @@ import {
   type EventDto,
   type RecordVisitInput,
   type RecordVisitResultDto,
-  type TimelineEventDto,
   type UnitHistoryDto,
+  type UnitOverviewDto,
+  type UnitTimelineDto,
   type VisitEventInput,
 } from '../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { getSettings } from '../settings/settings.service';
-import { recomputeUnitStats, toStatsDto, type UnitStatsRow } from './stats.service';
+import { computeUnitStats } from '../../../shared/domain';
+import { engineUnit, ENGINE_EVENT_COLUMNS, lockUnitForHistory, recomputeUnitStats, toEngineEvent, toStatsDto, type UnitStatsRow } from './stats.service';
 import { applyToFleetMonthly } from '../fleet/fleet-monthly.service';
 
 export type StatsChangeHook = (
@@ -95,27 +97,30 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
   if (visit.recordedBy !== user.id || visit.unitId !== input.unitId) {
     throw conflict('This submission key was already used for another visit.');
   }
-  const evs = await eventDtos(db, and(eq(events.visitId, visit.id))!);
+  const evs = await eventDtos(db, eq(events.visitId, visit.id));
   const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, visit.unitId));
   return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
 }
+
+const MOVEMENT_KINDS = new Set<string>(['top_up', 'recovery', 'recharge']);
 
 export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput, onStats?: StatsChangeHook) {
   const earlier = await replay(ctx.db, user, input);
   if (earlier) return earlier;
   const now = ctx.clock.now();
   try {
-    const visitId = await ctx.db.transaction(async (tx) => {
+    const { visitId, after } = await ctx.db.transaction(async (tx) => {
       // Locking the unit row serialises writes per unit, so each statistics row matches its history.
-      const [unit] = await tx.select().from(units).where(eq(units.id, input.unitId)).for('update');
-      if (!unit) throw notFound('No such unit.');
+      const locked = await lockUnitForHistory(tx, input.unitId);
+      if (!locked) throw notFound('No such unit.');
+      const { unit } = locked;
       if (unit.status === 'retired' && input.events.some((e) => e.kind !== 'note' && e.kind !== 'status_change')) {
         throw conflict('This unit is retired. Record a status change first if it is back in service.');
       }
       const issues = visitPlausibilityIssues(unit, input, now);
       if (Object.keys(issues).length) throw badRequest('Some entries are not plausible.', issues);
       const siteId = input.siteId ?? unit.siteId ?? null;
-      if (input.siteId) {
+      if (input.siteId && input.siteId !== unit.siteId) {
         const [site] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, input.siteId));
         if (!site) throw badRequest('Choose a known site.', { siteId: 'Unknown site' });
       }
@@ -135,19 +140,20 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
           enteredAt: now,
         })),
       );
-      await applyToFleetMonthly(tx, [inserted.id]);
+      // Only refrigerant movements change the monthly made-up totals.
+      if (input.events.some((e) => MOVEMENT_KINDS.has(e.kind))) await applyToFleetMonthly(tx, [inserted.id]);
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
       if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
         await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
         await tx.insert(unitChanges).values({ unitId: unit.id, userId: user.id, at: now, field: 'status', before: unit.status, after: statusChange.status });
       }
-      const { before, after } = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx));
-      await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
-      return inserted.id;
+      const change = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx), { unit, before: locked.stats });
+      await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
+      return { visitId: inserted.id, after: change.after };
     });
-    const evs = await eventDtos(ctx.db, eq(events.visitId, visitId));
-    const [stats] = await ctx.db.select().from(unitStats).where(eq(unitStats.unitId, input.unitId));
-    return { visitId, replayed: false, events: evs, stats: toStatsDto(stats) } satisfies RecordVisitResultDto;
+    // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
+    const evs = await eventDtos(ctx.db, eq(events.visitId, visitId), { withAttachments: false });
+    return { visitId, replayed: false, events: evs, stats: toStatsDto(after) } satisfies RecordVisitResultDto;
   } catch (err) {
     // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
     if (isDuplicateKey(err)) {
@@ -160,10 +166,11 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
 
 export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: number, reason: string, onStats?: StatsChangeHook) {
   const now = ctx.clock.now();
-  const unitId = await ctx.db.transaction(async (tx) => {
+  const after = await ctx.db.transaction(async (tx) => {
     const [target] = await tx.select().from(events).where(eq(events.id, eventId));
     if (!target) throw notFound('No such entry.');
-    const [unit] = await tx.select().from(units).where(eq(units.id, target.unitId)).for('update');
+    const locked = (await lockUnitForHistory(tx, target.unitId))!;
+    const { unit } = locked;
     if (target.kind === 'void') throw conflict('A correction cannot itself be voided.');
     if (!can(user, 'void:event:any')) {
       if (!can(user, 'void:event:own')) throw forbidden('Your role cannot void entries.');
@@ -185,13 +192,12 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
       note: reason,
     });
     if (target.visitId != null) await applyToFleetMonthly(tx, [target.visitId]);
-    const { before, after } = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx));
-    await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
-    return target.unitId;
+    const change = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx), { unit, before: locked.stats });
+    await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
+    return change.after;
   });
   const [dto] = await eventDtos(ctx.db, eq(events.id, eventId));
-  const [stats] = await ctx.db.select().from(unitStats).where(eq(unitStats.unitId, unitId));
-  return { event: dto, stats: toStatsDto(stats) };
+  return { event: dto, stats: toStatsDto(after) };
 }
 
 // --- reading ------------------------------------------------------------------------------------------------
@@ -199,10 +205,14 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
 const voider = alias(events, 'voider');
 const voiderUser = alias(users, 'voider_user');
 
-async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, limit?: number, forceIndex?: string): Promise<EventDto[]> {
+type EventQuery = { limit?: number; forceIndex?: string; withAttachments?: boolean };
+
+async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, opts: EventQuery = {}): Promise<EventDto[]> {
+  const { limit, forceIndex, withAttachments = true } = opts;
   let q = db
     .select({
       e: events,
+      hasFiles: sql<number>`EXISTS (SELECT 1 FROM ${attachments} WHERE ${attachments.eventId} = ${events.id})`,
       siteName: sites.name,
       userName: users.name,
       voidId: voider.id,
@@ -221,7 +231,8 @@ async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, limit?: numbe
     .$dynamic();
   if (limit) q = q.limit(limit);
   const rows = await q;
-  const ids = rows.map((r) => r.e.id);
+  // Most entries carry no files: the list of those that do saves a query on most pages.
+  const ids = withAttachments ? rows.filter((r) => Number(r.hasFiles)).map((r) => r.e.id) : [];
   const files = ids.length ? await db.select().from(attachments).where(inArray(attachments.eventId, ids)) : [];
   const byEvent = new Map<number, AttachmentDto[]>();
   for (const f of files) {
@@ -284,6 +295,10 @@ async function requireUnit(db: DbOrTx, unitId: number) {
 
 export async function getUnitHistory(db: Db, unitId: number, before?: number, limit = HISTORY_PAGE_SIZE): Promise<UnitHistoryDto> {
   await requireUnit(db, unitId);
+  return historyPage(db, unitId, before, limit);
+}
+
+async function historyPage(db: Db, unitId: number, before: number | undefined, limit: number): Promise<UnitHistoryDto> {
   const base = and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`)!;
   let where = base;
   if (before) {
@@ -294,48 +309,59 @@ export async function getUnitHistory(db: Db, unitId: number, before?: number, li
     where = and(base, or(lt(events.occurredAt, cursor.at), and(eq(events.occurredAt, cursor.at), lt(events.id, before))))!;
   }
   // Forced: with sampled statistics the optimizer may start from users and read a person's whole history.
-  const list = await eventDtos(db, where as ReturnType<typeof eq>, limit + 1, 'events_unit_time_idx');
+  const list = await eventDtos(db, where as ReturnType<typeof eq>, { limit: limit + 1, forceIndex: 'events_unit_time_idx' });
   const more = list.length > limit;
   const page = more ? list.slice(0, limit) : list;
   return { events: page, nextBefore: more ? page[page.length - 1].id : null };
 }
 
-export async function getUnitOverview(db: Db, unitId: number) {
-  const history = await getUnitHistory(db, unitId);
-  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, unitId));
-  return { stats: stats ? toStatsDto(stats) : null, history };
+/** The unit page's first read: the figures and the first page of the history. */
+export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverviewDto> {
+  const [found] = await db
+    .select({ id: units.id, stats: unitStats })
+    .from(units)
+    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+    .where(eq(units.id, unitId));
+  if (!found) throw notFound('No such unit.');
+  const history = await historyPage(db, unitId, undefined, HISTORY_PAGE_SIZE);
+  return { stats: found.stats ? toStatsDto(found.stats) : null, history };
 }
 
-export async function getUnitTimeline(db: Db, unitId: number): Promise<{ events: TimelineEventDto[] }> {
-  await requireUnit(db, unitId);
+/** Every event of the unit, oldest first, compact; and the pressure snapshots the engine derives from them now. */
+export async function getUnitTimeline(db: Db, unitId: number, now: Date): Promise<UnitTimelineDto> {
+  const [unit] = await db
+    .select({ refrigerant: units.refrigerant, nominalChargeKg: units.nominalChargeKg, commissionedOn: units.commissionedOn, createdAt: units.createdAt })
+    .from(units)
+    .where(eq(units.id, unitId));
+  if (!unit) throw notFound('No such unit.');
   const rows = await db
     .select({
       id: events.id,
-      visitId: events.visitId,
-      kind: events.kind,
-      occurredAt: events.occurredAt,
-      kg: events.kg,
-      leakFound: events.leakFound,
-      location: events.location,
-      verified: events.verified,
-      passed: events.passed,
-      suctionKPaG: events.suctionKPaG,
-      dischargeKPaG: events.dischargeKPaG,
-      ambientC: events.ambientC,
-      sightGlass: events.sightGlass,
       voided: sql<number>`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = \`events\`.\`id\`)`,
+      ...ENGINE_EVENT_COLUMNS,
     })
     .from(events)
     .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`))
     .orderBy(events.occurredAt, events.id);
+  const counted = rows.filter((r) => !Number(r.voided)).flatMap((r) => toEngineEvent(r) ?? []);
+  const { snapshots } = computeUnitStats(engineUnit(unit), counted, now.toISOString(), await getSettings(db));
   return {
     events: rows.map((r) => ({
-      ...r,
+      id: r.id,
+      visitId: r.visitId,
+      kind: r.kind,
       occurredAt: r.occurredAt.toISOString(),
+      kg: r.kg,
       leakFound: r.leakFound == null ? null : Boolean(r.leakFound),
+      location: r.location,
       verified: r.verified == null ? null : Boolean(r.verified),
       passed: r.passed == null ? null : Boolean(r.passed),
+      suctionKPaG: r.suctionKPaG,
+      dischargeKPaG: r.dischargeKPaG,
+      ambientC: r.ambientC,
+      sightGlass: r.sightGlass,
       voided: Boolean(Number(r.voided)),
     })),
+    snapshots,
   };
 }

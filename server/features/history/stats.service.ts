@@ -5,7 +5,7 @@ import type { DbOrTx } from '../../db/client';
 import { events, units, unitStats } from '../../db/schema';
 import { computeUnitStats } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
-import type { UnitStatsDto } from '../../../shared/schemas/history';
+import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/history';
 
 type EngineEvent = Parameters<typeof computeUnitStats>[1][number];
 type EngineUnit = Parameters<typeof computeUnitStats>[0];
@@ -111,6 +111,12 @@ export function engineUnit(u: { refrigerant: string; nominalChargeKg: number; co
 
 type EngineResult = ReturnType<typeof computeUnitStats>;
 
+/** The engine result without its series: what the row keeps (the timeline derives the series on read). */
+export function statsSummary(r: EngineResult): UnitStatsSummary {
+  const { visits: _visits, snapshots: _snapshots, ...summary } = r;
+  return summary;
+}
+
 export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, lastEventAt: Date | null): UnitStatsRow {
   return {
     unitId,
@@ -137,26 +143,47 @@ export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, 
     visitCount: r.counts.visits,
     topUpCount: r.counts.topUps,
     lastEventAt,
-    detail: r as unknown as Record<string, unknown>,
+    detail: statsSummary(r) as unknown as Record<string, unknown>,
   };
 }
 
-/** Recomputes and stores the unit's statistics; returns the row before and after (for alerts). */
+type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number };
+
+/** The unit row locked for a write to its history, with its statistics row as it stands (null before the first). */
+export async function lockUnitForHistory(tx: DbOrTx, unitId: number) {
+  const [row] = await tx
+    .select({ unit: units, stats: unitStats })
+    .from(units)
+    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+    .where(eq(units.id, unitId))
+    .for('update');
+  return row ?? null;
+}
+
+/**
+ * Recomputes and stores the unit's statistics; returns the row before and after (for alerts). `known` passes the unit
+ * and its previous row when the caller has just read them (lockUnitForHistory), saving two reads.
+ */
 export async function recomputeUnitStats(
   tx: DbOrTx,
   unitId: number,
   asOf: Date,
   settings: Settings,
+  known?: { unit: StatsUnit; before: UnitStatsRow | null },
 ): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow }> {
-  const [unit] = await tx.select().from(units).where(eq(units.id, unitId));
-  const [before] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  let unit = known?.unit;
+  let before = known?.before ?? null;
+  if (!known) {
+    [unit] = await tx.select().from(units).where(eq(units.id, unitId));
+    [before = null] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  }
   const history = await loadEngineHistory(tx, unitId);
-  const result = computeUnitStats(engineUnit(unit), history, iso(asOf), settings);
+  const result = computeUnitStats(engineUnit(unit!), history, iso(asOf), settings);
   const last = history.length ? new Date(history[history.length - 1].at) : null;
   const after = statsRowFrom(unitId, result, asOf, last);
   const { unitId: _id, ...rest } = after;
   await tx.insert(unitStats).values(after).onDuplicateKeyUpdate({ set: rest });
-  return { before: before ?? null, after };
+  return { before, after };
 }
 
 export function toStatsDto(row: UnitStatsRow): UnitStatsDto {
@@ -176,6 +203,6 @@ export function toStatsDto(row: UnitStatsRow): UnitStatsDto {
     forecast: row.forecastDate
       ? { date: row.forecastDate, earliest: row.forecastEarliest, latest: row.forecastLatest, overdue: Boolean(row.forecastOverdue) }
       : null,
-    detail: (row.detail as Record<string, unknown> | null) ?? null,
+    detail: (row.detail as unknown as UnitStatsSummary | null) ?? null,
   };
 }

@@ -13,6 +13,7 @@ describe('computeUnitStats on the DOMAIN.md §6 unit', () => {
     // Our definition (DOMAIN.md §6): 0.8 kg / 5 kg × 100 = 16 %
     expect(s.rollingLeakRatePct).toBe(16);
     expect(s.rollingSince).toBe(day(-149));
+    expect(s.rollingSinceRepair).toBe(true);
     expect(s.totalMadeUpKg365).toBe(3);
     expect(s.leakRateAboveThreshold).toBe(false);
   });
@@ -168,6 +169,7 @@ describe('history edges', () => {
       totalMadeUpKg365: 0,
       forecast: null,
       forecastReason: 'no_leak_evidence',
+      rollingSinceRepair: false,
       openLeak: null,
       lastLeakCheckAt: null,
       ptiPassed: null,

@@ -1,13 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { TimelineEventDto } from '../../../../shared/schemas/history';
+import type { UnitTimelineDto } from '../../../../shared/schemas/history';
 import { apiClient } from '../../../lib/api-client';
 import { historyKeys } from './keys';
 
-export async function getTimeline(unitId: number, signal?: AbortSignal): Promise<TimelineEventDto[]> {
-  return (await apiClient.get<{ events: TimelineEventDto[] }>(`/api/units/${unitId}/timeline`, { signal })).events;
+export async function getTimeline(unitId: number, signal?: AbortSignal): Promise<UnitTimelineDto> {
+  return apiClient.get<UnitTimelineDto>(`/api/units/${unitId}/timeline`, { signal });
 }
 
-/** Every event of the unit, oldest first, compact: what the timeline draws. */
+/** Every event of the unit, oldest first, compact, and its pressure snapshots: what the timeline and trend draw. */
 export function timelineQuery(unitId: number) {
   return queryOptions({
     queryKey: historyKeys.timeline(unitId),

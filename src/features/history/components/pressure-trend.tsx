@@ -20,19 +20,19 @@ type Point = PressureSnapshot & { t: number };
  * the unit's own post-charge baseline expects at that ambient (ambient + baseline approach). A condensing line
  * sinking below the expected one is the drift that hints at a low charge.
  */
-export function PressureTrend({ stats }: { stats: UnitStatsDto | null }) {
+export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null; snapshots: readonly PressureSnapshot[] }) {
   const detail = statsDetail(stats);
   const { parentRef, width } = useParentSize({ debounceTime: 50, initialSize: { width: 360 } });
   const { tooltipOpen, tooltipData, tooltipLeft, showTooltip, hideTooltip } = useTooltip<Point>();
   const points = useMemo<Point[]>(
-    () => (detail?.snapshots ?? []).map((s) => ({ ...s, t: parseISO(s.at).getTime() })),
-    [detail],
+    () => snapshots.map((s) => ({ ...s, t: parseISO(s.at).getTime() })),
+    [snapshots],
   );
   const health = detail?.pressureHealth;
   const baseline = health?.baselineApproachK ?? null;
 
   const usable = points.filter((p) => p.condensingC !== null || p.evaporatingC !== null);
-  if (!detail || usable.length === 0) {
+  if (usable.length === 0) {
     return (
       <p className="rounded-md border-2 border-dashed border-ink-300 bg-white px-4 py-3 text-ink-700">
         No pressure readings with a saturation temperature yet. A pressure reading with suction and discharge draws the

@@ -120,7 +120,7 @@ export function ServiceHistory({
           ) : (
             <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
               <UnitTimeline
-                events={timeline.data}
+                events={timeline.data.events}
                 stats={overview.data?.stats ?? null}
                 commissionedOn={commissionedOn}
               />
@@ -131,9 +131,15 @@ export function ServiceHistory({
 
       {hasHistory && (
         <Section id="unit-pressure-title" title="Pressure trend">
-          <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
-            <PressureTrend stats={overview.data?.stats ?? null} />
-          </div>
+          {timeline.isPending ? (
+            <Loading what="the pressure trend" />
+          ) : timeline.isError ? (
+            <p className="text-ink-700">The pressure trend comes with the timeline, which could not be loaded.</p>
+          ) : (
+            <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
+              <PressureTrend stats={overview.data?.stats ?? null} snapshots={timeline.data.snapshots} />
+            </div>
+          )}
         </Section>
       )}
 

@@ -231,7 +231,7 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
           label="Leak rate"
           testId="leak-rate"
           tone={detail?.leakRateAboveThreshold ? 'heed' : undefined}
-          detail={detail ? (detail.rollingSince && detail.visits.some((v) => v.verifiedRepair) ? `Since ${fmtDay(detail.rollingSince)}` : 'Rolling 12 months') : undefined}
+          detail={detail ? (detail.rollingSinceRepair ? `Since ${fmtDay(detail.rollingSince)}` : 'Rolling 12 months') : undefined}
         >
           {fmtPct(stats.rollingLeakRatePct)}
           <span className="text-sm font-semibold text-ink-600"> of charge</span>

@@ -1,9 +1,8 @@
-import type { UnitStats } from '../../../../shared/domain';
-import type { UnitStatsDto } from '../../../../shared/schemas/history';
+import type { UnitStatsDto, UnitStatsSummary } from '../../../../shared/schemas/history';
 
-/** `stats.detail` is the engine's whole result (shared/domain computeUnitStats); typed here, read-only. */
-export function statsDetail(stats: UnitStatsDto | null | undefined): UnitStats | null {
+/** `stats.detail` is the engine's result without its series (shared/domain computeUnitStats); read-only. */
+export function statsDetail(stats: UnitStatsDto | null | undefined): UnitStatsSummary | null {
   const d = stats?.detail;
-  if (!d || typeof d !== 'object' || !('score' in d) || !('visits' in d)) return null;
-  return d as unknown as UnitStats;
+  if (!d || typeof d !== 'object' || !('score' in d) || !('pressureHealth' in d)) return null;
+  return d;
 }
