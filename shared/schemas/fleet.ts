@@ -118,6 +118,8 @@ export type LeakRateBinDto = { fromPct: number; toPct: number | null; units: num
 
 export type FleetOverviewDto = {
   asOf: string;
+  /** When the distribution, chronic leakers and leak checks due were read (they are shared for a few seconds). */
+  figuresAt: string;
   units: number;
   leakRate: { zero: number; bins: LeakRateBinDto[]; thresholdPct: number };
   emissions: {

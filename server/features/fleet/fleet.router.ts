@@ -10,7 +10,7 @@ import {
 import { ensureStatsRows, refreshRepairEffectivenessIfStale, startRepairEffectiveness } from '../jobs/jobs.service';
 import { dayText, sendCsv, streamRows } from './csv-stream';
 import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, shouldForceSortIndex, todayOf, toFleetRow } from './fleet.service';
-import { fleetOverview } from './overview.service';
+import { createOverviewCache, fleetOverview } from './overview.service';
 import { markForInspection, traceCharges, traceChargesQuery } from './traceability.service';
 
 const FLEET_CSV_COLUMNS = [
@@ -35,7 +35,12 @@ const FLEET_CSV_COLUMNS = [
 
 const TRACE_CSV_COLUMNS = ['Date', 'Container number', 'Refrigerant', 'Entry', 'kg', 'Cylinder or lot', 'Site', 'Recorded by', 'Event id'];
 
+// The repair-effectiveness table's age is looked at on overview reads, at most this often.
+const REPAIR_AGE_CHECK_MS = 60_000;
+
 export function fleetRoutes(ctx: AppContext) {
+  const overviewCache = createOverviewCache();
+  let repairAgeCheckedAt = 0;
   return [
     route('get', '/api/fleet', 'view:fleet', async (req, res) => {
       const q = fleetQuerySchema.parse(req.query);
@@ -85,8 +90,11 @@ export function fleetRoutes(ctx: AppContext) {
     route('get', '/api/fleet/overview', 'view:fleet', async (req, res) => {
       const q = fleetOverviewQuerySchema.parse(req.query);
       // Rebuilt in the background when old; this answer shows the figures as they are.
-      void refreshRepairEffectivenessIfStale(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'repair effectiveness refresh'));
-      res.json(await fleetOverview(ctx.db, q, ctx.clock.now()));
+      if (Date.now() - repairAgeCheckedAt > REPAIR_AGE_CHECK_MS) {
+        repairAgeCheckedAt = Date.now();
+        void refreshRepairEffectivenessIfStale(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'repair effectiveness refresh'));
+      }
+      res.json(await fleetOverview(ctx.db, q, ctx.clock.now(), overviewCache));
     }),
     route('post', '/api/fleet/repair-effectiveness/refresh', 'view:fleet', async (req, res) => {
       res.status(202).json({ job: await startRepairEffectiveness(ctx, req.user!.id) });

@@ -1,6 +1,7 @@
 // The fleet overview: leak-rate distribution, made-up refrigerant per month, the chronic leakers, repair
 // effectiveness and leak checks coming due. Every part reads an index or a small pre-aggregated table.
 import { and, asc, count, desc, eq, gt, gte, lt, lte, sql, type SQL } from 'drizzle-orm';
+import { LRUCache } from 'lru-cache';
 import type { Db } from '../../db/client';
 import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats } from '../../db/schema';
 import { co2eTonnes } from '../../../shared/domain';
@@ -27,15 +28,33 @@ export function monthsBack(today: string, months: number): string[] {
   return out;
 }
 
-export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): Promise<FleetOverviewDto> {
-  const today = todayOf(now);
-  const settings = await getSettings(db);
+type UnitFigures = Awaited<ReturnType<typeof readUnitFigures>>;
+type FiguresContext = { db: Db; q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>; today: string };
+
+/**
+ * The parts read from every unit's statistics row (distribution, chronic leakers, leak checks due) cost a scan of
+ * the fleet, so they are kept for a few seconds and shared by every request in that time; requests arriving while
+ * they are being read wait for that one read. The answer says when they were taken.
+ */
+export function createOverviewCache(ttlMs = 15_000) {
+  return new LRUCache<string, UnitFigures & { at: Date }, FiguresContext>({
+    max: 500,
+    ttl: ttlMs,
+    fetchMethod: async (_key, _stale, { context }) => ({ ...(await readUnitFigures(context.db, context.q, context.today)), at: new Date() }),
+  });
+}
+export type OverviewCache = ReturnType<typeof createOverviewCache>;
+
+function unitFilters(q: FiguresContext['q']): SQL[] {
   const unitWhere: SQL[] = [];
   if (q.siteId) unitWhere.push(eq(units.siteId, q.siteId));
   if (q.refrigerant) unitWhere.push(eq(units.refrigerant, q.refrigerant));
-  const filtered = unitWhere.length > 0;
-  const months = monthsBack(today, q.months);
+  return unitWhere;
+}
 
+async function readUnitFigures(db: Db, q: FiguresContext['q'], today: string) {
+  const unitWhere = unitFilters(q);
+  const filtered = unitWhere.length > 0;
   const bin = sql<number>`CASE WHEN ${unitStats.rollingLeakRatePct} <= 0 THEN -1 ELSE LEAST(FLOOR(${unitStats.rollingLeakRatePct} / ${BIN_PCT}), ${TOP_BIN}) END`;
   const histogramQuery = filtered
     ? db
@@ -45,17 +64,6 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): P
         .where(and(...unitWhere))
         .groupBy(bin)
     : db.select({ bin, n: count() }).from(unitStats).groupBy(bin);
-
-  const monthWhere: SQL[] = [gte(fleetMonthly.month, months[0])];
-  if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
-  if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
-  const emissionsQuery = db
-    .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
-    .from(fleetMonthly)
-    .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
-    .where(and(...monthWhere))
-    .orderBy(asc(fleetMonthly.month));
-
   const chronicQuery = db
     .select({
       unitId: units.id,
@@ -91,13 +99,31 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): P
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .where(and(lt(unitStats.nextLeakCheckDue, today), sql`${units.status} <> 'retired'`, ...unitWhere));
 
-  const [histogram, emissions, chronic, dueList, [dueCount], [overdue], repairs] = await Promise.all([
-    histogramQuery,
-    emissionsQuery,
-    chronicQuery,
-    dueListQuery,
-    dueCountQuery,
-    overdueQuery,
+  const [histogram, chronic, dueList, [dueCount], [overdue]] = await Promise.all([histogramQuery, chronicQuery, dueListQuery, dueCountQuery, overdueQuery]);
+  return { histogram, chronic, dueList, dueCount: Number(dueCount.n), overdue: Number(overdue.n) };
+}
+
+export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, cache?: OverviewCache): Promise<FleetOverviewDto> {
+  const today = todayOf(now);
+  const settings = await getSettings(db);
+  const months = monthsBack(today, q.months);
+  const figuresQ = { siteId: q.siteId, refrigerant: q.refrigerant };
+  const context: FiguresContext = { db, q: figuresQ, today };
+  const figures = cache
+    ? await cache.fetch(JSON.stringify([today, figuresQ.siteId ?? null, figuresQ.refrigerant ?? null]), { context })
+    : { ...(await readUnitFigures(db, figuresQ, today)), at: new Date() };
+  const { histogram, chronic, dueList, dueCount, overdue } = figures!;
+
+  const monthWhere: SQL[] = [gte(fleetMonthly.month, months[0])];
+  if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
+  if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
+  const [emissions, repairs] = await Promise.all([
+    db
+      .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
+      .from(fleetMonthly)
+      .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
+      .where(and(...monthWhere))
+      .orderBy(asc(fleetMonthly.month)),
     db.select().from(repairEffectivenessRows).orderBy(desc(repairEffectivenessRows.repairs)),
   ]);
 
@@ -126,6 +152,7 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): P
 
   return {
     asOf: today,
+    figuresAt: figures!.at.toISOString(),
     units: total,
     leakRate: { zero, bins, thresholdPct: settings.leakRateThresholdPct },
     emissions: { months, gwpBasis: basis, rows: emissionRows },
@@ -157,8 +184,8 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date): P
     },
     leakChecksDue: {
       days: LEAK_CHECK_DUE_DAYS,
-      count: Number(dueCount.n),
-      overdue: Number(overdue.n),
+      count: dueCount,
+      overdue,
       units: dueList.map((d) => ({ unitId: d.unitId, containerNumber: d.containerNumber, site: d.siteName, due: String(d.due).slice(0, 10) })),
     },
   };
