@@ -58,7 +58,14 @@ describe('recording a visit', () => {
     expect(timeline.status).toBe(200);
     const engine = computeUnitStats(
       { refrigerant: unit.refrigerant, nominalChargeKg: 5, commissionedOn: unit.commissionedOn },
-      [{ kind: 'pressure', at: '2026-06-01T09:30:00.000Z', visitId: String(res.body.visitId), suctionKPaG: 120, dischargeKPaG: 950, ambientC: 24, sightGlass: 'full' }],
+      // The same visit as the engine sees it: the recharge sets the pressure baseline the snapshot drifts from.
+      [
+        { kind: 'leak_check', leakFound: true, location: 'service_valve' },
+        { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true },
+        { kind: 'recovery', kg: 1.9, excluded: false },
+        { kind: 'recharge', kg: 5.0, excluded: false },
+        { kind: 'pressure', suctionKPaG: 120, dischargeKPaG: 950, ambientC: 24, sightGlass: 'full' },
+      ].map((e) => ({ ...e, at: '2026-06-01T09:30:00.000Z', visitId: String(res.body.visitId) }) as never),
       now.toISOString(),
       DEFAULT_SETTINGS,
     );
