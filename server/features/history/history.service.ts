@@ -21,7 +21,7 @@ import {
 } from '../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { getSettings } from '../settings/settings.service';
-import { computeUnitStats } from '../../../shared/domain';
+import { computeUnitStats, REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
 import { engineUnit, ENGINE_EVENT_COLUMNS, lockUnitForHistory, recomputeUnitStats, toEngineEvent, toStatsDto, type UnitStatsRow } from './stats.service';
 import { applyToFleetMonthly } from '../fleet/fleet-monthly.service';
 
@@ -102,8 +102,6 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
   return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
 }
 
-const MOVEMENT_KINDS = new Set<string>(['top_up', 'recovery', 'recharge']);
-
 export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput, onStats?: StatsChangeHook) {
   const earlier = await replay(ctx.db, user, input);
   if (earlier) return earlier;
@@ -141,7 +139,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
         })),
       );
       // Only refrigerant movements change the monthly made-up totals.
-      if (input.events.some((e) => MOVEMENT_KINDS.has(e.kind))) await applyToFleetMonthly(tx, [inserted.id]);
+      if (input.events.some((e) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(e.kind))) await applyToFleetMonthly(tx, [inserted.id]);
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
       if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
         await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
