@@ -1,5 +1,6 @@
 // All session handling sits behind this module (lucia v3 is frozen upstream, so it must stay replaceable).
-import { Lucia, TimeSpan } from 'lucia';
+import { Lucia, TimeSpan, type DatabaseSession, type DatabaseUser } from 'lucia';
+import { eq, getTableColumns, sql } from 'drizzle-orm';
 import { DrizzleMySQLAdapter } from '@lucia-auth/adapter-drizzle';
 import type { Request, Response } from 'express';
 import type { Db } from '../db/client';
@@ -28,8 +29,33 @@ export type SessionUser = {
   createdAt: Date;
 };
 
+/** The Drizzle adapter, with the lookup every request makes built once (a prepared query) and without the hash. */
+class SessionAdapter extends DrizzleMySQLAdapter {
+  private readonly lookup;
+  constructor(db: Db) {
+    super(db, sessions, users);
+    const { passwordHash: _hash, ...userColumns } = getTableColumns(users);
+    this.lookup = db
+      .select({ user: userColumns, session: getTableColumns(sessions) })
+      .from(sessions)
+      .innerJoin(users, eq(sessions.userId, users.id))
+      .where(eq(sessions.id, sql.placeholder('id')))
+      .prepare();
+  }
+  override async getSessionAndUser(sessionId: string): Promise<[DatabaseSession | null, DatabaseUser | null]> {
+    const [row] = await this.lookup.execute({ id: sessionId });
+    if (!row) return [null, null];
+    const { id, userId, expiresAt, ...sessionAttributes } = row.session;
+    const { id: uid, ...userAttributes } = row.user;
+    return [
+      { id, userId, expiresAt, attributes: sessionAttributes },
+      { id: uid, attributes: userAttributes as unknown as UserAttributes },
+    ];
+  }
+}
+
 function buildLucia(db: Db) {
-  const adapter = new DrizzleMySQLAdapter(db, sessions, users);
+  const adapter = new SessionAdapter(db);
   return new Lucia(adapter, {
     // Sessions last 14 days and are renewed when used in their second half.
     sessionExpiresIn: new TimeSpan(SESSION_DAYS, 'd'),
