@@ -1,6 +1,6 @@
 // Recomputes a unit's statistics from its whole history with the domain engine and stores them in unit_stats.
 // Runs inside the caller's transaction so the figures always match the events they came from.
-import { and, asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { events, units, unitStats } from '../../db/schema';
 import { computeUnitStats } from '../../../shared/domain';
@@ -147,6 +147,13 @@ export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, 
   };
 }
 
+// On a key clash every column takes the value just sent, so the row's text travels once.
+const STATS_UPSERT_SET = Object.fromEntries(
+  Object.entries(getTableColumns(unitStats))
+    .filter(([key]) => key !== 'unitId')
+    .map(([key, column]) => [key, sql`values(${column})`]),
+);
+
 type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number };
 
 /** The unit row locked for a write to its history, with its statistics row as it stands (null before the first). */
@@ -181,8 +188,7 @@ export async function recomputeUnitStats(
   const result = computeUnitStats(engineUnit(unit!), history, iso(asOf), settings);
   const last = history.length ? new Date(history[history.length - 1].at) : null;
   const after = statsRowFrom(unitId, result, asOf, last);
-  const { unitId: _id, ...rest } = after;
-  await tx.insert(unitStats).values(after).onDuplicateKeyUpdate({ set: rest });
+  await tx.insert(unitStats).values(after).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
   return { before, after };
 }
 
