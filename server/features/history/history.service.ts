@@ -1,5 +1,5 @@
 // Recording visits and voids (append-only), and reading a unit's history.
-import { and, desc, eq, inArray, lt, or, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db, DbOrTx } from '../../db/client';
 import { attachments, events, sites, unitChanges, units, unitStats, users, visits } from '../../db/schema';
@@ -92,13 +92,13 @@ function isDuplicateKey(err: unknown): boolean {
 }
 
 async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promise<RecordVisitResultDto | null> {
-  const [visit] = await db.select().from(visits).where(eq(visits.idempotencyKey, input.idempotencyKey));
+  const [visit] = await reads(db).visitByKey.execute({ key: input.idempotencyKey });
   if (!visit) return null;
   if (visit.recordedBy !== user.id || visit.unitId !== input.unitId) {
     throw conflict('This submission key was already used for another visit.');
   }
-  const evs = await eventDtos(db, eq(events.visitId, visit.id));
-  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, visit.unitId));
+  const evs = await eventDtos(db, await reads(db).visitEvents.execute({ visitId: visit.id }));
+  const [stats] = await reads(db).statsOf.execute({ unitId: visit.unitId });
   return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
 }
 
@@ -107,7 +107,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
   if (earlier) return earlier;
   const now = ctx.clock.now();
   try {
-    const { visitId, after } = await ctx.db.transaction(async (tx) => {
+    const { visitId, after, monthlyChanged } = await ctx.db.transaction(async (tx) => {
       // Locking the unit row serialises writes per unit, so each statistics row matches its history.
       const locked = await lockUnitForHistory(tx, input.unitId);
       if (!locked) throw notFound('No such unit.');
@@ -139,7 +139,8 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
         })),
       );
       // Only refrigerant movements change the monthly made-up totals.
-      if (input.events.some((e) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(e.kind))) await applyToFleetMonthly(tx, [inserted.id]);
+      const monthlyChanged = input.events.some((e) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(e.kind));
+      if (monthlyChanged) await applyToFleetMonthly(tx, [inserted.id]);
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
       if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
         await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
@@ -147,10 +148,10 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
       }
       const change = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx), { unit, before: locked.stats });
       await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-      return { visitId: inserted.id, after: change.after };
+      return { visitId: inserted.id, after: change.after, monthlyChanged };
     });
     // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
-    const evs = await eventDtos(ctx.db, eq(events.visitId, visitId), { withAttachments: false });
+    const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId }), false);
     return { visitId, replayed: false, events: evs, stats: toStatsDto(after) } satisfies RecordVisitResultDto;
   } catch (err) {
     // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
@@ -164,7 +165,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
 
 export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: number, reason: string, onStats?: StatsChangeHook) {
   const now = ctx.clock.now();
-  const after = await ctx.db.transaction(async (tx) => {
+  const voided = await ctx.db.transaction(async (tx) => {
     const [target] = await tx.select().from(events).where(eq(events.id, eventId));
     if (!target) throw notFound('No such entry.');
     const locked = (await lockUnitForHistory(tx, target.unitId))!;
@@ -192,10 +193,10 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
     if (target.visitId != null) await applyToFleetMonthly(tx, [target.visitId]);
     const change = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx), { unit, before: locked.stats });
     await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-    return change.after;
+    return { after: change.after, monthlyChanged: target.visitId != null };
   });
-  const [dto] = await eventDtos(ctx.db, eq(events.id, eventId));
-  return { event: dto, stats: toStatsDto(after) };
+  const [dto] = await eventDtos(ctx.db, await eventQuery(ctx.db, eq(events.id, eventId)));
+  return { event: dto, stats: toStatsDto(voided.after) };
 }
 
 // --- reading ------------------------------------------------------------------------------------------------
@@ -203,11 +204,9 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
 const voider = alias(events, 'voider');
 const voiderUser = alias(users, 'voider_user');
 
-type EventQuery = { limit?: number; forceIndex?: string; withAttachments?: boolean };
-
-async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, opts: EventQuery = {}): Promise<EventDto[]> {
-  const { limit, forceIndex, withAttachments = true } = opts;
-  let q = db
+/** The event list's query up to its order: each entry with its site, author and the void that struck it out, if any. */
+function eventQuery(db: DbOrTx, where: SQL, forceIndex?: string) {
+  return db
     .select({
       e: events,
       hasFiles: sql<number>`EXISTS (SELECT 1 FROM ${attachments} WHERE ${attachments.eventId} = ${events.id})`,
@@ -227,8 +226,39 @@ async function eventDtos(db: DbOrTx, where: ReturnType<typeof eq>, opts: EventQu
     .where(where)
     .orderBy(desc(events.occurredAt), desc(events.id))
     .$dynamic();
-  if (limit) q = q.limit(limit);
-  const rows = await q;
+}
+type EventRow = Awaited<ReturnType<typeof eventQuery>>[number];
+
+const notVoidMarker = sql`${events.kind} <> 'void'`;
+// Forced: with sampled statistics the optimizer may start from users and read a person's whole history.
+const UNIT_TIME_INDEX = 'events_unit_time_idx';
+
+/** The reads every unit page and visit write makes, built once per database (Drizzle's prepared queries). */
+function prepareReads(db: Db) {
+  const ph = sql.placeholder;
+  return {
+    unitWithStats: db
+      .select({ id: units.id, stats: unitStats })
+      .from(units)
+      .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+      .where(eq(units.id, ph('unitId')))
+      .prepare(),
+    firstHistoryPage: eventQuery(db, and(eq(events.unitId, ph('unitId')), notVoidMarker)!, UNIT_TIME_INDEX)
+      .limit(ph('limit'))
+      .prepare(),
+    visitEvents: eventQuery(db, eq(events.visitId, ph('visitId'))).prepare(),
+    visitByKey: db.select().from(visits).where(eq(visits.idempotencyKey, ph('key'))).prepare(),
+    statsOf: db.select().from(unitStats).where(eq(unitStats.unitId, ph('unitId'))).prepare(),
+  };
+}
+const preparedReads = new WeakMap<Db, ReturnType<typeof prepareReads>>();
+function reads(db: Db) {
+  let r = preparedReads.get(db);
+  if (!r) preparedReads.set(db, (r = prepareReads(db)));
+  return r;
+}
+
+async function eventDtos(db: DbOrTx, rows: EventRow[], withAttachments = true): Promise<EventDto[]> {
   // Most entries carry no files: the list of those that do saves a query on most pages.
   const ids = withAttachments ? rows.filter((r) => Number(r.hasFiles)).map((r) => r.e.id) : [];
   const files = ids.length ? await db.select().from(attachments).where(inArray(attachments.eventId, ids)) : [];
@@ -297,17 +327,18 @@ export async function getUnitHistory(db: Db, unitId: number, before?: number, li
 }
 
 async function historyPage(db: Db, unitId: number, before: number | undefined, limit: number): Promise<UnitHistoryDto> {
-  const base = and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`)!;
-  let where = base;
-  if (before) {
+  let rows: EventRow[];
+  if (!before) {
+    rows = await reads(db).firstHistoryPage.execute({ unitId, limit: limit + 1 });
+  } else {
     // The list runs newest first by when the work happened; the cursor is the last event shown, so entries recorded
     // late for an earlier date are neither skipped nor repeated.
     const [cursor] = await db.select({ at: events.occurredAt }).from(events).where(and(eq(events.id, before), eq(events.unitId, unitId)));
     if (!cursor) throw badRequest('That page of the history no longer exists; reload the list.', { before: 'Unknown entry' });
-    where = and(base, or(lt(events.occurredAt, cursor.at), and(eq(events.occurredAt, cursor.at), lt(events.id, before))))!;
+    const after = or(lt(events.occurredAt, cursor.at), and(eq(events.occurredAt, cursor.at), lt(events.id, before)));
+    rows = await eventQuery(db, and(eq(events.unitId, unitId), notVoidMarker, after)!, UNIT_TIME_INDEX).limit(limit + 1);
   }
-  // Forced: with sampled statistics the optimizer may start from users and read a person's whole history.
-  const list = await eventDtos(db, where as ReturnType<typeof eq>, { limit: limit + 1, forceIndex: 'events_unit_time_idx' });
+  const list = await eventDtos(db, rows);
   const more = list.length > limit;
   const page = more ? list.slice(0, limit) : list;
   return { events: page, nextBefore: more ? page[page.length - 1].id : null };
@@ -315,11 +346,7 @@ async function historyPage(db: Db, unitId: number, before: number | undefined, l
 
 /** The unit page's first read: the figures and the first page of the history. */
 export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverviewDto> {
-  const [found] = await db
-    .select({ id: units.id, stats: unitStats })
-    .from(units)
-    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
-    .where(eq(units.id, unitId));
+  const [found] = await reads(db).unitWithStats.execute({ unitId });
   if (!found) throw notFound('No such unit.');
   const history = await historyPage(db, unitId, undefined, HISTORY_PAGE_SIZE);
   return { stats: found.stats ? toStatsDto(found.stats) : null, history };
