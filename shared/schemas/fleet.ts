@@ -125,7 +125,10 @@ export type FleetOverviewDto = {
   emissions: {
     months: string[];
     gwpBasis: 'AR4' | 'AR5';
-    rows: { month: string; site: { id: number; name: string } | null; refrigerant: string; madeUpKg: number; co2eTonnes: number }[];
+    /** Per month and site (CO2e summed over the site's refrigerants). */
+    bySite: { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }[];
+    /** Per month and refrigerant. */
+    byRefrigerant: { month: string; refrigerant: string; madeUpKg: number; co2eTonnes: number }[];
   };
   chronicLeakers: {
     unitId: number;

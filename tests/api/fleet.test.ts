@@ -163,13 +163,18 @@ describe('GET /api/fleet/overview', () => {
 
     // Made-up per visit (DOMAIN.md §4): 1.0, 1.1, max(0, 4.5 − 2.0) = 2.5, 0.9, 0.8 kg per leaker.
     const kg = (month: string, refrigerant: string) =>
-      o.emissions.rows.filter((r: { month: string; refrigerant: string }) => r.month === month && r.refrigerant === refrigerant).reduce((s: number, r: { madeUpKg: number }) => s + r.madeUpKg, 0);
+      o.emissions.byRefrigerant.filter((r: { month: string; refrigerant: string }) => r.month === month && r.refrigerant === refrigerant).reduce((s: number, r: { madeUpKg: number }) => s + r.madeUpKg, 0);
     expect(kg('2025-12', 'R-134a')).toBeCloseTo(2.5, 6);
     expect(kg('2025-07', 'R-134a')).toBeCloseTo(1.0, 6);
     expect(kg('2026-05', 'R-404A')).toBeCloseTo(0.8, 6);
-    const dec404 = o.emissions.rows.find((r: { month: string; refrigerant: string }) => r.month === '2025-12' && r.refrigerant === 'R-404A');
+    const dec404 = o.emissions.byRefrigerant.find((r: { month: string; refrigerant: string }) => r.month === '2025-12' && r.refrigerant === 'R-404A');
     expect(dec404.co2eTonnes).toBeCloseTo(co2eTonnes('R-404A', 2.5), 4);
-    expect(dec404.site).toEqual({ id: siteB.id, name: 'River terminal' });
+    // Per site, the CO2e is summed over the site's refrigerants: site B has only the R-404A leaker.
+    const decB = o.emissions.bySite.find((r: { month: string; site: { id: number } | null }) => r.month === '2025-12' && r.site?.id === siteB.id);
+    expect(decB).toMatchObject({ site: { id: siteB.id, name: 'River terminal' }, madeUpKg: 2.5 });
+    expect(decB.co2eTonnes).toBeCloseTo(co2eTonnes('R-404A', 2.5), 4);
+    const sum = (rows: { madeUpKg: number }[]) => rows.reduce((s, r) => s + r.madeUpKg, 0);
+    expect(sum(o.emissions.bySite)).toBeCloseTo(sum(o.emissions.byRefrigerant), 6);
 
     expect(o.chronicLeakers.map((c: { unitId: number }) => c.unitId).sort()).toEqual([ids.leakerA, ids.leakerB].sort());
     expect(o.chronicLeakers[0].factors[0]).toMatchObject({ name: expect.any(String), points: expect.any(Number), explanation: expect.any(String) });
@@ -197,7 +202,8 @@ describe('GET /api/fleet/overview', () => {
   it('filters by site and refrigerant, refuses technicians, and answers 400 for bad input', async () => {
     const res = await engineer.get(`/api/fleet/overview?siteId=${siteB.id}&refrigerant=R-404A`);
     expect(res.status).toBe(200);
-    expect(res.body.emissions.rows.every((r: { refrigerant: string }) => r.refrigerant === 'R-404A')).toBe(true);
+    expect(res.body.emissions.byRefrigerant.every((r: { refrigerant: string }) => r.refrigerant === 'R-404A')).toBe(true);
+    expect(res.body.emissions.bySite.every((r: { site: { id: number } | null }) => r.site?.id === siteB.id)).toBe(true);
     expect(res.body.units).toBe(1);
     const { agent } = await signInAs(app, db, 'technician');
     expect((await agent.get('/api/fleet/overview')).status).toBe(403);
@@ -210,17 +216,21 @@ describe('GET /api/fleet/overview', () => {
     expect(Number(n)).toBe(6);
   });
 
-  it('shares the fleet-wide figures for a few seconds, and reads the monthly totals fresh', async () => {
+  it('shares the fleet-wide figures for a few seconds, and the monthly totals until a write changes them', async () => {
     const query = `/api/fleet/overview?siteId=${siteA.id}`;
-    const madeUpMay = (o: { emissions: { rows: { month: string; madeUpKg: number }[] } }) =>
-      o.emissions.rows.filter((r) => r.month === '2026-05').reduce((s, r) => s + r.madeUpKg, 0);
+    const madeUpMay = (o: { emissions: { bySite: { month: string; madeUpKg: number }[] } }) =>
+      o.emissions.bySite.filter((r) => r.month === '2026-05').reduce((s, r) => s + r.madeUpKg, 0);
     const first = (await engineer.get(query)).body;
     const unit = await createTestUnit(db, { containerNumber: halyardNumber(300002), siteId: siteA.id, nominalChargeKg: 5 });
-    await recordVisits(engineer, unit.id, [{ at: '2026-05-12T10:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-Y' }] }]);
+    const [[topUp]] = await recordVisits(engineer, unit.id, [{ at: '2026-05-12T10:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-Y' }] }]);
     const second = (await engineer.get(query)).body;
     // The unit's new statistics row is not in the distribution yet: the figures are the ones read a moment ago.
     expect(second.figuresAt).toBe(first.figuresAt);
     expect(second.units).toBe(first.units);
+    // The monthly totals are kept too, but only until a write changes them: the top-up and then its void show at once.
     expect(madeUpMay(second)).toBeCloseTo(madeUpMay(first) + 0.3, 9);
+    expect((await engineer.post(`/api/events/${topUp}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status).toBe(201);
+    const third = (await engineer.get(query)).body;
+    expect(madeUpMay(third)).toBeCloseTo(madeUpMay(first), 9);
   });
 });

@@ -25,6 +25,14 @@ function madeUpOf(rows: readonly MovementRow[]): number {
   return groupVisits(evs).reduce((s, v) => s + v.madeUpKg, 0);
 }
 
+let generation = 0;
+/** How many committed writes in this process have changed fleet_monthly: cached monthly totals are keyed by it. */
+export const fleetMonthlyGeneration = () => generation;
+/** Call after (not inside) a transaction that ran applyToFleetMonthly has committed. */
+export function fleetMonthlyChanged() {
+  generation++;
+}
+
 /** YYYY-MM of a moment, UTC (the domain's month of a visit). */
 const monthOf = (d: Date) => d.toISOString().slice(0, 7);
 

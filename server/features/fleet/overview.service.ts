@@ -4,7 +4,8 @@ import { and, asc, count, desc, eq, gt, gte, lt, lte, sql, type SQL } from 'driz
 import { LRUCache } from 'lru-cache';
 import type { Db } from '../../db/client';
 import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats } from '../../db/schema';
-import { co2eTonnes } from '../../../shared/domain';
+import { co2eTonnes, type GwpBasis } from '../../../shared/domain';
+import { fleetMonthlyGeneration } from './fleet-monthly.service';
 import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
 import { getSettings } from '../settings/settings.service';
 import { dayPlus, todayOf } from './fleet.service';
@@ -30,18 +31,30 @@ export function monthsBack(today: string, months: number): string[] {
 
 type UnitFigures = Awaited<ReturnType<typeof readUnitFigures>>;
 type FiguresContext = { db: Db; q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>; today: string };
+type Emissions = Omit<FleetOverviewDto['emissions'], 'months'>;
+type EmissionsContext = { db: Db; q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>; fromMonth: string; basis: GwpBasis };
 
 /**
  * The parts read from every unit's statistics row (distribution, chronic leakers, leak checks due) cost a scan of
  * the fleet, so they are kept for a few seconds and shared by every request in that time; requests arriving while
  * they are being read wait for that one read. The answer says when they were taken.
+ * The monthly made-up totals are kept until a write changes them: their key carries the count of such writes in
+ * this process (fleetMonthlyGeneration), read before the totals are, so an answer is never older than the last
+ * write that committed before the request; the time limit covers writes made by another process.
  */
 export function createOverviewCache(ttlMs = 15_000) {
-  return new LRUCache<string, UnitFigures & { at: Date }, FiguresContext>({
-    max: 500,
-    ttl: ttlMs,
-    fetchMethod: async (_key, _stale, { context }) => ({ ...(await readUnitFigures(context.db, context.q, context.today)), at: new Date() }),
-  });
+  return {
+    figures: new LRUCache<string, UnitFigures & { at: Date }, FiguresContext>({
+      max: 500,
+      ttl: ttlMs,
+      fetchMethod: async (_key, _stale, { context }) => ({ ...(await readUnitFigures(context.db, context.q, context.today)), at: new Date() }),
+    }),
+    emissions: new LRUCache<string, Emissions, EmissionsContext>({
+      max: 500,
+      ttl: 4 * ttlMs,
+      fetchMethod: async (_key, _stale, { context }) => readEmissions(context.db, context.q, context.fromMonth, context.basis),
+    }),
+  };
 }
 export type OverviewCache = ReturnType<typeof createOverviewCache>;
 
@@ -103,6 +116,41 @@ async function readUnitFigures(db: Db, q: FiguresContext['q'], today: string) {
   return { histogram, chronic, dueList, dueCount: Number(dueCount.n), overdue: Number(overdue.n) };
 }
 
+/** Made-up kg (and t CO2e) per month from fleet_monthly, summed by site and by refrigerant. */
+async function readEmissions(db: Db, q: EmissionsContext['q'], fromMonth: string, basis: GwpBasis): Promise<Emissions> {
+  const monthWhere: SQL[] = [gte(fleetMonthly.month, fromMonth)];
+  if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
+  if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
+  const rows = await db
+    .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
+    .from(fleetMonthly)
+    .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
+    .where(and(...monthWhere))
+    .orderBy(asc(fleetMonthly.month));
+  // The chart stacks either by site or by refrigerant; both sums are made here so the page gets two short series.
+  // A site that has gone keeps its months under its id (the name is unknown).
+  const bySite = new Map<string, { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }>();
+  const byRefrigerant = new Map<string, { month: string; refrigerant: string; madeUpKg: number; co2eTonnes: number }>();
+  for (const r of rows) {
+    const kg = r.kg;
+    const t = co2eTonnes(r.refrigerant, Math.max(0, kg), basis);
+    const siteKey = `${r.month}|${r.siteId}`;
+    const perSite = bySite.get(siteKey) ?? { month: r.month, site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null, madeUpKg: 0, co2eTonnes: 0 };
+    perSite.madeUpKg += kg;
+    perSite.co2eTonnes += t;
+    bySite.set(siteKey, perSite);
+    const gasKey = `${r.month}|${r.refrigerant}`;
+    const perGas = byRefrigerant.get(gasKey) ?? { month: r.month, refrigerant: r.refrigerant, madeUpKg: 0, co2eTonnes: 0 };
+    perGas.madeUpKg += kg;
+    perGas.co2eTonnes += t;
+    byRefrigerant.set(gasKey, perGas);
+  }
+  const rounded = <T extends { madeUpKg: number; co2eTonnes: number }>(rows: Iterable<T>) =>
+    [...rows].map((r) => ({ ...r, madeUpKg: roundTo(r.madeUpKg, 3), co2eTonnes: roundTo(r.co2eTonnes, 4) }));
+
+  return { gwpBasis: basis, bySite: rounded(bySite.values()), byRefrigerant: rounded(byRefrigerant.values()) };
+}
+
 export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, cache?: OverviewCache): Promise<FleetOverviewDto> {
   const today = todayOf(now);
   const settings = await getSettings(db);
@@ -110,20 +158,14 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
   const figuresQ = { siteId: q.siteId, refrigerant: q.refrigerant };
   const context: FiguresContext = { db, q: figuresQ, today };
   const figures = cache
-    ? await cache.fetch(JSON.stringify([today, figuresQ.siteId ?? null, figuresQ.refrigerant ?? null]), { context })
+    ? await cache.figures.fetch(JSON.stringify([today, figuresQ.siteId ?? null, figuresQ.refrigerant ?? null]), { context })
     : { ...(await readUnitFigures(db, figuresQ, today)), at: new Date() };
   const { histogram, chronic, dueList, dueCount, overdue } = figures!;
-
-  const monthWhere: SQL[] = [gte(fleetMonthly.month, months[0])];
-  if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
-  if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
+  const basis = settings.gwpBasis;
+  const emissionsContext: EmissionsContext = { db, q: figuresQ, fromMonth: months[0], basis };
+  const emissionsKey = JSON.stringify([fleetMonthlyGeneration(), months[0], figuresQ.siteId ?? null, figuresQ.refrigerant ?? null, basis]);
   const [emissions, repairs] = await Promise.all([
-    db
-      .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
-      .from(fleetMonthly)
-      .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
-      .where(and(...monthWhere))
-      .orderBy(asc(fleetMonthly.month)),
+    cache ? cache.emissions.fetch(emissionsKey, { context: emissionsContext }) : readEmissions(db, figuresQ, months[0], basis),
     db.select().from(repairEffectivenessRows).orderBy(desc(repairEffectivenessRows.repairs)),
   ]);
 
@@ -138,16 +180,6 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
     else bins[Math.min(TOP_BIN, b)].units += n;
   }
 
-  // Sites are summed per month when the site has gone (the month keeps its figures, the name is unknown).
-  const basis = settings.gwpBasis;
-  const emissionRows = emissions.map((r) => ({
-    month: r.month,
-    site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null,
-    refrigerant: r.refrigerant,
-    madeUpKg: roundTo(r.kg, 3),
-    co2eTonnes: roundTo(co2eTonnes(r.refrigerant, Math.max(0, r.kg), basis), 4),
-  }));
-
   const computedAt = repairs.length ? repairs.reduce((a, r) => (r.computedAt > a ? r.computedAt : a), repairs[0].computedAt) : null;
 
   return {
@@ -155,7 +187,7 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
     figuresAt: figures!.at.toISOString(),
     units: total,
     leakRate: { zero, bins, thresholdPct: settings.leakRateThresholdPct },
-    emissions: { months, gwpBasis: basis, rows: emissionRows },
+    emissions: { months, ...emissions! },
     chronicLeakers: chronic.map((c) => ({
       unitId: c.unitId,
       containerNumber: c.containerNumber,

@@ -23,7 +23,7 @@ import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { getSettings } from '../settings/settings.service';
 import { computeUnitStats, REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
 import { engineUnit, ENGINE_EVENT_COLUMNS, lockUnitForHistory, recomputeUnitStats, toEngineEvent, toStatsDto, type UnitStatsRow } from './stats.service';
-import { applyToFleetMonthly } from '../fleet/fleet-monthly.service';
+import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
 
 export type StatsChangeHook = (
   tx: DbOrTx,
@@ -150,6 +150,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
       await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
       return { visitId: inserted.id, after: change.after, monthlyChanged };
     });
+    if (monthlyChanged) fleetMonthlyChanged();
     // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
     const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId }), false);
     return { visitId, replayed: false, events: evs, stats: toStatsDto(after) } satisfies RecordVisitResultDto;
@@ -195,6 +196,7 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
     await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
     return { after: change.after, monthlyChanged: target.visitId != null };
   });
+  if (voided.monthlyChanged) fleetMonthlyChanged();
   const [dto] = await eventDtos(ctx.db, await eventQuery(ctx.db, eq(events.id, eventId)));
   return { event: dto, stats: toStatsDto(voided.after) };
 }

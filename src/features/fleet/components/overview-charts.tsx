@@ -76,8 +76,9 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
   const { keys, byMonth, totals } = useMemo(() => {
     const byMonth = new Map<string, Map<string, number>>(data.months.map((m) => [m, new Map()]));
     const keyTotals = new Map<string, number>();
-    for (const r of data.rows) {
-      const key = groupBy === 'site' ? (r.site?.name ?? 'No site') : r.refrigerant;
+    const rows = groupBy === 'site' ? data.bySite.map((r) => ({ ...r, key: r.site?.name ?? 'No site' })) : data.byRefrigerant.map((r) => ({ ...r, key: r.refrigerant }));
+    for (const r of rows) {
+      const key = r.key;
       const v = measure === 'kg' ? r.madeUpKg : r.co2eTonnes;
       const row = byMonth.get(r.month);
       if (!row) continue;
