@@ -16,7 +16,8 @@ export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 export const MAX_NOTE_LENGTH = 2000;
 export const MAX_CYLINDER_LENGTH = 64;
 export const VOID_WINDOW_HOURS = 24;
-export const HISTORY_PAGE_SIZE = 50;
+/** Entries per page of the event list: about ten visits, two or three phone screens; "Load more" fetches the next. */
+export const HISTORY_PAGE_SIZE = 25;
 export const UPLOAD_MIME_TYPES = ['image/jpeg', 'image/png', 'image/webp', 'application/pdf'] as const;
 export const UNIT_STATUS_VALUES = ['in_service', 'out_of_service', 'retired'] as const;
 
