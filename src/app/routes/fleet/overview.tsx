@@ -95,6 +95,10 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in the last 365 days and are not drawn. Bars at or above the
             alert threshold are red.
           </p>
+          <p className="mt-1 text-sm text-ink-600" data-testid="figures-at">
+            The distribution, repeat leakers and checks due are read at most every 15 seconds; these are from{' '}
+            {new Date(o.figuresAt).toLocaleTimeString('en-GB')}.
+          </p>
           <div className="mt-3">
             <LeakRateHistogram data={o.leakRate} />
           </div>
