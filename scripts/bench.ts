@@ -19,6 +19,7 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../seed/demo-accounts';
 import { backtestForecast, type BacktestResult } from '../seed/simulator/backtest';
 import { createFleet, DEFAULT_SEED } from '../seed/simulator/fleet';
 import { createRng } from '../seed/simulator/prng';
+import { FLEET_SORTS } from '../shared/schemas/fleet';
 import { DEFAULT_SETTINGS } from '../shared/schemas/settings';
 import { ensureProjectDatabase, freePort, PROJECT_ROOT } from './lib/mariadb';
 import { BENCH_DATABASE, BENCH_SEED_INFO } from './lib/bench-paths';
@@ -71,6 +72,8 @@ const unitIds = sample(inService, 5000);
 const writeIds = sample(inService, 5000);
 const tokens = (await one<{ t: string }>('SELECT qr_token AS t FROM units WHERE id IN (?)', [sample(inService, 2000)])).map((r) => r.t);
 const [site] = await one<{ id: number }>('SELECT site_id AS id FROM units GROUP BY site_id ORDER BY COUNT(*) DESC LIMIT 1');
+// Container-number searches: the owner code and two digits (about a tenth of the fleet), and four digits.
+const [{ n: sampleNumber }] = await one<{ n: string }>('SELECT container_number AS n FROM units WHERE id = ?', [unitIds[0]]);
 // What the steady rate stands for: the simulated fleet's busiest hour of visits in the year before it was seeded.
 const seededAt = new Date(String(seedInfo?.asOf ?? new Date().toISOString()));
 const [peakHour] = await one<{ c: number }>(
@@ -146,6 +149,26 @@ const fleetQueries = [
   'sort=forecast&dir=asc',
   `sort=score&dir=desc&siteId=${site.id}`,
   'sort=score&dir=desc&band=chronic',
+];
+// Every sort both ways and every filter on its own, each measured by itself once (the fleet-views issue asks for each).
+const fleetEachQueries = [
+  ...FLEET_SORTS.flatMap((s) => [`sort=${s}&dir=desc`, `sort=${s}&dir=asc`]),
+  ...[
+    `siteId=${site.id}`,
+    'refrigerant=R-404A',
+    'status=out_of_service',
+    'band=chronic',
+    'band=watch',
+    'rateAbove=20',
+    'forecastDays=30',
+    'forecastOverdue=1',
+    'leakCheckOverdue=1',
+    'ptiExpired=1',
+    `q=${sampleNumber.slice(0, 6)}`,
+    `q=${sampleNumber.slice(0, 8)}`,
+    'page=40',
+    'count=1',
+  ].map((f) => `sort=score&dir=desc&${f}`),
 ];
 const get = (p: () => string): autocannon.Request[] => [
   {
@@ -392,6 +415,19 @@ for (let r = 1; r <= REPEAT; r++) {
     console.log(`run ${r}/${REPEAT}  ${`${s.id} @${STEADY_RATE}/s`.padEnd(22)}  ${fmtRun(steady)}`);
   }
 }
+
+const EACH_S = Math.min(3, DURATION_S);
+console.log(`Fleet table, each sort and filter by itself (${EACH_S} s saturated, ${EACH_S} s steady)…`);
+const fleetEach: { query: string; saturated: Run; steady: Run }[] = [];
+for (const query of fleetEachQueries) {
+  const requests = get(() => `/api/fleet?${query}`);
+  await settle(appUrl);
+  const saturated = await measure(appUrl, requests, EACH_S, appHeaders);
+  await settle(appUrl);
+  const steady = await measureSteady(appUrl, requests, EACH_S, STEADY_RATE, appHeaders);
+  fleetEach.push({ query, saturated, steady });
+  console.log(`  ${query.padEnd(44)} ${fmtRun(saturated)}  |  @${STEADY_RATE}/s p95 ${steady.p95.toFixed(1)} ms`);
+}
 stopAll();
 
 function fmtRun(x: Run) {
@@ -461,6 +497,13 @@ const results = {
     };
   }),
   targets: TARGETS,
+  fleetTableEach: fleetEach.map((f) => ({
+    query: f.query,
+    saturatedP95Ms: +f.saturated.p95.toFixed(2),
+    saturatedRps: Math.round(f.saturated.rps),
+    steadyP95Ms: +f.steady.p95.toFixed(2),
+    non2xx: f.saturated.non2xx + f.steady.non2xx,
+  })),
   backtest: {
     ...backtest,
     forecastMaeDays: +backtest.forecastMaeDays.toFixed(1),
@@ -498,6 +541,19 @@ for (const s of results.scenarios) {
   const failed = (s.non2xx ?? 0) + (s.steady?.non2xx ?? 0);
   const flags = failed ? ` (${failed} non-2xx)` : '';
   md.push(`| ${s.title}${flags} | ${s.p50Ms} / ${s.p95Ms} / ${s.p99Ms} | ${s.rps} | ${s.baselineRatio?.toFixed(2)} | ${steadyCell(s.steady)} | ${targets.join('; ')} |`);
+}
+md.push('');
+const fleetLimit = TARGETS.fleetTable[0].p95Ms;
+const over = results.fleetTableEach.filter((f) => f.saturatedP95Ms > fleetLimit);
+md.push(
+  `Fleet table, each sort (both ways) and each filter by itself, ${EACH_S} s saturated and ${EACH_S} s steady, one run: ` +
+    (over.length ? `${over.length} of ${results.fleetTableEach.length} above p95 ${fleetLimit} ms saturated.` : `all ${results.fleetTableEach.length} within p95 ${fleetLimit} ms saturated.`),
+);
+md.push('');
+md.push(`| \`GET /api/fleet?…\` | saturated p95 ms | req/s | steady ${STEADY_RATE}/s p95 ms | ≤ ${fleetLimit} ms saturated |`);
+md.push('|---|---:|---:|---:|---|');
+for (const f of results.fleetTableEach) {
+  md.push(`| \`${f.query}\`${f.non2xx ? ` (${f.non2xx} non-2xx)` : ''} | ${f.saturatedP95Ms} | ${f.saturatedRps} | ${f.steadyP95Ms} | ${f.saturatedP95Ms <= fleetLimit ? '✓' : '✗'} |`);
 }
 md.push('');
 md.push(
