@@ -75,6 +75,13 @@ describe('GET /api/fleet', () => {
     expect(numbers(p1)).toEqual([...numbers(p1)].sort());
     const first = await list('pageSize=10&sort=score&dir=desc&page=1');
     expect(first.hasMore).toBe(false);
+    // A number search that keeps most of the fleet walks the score index for ids, then reads the page's rows:
+    // the same units in the same order as the whole list filtered here.
+    const all = await list('sort=score&dir=desc');
+    const searched = await list('q=hrlu10&sort=score&dir=desc');
+    expect(searched.rows.map((r) => r.unitId)).toEqual(all.rows.filter((r) => r.containerNumber.startsWith('HRLU10')).map((r) => r.unitId));
+    expect(searched.rows.length).toBeGreaterThan(0);
+    expect((await list('sort=score&dir=desc&page=2')).rows).toEqual([]);
   });
 
   it('filters by site, refrigerant, status, band, leak rate and container-number prefix', async () => {

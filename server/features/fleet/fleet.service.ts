@@ -1,5 +1,6 @@
 // The fleet table: units ⨝ unit_stats, filtered, sorted and paged in SQL, every sort backed by an index.
-import { and, asc, count, desc, eq, gt, isNotNull, isNull, like, lt, lte, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, inArray, isNotNull, isNull, like, lt, lte, or, sql, type SQL } from 'drizzle-orm';
+import { LRUCache } from 'lru-cache';
 import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
 import { sites, units, unitStats } from '../../db/schema';
@@ -131,19 +132,27 @@ export function toFleetRow(r: RawRow, today: string): FleetRowDto {
 }
 
 /** The select of one part of the list; `nulls` picks the rows with or without a value in a nullable sort column. */
-export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetFilters, today: string, nulls?: 'only' | 'none', forceSortIndex = false) {
+type ListPart = Pick<FleetQuery, 'sort' | 'dir'> & FleetFilters;
+
+function partWhere(q: ListPart, today: string, nulls?: 'only' | 'none'): SQL[] {
   const col = SORT_COLUMNS[q.sort];
   const where = fleetWhere(q, today);
   if (nulls === 'only') where.push(isNull(col));
   if (nulls === 'none') where.push(isNotNull(col));
+  return where;
+}
+
+function partOrder(q: ListPart, nulls?: 'only' | 'none') {
   const order = q.dir === 'asc' ? asc : desc;
   // Ties broken by the unit id in the same direction, so the (column, unit_id) index order serves the sort.
-  const orderBy =
-    nulls === 'only'
-      ? [order(unitStats.unitId)]
-      : q.sort === 'containerNumber'
-        ? [order(units.containerNumber)]
-        : [order(col), order(unitStats.unitId)];
+  if (nulls === 'only') return [order(unitStats.unitId)];
+  if (q.sort === 'containerNumber') return [order(units.containerNumber)];
+  return [order(SORT_COLUMNS[q.sort]), order(unitStats.unitId)];
+}
+
+export function fleetSelect(db: Db, q: ListPart, today: string, nulls?: 'only' | 'none', forceSortIndex = false, onlyIds?: number[]) {
+  const where = partWhere(q, today, nulls);
+  if (onlyIds) where.push(inArray(unitStats.unitId, onlyIds));
   const index = forceSortIndex && nulls !== 'only' ? SORT_INDEXES[q.sort] : undefined;
   return db
     .select(rowFields)
@@ -151,34 +160,54 @@ export function fleetSelect(db: Db, q: Pick<FleetQuery, 'sort' | 'dir'> & FleetF
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .leftJoin(sites, eq(sites.id, units.siteId))
     .where(where.length ? and(...where) : undefined)
-    .orderBy(...orderBy)
+    .orderBy(...partOrder(q, nulls))
     .$dynamic();
 }
 
+/**
+ * One page of one part of the list. Walking a sort index, the unit ids come first (the index holds them, and the
+ * unit row is read only for its filters), then the page's rows: a deep page or a wide number search reads a page of
+ * unit_stats' wide rows (they carry the engine's summary) instead of every row it walks past.
+ */
+async function fleetPart(db: Db, q: ListPart, today: string, nulls: 'only' | 'none' | undefined, force: boolean, limit: number, offset: number): Promise<RawRow[]> {
+  const index = force && nulls !== 'only' ? SORT_INDEXES[q.sort] : undefined;
+  if (!index) return (await fleetSelect(db, q, today, nulls).limit(limit).offset(offset)) as RawRow[];
+  const where = partWhere(q, today, nulls);
+  const walk = db.select({ id: unitStats.unitId }).from(unitStats, { forceIndex: index }).$dynamic();
+  const ids = await (hasUnitFilters(q) ? walk.innerJoin(units, eq(units.id, unitStats.unitId)) : walk)
+    .where(where.length ? and(...where) : undefined)
+    .orderBy(...partOrder(q, nulls))
+    .limit(limit)
+    .offset(offset);
+  if (!ids.length) return [];
+  return (await fleetSelect(db, q, today, nulls, false, ids.map((r) => r.id))) as RawRow[];
+}
+
 const hasStatsFilters = (f: FleetFilters) =>
-  Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired || f.q) || f.rateAbove !== undefined || f.forecastDays !== undefined;
+  Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired) || f.rateAbove !== undefined || f.forecastDays !== undefined;
 const hasUnitFilters = (f: FleetFilters) => Boolean(f.siteId || f.refrigerant || f.status || f.q);
 
-// Share of the fleet a site / refrigerant / status filter keeps, cached for a few minutes (fleets change slowly).
-const shareCache = new Map<string, { share: number; at: number }>();
-const SHARE_TTL_MS = 5 * 60_000;
+// Share of the fleet a site / refrigerant / status / number-start filter keeps, kept for a few minutes (fleets
+// change slowly); bounded, since every number typed is a key.
+const shareCache = new LRUCache<string, number>({ max: 2000, ttl: 5 * 60_000 });
 /** Below this share, reading the filter's own index and sorting the few rows beats walking the sort index. */
 const WIDE_FILTER_SHARE = 0.02;
 
 async function unitFilterShare(db: Db, f: FleetFilters): Promise<number> {
-  const key = JSON.stringify([f.siteId, f.refrigerant, f.status]);
+  const key = JSON.stringify([f.siteId, f.refrigerant, f.status, f.q]);
   const hit = shareCache.get(key);
-  if (hit && Date.now() - hit.at < SHARE_TTL_MS) return hit.share;
+  if (hit !== undefined) return hit;
   const w: SQL[] = [];
   if (f.siteId) w.push(eq(units.siteId, f.siteId));
   if (f.refrigerant) w.push(eq(units.refrigerant, f.refrigerant));
   if (f.status) w.push(eq(units.status, f.status));
+  if (f.q) w.push(like(units.containerNumber, `${f.q}%`));
   const [[{ n }], [{ total }]] = await Promise.all([
     db.select({ n: count() }).from(units).where(and(...w)),
     db.select({ total: count() }).from(units),
   ]);
   const share = Number(total) ? Number(n) / Number(total) : 1;
-  shareCache.set(key, { share, at: Date.now() });
+  shareCache.set(key, share);
   return share;
 }
 
@@ -219,7 +248,7 @@ export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<Fleet
   let rows: RawRow[];
   if (NULLABLE_SORTS.has(q.sort) && q.dir === 'asc') {
     // Ascending, MariaDB puts empty values first; read the filled ones first and the empty ones after them.
-    const filled = (await fleetSelect(db, q, today, 'none', force).limit(limit).offset(offset)) as RawRow[];
+    const filled = await fleetPart(db, q, today, 'none', force, limit, offset);
     rows = filled;
     if (filled.length < limit) {
       let filledTotal = offset + filled.length;
@@ -231,13 +260,11 @@ export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<Fleet
           .where(and(...fleetWhere(q, today), isNotNull(SORT_COLUMNS[q.sort])));
         filledTotal = Number(n);
       }
-      const empty = (await fleetSelect(db, q, today, 'only')
-        .limit(limit - filled.length)
-        .offset(Math.max(0, offset - filledTotal))) as RawRow[];
+      const empty = await fleetPart(db, q, today, 'only', false, limit - filled.length, Math.max(0, offset - filledTotal));
       rows = [...filled, ...empty];
     }
   } else {
-    rows = (await fleetSelect(db, q, today, undefined, force).limit(limit).offset(offset)) as RawRow[];
+    rows = await fleetPart(db, q, today, undefined, force, limit, offset);
   }
   const hasMore = rows.length > q.pageSize;
   const page: FleetPageDto = {
