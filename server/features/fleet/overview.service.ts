@@ -131,8 +131,7 @@ async function readEmissions(db: Db, q: EmissionsContext['q'], fromMonth: string
   // A site that has gone keeps its months under its id (the name is unknown).
   const bySite = new Map<string, { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }>();
   const byRefrigerant = new Map<string, { month: string; refrigerant: string; madeUpKg: number; co2eTonnes: number }>();
-  for (const r of rows) {
-    const kg = r.kg;
+  for (const { kg, ...r } of rows) {
     const t = co2eTonnes(r.refrigerant, Math.max(0, kg), basis);
     const siteKey = `${r.month}|${r.siteId}`;
     const perSite = bySite.get(siteKey) ?? { month: r.month, site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null, madeUpKg: 0, co2eTonnes: 0 };

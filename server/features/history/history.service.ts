@@ -98,7 +98,7 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
     throw conflict('This submission key was already used for another visit.');
   }
   const evs = await eventDtos(db, await reads(db).visitEvents.execute({ visitId: visit.id }));
-  const [stats] = await reads(db).statsOf.execute({ unitId: visit.unitId });
+  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, visit.unitId));
   return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
 }
 
@@ -250,7 +250,6 @@ function prepareReads(db: Db) {
       .prepare(),
     visitEvents: eventQuery(db, eq(events.visitId, ph('visitId'))).prepare(),
     visitByKey: db.select().from(visits).where(eq(visits.idempotencyKey, ph('key'))).prepare(),
-    statsOf: db.select().from(unitStats).where(eq(unitStats.unitId, ph('unitId'))).prepare(),
   };
 }
 const preparedReads = new WeakMap<Db, ReturnType<typeof prepareReads>>();

@@ -86,7 +86,7 @@ export default function FleetOverviewPage() {
 function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
   return (
     <div className={busy ? 'opacity-70' : undefined}>
-      <div className="grid gap-5 lg:grid-cols-2">
+      <div className="grid grid-cols-1 gap-5 lg:grid-cols-2">
         <Panel aria-labelledby="ov-rate">
           <h2 id="ov-rate" className="text-xl font-bold">
             Leak-rate distribution
@@ -95,7 +95,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in the last 365 days and are not drawn. Bars at or above the
             alert threshold are red.
           </p>
-          <p className="mt-1 text-sm text-ink-600" data-testid="figures-at">
+          <p className="mt-1 text-sm text-ink-600">
             The distribution, repeat leakers and checks due are read at most every 15 seconds; these are from{' '}
             {new Date(o.figuresAt).toLocaleTimeString('en-GB')}.
           </p>
@@ -137,7 +137,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
           <EmissionsChart data={o.emissions} />
         </div>
       </Panel>
-      <div className="mt-5 grid gap-5 lg:grid-cols-2">
+      <div className="mt-5 grid grid-cols-1 gap-5 lg:grid-cols-2">
         <Panel aria-labelledby="ov-chronic">
           <h2 id="ov-chronic" className="text-xl font-bold">
             Repeat leakers
