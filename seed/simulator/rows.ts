@@ -1,7 +1,7 @@
 // From a simulated unit to the rows the server itself would have written: units, visits, events (void markers
 // included) and the unit's statistics row, computed in memory with the server's own functions.
 import type { events, sites, units, users, visitMadeUp, visits } from '../../server/db/schema';
-import { engineUnit, statsRowFrom, toEngineEvent, type UnitStatsRow } from '../../server/features/history/stats.service';
+import { engineUnit, statsRowsFrom, toEngineEvent, type UnitStatsRows } from '../../server/features/history/stats.service';
 import { computeUnitStats } from '../../shared/domain';
 import type { Settings } from '../../shared/schemas/settings';
 import type { Fleet } from './fleet';
@@ -24,7 +24,8 @@ export type UnitRows = {
   unit: UnitRow;
   visits: VisitRow[];
   events: EventRow[];
-  stats: UnitStatsRow;
+  stats: UnitStatsRows['stats'];
+  statsDetail: UnitStatsRows['detail'];
   /** Each visit's made-up refrigerant (for visit_made_up and fleet_monthly), as the engine counts it. */
   madeUp: VisitMadeUpRow[];
   engineEvents: EngineEvent[];
@@ -213,7 +214,7 @@ export function rowsForUnit(
     settings,
   );
   const last = engineEvents.length ? new Date(engineEvents[engineEvents.length - 1].at) : null;
-  const stats = statsRowFrom(unitId, result, now, last);
+  const { stats, detail: statsDetail } = statsRowsFrom(unitId, result, now, last);
   // What applyToFleetMonthly would have recorded visit by visit: month of the visit (UTC), its site, the unit's
   // refrigerant, and the made-up kg by the domain rule.
   const madeUp: VisitMadeUpRow[] = [];
@@ -230,5 +231,5 @@ export function rowsForUnit(
       createdAt: now,
     });
   }
-  return { unit, visits: visitRows, events: eventRows, stats, madeUp, engineEvents, visitStats: result.visits };
+  return { unit, visits: visitRows, events: eventRows, stats, statsDetail, madeUp, engineEvents, visitStats: result.visits };
 }

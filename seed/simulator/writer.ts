@@ -1,5 +1,5 @@
 // Writes a simulated fleet as bulk multi-row INSERTs, parents before children, in statements of a few MB.
-import { sites, units, unitStats, users, visitMadeUp, visits, events } from '../../server/db/schema';
+import { sites, units, unitStats, unitStatsDetail, users, visitMadeUp, visits, events } from '../../server/db/schema';
 import type { Settings } from '../../shared/schemas/settings';
 import { simulateFleetUnit, unitCount, type Fleet } from './fleet';
 import { rowsForUnit, siteRows, userRows, type IdCursor, type UnitRows } from './rows';
@@ -61,6 +61,7 @@ export class FleetWriter {
       { level: 1, buf: new InsertBuffer(visits, push) },
       { level: 3, buf: new InsertBuffer(unitStats, push) },
       { level: 3, buf: new InsertBuffer(visitMadeUp, push) },
+      { level: 3, buf: new InsertBuffer(unitStatsDetail, push) },
     ];
     for (const [group, keys] of Object.entries(EVENT_GROUPS)) {
       this.eventBuffers.set(group, this.buffers.length);
@@ -73,6 +74,7 @@ export class FleetWriter {
     for (const v of rows.visits) this.put(1, v);
     for (const e of rows.events) this.put(this.eventBuffers.get(GROUP_OF[e.kind] ?? 'plain')!, e);
     this.put(2, rows.stats as unknown as Record<string, unknown>);
+    this.put(4, rows.statsDetail as unknown as Record<string, unknown>);
     for (const m of rows.madeUp) {
       this.put(3, m);
       const key = `${m.month}|${m.siteId}|${m.refrigerant}`;

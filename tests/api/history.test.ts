@@ -6,7 +6,7 @@ import { randomUUID } from 'node:crypto';
 import sharp from 'sharp';
 import { count, eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
-import { events, unitStats, visits } from '../../server/db/schema';
+import { events, unitStats, unitStatsDetail, visits } from '../../server/db/schema';
 import { createLocalStorage } from '../../server/lib/storage';
 import { computeUnitStats } from '../../shared/domain';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
@@ -293,7 +293,8 @@ describe('the statistics row', () => {
     expect(row.pressureFlag).toBe(expected.pressureHealth.flag);
     expect(row.madeUpKg365).toBeCloseTo(expected.totalMadeUpKg365, 9);
     // Factor by factor, as the unit page shows them.
-    expect(row.scoreFactors).toEqual(JSON.parse(JSON.stringify(expected.score.factors)));
+    const [wide] = await db.select().from(unitStatsDetail).where(eq(unitStatsDetail.unitId, unit.id));
+    expect(wide.scoreFactors).toEqual(JSON.parse(JSON.stringify(expected.score.factors)));
   });
 });
 

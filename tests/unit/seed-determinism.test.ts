@@ -5,12 +5,12 @@ import { siteRows, userRows, type UnitRows } from '../../seed/simulator/rows';
 import { columnsOf, tuple } from '../../seed/simulator/sql';
 import type { UnitSim } from '../../seed/simulator/unit-sim';
 import { fleetRows } from '../../seed/simulator/writer';
-import { events, sites, units, unitStats, users, visits } from '../../server/db/schema';
+import { events, sites, units, unitStats, unitStatsDetail, users, visits } from '../../server/db/schema';
 import { parseContainerNumber, saturationRange, saturationTemperatureC, STANDARD_ATMOSPHERE_KPA } from '../../shared/domain';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 
 const NOW = new Date('2026-06-15T10:00:00Z');
-const COLS = { sites: columnsOf(sites), users: columnsOf(users), units: columnsOf(units), visits: columnsOf(visits), events: columnsOf(events), stats: columnsOf(unitStats) };
+const COLS = { sites: columnsOf(sites), users: columnsOf(users), units: columnsOf(units), visits: columnsOf(visits), events: columnsOf(events), stats: columnsOf(unitStats), statsDetail: columnsOf(unitStatsDetail) };
 
 function generate(seed: number, n: number, now = NOW): { sims: UnitSim[]; rows: UnitRows[]; hash: string } {
   const fleet = createFleet({ seed, units: n, now });
@@ -27,6 +27,7 @@ function generate(seed: number, n: number, now = NOW): { sims: UnitSim[]; rows: 
     for (const v of r.visits) h.update(tuple(COLS.visits, v));
     for (const e of r.events) h.update(tuple(COLS.events, e));
     h.update(tuple(COLS.stats, r.stats as unknown as Record<string, unknown>));
+    h.update(tuple(COLS.statsDetail, r.statsDetail as unknown as Record<string, unknown>));
     sims.push(sim);
     rows.push(r);
   }

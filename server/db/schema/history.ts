@@ -129,7 +129,10 @@ export const attachments = mysqlTable(
   (t) => [index('attachments_event_idx').on(t.eventId)],
 );
 
-/** Derived figures per unit, recomputed in the same transaction as every write; the fleet views read only this. */
+/**
+ * Derived figures per unit, recomputed in the same transaction as every write; the fleet views read only this. Rows
+ * stay narrow (about 200 bytes) so that scans over the whole fleet touch few pages; the wide parts live beside it.
+ */
 export const unitStats = mysqlTable(
   'unit_stats',
   {
@@ -141,7 +144,6 @@ export const unitStats = mysqlTable(
     calendarYearSharePct: double('calendar_year_share_pct').notNull().default(0),
     score: int('score').notNull().default(0),
     scoreBand: mysqlEnum('score_band', ['tight', 'watch', 'chronic']).notNull().default('tight'),
-    scoreFactors: json('score_factors').$type<Record<string, unknown>>(),
     forecastDate: date('forecast_date', { mode: 'string' }),
     forecastEarliest: date('forecast_earliest', { mode: 'string' }),
     forecastLatest: date('forecast_latest', { mode: 'string' }),
@@ -159,8 +161,6 @@ export const unitStats = mysqlTable(
     visitCount: int('visit_count').notNull().default(0),
     topUpCount: int('top_up_count').notNull().default(0),
     lastEventAt: datetime('last_event_at', { mode: 'date', fsp: 3 }),
-    // The full computeUnitStats result for the unit page (per-visit rates, snapshots, factor texts).
-    detail: json('detail').$type<Record<string, unknown>>(),
   },
   (t) => [
     index('unit_stats_score_idx').on(t.score),
@@ -173,3 +173,13 @@ export const unitStats = mysqlTable(
     index('unit_stats_co2e_idx').on(t.co2eTonnes),
   ],
 );
+
+/** The wide part of a unit's statistics, written with unit_stats and read one unit at a time (unit page, decisions). */
+export const unitStatsDetail = mysqlTable('unit_stats_detail', {
+  unitId: int('unit_id')
+    .primaryKey()
+    .references(() => units.id),
+  scoreFactors: json('score_factors').$type<Record<string, unknown>>(),
+  // The computeUnitStats result without its series, for the unit page (rates, forecast, factor texts).
+  detail: json('detail').$type<Record<string, unknown>>(),
+});

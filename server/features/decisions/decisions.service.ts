@@ -2,7 +2,7 @@
 // record, the fleet's candidates ranked by yearly saving, and recording a decision as a unit event.
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
-import { events, repairEffectivenessRows, sites, units, unitStats, users, visits } from '../../db/schema';
+import { events, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
 import { notFound } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import { compareRepairOptions, isLeakLocation, unitAgeYears, type LeakLocationId, type RepairOptionsInput } from '../../../shared/domain';
@@ -103,10 +103,11 @@ async function loadUnit(db: DbOrTx, unitId: number, lock = false) {
   // The unit row locked like every write to its history.
   if (lock) await db.select({ id: units.id }).from(units).where(eq(units.id, unitId)).for('update');
   const q = db
-    .select({ u: units, siteName: sites.name, stats: unitStats })
+    .select({ u: units, siteName: sites.name, stats: unitStats, detail: unitStatsDetail.detail })
     .from(units)
     .leftJoin(sites, eq(sites.id, units.siteId))
     .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, units.id))
     .where(eq(units.id, unitId));
   const [row] = await q;
   if (!row) throw notFound('No such unit.');
@@ -114,7 +115,7 @@ async function loadUnit(db: DbOrTx, unitId: number, lock = false) {
 }
 
 async function engineInputOf(db: DbOrTx, row: Awaited<ReturnType<typeof loadUnit>>, asOf: Date) {
-  const detail = (row.stats?.detail ?? {}) as Detail;
+  const detail = (row.detail ?? {}) as Detail;
   const forecast = detail.forecast ?? null;
   const locations = await leakLocationsOf(db, [row.u.id], new Map([[row.u.id, detail.openLeak?.location ?? null]]));
   const loc = locations.get(row.u.id)!;
@@ -233,13 +234,14 @@ export async function retirementCandidates(db: Db, opts: { siteId?: number; limi
       score: unitStats.score,
       scoreBand: unitStats.scoreBand,
       rate: unitStats.rollingLeakRatePct,
-      intervalDays: sql<number | null>`JSON_VALUE(${unitStats.detail}, '$.forecast.intervalDays')`,
-      expectedKg: sql<number | null>`JSON_VALUE(${unitStats.detail}, '$.forecast.expectedKg')`,
-      openLeak: sql<string | null>`JSON_VALUE(${unitStats.detail}, '$.openLeak.location')`,
+      intervalDays: sql<number | null>`JSON_VALUE(${unitStatsDetail.detail}, '$.forecast.intervalDays')`,
+      expectedKg: sql<number | null>`JSON_VALUE(${unitStatsDetail.detail}, '$.forecast.expectedKg')`,
+      openLeak: sql<string | null>`JSON_VALUE(${unitStatsDetail.detail}, '$.openLeak.location')`,
     })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .leftJoin(sites, eq(sites.id, units.siteId))
+    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, unitStats.unitId))
     .where(and(...where))
     .orderBy(desc(unitStats.score), desc(unitStats.unitId))
     .limit(CANDIDATE_POOL);

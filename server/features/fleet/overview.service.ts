@@ -3,7 +3,7 @@
 import { and, asc, count, desc, eq, gt, gte, lt, lte, sql, type SQL } from 'drizzle-orm';
 import { LRUCache } from 'lru-cache';
 import type { Db } from '../../db/client';
-import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats } from '../../db/schema';
+import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { co2eTonnes, type GwpBasis } from '../../../shared/domain';
 import { fleetMonthlyGeneration } from './fleet-monthly.service';
 import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
@@ -86,11 +86,12 @@ async function readUnitFigures(db: Db, q: FiguresContext['q'], today: string) {
       score: unitStats.score,
       scoreBand: unitStats.scoreBand,
       rate: unitStats.rollingLeakRatePct,
-      factors: unitStats.scoreFactors,
+      factors: unitStatsDetail.scoreFactors,
     })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .leftJoin(sites, eq(sites.id, units.siteId))
+    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, unitStats.unitId))
     .where(and(gt(unitStats.score, 0), sql`${units.status} <> 'retired'`, ...unitWhere))
     .orderBy(desc(unitStats.score), desc(unitStats.unitId))
     .limit(CHRONIC_LIST);

@@ -2,7 +2,7 @@
 import { and, desc, eq, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db, DbOrTx } from '../../db/client';
-import { attachments, events, sites, unitChanges, units, unitStats, users, visits } from '../../db/schema';
+import { attachments, events, sites, unitChanges, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
 import type { AppContext } from '../../deps';
 import type { SessionUser } from '../../lib/session';
@@ -98,8 +98,8 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
     throw conflict('This submission key was already used for another visit.');
   }
   const evs = await eventDtos(db, await reads(db).visitEvents.execute({ visitId: visit.id }));
-  const [stats] = await db.select().from(unitStats).where(eq(unitStats.unitId, visit.unitId));
-  return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(stats) };
+  const [found] = await reads(db).unitWithStats.execute({ unitId: visit.unitId });
+  return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(found.stats!, found.detail) };
 }
 
 export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput, onStats?: StatsChangeHook) {
@@ -107,7 +107,7 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
   if (earlier) return earlier;
   const now = ctx.clock.now();
   try {
-    const { visitId, after, monthlyChanged } = await ctx.db.transaction(async (tx) => {
+    const { visitId, after, detail, monthlyChanged } = await ctx.db.transaction(async (tx) => {
       // Locking the unit row serialises writes per unit, so each statistics row matches its history.
       const locked = await lockUnitForHistory(tx, input.unitId);
       if (!locked) throw notFound('No such unit.');
@@ -148,12 +148,12 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
       }
       const change = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx), { unit, before: locked.stats });
       await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-      return { visitId: inserted.id, after: change.after, monthlyChanged };
+      return { visitId: inserted.id, after: change.after, detail: change.detail.detail, monthlyChanged };
     });
     if (monthlyChanged) fleetMonthlyChanged();
     // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
     const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId }), false);
-    return { visitId, replayed: false, events: evs, stats: toStatsDto(after) } satisfies RecordVisitResultDto;
+    return { visitId, replayed: false, events: evs, stats: toStatsDto(after, detail) } satisfies RecordVisitResultDto;
   } catch (err) {
     // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
     if (isDuplicateKey(err)) {
@@ -194,11 +194,11 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
     if (target.visitId != null) await applyToFleetMonthly(tx, [target.visitId]);
     const change = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx), { unit, before: locked.stats });
     await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-    return { after: change.after, monthlyChanged: target.visitId != null };
+    return { after: change.after, detail: change.detail.detail, monthlyChanged: target.visitId != null };
   });
   if (voided.monthlyChanged) fleetMonthlyChanged();
   const [dto] = await eventDtos(ctx.db, await eventQuery(ctx.db, eq(events.id, eventId)));
-  return { event: dto, stats: toStatsDto(voided.after) };
+  return { event: dto, stats: toStatsDto(voided.after, voided.detail) };
 }
 
 // --- reading ------------------------------------------------------------------------------------------------
@@ -240,9 +240,10 @@ function prepareReads(db: Db) {
   const ph = sql.placeholder;
   return {
     unitWithStats: db
-      .select({ id: units.id, stats: unitStats })
+      .select({ id: units.id, stats: unitStats, detail: unitStatsDetail.detail })
       .from(units)
       .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+      .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, units.id))
       .where(eq(units.id, ph('unitId')))
       .prepare(),
     firstHistoryPage: eventQuery(db, and(eq(events.unitId, ph('unitId')), notVoidMarker)!, UNIT_TIME_INDEX)
@@ -350,7 +351,7 @@ export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverv
   const [found] = await reads(db).unitWithStats.execute({ unitId });
   if (!found) throw notFound('No such unit.');
   const history = await historyPage(db, unitId, undefined, HISTORY_PAGE_SIZE);
-  return { stats: found.stats ? toStatsDto(found.stats) : null, history };
+  return { stats: found.stats ? toStatsDto(found.stats, found.detail) : null, history };
 }
 
 /** Every event of the unit, oldest first, compact; and the pressure snapshots the engine derives from them now. */

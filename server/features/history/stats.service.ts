@@ -1,8 +1,9 @@
-// Recomputes a unit's statistics from its whole history with the domain engine and stores them in unit_stats.
+// Recomputes a unit's statistics from its whole history with the domain engine and stores them in unit_stats (and the
+// wide part in unit_stats_detail).
 // Runs inside the caller's transaction so the figures always match the events they came from.
 import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { events, units, unitStats } from '../../db/schema';
+import { events, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { computeUnitStats } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
 import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/history';
@@ -10,6 +11,9 @@ import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/his
 type EngineEvent = Parameters<typeof computeUnitStats>[1][number];
 type EngineUnit = Parameters<typeof computeUnitStats>[0];
 export type UnitStatsRow = typeof unitStats.$inferSelect;
+export type UnitStatsDetailRow = typeof unitStatsDetail.$inferSelect;
+/** A unit's statistics as written: the narrow row the fleet views scan and the wide part read per unit. */
+export type UnitStatsRows = { stats: UnitStatsRow; detail: UnitStatsDetailRow };
 
 const iso = (d: Date) => d.toISOString();
 
@@ -117,15 +121,14 @@ export function statsSummary(r: EngineResult): UnitStatsSummary {
   return summary;
 }
 
-export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, lastEventAt: Date | null): UnitStatsRow {
-  return {
+export function statsRowsFrom(unitId: number, r: EngineResult, computedAt: Date, lastEventAt: Date | null): UnitStatsRows {
+  const stats: UnitStatsRow = {
     unitId,
     computedAt,
     rollingLeakRatePct: r.rollingLeakRatePct ?? 0,
     calendarYearSharePct: r.calendarYearSharePct ?? 0,
     score: r.score.value,
     scoreBand: r.score.band,
-    scoreFactors: r.score.factors as unknown as Record<string, unknown>,
     forecastDate: r.forecast?.date ?? null,
     forecastEarliest: r.forecast?.earliest ?? null,
     forecastLatest: r.forecast?.latest ?? null,
@@ -143,16 +146,25 @@ export function statsRowFrom(unitId: number, r: EngineResult, computedAt: Date, 
     visitCount: r.counts.visits,
     topUpCount: r.counts.topUps,
     lastEventAt,
+  };
+  const detail: UnitStatsDetailRow = {
+    unitId,
+    scoreFactors: r.score.factors as unknown as Record<string, unknown>,
     detail: statsSummary(r) as unknown as Record<string, unknown>,
   };
+  return { stats, detail };
 }
 
 // On a key clash every column takes the value just sent, so the row's text travels once.
-const STATS_UPSERT_SET = Object.fromEntries(
-  Object.entries(getTableColumns(unitStats))
-    .filter(([key]) => key !== 'unitId')
-    .map(([key, column]) => [key, sql`values(${column})`]),
-);
+function upsertSet(table: typeof unitStats | typeof unitStatsDetail) {
+  return Object.fromEntries(
+    Object.entries(getTableColumns(table))
+      .filter(([key]) => key !== 'unitId')
+      .map(([key, column]) => [key, sql`values(${column})`]),
+  );
+}
+const STATS_UPSERT_SET = upsertSet(unitStats);
+const DETAIL_UPSERT_SET = upsertSet(unitStatsDetail);
 
 type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number };
 
@@ -177,7 +189,7 @@ export async function recomputeUnitStats(
   asOf: Date,
   settings: Settings,
   known?: { unit: StatsUnit; before: UnitStatsRow | null },
-): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow }> {
+): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow; detail: UnitStatsDetailRow }> {
   let unit = known?.unit;
   let before = known?.before ?? null;
   if (!known) {
@@ -187,12 +199,13 @@ export async function recomputeUnitStats(
   const history = await loadEngineHistory(tx, unitId);
   const result = computeUnitStats(engineUnit(unit!), history, iso(asOf), settings);
   const last = history.length ? new Date(history[history.length - 1].at) : null;
-  const after = statsRowFrom(unitId, result, asOf, last);
-  await tx.insert(unitStats).values(after).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
-  return { before, after };
+  const rows = statsRowsFrom(unitId, result, asOf, last);
+  await tx.insert(unitStats).values(rows.stats).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
+  await tx.insert(unitStatsDetail).values(rows.detail).onDuplicateKeyUpdate({ set: DETAIL_UPSERT_SET });
+  return { before, after: rows.stats, detail: rows.detail };
 }
 
-export function toStatsDto(row: UnitStatsRow): UnitStatsDto {
+export function toStatsDto(row: UnitStatsRow, detail: UnitStatsDetailRow['detail'] | null): UnitStatsDto {
   return {
     computedAt: row.computedAt.toISOString(),
     rollingLeakRatePct: row.rollingLeakRatePct,
@@ -209,6 +222,6 @@ export function toStatsDto(row: UnitStatsRow): UnitStatsDto {
     forecast: row.forecastDate
       ? { date: row.forecastDate, earliest: row.forecastEarliest, latest: row.forecastLatest, overdue: Boolean(row.forecastOverdue) }
       : null,
-    detail: (row.detail as unknown as UnitStatsSummary | null) ?? null,
+    detail: (detail as unknown as UnitStatsSummary | null) ?? null,
   };
 }
