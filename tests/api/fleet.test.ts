@@ -241,3 +241,13 @@ describe('GET /api/fleet/overview', () => {
     expect(madeUpMay(third)).toBeCloseTo(madeUpMay(first), 9);
   });
 });
+
+describe('the whole fleet count', () => {
+  it('is kept between reads and follows a registration at once', async () => {
+    const before = (await list('count=1')).count!.total;
+    expect((await engineer.get('/api/fleet/count')).body).toEqual({ total: before, capped: false });
+    await createTestUnit(db, { containerNumber: halyardNumber(300003), siteId: siteB.id, nominalChargeKg: 5 });
+    expect((await list('count=1')).count).toEqual({ total: before + 1, capped: false });
+    expect((await engineer.get('/api/fleet/count')).body).toEqual({ total: before + 1, capped: false });
+  });
+});

@@ -1,5 +1,5 @@
 // The fleet table: units ⨝ unit_stats, filtered, sorted and paged in SQL, every sort backed by an index.
-import { and, asc, count, desc, eq, gt, inArray, isNotNull, isNull, like, lt, lte, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, inArray, isNotNull, isNull, like, lt, lte, max, or, sql, type SQL } from 'drizzle-orm';
 import { LRUCache } from 'lru-cache';
 import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
@@ -166,8 +166,8 @@ export function fleetSelect(db: Db, q: ListPart, today: string, nulls?: 'only' |
 
 /**
  * One page of one part of the list. Walking a sort index, the unit ids come first (the index holds them, and the
- * unit row is read only for its filters), then the page's rows: a deep page or a wide number search reads a page of
- * unit_stats' wide rows (they carry the engine's summary) instead of every row it walks past.
+ * unit row is read only for its filters), then the page's rows: a deep page or a wide number search reads one page
+ * of unit_stats rows instead of every row it walks past.
  */
 async function fleetPart(db: Db, q: ListPart, today: string, nulls: 'only' | 'none' | undefined, force: boolean, limit: number, offset: number): Promise<RawRow[]> {
   const index = force && nulls !== 'only' ? SORT_INDEXES[q.sort] : undefined;
@@ -222,16 +222,35 @@ export async function shouldForceSortIndex(db: Db, q: Pick<FleetQuery, 'sort'> &
   return (await unitFilterShare(db, q)) >= WIDE_FILTER_SHARE;
 }
 
+// The whole fleet's size per database. Units are never deleted (retired ones stay), so the size changes when the
+// highest id does: one primary-key lookup tells whether the kept count holds, where counting reads every unit. Two
+// registrations committing out of id order could leave it one short; it is counted afresh after a minute at most.
+const fleetSizes = new WeakMap<Db, { topId: number; total: number; at: number }>();
+const FLEET_SIZE_MAX_AGE_MS = 60_000;
+
+async function fleetSize(db: Db): Promise<number> {
+  const [{ topId }] = await db.select({ topId: max(units.id) }).from(units);
+  const kept = fleetSizes.get(db);
+  if (kept && kept.topId === Number(topId ?? 0) && Date.now() - kept.at < FLEET_SIZE_MAX_AGE_MS) return kept.total;
+  // Counted after reading the highest id: a unit committed in between makes the next lookup count again.
+  const [{ n }] = await db.select({ n: count() }).from(units);
+  fleetSizes.set(db, { topId: Number(topId ?? 0), total: Number(n), at: Date.now() });
+  return Number(n);
+}
+
 export async function countFleet(db: Db, f: FleetFilters, today: string): Promise<FleetCountDto> {
-  if (!hasFilters(f)) {
-    const [{ n }] = await db.select({ n: count() }).from(unitStats);
-    return { total: Number(n), capped: false };
-  }
+  if (!hasFilters(f)) return { total: await fleetSize(db), capped: false };
   const where = fleetWhere(f, today);
-  // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet.
-  // Filters on the statistics alone are counted on unit_stats' own indexes, without the join.
-  const base = db.select({ one: sql`1` }).from(unitStats).$dynamic();
-  const inner = (hasUnitFilters(f) ? base.innerJoin(units, eq(units.id, unitStats.unitId)) : base)
+  // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet. Each
+  // side's filters alone are counted on that table's own indexes, without the join (every unit has its statistics
+  // row once ensureStatsRows has run).
+  const onStats = db.select({ one: sql`1` }).from(unitStats).$dynamic();
+  const matches = !hasStatsFilters(f)
+    ? db.select({ one: sql`1` }).from(units).$dynamic()
+    : hasUnitFilters(f)
+      ? onStats.innerJoin(units, eq(units.id, unitStats.unitId))
+      : onStats;
+  const inner = matches
     .where(and(...where))
     .limit(FLEET_COUNT_CAP + 1)
     .as('matches');
