@@ -72,8 +72,14 @@ const unitIds = sample(inService, 5000);
 const writeIds = sample(inService, 5000);
 const tokens = (await one<{ t: string }>('SELECT qr_token AS t FROM units WHERE id IN (?)', [sample(inService, 2000)])).map((r) => r.t);
 const [site] = await one<{ id: number }>('SELECT site_id AS id FROM units GROUP BY site_id ORDER BY COUNT(*) DESC LIMIT 1');
-// Container-number searches: the owner code and two digits (about a tenth of the fleet), and four digits.
+// Container-number searches: the owner code with two, three and four digits (in the simulated fleet about 3 %,
+// 0.3 % and 0.03 % of it), and the start that keeps closest to 1 % — near the share where the table stops walking
+// the sort index and reads the matching units instead, so the slower of the two ways shows.
 const [{ n: sampleNumber }] = await one<{ n: string }>('SELECT container_number AS n FROM units WHERE id = ?', [unitIds[0]]);
+const [onePercent] = await one<{ p: string }>(
+  'SELECT p FROM (SELECT LEFT(container_number, 5) AS p, COUNT(*) AS n FROM units GROUP BY p UNION ALL SELECT LEFT(container_number, 6), COUNT(*) FROM units GROUP BY 1) AS starts ORDER BY ABS(n - ? * 0.01) LIMIT 1',
+  [Number(unitTotal)],
+);
 // What the steady rate stands for: the simulated fleet's busiest hour of visits in the year before it was seeded.
 const seededAt = new Date(String(seedInfo?.asOf ?? new Date().toISOString()));
 const [peakHour] = await one<{ c: number }>(
@@ -165,9 +171,13 @@ const fleetEachQueries = [
     'leakCheckOverdue=1',
     'ptiExpired=1',
     `q=${sampleNumber.slice(0, 6)}`,
+    `q=${sampleNumber.slice(0, 7)}`,
     `q=${sampleNumber.slice(0, 8)}`,
+    ...(onePercent ? [`q=${onePercent.p}`] : []),
     'page=40',
     'count=1',
+    `count=1&siteId=${site.id}`,
+    'count=1&band=watch',
   ].map((f) => `sort=score&dir=desc&${f}`),
 ];
 const get = (p: () => string): autocannon.Request[] => [
