@@ -60,6 +60,7 @@ describe('fleet table to decision', () => {
       await page.waitForURL(new RegExp(`/units/${top.id}$`));
       unitId = top.id;
       expect(engineer.pageErrors).toEqual([]);
+      expect(engineer.consoleErrors).toEqual([]);
     } finally {
       await engineer.close();
     }
@@ -89,6 +90,7 @@ describe('fleet table to decision', () => {
       await expect.poll(() => recommendation.textContent()).toContain(expected.label);
       await expect.poll(() => page.getByTestId(`option-${expected.id}`).textContent()).toContain('Cheapest');
       expect(owner.pageErrors).toEqual([]);
+      expect(owner.consoleErrors).toEqual([]);
     } finally {
       await owner.close();
     }

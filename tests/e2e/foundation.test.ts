@@ -20,6 +20,7 @@ describe('signing in by role', () => {
     await page.goto('/people');
     await page.getByTestId('not-allowed').waitFor();
     expect(browser.pageErrors).toEqual([]);
+    expect(browser.consoleErrors).toEqual([]);
   });
 
   it('sends a signed-out visitor to sign in and back to the page they asked for', async () => {

@@ -48,6 +48,7 @@ describe('fleet import in the browser', () => {
       for (const n of numbers) await page.locator(`[data-testid=unit-row][data-container-number="${n}"]`).waitFor();
       expect(await page.getByText(formatContainerNumber(numbers[1]), { exact: true }).count()).toBe(1);
       expect(browser.pageErrors).toEqual([]);
+      expect(browser.consoleErrors).toEqual([]);
     } finally {
       await browser.close();
     }

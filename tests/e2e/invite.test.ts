@@ -78,7 +78,9 @@ describe('inviting a technician', () => {
     await problem.waitFor();
     expect(await problem.getAttribute('data-code')).toBe('link_used');
     expect(adminBrowser.pageErrors).toEqual([]);
+    expect(adminBrowser.consoleErrors).toEqual([]);
     expect(techBrowser.pageErrors).toEqual([]);
+    expect(techBrowser.consoleErrors).toEqual([]);
   });
 
   it('resets a forgotten password through the link from the sign-in page', async () => {
@@ -98,6 +100,7 @@ describe('inviting a technician', () => {
     await tech.waitForURL(`${baseUrl}/`);
     await tech.getByTestId('current-user').getByText('Ines Fallow').waitFor();
     expect(techBrowser.pageErrors).toEqual([]);
+    expect(techBrowser.consoleErrors).toEqual([]);
   });
 
   it('shows the administrator the mail in the development mailbox', async () => {
@@ -106,5 +109,6 @@ describe('inviting a technician', () => {
     await page.getByRole('heading', { name: 'Mailbox' }).waitFor();
     await page.getByTestId('mailbox-item').filter({ hasText: email }).first().waitFor();
     expect(adminBrowser.pageErrors).toEqual([]);
+    expect(adminBrowser.consoleErrors).toEqual([]);
   });
 });

@@ -61,6 +61,7 @@ describe('scanning a label', () => {
       await page.waitForURL(new RegExp(`/units/${unit.id}$`), { timeout: 60_000 });
       await page.getByRole('heading', { level: 1, name: formatContainerNumber(unit.containerNumber) }).waitFor();
       expect(browser.pageErrors).toEqual([]);
+      expect(browser.consoleErrors).toEqual([]);
     } finally {
       await browser.close();
     }
@@ -86,6 +87,7 @@ describe('scanning a label', () => {
       await page.getByRole('button', { name: 'Open unit' }).click();
       await page.waitForURL(new RegExp(`/units/${unit.id}$`));
       expect(browser.pageErrors).toEqual([]);
+      expect(browser.consoleErrors).toEqual([]);
     } finally {
       await browser.close();
     }

@@ -70,6 +70,7 @@ describe('recording a visit on a phone', () => {
       expect(Number(row.n)).toBe(1);
       expect(await visitsOf(unit.id)).toBe(3);
       expect(b.pageErrors).toEqual([]);
+      expect(b.consoleErrors).toEqual([]);
     } finally {
       await b.close();
     }
@@ -108,6 +109,29 @@ describe('recording a visit on a phone', () => {
       await page.getByTestId('visit-queue').waitFor({ state: 'detached' });
       expect(await visitsOf(unit.id)).toBe(1);
       expect(await page.getByTestId('history-entry').count()).toBe(1);
+      expect(b.pageErrors).toEqual([]);
+      expect(b.consoleErrors).toEqual([]);
+    } finally {
+      await b.close();
+    }
+  });
+
+  it('draws two pressure readings of one visit (before and after a top-up) as two points, with no warnings', async () => {
+    const b = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = b;
+      const unit = await createHistoryUnit(db, { nominalChargeKg: 4.5, commissionedOn: '2024-01-15' });
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      const reading = (suctionKPaG: number, dischargeKPaG: number) =>
+        ({ kind: 'pressure', suctionKPaG, dischargeKPaG, ambientC: 24, sightGlass: 'full', enteredAs: { pressureUnit: 'kPa', temperatureUnit: 'C' } }) as const;
+      await recordVisits(page.request, inject('baseUrl'), unit.id, [
+        { at: at(40 * DAY), events: [reading(150, 900)] },
+        { at: at(10 * DAY), events: [reading(60, 780), { kind: 'top_up', kg: 0.4, cylinder: 'CYL-E2E-3' }, reading(150, 905)] },
+      ]);
+      await page.goto(`/units/${unit.id}`);
+      await page.getByRole('img', { name: /^Saturation temperatures of 3 pressure readings/ }).waitFor();
+      expect(b.consoleErrors).toEqual([]);
       expect(b.pageErrors).toEqual([]);
     } finally {
       await b.close();

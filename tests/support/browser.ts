@@ -45,10 +45,17 @@ export async function openBrowser(opts: { viewport?: { width: number; height: nu
   const page: Page = context.pages()[0] ?? (await context.newPage());
   const pageErrors: string[] = [];
   page.on('pageerror', (e) => pageErrors.push(e.message));
+  // What the app logs as an error in the browser console (React's warnings among them); the browser's own line for
+  // each answer with an error status is left out, since the tests ask for many of those on purpose.
+  const consoleErrors: string[] = [];
+  page.on('console', (m) => {
+    if (m.type() === 'error' && !m.text().startsWith('Failed to load resource:')) consoleErrors.push(m.text());
+  });
   return {
     context,
     page,
     pageErrors,
+    consoleErrors,
     async close() {
       await context.close();
       rmSync(profile, { recursive: true, force: true });

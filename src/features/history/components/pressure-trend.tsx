@@ -123,8 +123,9 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
               strokeWidth={3}
               strokeDasharray="6 3"
             />
-            {usable.map((p) => (
-              <g key={p.at}>
+            {/* Two readings of one visit share a time: the index keeps their keys apart. */}
+            {usable.map((p, i) => (
+              <g key={`${p.at}#${i}`}>
                 {p.condensingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.condensingC)} r={4} fill={C.alarm} />}
                 {p.evaporatingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.evaporatingC)} r={4} fill="#fff" stroke={C.fjord} strokeWidth={2} />}
               </g>
