@@ -1,8 +1,9 @@
 // The fleet table: units ⨝ unit_stats, filtered, sorted and paged in SQL, every sort backed by an index.
-import { and, asc, count, desc, eq, gt, inArray, isNotNull, isNull, like, lt, lte, max, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, inArray, isNotNull, isNull, like, lt, lte, or, sql, type SQL } from 'drizzle-orm';
 import { LRUCache } from 'lru-cache';
 import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
+import { fleetSize } from './fleet-size';
 import { sites, units, unitStats } from '../../db/schema';
 import {
   FLEET_COUNT_CAP,
@@ -220,22 +221,6 @@ export async function shouldForceSortIndex(db: Db, q: Pick<FleetQuery, 'sort'> &
   if (!SORT_INDEXES[q.sort] || hasStatsFilters(q)) return false;
   if (!hasUnitFilters(q)) return true;
   return (await unitFilterShare(db, q)) >= WIDE_FILTER_SHARE;
-}
-
-// The whole fleet's size per database. Units are never deleted (retired ones stay), so the size changes when the
-// highest id does: one primary-key lookup tells whether the kept count holds, where counting reads every unit. Two
-// registrations committing out of id order could leave it one short; it is counted afresh after a minute at most.
-const fleetSizes = new WeakMap<Db, { topId: number; total: number; at: number }>();
-const FLEET_SIZE_MAX_AGE_MS = 60_000;
-
-async function fleetSize(db: Db): Promise<number> {
-  const [{ topId }] = await db.select({ topId: max(units.id) }).from(units);
-  const kept = fleetSizes.get(db);
-  if (kept && kept.topId === Number(topId ?? 0) && Date.now() - kept.at < FLEET_SIZE_MAX_AGE_MS) return kept.total;
-  // Counted after reading the highest id: a unit committed in between makes the next lookup count again.
-  const [{ n }] = await db.select({ n: count() }).from(units);
-  fleetSizes.set(db, { topId: Number(topId ?? 0), total: Number(n), at: Date.now() });
-  return Number(n);
 }
 
 export async function countFleet(db: Db, f: FleetFilters, today: string): Promise<FleetCountDto> {

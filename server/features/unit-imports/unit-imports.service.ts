@@ -19,6 +19,7 @@ import {
   type ImportRowErrorDto,
   type UnitImportDto,
 } from '../../../shared/schemas/units';
+import { unitsAdded } from '../fleet/fleet-size';
 import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './fleet-csv';
 
 /** Rows per INSERT: large enough to be fast, small enough to stay far below max_allowed_packet. */
@@ -261,7 +262,7 @@ export async function commitImport(
         await progress({ processedRows: Math.min(total, skip.size + i + chunk.length) });
       }
       return rows.length;
-    });
+    }).finally(() => unitsAdded(db));
     await progress({ status: 'committed', processedRows: total, insertedRows: inserted, finishedAt: now() });
   } catch (err) {
     const refused =

@@ -15,6 +15,7 @@ import {
   type UnitListQuery,
   type UpdateUnitInput,
 } from '../../../shared/schemas/units';
+import { unitsAdded } from '../fleet/fleet-size';
 import { toUnitDto } from './units.mapper';
 
 const numberTaken = (containerNumber: string) =>
@@ -122,6 +123,8 @@ export async function createUnit(db: Db, now: Date, input: CreateUnitInput): Pro
   } catch (err) {
     if (isDuplicateKeyError(err)) throw numberTaken(input.containerNumber);
     throw err;
+  } finally {
+    unitsAdded(db);
   }
 }
 
