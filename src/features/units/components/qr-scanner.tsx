@@ -5,6 +5,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
+import { createQrFallbackReader } from '../lib/qr-fallback-reader';
 
 type CameraState =
   | { kind: 'starting' }
@@ -38,6 +39,9 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
   const [deviceId, setDeviceId] = useState<string | undefined>(undefined);
   const [enabled, setEnabled] = useState(true);
   const [run, setRun] = useState(0);
+  // The camera run being shut down. Stopping a run empties the shared <video>, so a new run starts only after the
+  // previous one has stopped; otherwise a late stop blanks the new run's picture and nothing is ever decoded.
+  const stoppingRef = useRef<Promise<unknown>>(Promise.resolve());
 
   useEffect(() => {
     if (!cameraAvailable()) return;
@@ -45,36 +49,48 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       setState({ kind: 'stopped' });
       return;
     }
-    let controls: IScannerControls | null = null;
     let cancelled = false;
     setState({ kind: 'starting' });
     const reader = new BrowserQRCodeReader(undefined, { delayBetweenScanAttempts: 120 });
+    const readWithFallback = createQrFallbackReader();
+    // zxing calls back from inside its scan loop, which stops for good on an exception it does not expect.
+    const readMissedFrame = () => {
+      try {
+        return readWithFallback(videoRef.current);
+      } catch {
+        return null;
+      }
+    };
     const video: MediaTrackConstraints = deviceId
       ? { deviceId: { exact: deviceId } }
       : { facingMode: { ideal: 'environment' } };
-    reader
-      .decodeFromConstraints({ video, audio: false }, videoRef.current ?? undefined, (result) => {
-        if (!result) return;
-        const text = result.getText();
-        const last = lastRef.current;
-        // The same label stays in view for many frames; report it once (again only after a pause).
-        if (last && last.text === text && Date.now() - last.at < 3000) return;
-        lastRef.current = { text, at: Date.now() };
-        onCodeRef.current(text);
-      })
-      .then(async (c) => {
-        if (cancelled) return c.stop();
-        controls = c;
+    const started: Promise<IScannerControls | null> = stoppingRef.current.then(() =>
+      cancelled
+        ? null
+        : reader.decodeFromConstraints({ video, audio: false }, videoRef.current ?? undefined, (result) => {
+            const text = result ? result.getText() : readMissedFrame();
+            if (!text) return;
+            const last = lastRef.current;
+            // The same label stays in view for many frames; report it once (again only after a pause).
+            if (last && last.text === text && Date.now() - last.at < 3000) return;
+            lastRef.current = { text, at: Date.now() };
+            onCodeRef.current(text);
+          }),
+    );
+    started
+      .then(async (controls) => {
+        if (cancelled || !controls) return;
         setState({ kind: 'scanning' });
         // Camera names are only readable once permission is granted.
-        setDevices(await BrowserQRCodeReader.listVideoInputDevices());
+        const found = await BrowserQRCodeReader.listVideoInputDevices();
+        if (!cancelled) setDevices(found);
       })
       .catch((error: unknown) => {
         if (!cancelled) setState(stateOf(error));
       });
     return () => {
       cancelled = true;
-      controls?.stop();
+      stoppingRef.current = started.then((controls) => controls?.stop()).catch(() => undefined);
     };
   }, [enabled, deviceId, run]);
 
