@@ -95,4 +95,30 @@ describe('fleet table to decision', () => {
       await owner.close();
     }
   });
+
+  it('keeps every fleet and decision page within a 390 px phone screen', async () => {
+    const owner = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = owner;
+      await signInThroughForm(page, account('owner').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      for (const [path, ready] of [
+        ['/fleet', page.getByTestId('fleet-row').first()],
+        ['/fleet/overview', page.getByRole('heading', { name: 'Repeat leakers' })],
+        ['/fleet/trace', page.getByRole('heading', { level: 1 })],
+        ['/refrigerant-log', page.getByRole('heading', { level: 1 })],
+        ['/decisions', page.getByRole('heading', { level: 1 })],
+      ] as const) {
+        await page.goto(path);
+        await ready.waitFor();
+        await page.waitForLoadState('networkidle');
+        const width = await page.evaluate(() => document.documentElement.scrollWidth);
+        expect({ path, width }).toEqual({ path, width: PHONE.width });
+      }
+      expect(owner.pageErrors).toEqual([]);
+      expect(owner.consoleErrors).toEqual([]);
+    } finally {
+      await owner.close();
+    }
+  });
 });

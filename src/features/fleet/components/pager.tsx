@@ -29,7 +29,7 @@ export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Pr
           `Page ${page}`
         )}
       </p>
-      <div className="flex items-center gap-2">
+      <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
         <label className="flex items-center gap-2 text-sm font-semibold text-ink-700">
           Per page
           <select className="min-h-touch rounded-md border-2 border-ink-400 bg-white px-2 text-base" value={pageSize} onChange={(e) => onPageSize(Number(e.target.value))}>
@@ -38,16 +38,19 @@ export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Pr
             ))}
           </select>
         </label>
-        <Button variant="secondary" disabled={page <= 1} onClick={() => onPage(page - 1)}>
-          Previous
-        </Button>
-        <span className="min-w-16 text-center text-sm text-ink-700 tabular-nums">
-          {page}
-          {pages && !count?.capped ? ` / ${pages}` : ''}
-        </span>
-        <Button variant="secondary" disabled={!hasMore} onClick={() => onPage(page + 1)}>
-          Next
-        </Button>
+        {/* Previous, page and Next stay on one line; on a phone they wrap below the page size as one group. */}
+        <div className="flex items-center gap-2">
+          <Button variant="secondary" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+            Previous
+          </Button>
+          <span className="min-w-16 text-center text-sm text-ink-700 tabular-nums">
+            {page}
+            {pages && !count?.capped ? ` / ${pages}` : ''}
+          </span>
+          <Button variant="secondary" disabled={!hasMore} onClick={() => onPage(page + 1)}>
+            Next
+          </Button>
+        </div>
       </div>
     </nav>
   );
