@@ -26,7 +26,13 @@ const leaker: VisitSpec[] = [
       { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true },
     ],
   },
-  { at: at(150), events: [{ kind: 'leak_check', method: 'bubble_solution', leakFound: true, location: 'service_valve' }, { kind: 'top_up', kg: 1.0, cylinder: 'LOT-E2E-2' }] },
+  {
+    at: at(150),
+    events: [
+      { kind: 'leak_check', method: 'bubble_solution', leakFound: true, location: 'service_valve' },
+      { kind: 'top_up', kg: 1.0, cylinder: 'LOT-E2E-2' },
+    ],
+  },
   { at: at(90), events: [{ kind: 'top_up', kg: 1.1, cylinder: 'LOT-E2E-2' }] },
   { at: at(30), events: [{ kind: 'top_up', kg: 1.0, cylinder: 'LOT-E2E-3' }] },
 ];
@@ -44,17 +50,32 @@ describe('fleet table to decision', () => {
       await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
       await page.getByRole('navigation', { name: 'Main' }).waitFor();
       await recordVisits(page.request, inject('baseUrl'), top.id, leaker);
-      await recordVisits(page.request, inject('baseUrl'), quiet.id, [{ at: at(20), events: [{ kind: 'pti', passed: true }, { kind: 'leak_check', method: 'uv_dye', leakFound: false }] }]);
+      await recordVisits(page.request, inject('baseUrl'), quiet.id, [
+        {
+          at: at(20),
+          events: [
+            { kind: 'pti', passed: true },
+            { kind: 'leak_check', method: 'uv_dye', leakFound: false },
+          ],
+        },
+      ]);
 
       // Start from another order, then sort by score with the column header.
       await page.goto(`/fleet?siteId=${site.id}&sort=containerNumber&dir=asc`);
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Fleet' }).waitFor();
       await expect.poll(() => page.getByTestId('fleet-row').count()).toBe(2);
-      await page.getByRole('columnheader', { name: /^Score/ }).getByRole('button').click();
+      await page
+        .getByRole('columnheader', { name: /^Score/ })
+        .getByRole('button')
+        .click();
       // Score, highest first, is the default order: the address drops the sort.
       await page.waitForURL((u) => !u.search.includes('sort='));
-      await expect.poll(() => page.getByRole('columnheader', { name: /^Score/ }).getAttribute('aria-sort')).toBe('descending');
-      await expect.poll(async () => page.getByTestId('fleet-row').first().getAttribute('data-unit-id')).toBe(String(top.id));
+      await expect
+        .poll(() => page.getByRole('columnheader', { name: /^Score/ }).getAttribute('aria-sort'))
+        .toBe('descending');
+      await expect
+        .poll(async () => page.getByTestId('fleet-row').first().getAttribute('data-unit-id'))
+        .toBe(String(top.id));
 
       await page.getByTestId('fleet-row').first().getByTestId('fleet-unit-link').click();
       await page.waitForURL(new RegExp(`/units/${top.id}$`));
@@ -81,8 +102,15 @@ describe('fleet table to decision', () => {
       const before = compareRepairOptions(d.engineInput, { ...DEFAULT_SETTINGS, economics: d.economics });
       expect(await recommendation.textContent()).toContain(before.options.find((o) => o.cheapest)!.label);
       const price = 2000;
-      const inputs = { ...d.engineInput, topUpIntervalDays: Math.round(d.engineInput.topUpIntervalDays! * 10) / 10, madeUpKgPerVisit: Math.round(d.engineInput.madeUpKgPerVisit! * 1000) / 1000 };
-      const after = compareRepairOptions(inputs, { ...DEFAULT_SETTINGS, economics: { ...d.economics, refrigerantPricePerKg: { ...d.economics.refrigerantPricePerKg, 'R-134a': price } } });
+      const inputs = {
+        ...d.engineInput,
+        topUpIntervalDays: Math.round(d.engineInput.topUpIntervalDays! * 10) / 10,
+        madeUpKgPerVisit: Math.round(d.engineInput.madeUpKgPerVisit! * 1000) / 1000,
+      };
+      const after = compareRepairOptions(inputs, {
+        ...DEFAULT_SETTINGS,
+        economics: { ...d.economics, refrigerantPricePerKg: { ...d.economics.refrigerantPricePerKg, 'R-134a': price } },
+      });
       const expected = after.options.find((o) => o.cheapest)!;
       expect(expected.id).not.toBe(before.cheapestId);
 

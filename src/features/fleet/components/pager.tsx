@@ -21,7 +21,8 @@ export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Pr
             'No units'
           ) : (
             <>
-              Units {from.toLocaleString('en-GB')}–{Math.min(from + pageSize - 1, count.total).toLocaleString('en-GB')} of{' '}
+              Units {from.toLocaleString('en-GB')}–{Math.min(from + pageSize - 1, count.total).toLocaleString('en-GB')}{' '}
+              of{' '}
               {count.capped ? `more than ${count.total.toLocaleString('en-GB')}` : count.total.toLocaleString('en-GB')}
             </>
           )
@@ -32,7 +33,11 @@ export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Pr
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
         <label className="flex items-center gap-2 text-sm font-semibold text-ink-700">
           Per page
-          <select className="min-h-touch rounded-md border-2 border-ink-400 bg-white px-2 text-base" value={pageSize} onChange={(e) => onPageSize(Number(e.target.value))}>
+          <select
+            className="min-h-touch rounded-md border-2 border-ink-400 bg-white px-2 text-base"
+            value={pageSize}
+            onChange={(e) => onPageSize(Number(e.target.value))}
+          >
             {FLEET_PAGE_SIZES.map((s) => (
               <option key={s}>{s}</option>
             ))}
