@@ -7,7 +7,7 @@ import { fleetMonthly, unitStats } from '../../server/db/schema';
 import { fleetSize, unitsAdded } from '../../server/features/fleet/fleet-size';
 import { waitForJobs } from '../../server/features/jobs/jobs.service';
 import { co2eTonnes } from '../../shared/domain';
-import type { FleetPageDto } from '../../shared/schemas/fleet';
+import { FLEET_SORTS, type FleetPageDto } from '../../shared/schemas/fleet';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite, halyardNumber } from '../support/units';
@@ -83,6 +83,19 @@ describe('GET /api/fleet', () => {
     expect(searched.rows.map((r) => r.unitId)).toEqual(all.rows.filter((r) => r.containerNumber.startsWith('HRLU10')).map((r) => r.unitId));
     expect(searched.rows.length).toBeGreaterThan(0);
     expect((await list('sort=score&dir=desc&page=2')).rows).toEqual([]);
+  });
+
+  it('orders a number search read from the unit index (ids first, then the page) like the whole list, every sort both ways', async () => {
+    // With a filter on the statistics the sort index is not walked: the units the number keeps are read and sorted.
+    for (const sort of FLEET_SORTS) {
+      for (const dir of ['asc', 'desc']) {
+        const whole = await list(`rateAbove=0&sort=${sort}&dir=${dir}`);
+        const searched = await list(`rateAbove=0&q=hrlu10&sort=${sort}&dir=${dir}`);
+        const expected = whole.rows.filter((r) => r.containerNumber.startsWith('HRLU10')).map((r) => r.unitId);
+        expect({ sort, dir, ids: searched.rows.map((r) => r.unitId) }).toEqual({ sort, dir, ids: expected });
+        expect(expected.length).toBeGreaterThan(1);
+      }
+    }
   });
 
   it('filters by site, refrigerant, status, band, leak rate and container-number prefix', async () => {
