@@ -18,7 +18,7 @@ const tmp = mkdtempSync(path.join(os.tmpdir(), 'tightloop-scan-'));
 let unit: { id: number; containerNumber: string; qrToken: string };
 
 /** A unit of our own, on a serial the demo fleet does not use, with a label token that passes `keep`. */
-async function createUnit(keep: (qrToken: string) => boolean = () => true) {
+async function createUnit(keep: (qrToken: string) => boolean) {
   const candidates = Array.from({ length: 20 }, (_, i) => halyardNumber(990_000 + ((Date.now() + i * 37) % 9_999)));
   const taken = new Set(
     (await db.select({ n: units.containerNumber }).from(units).where(inArray(units.containerNumber, candidates))).map(

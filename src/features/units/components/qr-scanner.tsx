@@ -52,15 +52,7 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
     let cancelled = false;
     setState({ kind: 'starting' });
     const reader = new BrowserQRCodeReader(undefined, { delayBetweenScanAttempts: 120 });
-    const readWithFallback = createQrFallbackReader();
-    // zxing calls back from inside its scan loop, which stops for good on an exception it does not expect.
-    const readMissedFrame = () => {
-      try {
-        return readWithFallback(videoRef.current);
-      } catch {
-        return null;
-      }
-    };
+    const readMissedFrame = createQrFallbackReader();
     const video: MediaTrackConstraints = deviceId
       ? { deviceId: { exact: deviceId } }
       : { facingMode: { ideal: 'environment' } };
@@ -68,7 +60,7 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       cancelled
         ? null
         : reader.decodeFromConstraints({ video, audio: false }, videoRef.current ?? undefined, (result) => {
-            const text = result ? result.getText() : readMissedFrame();
+            const text = result ? result.getText() : readMissedFrame(videoRef.current);
             if (!text) return;
             const last = lastRef.current;
             // The same label stays in view for many frames; report it once (again only after a pause).
