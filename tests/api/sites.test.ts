@@ -1,9 +1,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
+import { randomUUID } from 'node:crypto';
+import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
+import { alertSubscriptions, units } from '../../server/db/schema';
 import { openTestDb, resetDb } from '../support/db';
-import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
+import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite } from '../support/units';
 
 const { db, pool } = openTestDb();
@@ -98,6 +101,41 @@ describe('sites', () => {
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toContain('1 unit is at this site');
     expect((await send(engineer, 'delete', '/api/sites/999999')).status).toBe(404);
+  });
+
+  it('returns 409 saying why when a site with history is removed, even after its units moved away', async () => {
+    const depot = await createTestSite(db);
+    const elsewhere = await createTestSite(db);
+    const unit = await createTestUnit(db, { siteId: depot.id });
+    const visit = await technician
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({
+        idempotencyKey: randomUUID(),
+        unitId: unit.id,
+        siteId: depot.id,
+        occurredAt: new Date(Date.now() - 3600_000).toISOString(),
+        events: [{ kind: 'pti', passed: true }],
+      });
+    expect(visit.status).toBe(201);
+    const withUnit = await send(engineer, 'delete', `/api/sites/${depot.id}`);
+    expect(withUnit.status).toBe(409);
+    expect(withUnit.body.error).toMatchObject({ code: 'conflict' });
+    expect(withUnit.body.error.message).toContain('move them to another site');
+
+    await db.update(units).set({ siteId: elsewhere.id }).where(eq(units.id, unit.id));
+    const withHistory = await send(engineer, 'delete', `/api/sites/${depot.id}`);
+    expect(withHistory.status).toBe(409);
+    expect(withHistory.body.error.message).toContain('service history');
+    expect((await technician.get(`/api/sites/${depot.id}`)).status).toBe(200);
+  });
+
+  it('removes a site that only has alert subscriptions, and the subscriptions with it', async () => {
+    const site = await createTestSite(db);
+    const user = await createTestUser(db, { role: 'engineer' });
+    await db.insert(alertSubscriptions).values({ userId: user.id, siteId: site.id, kind: 'chronic' });
+    expect((await send(engineer, 'delete', `/api/sites/${site.id}`)).status).toBe(204);
+    expect(await db.select().from(alertSubscriptions).where(eq(alertSubscriptions.siteId, site.id))).toEqual([]);
   });
 
   it('lets a technician read sites but not change them; a visitor gets 401', async () => {

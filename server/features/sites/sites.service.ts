@@ -1,6 +1,6 @@
 import { asc, count, eq } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
-import { sites, units } from '../../db/schema';
+import { alertSubscriptions, events, sites, units, visits } from '../../db/schema';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { conflict, notFound } from '../../lib/http-error';
 import type { CreateSiteInput, SiteDto, UpdateSiteInput } from '../../../shared/schemas/sites';
@@ -86,13 +86,45 @@ export async function updateSite(db: Db, id: number, input: UpdateSiteInput): Pr
   }
 }
 
+/** True when MariaDB refused to delete a row that another table still refers to (errno 1451). */
+function isStillReferencedError(err: unknown): boolean {
+  for (let e = err as { code?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 4; depth++) {
+    if (e.code === 'ER_ROW_IS_REFERENCED_2' || e.code === 'ER_ROW_IS_REFERENCED') return true;
+    e = e.cause as typeof e;
+  }
+  return false;
+}
+
+/** Why a site cannot go, in words that say what to do instead; null when nothing refers to it. */
+async function historyAt(tx: DbOrTx, id: number): Promise<string | null> {
+  const n = await unitCountOf(tx, id);
+  if (n > 0) return `${n} unit${n === 1 ? ' is' : 's are'} at this site; move them to another site before removing it.`;
+  // Existence only: a busy site may have millions of entries and counting them would hold the lock for nothing.
+  const [visit] = await tx.select({ id: visits.id }).from(visits).where(eq(visits.siteId, id)).limit(1);
+  const [event] = visit ? [] : await tx.select({ id: events.id }).from(events).where(eq(events.siteId, id)).limit(1);
+  if (visit || event) {
+    // The record must keep saying where the work was done, so a site it names stays.
+    return 'Visits recorded at this site name it in the service history, so it cannot be removed. Keep it, or rename it if it has changed.';
+  }
+  return null;
+}
+
 export async function deleteSite(db: Db, id: number): Promise<void> {
-  await db.transaction(async (tx) => {
-    const [current] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, id)).for('update');
-    if (!current) throw notFound('No such site.');
-    const n = await unitCountOf(tx, id);
-    // Units and their history name the site; it stays while anything refers to it.
-    if (n > 0) throw conflict(`${n} unit${n === 1 ? ' is' : 's are'} at this site; move them before removing it.`);
-    await tx.delete(sites).where(eq(sites.id, id));
-  });
+  try {
+    await db.transaction(async (tx) => {
+      const [current] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, id)).for('update');
+      if (!current) throw notFound('No such site.');
+      const why = await historyAt(tx, id);
+      if (why) throw conflict(why);
+      // Alert subscriptions are preferences about the site, not its history; they go with it.
+      await tx.delete(alertSubscriptions).where(eq(alertSubscriptions.siteId, id));
+      await tx.delete(sites).where(eq(sites.id, id));
+    });
+  } catch (err) {
+    // Something came to refer to the site between the check and the delete (or a table the check does not know).
+    if (isStillReferencedError(err)) {
+      throw conflict('Records still refer to this site (units or their service history), so it cannot be removed.');
+    }
+    throw err;
+  }
 }
