@@ -35,6 +35,24 @@ describe('people (admin)', () => {
     expect(res.body.error.fields.email).toBeTruthy();
   });
 
+  it('returns one 201 and 409 for the rest when the same person is added several times at once', async () => {
+    const admins = await Promise.all([signInAs(app, db, 'admin'), signInAs(app, db, 'admin')]);
+    for (const [round, password] of [undefined, 'a-long-password', undefined].entries()) {
+      const email = `twice.${round}@test.example`;
+      const results = await Promise.all(
+        Array.from({ length: 6 }, (_, i) =>
+          admins[i % 2].agent
+            .post('/api/users')
+            .set('Origin', TEST_ORIGIN)
+            .send({ email, name: `Twice ${round}`, role: 'technician', ...(password && { password }) }),
+        ),
+      );
+      const statuses = results.map((r) => r.status).sort();
+      expect(statuses, JSON.stringify(results.map((r) => r.body))).toEqual([201, 409, 409, 409, 409, 409]);
+      for (const r of results.filter((x) => x.status === 409)) expect(r.body.error.fields.email).toBe('Already in use');
+    }
+  });
+
   it('answers 400 with fields for an unknown role or a short password', async () => {
     const { agent } = await signInAs(app, db, 'admin');
     const res = await agent

@@ -1,6 +1,7 @@
 import { asc, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { sessions, users } from '../../db/schema';
+import { isDuplicateKeyError } from '../../lib/db-errors';
 import { conflict, notFound } from '../../lib/http-error';
 import { hashPassword } from '../../lib/password';
 import { newId } from '../../lib/ids';
@@ -17,21 +18,28 @@ export async function listUsers(db: Db) {
 export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppContext, 'publicUrl' | 'clock'>) {
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   const id = newId();
-  return db.transaction(async (tx) => {
-    const [taken] = await tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).limit(1);
-    if (taken) throw conflict('A user with this e-mail already exists.', { email: 'Already in use' });
-    await tx.insert(users).values({
-      id,
-      email: input.email,
-      name: input.name,
-      role: input.role,
-      certificateNumber: input.certificateNumber ?? null,
-      passwordHash,
+  const emailTaken = () => conflict('A user with this e-mail already exists.', { email: 'Already in use' });
+  try {
+    return await db.transaction(async (tx) => {
+      const [taken] = await tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).limit(1);
+      if (taken) throw emailTaken();
+      await tx.insert(users).values({
+        id,
+        email: input.email,
+        name: input.name,
+        role: input.role,
+        certificateNumber: input.certificateNumber ?? null,
+        passwordHash,
+      });
+      const [row] = await tx.select().from(users).where(eq(users.id, id));
+      if (!passwordHash) await queueInvitation(tx, ctx, row);
+      return toUserDto(row);
     });
-    const [row] = await tx.select().from(users).where(eq(users.id, id));
-    if (!passwordHash) await queueInvitation(tx, ctx, row);
-    return toUserDto(row);
-  });
+  } catch (err) {
+    // Two administrators adding the same person at once: both checks pass, the unique e-mail key decides.
+    if (isDuplicateKeyError(err)) throw emailTaken();
+    throw err;
+  }
 }
 
 export async function updateUser(db: Db, actorId: string, id: string, input: UpdateUserInput) {
