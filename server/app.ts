@@ -16,6 +16,7 @@ import { sessionMiddleware } from './middleware/session';
 import { originCheck } from './middleware/origin-check';
 import { requireAccess } from './middleware/require-permission';
 import { errorHandler } from './middleware/error-handler';
+import { verifyUtf8Body, wellFormedText } from './middleware/well-formed-text';
 import { authRoutes } from './features/auth/auth.router';
 import { usersRoutes } from './features/users/users.router';
 import { healthRoutes } from './features/health/health.router';
@@ -94,7 +95,8 @@ export function createApp(deps: AppDeps) {
     }),
   );
   app.use(requestLog(logger));
-  app.use('/api', express.json({ limit: JSON_BODY_LIMIT }));
+  app.use('/api', express.json({ limit: JSON_BODY_LIMIT, verify: verifyUtf8Body }));
+  app.use('/api', wellFormedText());
   app.use('/api', sessionMiddleware(ctx.sessions));
   app.use('/api', originCheck([new URL(publicUrl).origin]));
 
