@@ -51,7 +51,9 @@ const TARGETS = {
 } satisfies Record<string, Target[] | number>;
 
 const url = process.env.DATABASE_URL ?? (await ensureProjectDatabase(BENCH_DATABASE));
-const seedInfo = existsSync(BENCH_SEED_INFO) ? (JSON.parse(readFileSync(BENCH_SEED_INFO, 'utf8')) as Record<string, unknown>) : null;
+const seedInfo = existsSync(BENCH_SEED_INFO)
+  ? (JSON.parse(readFileSync(BENCH_SEED_INFO, 'utf8')) as Record<string, unknown>)
+  : null;
 
 // --- what to ask for ---------------------------------------------------------------------------------------------
 const sql = await mysql.createConnection({ uri: url, timezone: 'Z' });
@@ -62,20 +64,33 @@ if (!Number(unitTotal)) {
   process.exit(1);
 }
 const [{ n: eventTotal }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM events');
-const [busiest] = await one<{ unitId: number }>('SELECT unit_id AS unitId FROM unit_stats ORDER BY event_count DESC LIMIT 1');
-const [{ n: busyEvents }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM events WHERE unit_id = ?', [busiest.unitId]);
+const [busiest] = await one<{ unitId: number }>(
+  'SELECT unit_id AS unitId FROM unit_stats ORDER BY event_count DESC LIMIT 1',
+);
+const [{ n: busyEvents }] = await one<{ n: number }>('SELECT COUNT(*) AS n FROM events WHERE unit_id = ?', [
+  busiest.unitId,
+]);
 const busy = { unitId: busiest.unitId, events: Number(busyEvents) };
 const rng = createRng(20_260_601);
-const inService = (await one<{ id: number }>("SELECT id FROM units WHERE status = 'in_service' AND id <> ?", [busy.unitId])).map((r) => r.id);
-const sample = (list: number[], k: number) => Array.from({ length: k }, () => list[Math.floor(rng.next() * list.length)]);
+const inService = (
+  await one<{ id: number }>("SELECT id FROM units WHERE status = 'in_service' AND id <> ?", [busy.unitId])
+).map((r) => r.id);
+const sample = (list: number[], k: number) =>
+  Array.from({ length: k }, () => list[Math.floor(rng.next() * list.length)]);
 const unitIds = sample(inService, 5000);
 const writeIds = sample(inService, 5000);
-const tokens = (await one<{ t: string }>('SELECT qr_token AS t FROM units WHERE id IN (?)', [sample(inService, 2000)])).map((r) => r.t);
-const [site] = await one<{ id: number }>('SELECT site_id AS id FROM units GROUP BY site_id ORDER BY COUNT(*) DESC LIMIT 1');
+const tokens = (
+  await one<{ t: string }>('SELECT qr_token AS t FROM units WHERE id IN (?)', [sample(inService, 2000)])
+).map((r) => r.t);
+const [site] = await one<{ id: number }>(
+  'SELECT site_id AS id FROM units GROUP BY site_id ORDER BY COUNT(*) DESC LIMIT 1',
+);
 // Container-number searches: the owner code with two, three and four digits (in the simulated fleet about 3 %,
 // 0.3 % and 0.03 % of it), and the start that keeps closest to 1 % — near the share where the table stops walking
 // the sort index and reads the matching units instead, so the slower of the two ways shows.
-const [{ n: sampleNumber }] = await one<{ n: string }>('SELECT container_number AS n FROM units WHERE id = ?', [unitIds[0]]);
+const [{ n: sampleNumber }] = await one<{ n: string }>('SELECT container_number AS n FROM units WHERE id = ?', [
+  unitIds[0],
+]);
 const [onePercent] = await one<{ p: string }>(
   'SELECT p FROM (SELECT LEFT(container_number, 5) AS p, COUNT(*) AS n FROM units GROUP BY p UNION ALL SELECT LEFT(container_number, 6), COUNT(*) FROM units GROUP BY 1) AS starts ORDER BY ABS(n - ? * 0.01) LIMIT 1',
   [Number(unitTotal)],
@@ -131,7 +146,8 @@ const signIn = await fetch(`${appUrl}/api/auth/sign-in`, {
   headers: { 'content-type': 'application/json', origin: appUrl },
   body: JSON.stringify({ email: DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!.email, password: DEMO_PASSWORD }),
 });
-if (signIn.status !== 200) throw new Error(`Signing in as the demo engineer failed: ${signIn.status} ${await signIn.text()}`);
+if (signIn.status !== 200)
+  throw new Error(`Signing in as the demo engineer failed: ${signIn.status} ${await signIn.text()}`);
 const cookie = signIn.headers
   .getSetCookie()
   .map((c) => c.split(';')[0])
@@ -297,7 +313,13 @@ const pacing = createRng(20_261_202);
  * Requests at a steady rate: arrivals at random (exponential gaps, `rate` a second on average) over at most
  * CONNECTIONS keep-alive sockets; each is timed from when it was due, so time spent waiting for a socket counts.
  */
-async function measureSteady(base: string, requests: autocannon.Request[], seconds: number, rate: number, headers: Record<string, string>): Promise<Run> {
+async function measureSteady(
+  base: string,
+  requests: autocannon.Request[],
+  seconds: number,
+  rate: number,
+  headers: Record<string, string>,
+): Promise<Run> {
   const agent = new http.Agent({ keepAlive: true, maxSockets: CONNECTIONS });
   const target = new URL(base);
   const template = requests[0];
@@ -306,15 +328,22 @@ async function measureSteady(base: string, requests: autocannon.Request[], secon
   let errors = 0;
   const send = (due: number) =>
     new Promise<void>((resolve) => {
-      const r = (template.setupRequest?.({ ...template, headers: {} } as autocannon.Request, {}) ?? template) as { method?: string; path?: string; body?: string };
-      const req = http.request({ host: target.hostname, port: target.port, method: r.method ?? 'GET', path: r.path, agent, headers }, (res) => {
-        res.resume();
-        res.on('end', () => {
-          times.push(performance.now() - due);
-          if (!res.statusCode || res.statusCode < 200 || res.statusCode >= 300) non2xx++;
-          resolve();
-        });
-      });
+      const r = (template.setupRequest?.({ ...template, headers: {} } as autocannon.Request, {}) ?? template) as {
+        method?: string;
+        path?: string;
+        body?: string;
+      };
+      const req = http.request(
+        { host: target.hostname, port: target.port, method: r.method ?? 'GET', path: r.path, agent, headers },
+        (res) => {
+          res.resume();
+          res.on('end', () => {
+            times.push(performance.now() - due);
+            if (!res.statusCode || res.statusCode < 200 || res.statusCode >= 300) non2xx++;
+            resolve();
+          });
+        },
+      );
       req.on('error', () => {
         errors++;
         resolve();
@@ -361,14 +390,15 @@ const baselineRequests = get(() => `/units/${pick(unitIds)}`);
   const jobs = await mysql.createConnection({ uri: url, timezone: 'Z' });
   const t = Date.now();
   for (;;) {
-    const [rows] = (await jobs.query("SELECT status FROM background_jobs WHERE kind = 'repair_effectiveness' ORDER BY id DESC LIMIT 1")) as unknown as [
-      { status: string }[],
-    ];
+    const [rows] = (await jobs.query(
+      "SELECT status FROM background_jobs WHERE kind = 'repair_effectiveness' ORDER BY id DESC LIMIT 1",
+    )) as unknown as [{ status: string }[]];
     if (rows[0]?.status !== 'running') break;
     if (Date.now() - t > 600_000) throw new Error('The repair-effectiveness job did not finish in 10 minutes.');
     await new Promise((r) => setTimeout(r, 1000));
   }
-  if (Date.now() - t > 1500) console.log(`Waited ${((Date.now() - t) / 1000).toFixed(0)} s for the app's repair-effectiveness job.`);
+  if (Date.now() - t > 1500)
+    console.log(`Waited ${((Date.now() - t) / 1000).toFixed(0)} s for the app's repair-effectiveness job.`);
   await jobs.end();
 }
 
@@ -427,7 +457,9 @@ for (let r = 1; r <= REPEAT; r++) {
 }
 
 const EACH_S = Math.min(3, DURATION_S);
-console.log(`Fleet table, each sort and filter by itself (${EACH_S} s saturated, ${EACH_S} s steady, ${REPEAT} rounds)…`);
+console.log(
+  `Fleet table, each sort and filter by itself (${EACH_S} s saturated, ${EACH_S} s steady, ${REPEAT} rounds)…`,
+);
 // Round by round over all cases, so a slow spell of a shared machine lands on different cases, not on every run of one.
 const fleetEachRuns = fleetEachQueries.map((query) => ({ query, saturated: [] as Run[], steady: [] as Run[] }));
 for (let r = 1; r <= REPEAT; r++) {
@@ -439,7 +471,9 @@ for (let r = 1; r <= REPEAT; r++) {
     const steady = await measureSteady(appUrl, requests, EACH_S, STEADY_RATE, appHeaders);
     f.saturated.push(saturated);
     f.steady.push(steady);
-    console.log(`  ${r}/${REPEAT} ${f.query.padEnd(44)} ${fmtRun(saturated)}  |  @${STEADY_RATE}/s p95 ${steady.p95.toFixed(1)} ms`);
+    console.log(
+      `  ${r}/${REPEAT} ${f.query.padEnd(44)} ${fmtRun(saturated)}  |  @${STEADY_RATE}/s p95 ${steady.p95.toFixed(1)} ms`,
+    );
   }
 }
 stopAll();
@@ -473,7 +507,9 @@ const fleet = createFleet({
   now: new Date(String(seedInfo?.asOf ?? new Date().toISOString())),
   busyUnitEvents: 0,
 });
-const backtest: BacktestResult = backtestForecast(fleet, DEFAULT_SETTINGS, { to: Math.min(BACKTEST_UNITS, fleet.units) });
+const backtest: BacktestResult = backtestForecast(fleet, DEFAULT_SETTINGS, {
+  to: Math.min(BACKTEST_UNITS, fleet.units),
+});
 
 // --- results -----------------------------------------------------------------------------------------------------
 const cpu = (() => {
@@ -483,14 +519,24 @@ const cpu = (() => {
     return os.cpus()[0]?.model ?? 'unknown';
   }
 })();
-const machine = { cpu, cores: os.cpus().length, memoryGiB: Math.round(os.totalmem() / 2 ** 30), node: process.version, os: `${os.type()} ${os.release()}` };
+const machine = {
+  cpu,
+  cores: os.cpus().length,
+  memoryGiB: Math.round(os.totalmem() / 2 ** 30),
+  node: process.version,
+  os: `${os.type()} ${os.release()}`,
+};
 const baselineSummary = summary(runs.baseline)!;
 const results = {
   date: new Date().toISOString(),
   machine,
   settings: { durationS: DURATION_S, repeat: REPEAT, connections: CONNECTIONS, steadyRate: STEADY_RATE },
   dataset: { units: Number(unitTotal), events: Number(eventTotal), busyUnitEvents: busy.events, seed: seedInfo },
-  baseline: { title: 'Bare Express + one mysql2 primary-key select (`SELECT * FROM units WHERE id = ?`)', ...baselineSummary, steady: summary(steadyRuns.baseline) },
+  baseline: {
+    title: 'Bare Express + one mysql2 primary-key select (`SELECT * FROM units WHERE id = ?`)',
+    ...baselineSummary,
+    steady: summary(steadyRuns.baseline),
+  },
   scenarios: scenarios.map((s) => {
     const status = available.get(s.id)!;
     const sum = summary(runs[s.id]);
@@ -528,7 +574,9 @@ const results = {
 const unitRatio = results.scenarios.find((s) => s.id === 'unitPage')?.baselineRatio;
 
 const md: string[] = [];
-md.push(`Measured ${results.date.slice(0, 10)} on ${machine.cpu}, ${machine.cores} cores, ${machine.memoryGiB} GiB, Node ${machine.node}; `);
+md.push(
+  `Measured ${results.date.slice(0, 10)} on ${machine.cpu}, ${machine.cores} cores, ${machine.memoryGiB} GiB, Node ${machine.node}; `,
+);
 md.push(
   `${results.dataset.units.toLocaleString('en')} units, ${results.dataset.events.toLocaleString('en')} events; over loopback, ` +
     `${DURATION_S} s per scenario and load, medians of ${REPEAT} runs; server, load generator and MariaDB share the machine. ` +
@@ -537,7 +585,9 @@ md.push(
     `${CONNECTIONS} connections, each timed from when it was due.${visitLoad}\n`,
 );
 const steadyCell = (x: ReturnType<typeof summary>) => (x ? `${x.p50Ms} / ${x.p95Ms} / ${x.p99Ms}` : '');
-md.push(`| scenario | saturated p50 / p95 / p99 ms | req/s | vs baseline req/s | steady ${STEADY_RATE}/s p50 / p95 / p99 ms | target |`);
+md.push(
+  `| scenario | saturated p50 / p95 / p99 ms | req/s | vs baseline req/s | steady ${STEADY_RATE}/s p50 / p95 / p99 ms | target |`,
+);
 md.push('|---|---:|---:|---:|---:|---|');
 md.push(
   `| ${results.baseline.title} | ${baselineSummary.p50Ms} / ${baselineSummary.p95Ms} / ${baselineSummary.p99Ms} | ${baselineSummary.rps} | 1.00 | ${steadyCell(results.baseline.steady)} | |`,
@@ -554,20 +604,28 @@ for (const s of results.scenarios) {
   }
   const failed = (s.non2xx ?? 0) + (s.steady?.non2xx ?? 0);
   const flags = failed ? ` (${failed} non-2xx)` : '';
-  md.push(`| ${s.title}${flags} | ${s.p50Ms} / ${s.p95Ms} / ${s.p99Ms} | ${s.rps} | ${s.baselineRatio?.toFixed(2)} | ${steadyCell(s.steady)} | ${targets.join('; ')} |`);
+  md.push(
+    `| ${s.title}${flags} | ${s.p50Ms} / ${s.p95Ms} / ${s.p99Ms} | ${s.rps} | ${s.baselineRatio?.toFixed(2)} | ${steadyCell(s.steady)} | ${targets.join('; ')} |`,
+  );
 }
 md.push('');
 const fleetLimit = TARGETS.fleetTable[0].p95Ms;
 const over = results.fleetTableEach.filter((f) => f.saturatedP95Ms > fleetLimit);
 md.push(
   `Fleet table, each sort (both ways) and each filter by itself, ${EACH_S} s saturated and ${EACH_S} s steady, medians of ${REPEAT} rounds: ` +
-    (over.length ? `${over.length} of ${results.fleetTableEach.length} above p95 ${fleetLimit} ms saturated.` : `all ${results.fleetTableEach.length} within p95 ${fleetLimit} ms saturated.`),
+    (over.length
+      ? `${over.length} of ${results.fleetTableEach.length} above p95 ${fleetLimit} ms saturated.`
+      : `all ${results.fleetTableEach.length} within p95 ${fleetLimit} ms saturated.`),
 );
 md.push('');
-md.push(`| \`GET /api/fleet?…\` | saturated p95 ms | req/s | steady ${STEADY_RATE}/s p95 ms | ≤ ${fleetLimit} ms saturated |`);
+md.push(
+  `| \`GET /api/fleet?…\` | saturated p95 ms | req/s | steady ${STEADY_RATE}/s p95 ms | ≤ ${fleetLimit} ms saturated |`,
+);
 md.push('|---|---:|---:|---:|---|');
 for (const f of results.fleetTableEach) {
-  md.push(`| \`${f.query}\`${f.non2xx ? ` (${f.non2xx} non-2xx)` : ''} | ${f.saturatedP95Ms} | ${f.saturatedRps} | ${f.steadyP95Ms} | ${f.saturatedP95Ms <= fleetLimit ? '✓' : '✗'} |`);
+  md.push(
+    `| \`${f.query}\`${f.non2xx ? ` (${f.non2xx} non-2xx)` : ''} | ${f.saturatedP95Ms} | ${f.saturatedRps} | ${f.steadyP95Ms} | ${f.saturatedP95Ms <= fleetLimit ? '✓' : '✗'} |`,
+  );
 }
 md.push('');
 md.push(
@@ -579,7 +637,10 @@ md.push(
 md.push('');
 md.push('| backtest cases | n | forecast MAE (bias) days | naive MAE (bias) days |');
 md.push('|---|---:|---:|---:|');
-for (const b of backtest.breakdown) md.push(`| ${b.group} | ${b.cases} | ${b.forecastMaeDays} (${b.forecastBiasDays >= 0 ? '+' : ''}${b.forecastBiasDays}) | ${b.naiveMaeDays} (${b.naiveBiasDays >= 0 ? '+' : ''}${b.naiveBiasDays}) |`);
+for (const b of backtest.breakdown)
+  md.push(
+    `| ${b.group} | ${b.cases} | ${b.forecastMaeDays} (${b.forecastBiasDays >= 0 ? '+' : ''}${b.forecastBiasDays}) | ${b.naiveMaeDays} (${b.naiveBiasDays >= 0 ? '+' : ''}${b.naiveBiasDays}) |`,
+  );
 if (seedInfo) {
   md.push('');
   md.push(
@@ -588,7 +649,9 @@ if (seedInfo) {
   );
 }
 md.push('');
-md.push('Reproduce: `npm run seed:bench -- --units 100000`, then `npm run bench` (options: `--duration`, `--repeat`, `--connections`, `--rate`).');
+md.push(
+  'Reproduce: `npm run seed:bench -- --units 100000`, then `npm run bench` (options: `--duration`, `--repeat`, `--connections`, `--rate`).',
+);
 // Hand-written findings (what misses its target and why) live beside the results and are quoted with them.
 const notesFile = path.join(PROJECT_ROOT, 'bench', 'notes.md');
 if (existsSync(notesFile)) md.push('', readFileSync(notesFile, 'utf8').trim());
