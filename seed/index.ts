@@ -6,6 +6,7 @@ import { newId } from '../server/lib/ids';
 import { getSettings } from '../server/features/settings/settings.service';
 import { startRepairEffectiveness, waitForJobs } from '../server/features/jobs/jobs.service';
 import { createLogger } from '../server/lib/logger';
+import { publicUrl, readEnv } from '../server/env';
 import { DEMO_ACCOUNTS, DEMO_COMPANY, DEMO_PASSWORD } from './demo-accounts';
 import { createFleet, STORY_UNITS, type Fleet } from './simulator/fleet';
 import { containerNumberFor } from './simulator/unit-sim';
@@ -91,7 +92,7 @@ export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<Seed
     conn.release();
   }
   // The repair-effectiveness table is a cache the server rebuilds in the background; build it now with the same job.
-  await startRepairEffectiveness({ db, clock: { now: () => now }, logger: createLogger('silent') });
+  await startRepairEffectiveness({ db, clock: { now: () => now }, logger: createLogger('silent'), publicUrl: publicUrl(readEnv()) });
   await waitForJobs();
   const summary: SeedSummary = {
     units: writer.counts.units,

@@ -1,8 +1,22 @@
-/** True when MariaDB refused a row because it repeats a unique key (drizzle wraps the driver's error in `cause`). */
-export function isDuplicateKeyError(err: unknown): boolean {
+/** The MariaDB error codes along drizzle's wrapping chain (it puts the driver's error in `cause`). */
+function codesOf(err: unknown): string[] {
+  const codes: string[] = [];
   for (let e = err as { code?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 4; depth++) {
-    if (e.code === 'ER_DUP_ENTRY') return true;
+    if (typeof e.code === 'string') codes.push(e.code);
     e = e.cause as typeof e;
   }
-  return false;
+  return codes;
+}
+
+/** True when MariaDB refused a row because it repeats a unique key. */
+export function isDuplicateKeyError(err: unknown): boolean {
+  return codesOf(err).includes('ER_DUP_ENTRY');
+}
+
+// A deadlock or lock-wait timeout rolls back the whole transaction; running it again is safe when the write is
+// idempotent (every history write is, by its submission key). The cluster adds certification failures here.
+const RETRYABLE = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT']);
+
+export function isRetryableTransactionError(err: unknown): boolean {
+  return codesOf(err).some((c) => RETRYABLE.has(c));
 }

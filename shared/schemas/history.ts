@@ -212,6 +212,8 @@ export type UnitStatsDto = {
   /** The engine's result without its per-visit and per-snapshot series (those come with the timeline). */
   detail: UnitStatsSummary | null;
 };
+  /** Why the figures could not be computed from this unit's record (then the figures above are placeholders). */
+  computeError: string | null;
 
 /** What the statistics row keeps of `computeUnitStats`: every figure and reason, not the series. */
 export type UnitStatsSummary = Omit<UnitStats, 'visits' | 'snapshots'>;

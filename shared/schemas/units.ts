@@ -162,6 +162,7 @@ export const UNIT_FIELD_LABELS = {
 export type UnitField = keyof typeof UNIT_FIELD_LABELS;
 
 export const UNIT_SORTS = ['containerNumber', 'updatedAt', 'commissionedOn', 'nominalChargeKg'] as const;
+  registered: 'Registered',
 export type UnitSort = (typeof UNIT_SORTS)[number];
 
 export const unitListQuerySchema = z.object({

@@ -11,6 +11,7 @@ import {
   json,
   mysqlEnum,
   mysqlTable,
+  uniqueIndex,
   varchar,
 } from 'drizzle-orm/mysql-core';
 import { sites } from './sites';
@@ -48,6 +49,8 @@ export const visits = mysqlTable(
     enteredAt: datetime('entered_at', { mode: 'date', fsp: 3 }).notNull(),
     // A retried submission carries the same key and gets the first result back.
     idempotencyKey: varchar('idempotency_key', { length: 64 }).notNull().unique(),
+    // SHA-256 of what was submitted under the key: the same key with other content is refused, not replayed.
+    contentHash: varchar('content_hash', { length: 64 }),
     createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('visits_unit_idx').on(t.unitId, t.occurredAt)],
@@ -98,7 +101,8 @@ export const events = mysqlTable(
   (t) => [
     index('events_unit_time_idx').on(t.unitId, t.occurredAt),
     index('events_visit_idx').on(t.visitId),
-    index('events_voids_idx').on(t.voidsEventId),
+    // One void per entry: concurrent voids of the same entry cannot both land.
+    uniqueIndex('events_voids_unique').on(t.voidsEventId),
     index('events_cylinder_idx').on(t.cylinder, t.occurredAt),
     index('events_site_time_idx').on(t.siteId, t.occurredAt),
     index('events_kind_time_idx').on(t.kind, t.occurredAt),
@@ -161,6 +165,8 @@ export const unitStats = mysqlTable(
     visitCount: int('visit_count').notNull().default(0),
     topUpCount: int('top_up_count').notNull().default(0),
     lastEventAt: datetime('last_event_at', { mode: 'date', fsp: 3 }),
+    // Why the engine could not compute this unit's figures (an implausible record); null when it could.
+    computeError: varchar('compute_error', { length: 300 }),
   },
   (t) => [
     index('unit_stats_score_idx').on(t.score),

@@ -17,7 +17,7 @@ export function decisionsRoutes(ctx: AppContext) {
     route('post', '/api/decisions/units/:id', 'decide:retirement', async (req, res) => {
       const { id } = unitIdParam.parse(req.params);
       const input = recordDecisionSchema.parse(req.body);
-      const result = await recordDecision(ctx.db, req.user!, id, input, ctx.clock.now());
+      const result = await recordDecision(ctx, req.user!, id, input);
       res.status(result.replayed ? 200 : 201).json(result);
     }),
   ];

@@ -1,9 +1,12 @@
 // Repair or retire (DOMAIN.md §9): the four options of a unit priced from its own history and the fleet's repair
 // record, the fleet's candidates ranked by yearly saving, and recording a decision as a unit event.
+import { writeUnit, type WriteContext } from '../history/write-path';
+import { isDuplicateKeyError } from '../../lib/db-errors';
+import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { events, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
-import { notFound } from '../../lib/http-error';
+import { conflict, notFound } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import { compareRepairOptions, isLeakLocation, unitAgeYears, type LeakLocationId, type RepairOptionsInput } from '../../../shared/domain';
 import {
@@ -78,30 +81,44 @@ function ageOf(u: { commissionedOn: string | null; createdAt: Date }, asOf: Date
 
 const withEconomics = (settings: Settings, economics: Settings['economics']): Settings => ({ ...settings, economics });
 
+const decisionFields = { id: events.id, at: events.occurredAt, details: events.details, note: events.note, userId: users.id, userName: users.name };
+
+function toDecisionRecord(r: { id: number; at: Date; details: unknown; note: string | null; userId: string; userName: string }): DecisionRecordDto {
+  const d = (r.details ?? {}) as { choice?: DecisionChoice; cheapestId?: DecisionRecordDto['cheapestId'] };
+  return {
+    eventId: r.id,
+    choice: d.choice ?? 'keep',
+    at: r.at.toISOString(),
+    by: { id: r.userId, name: r.userName },
+    cheapestId: d.cheapestId ?? 'keep_topping_up',
+    note: r.note,
+  };
+}
+
 async function decisionsOf(db: DbOrTx, unitId: number): Promise<DecisionRecordDto[]> {
   const rows = await db
-    .select({ id: events.id, at: events.occurredAt, details: events.details, note: events.note, userId: users.id, userName: users.name })
+    .select(decisionFields)
     .from(events)
     .innerJoin(users, eq(users.id, events.recordedBy))
     .where(and(eq(events.unitId, unitId), eq(events.kind, 'decision'), notVoided))
     .orderBy(desc(events.occurredAt), desc(events.id))
     .limit(10);
-  return rows.map((r) => {
-    const d = (r.details ?? {}) as { choice?: DecisionChoice; cheapestId?: DecisionRecordDto['cheapestId'] };
-    return {
-      eventId: r.id,
-      choice: d.choice ?? 'keep',
-      at: r.at.toISOString(),
-      by: { id: r.userId, name: r.userName },
-      cheapestId: d.cheapestId ?? 'keep_topping_up',
-      note: r.note,
-    };
-  });
+  return rows.map(toDecisionRecord);
 }
 
-async function loadUnit(db: DbOrTx, unitId: number, lock = false) {
-  // The unit row locked like every write to its history.
-  if (lock) await db.select({ id: units.id }).from(units).where(eq(units.id, unitId)).for('update');
+/** One decision, voided or not and however old (a replay answers with what was recorded). */
+async function decisionRecord(db: DbOrTx, eventId: number): Promise<DecisionRecordDto> {
+  const [row] = await db.select(decisionFields).from(events).innerJoin(users, eq(users.id, events.recordedBy)).where(eq(events.id, eventId));
+  return toDecisionRecord(row);
+}
+
+/** SHA-256 of what a submission says (everything but its key): a key sent again must come with the same decision. */
+function submissionHash(unitId: number, body: RecordDecisionInput): string {
+  const { idempotencyKey: _key, ...content } = body;
+  return createHash('sha256').update(JSON.stringify({ unitId, ...content })).digest('hex');
+}
+
+async function loadUnit(db: DbOrTx, unitId: number) {
   const q = db
     .select({ u: units, siteName: sites.name, stats: unitStats, detail: unitStatsDetail.detail })
     .from(units)
@@ -158,19 +175,37 @@ export async function getUnitDecision(db: Db, unitId: number, now: Date): Promis
 }
 
 /** Records the decision with the figures and assumptions it was made on, in one transaction; retries replay. */
-export async function recordDecision(db: Db, user: SessionUser, unitId: number, body: RecordDecisionInput, now: Date) {
+/** Records the owner's choice with its figures as a 'decision' entry, through the unit write path. */
+export async function recordDecision(ctx: WriteContext, user: SessionUser, unitId: number, body: RecordDecisionInput) {
+  const db = ctx.db;
+  const submission = submissionHash(unitId, body);
+  // Decisions share the visits' submission keys: a key may only ever replay the same decision by the same person.
   const replay = async () => {
-    const [v] = await db.select({ id: visits.id, unitId: visits.unitId }).from(visits).where(eq(visits.idempotencyKey, body.idempotencyKey));
+    const [v] = await db
+      .select({ id: visits.id, unitId: visits.unitId, recordedBy: visits.recordedBy })
+      .from(visits)
+      .where(eq(visits.idempotencyKey, body.idempotencyKey));
     if (!v) return null;
-    const [e] = await db.select({ id: events.id }).from(events).where(and(eq(events.visitId, v.id), eq(events.kind, 'decision')));
-    const decision = (await decisionsOf(db, v.unitId)).find((d) => d.eventId === e?.id);
-    return decision ? { decision, replayed: true } : null;
+    const [e] = await db.select({ id: events.id, details: events.details }).from(events).where(and(eq(events.visitId, v.id), eq(events.kind, 'decision')));
+    if (!e || v.unitId !== unitId || v.recordedBy !== user.id) {
+      throw conflict('This submission key was already used for something else; nothing was recorded. Send the decision as a new submission.', {
+        idempotencyKey: 'Already used',
+      });
+    }
+    // Decisions recorded before the content was kept have no hash: the key alone identifies them.
+    const recorded = (e.details as { submission?: string } | null)?.submission;
+    if (recorded && recorded !== submission) {
+      throw conflict('This submission key was already used for a different decision; nothing was recorded. Send the decision as a new submission.', {
+        idempotencyKey: 'Already used for another decision',
+      });
+    }
+    return { decision: await decisionRecord(db, e.id), replayed: true };
   };
   const earlier = await replay();
   if (earlier) return earlier;
   try {
-    const eventId = await db.transaction(async (tx) => {
-      const row = await loadUnit(tx, unitId, true);
+    const { result: eventId } = await writeUnit(ctx, unitId, async (tx, _locked, now) => {
+      const row = await loadUnit(tx, unitId);
       const { settings, version } = await getSettingsVersion(tx);
       const { input: facts } = await engineInputOf(tx, row, now);
       const inputs: DecisionInputs = body.inputs;
@@ -201,16 +236,16 @@ export async function recordDecision(db: Db, user: SessionUser, unitId: number, 
             inputs: input,
             economics: body.economics,
             settingsVersion: version,
+            submission,
           },
         })
         .$returningId();
-      return ev.id;
+      return { result: ev.id };
     });
     const decision = (await decisionsOf(db, unitId)).find((d) => d.eventId === eventId)!;
     return { decision, replayed: false };
   } catch (err) {
-    const e = err as { code?: string; cause?: { code?: string } };
-    if (e?.code === 'ER_DUP_ENTRY' || e?.cause?.code === 'ER_DUP_ENTRY') {
+    if (isDuplicateKeyError(err)) {
       const first = await replay();
       if (first) return first;
     }

@@ -52,7 +52,8 @@ async function addToMonth(tx: DbOrTx, key: { month: string; siteId: number; refr
 /**
  * Brings fleet_monthly up to date for the given visits after their events changed (a visit recorded, an event of
  * it voided). Call it inside the write's transaction, after the events and voids are inserted. Idempotent: each
- * visit's share is kept in visit_made_up and only the difference is applied.
+ * visit's share is kept in visit_made_up and only the difference is applied. Runs from the unit write path
+ * (history/write-path.ts) with the unit row locked.
  */
 export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[]): Promise<void> {
   for (const visitId of [...new Set(visitIds)].sort((a, b) => a - b)) {
@@ -62,7 +63,8 @@ export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[
       .innerJoin(units, eq(units.id, visits.unitId))
       .where(eq(visits.id, visitId));
     if (!visit) continue;
-    const [prev] = await tx.select().from(visitMadeUp).where(eq(visitMadeUp.visitId, visitId)).for('update');
+    // No lock of its own: the caller holds the unit's row, and only writes to that unit touch its visits' shares.
+    const [prev] = await tx.select().from(visitMadeUp).where(eq(visitMadeUp.visitId, visitId));
     const rows = await tx
       .select({ visitId: events.visitId, kind: events.kind, kg: events.kg, excludedFromLeakRate: events.excludedFromLeakRate, occurredAt: events.occurredAt })
       .from(events)

@@ -6,9 +6,8 @@ import { route } from '../../routes';
 import { HttpError } from '../../lib/http-error';
 import type { Storage } from '../../lib/storage';
 import { historyQuerySchema, MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
-import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent, type StatsChangeHook } from './history.service';
+import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent } from './history.service';
 import { addAttachments, readAttachment } from './attachments.service';
-import { queueAlertsForStatsChange } from '../alerts/alerts.service';
 
 const numericId = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) });
 
@@ -30,14 +29,10 @@ function uploadFiles() {
 }
 
 export function historyRoutes(ctx: AppContext & { storage: Storage }) {
-  // Alerts are queued in the outbox inside the same transaction that changed the figures.
-  const onStatsChange: StatsChangeHook = async (tx, change) => {
-    await queueAlertsForStatsChange(tx, ctx, change);
-  };
   return [
     route('post', '/api/visits', 'record:event', async (req, res) => {
       const input = recordVisitSchema.parse(req.body);
-      const result = await recordVisit(ctx, req.user!, input, onStatsChange);
+      const result = await recordVisit(ctx, req.user!, input);
       res.status(result.replayed ? 200 : 201).json(result);
     }),
     // Every role may void something: technicians and engineers their own recent entries, engineers, owners and admins
@@ -45,7 +40,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
     route('post', '/api/events/:id/void', 'signed-in', async (req, res) => {
       const { id } = numericId.parse(req.params);
       const { reason } = voidEventSchema.parse(req.body);
-      res.status(201).json(await voidEvent(ctx, req.user!, id, reason, onStatsChange));
+      res.status(201).json(await voidEvent(ctx, req.user!, id, reason));
     }),
     route(
       'post',

@@ -1,4 +1,5 @@
-// Recording visits and voids (append-only), and reading a unit's history.
+// Recording visits and voids (append-only, through the unit write path), and reading a unit's history.
+import { createHash } from 'node:crypto';
 import { and, desc, eq, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db, DbOrTx } from '../../db/client';
@@ -21,14 +22,10 @@ import {
 } from '../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { getSettings } from '../settings/settings.service';
+import { isDuplicateKeyError } from '../../lib/db-errors';
+import { writeUnit } from './write-path';
 import { computeUnitStats, REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
-import { engineUnit, ENGINE_EVENT_COLUMNS, lockUnitForHistory, recomputeUnitStats, toEngineEvent, toStatsDto, type UnitStatsRow } from './stats.service';
-import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
-
-export type StatsChangeHook = (
-  tx: DbOrTx,
-  change: { unitId: number; siteId: number | null; containerNumber: string; before: UnitStatsRow | null; after: UnitStatsRow },
-) => Promise<void>;
+import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent, toStatsDto } from './stats.service';
 
 type EventInsert = typeof events.$inferInsert;
 
@@ -86,32 +83,36 @@ function eventRow(e: VisitEventInput): Omit<EventInsert, 'unitId' | 'visitId' | 
   }
 }
 
-function isDuplicateKey(err: unknown): boolean {
-  const e = err as { code?: string; errno?: number; cause?: { code?: string } };
-  return e?.code === 'ER_DUP_ENTRY' || e?.errno === 1062 || e?.cause?.code === 'ER_DUP_ENTRY';
+/** SHA-256 of what a submission says (everything but its key): a key sent again must come with the same content. */
+export function submissionHash(input: RecordVisitInput): string {
+  const { idempotencyKey: _key, ...content } = input;
+  return createHash('sha256').update(JSON.stringify(content)).digest('hex');
 }
 
 async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promise<RecordVisitResultDto | null> {
   const [visit] = await reads(db).visitByKey.execute({ key: input.idempotencyKey });
   if (!visit) return null;
   if (visit.recordedBy !== user.id || visit.unitId !== input.unitId) {
-    throw conflict('This submission key was already used for another visit.');
+    throw conflict('This submission key was already used for another visit.', { idempotencyKey: 'Already used' });
+  }
+  // Visits recorded before the content was kept have no hash: the key alone identifies them.
+  if (visit.contentHash && visit.contentHash !== submissionHash(input)) {
+    throw conflict('This submission key was already used for a visit with other entries; nothing was recorded. Send the visit as a new submission.', {
+      idempotencyKey: 'Already used for other entries',
+    });
   }
   const evs = await eventDtos(db, await reads(db).visitEvents.execute({ visitId: visit.id }));
   const [found] = await reads(db).unitWithStats.execute({ unitId: visit.unitId });
   return { visitId: visit.id, replayed: true, events: evs, stats: toStatsDto(found.stats!, found.detail) };
 }
 
-export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput, onStats?: StatsChangeHook) {
+const isMovement = (kind: string) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(kind);
+
+export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput) {
   const earlier = await replay(ctx.db, user, input);
   if (earlier) return earlier;
-  const now = ctx.clock.now();
   try {
-    const { visitId, after, detail, monthlyChanged } = await ctx.db.transaction(async (tx) => {
-      // Locking the unit row serialises writes per unit, so each statistics row matches its history.
-      const locked = await lockUnitForHistory(tx, input.unitId);
-      if (!locked) throw notFound('No such unit.');
-      const { unit } = locked;
+    const written = await writeUnit(ctx, input.unitId, async (tx, { unit }, now) => {
       if (unit.status === 'retired' && input.events.some((e) => e.kind !== 'note' && e.kind !== 'status_change')) {
         throw conflict('This unit is retired. Record a status change first if it is back in service.');
       }
@@ -125,38 +126,38 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
       const occurredAt = new Date(input.occurredAt);
       const [inserted] = await tx
         .insert(visits)
-        .values({ unitId: unit.id, siteId, recordedBy: user.id, occurredAt, enteredAt: now, idempotencyKey: input.idempotencyKey })
-        .$returningId();
-      await tx.insert(events).values(
-        input.events.map((e) => ({
-          ...eventRow(e),
+        .values({
           unitId: unit.id,
-          visitId: inserted.id,
           siteId,
           recordedBy: user.id,
           occurredAt,
           enteredAt: now,
-        })),
+          idempotencyKey: input.idempotencyKey,
+          contentHash: submissionHash(input),
+        })
+        .$returningId();
+      await tx.insert(events).values(
+        input.events.map((e) => ({ ...eventRow(e), unitId: unit.id, visitId: inserted.id, siteId, recordedBy: user.id, occurredAt, enteredAt: now })),
       );
-      // Only refrigerant movements change the monthly made-up totals.
-      const monthlyChanged = input.events.some((e) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(e.kind));
-      if (monthlyChanged) await applyToFleetMonthly(tx, [inserted.id]);
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
-      if (statusChange && statusChange.kind === 'status_change' && statusChange.status !== unit.status) {
-        await tx.update(units).set({ status: statusChange.status, updatedAt: now }).where(eq(units.id, unit.id));
-        await tx.insert(unitChanges).values({ unitId: unit.id, userId: user.id, at: now, field: 'status', before: unit.status, after: statusChange.status });
+      const newStatus = statusChange?.kind === 'status_change' && statusChange.status !== unit.status ? statusChange.status : null;
+      if (newStatus) {
+        await tx.update(units).set({ status: newStatus, updatedAt: now }).where(eq(units.id, unit.id));
+        await tx.insert(unitChanges).values({ unitId: unit.id, userId: user.id, at: now, field: 'status', before: unit.status, after: newStatus });
       }
-      const change = await recomputeUnitStats(tx, unit.id, now, await getSettings(tx), { unit, before: locked.stats });
-      await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-      return { visitId: inserted.id, after: change.after, detail: change.detail.detail, monthlyChanged };
+      return {
+        result: inserted.id,
+        // Only refrigerant movements change the monthly made-up totals.
+        movedVisitIds: input.events.some((e) => isMovement(e.kind)) ? [inserted.id] : [],
+        unitChanged: newStatus != null,
+      };
     });
-    if (monthlyChanged) fleetMonthlyChanged();
     // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
-    const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId }), false);
-    return { visitId, replayed: false, events: evs, stats: toStatsDto(after, detail) } satisfies RecordVisitResultDto;
+    const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId: written.result }), false);
+    return { visitId: written.result, replayed: false, events: evs, stats: toStatsDto(written.stats, written.detail.detail) } satisfies RecordVisitResultDto;
   } catch (err) {
     // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
-    if (isDuplicateKey(err)) {
+    if (isDuplicateKeyError(err)) {
       const first = await replay(ctx.db, user, input);
       if (first) return first;
     }
@@ -164,41 +165,43 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
   }
 }
 
-export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: number, reason: string, onStats?: StatsChangeHook) {
-  const now = ctx.clock.now();
-  const voided = await ctx.db.transaction(async (tx) => {
-    const [target] = await tx.select().from(events).where(eq(events.id, eventId));
-    if (!target) throw notFound('No such entry.');
-    const locked = (await lockUnitForHistory(tx, target.unitId))!;
-    const { unit } = locked;
-    if (target.kind === 'void') throw conflict('A correction cannot itself be voided.');
-    if (!can(user, 'void:event:any')) {
-      if (!can(user, 'void:event:own')) throw forbidden('Your role cannot void entries.');
-      if (target.recordedBy !== user.id) throw forbidden('You can void only entries you recorded.');
-      if (now.getTime() - target.enteredAt.getTime() > VOID_WINDOW_HOURS * 3600 * 1000) {
-        throw forbidden(`Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`);
+export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: number, reason: string) {
+  // An entry never moves to another unit, so which unit to lock can be read before the lock; all else is read after.
+  const [found] = await ctx.db.select({ unitId: events.unitId }).from(events).where(eq(events.id, eventId));
+  if (!found) throw notFound('No such entry.');
+  let written;
+  try {
+    written = await writeUnit(ctx, found.unitId, async (tx, _locked, now) => {
+      const [target] = await tx.select().from(events).where(eq(events.id, eventId));
+      if (target.kind === 'void') throw conflict('A correction cannot itself be voided.');
+      if (!can(user, 'void:event:any')) {
+        if (!can(user, 'void:event:own')) throw forbidden('Your role cannot void entries.');
+        if (target.recordedBy !== user.id) throw forbidden('You can void only entries you recorded.');
+        if (now.getTime() - target.enteredAt.getTime() > VOID_WINDOW_HOURS * 3600 * 1000) {
+          throw forbidden(`Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`);
+        }
       }
-    }
-    const [already] = await tx.select({ id: events.id }).from(events).where(eq(events.voidsEventId, eventId));
-    if (already) throw conflict('This entry is already voided.');
-    await tx.insert(events).values({
-      unitId: target.unitId,
-      siteId: target.siteId,
-      recordedBy: user.id,
-      kind: 'void',
-      occurredAt: now,
-      enteredAt: now,
-      voidsEventId: eventId,
-      note: reason,
+      const [already] = await tx.select({ id: events.id }).from(events).where(eq(events.voidsEventId, eventId));
+      if (already) throw conflict('This entry is already voided.');
+      await tx.insert(events).values({
+        unitId: target.unitId,
+        siteId: target.siteId,
+        recordedBy: user.id,
+        kind: 'void',
+        occurredAt: now,
+        enteredAt: now,
+        voidsEventId: eventId,
+        note: reason,
+      });
+      return { result: null, movedVisitIds: target.visitId != null && isMovement(target.kind) ? [target.visitId] : [] };
     });
-    if (target.visitId != null) await applyToFleetMonthly(tx, [target.visitId]);
-    const change = await recomputeUnitStats(tx, target.unitId, now, await getSettings(tx), { unit, before: locked.stats });
-    await onStats?.(tx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, ...change });
-    return { after: change.after, detail: change.detail.detail, monthlyChanged: target.visitId != null };
-  });
-  if (voided.monthlyChanged) fleetMonthlyChanged();
+  } catch (err) {
+    // The unique key on the voided entry is the last guard against two voids of one entry.
+    if (isDuplicateKeyError(err)) throw conflict('This entry is already voided.');
+    throw err;
+  }
   const [dto] = await eventDtos(ctx.db, await eventQuery(ctx.db, eq(events.id, eventId)));
-  return { event: dto, stats: toStatsDto(voided.after, voided.detail) };
+  return { event: dto, stats: toStatsDto(written.stats, written.detail.detail) };
 }
 
 // --- reading ------------------------------------------------------------------------------------------------

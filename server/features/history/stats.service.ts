@@ -146,6 +146,7 @@ export function statsRowsFrom(unitId: number, r: EngineResult, computedAt: Date,
     visitCount: r.counts.visits,
     topUpCount: r.counts.topUps,
     lastEventAt,
+    computeError: null,
   };
   const detail: UnitStatsDetailRow = {
     unitId,
@@ -168,15 +169,15 @@ const DETAIL_UPSERT_SET = upsertSet(unitStatsDetail);
 
 type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number };
 
-/** The unit row locked for a write to its history, with its statistics row as it stands (null before the first). */
+/**
+ * The unit row locked for a write to its history (only that row: nothing that may not exist is locked), then its
+ * statistics row as it stands (null before the first).
+ */
 export async function lockUnitForHistory(tx: DbOrTx, unitId: number) {
-  const [row] = await tx
-    .select({ unit: units, stats: unitStats })
-    .from(units)
-    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
-    .where(eq(units.id, unitId))
-    .for('update');
-  return row ?? null;
+  const [unit] = await tx.select().from(units).where(eq(units.id, unitId)).for('update');
+  if (!unit) return null;
+  const [stats = null] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
+  return { unit, stats };
 }
 
 /**
@@ -197,12 +198,62 @@ export async function recomputeUnitStats(
     [before = null] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
   }
   const history = await loadEngineHistory(tx, unitId);
-  const result = computeUnitStats(engineUnit(unit!), history, iso(asOf), settings);
-  const last = history.length ? new Date(history[history.length - 1].at) : null;
-  const rows = statsRowsFrom(unitId, result, asOf, last);
-  await tx.insert(unitStats).values(rows.stats).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
-  await tx.insert(unitStatsDetail).values(rows.detail).onDuplicateKeyUpdate({ set: DETAIL_UPSERT_SET });
+  const rows = computeStatsRows(unit!, unitId, history, asOf, settings);
+  await storeStatsRows(tx, [rows]);
   return { before, after: rows.stats, detail: rows.detail };
+}
+
+/** The rows a unit's figures are stored in, from its counted history; the reason in words when the engine refuses it. */
+export function computeStatsRows(unit: StatsUnit | Parameters<typeof engineUnit>[0], unitId: number, history: EngineEvent[], asOf: Date, settings: Settings): UnitStatsRows {
+  const last = history.length ? new Date(history[history.length - 1].at) : null;
+  try {
+    return statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, iso(asOf), settings), asOf, last);
+  } catch (err) {
+    // The engine is pure: a throw means this record breaks one of its rules (a date it cannot place, a charge of 0).
+    // The unit keeps a row that says so, and every fleet-wide read goes on.
+    return uncomputableRows(unitId, asOf, last, history.length, err);
+  }
+}
+
+/** Upserts statistics rows (narrow part, then wide part: the fixed order every writer uses). */
+export async function storeStatsRows(tx: DbOrTx, rows: readonly UnitStatsRows[]): Promise<void> {
+  if (!rows.length) return;
+  await tx.insert(unitStats).values(rows.map((r) => r.stats)).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
+  await tx.insert(unitStatsDetail).values(rows.map((r) => r.detail)).onDuplicateKeyUpdate({ set: DETAIL_UPSERT_SET });
+}
+
+/** The row of a unit the engine cannot compute: neutral figures that sort last, and the reason in words. */
+export function uncomputableRows(unitId: number, computedAt: Date, lastEventAt: Date | null, events: number, err: unknown): UnitStatsRows {
+  const reason = err instanceof Error && err.message ? err.message : 'the record breaks a rule of the computation';
+  return {
+    stats: {
+      unitId,
+      computedAt,
+      rollingLeakRatePct: 0,
+      calendarYearSharePct: 0,
+      score: 0,
+      scoreBand: 'tight',
+      forecastDate: null,
+      forecastEarliest: null,
+      forecastLatest: null,
+      forecastOverdue: false,
+      co2eTonnes: 0,
+      leakCheckIntervalMonths: null,
+      lastLeakCheckAt: null,
+      nextLeakCheckDue: null,
+      ptiValidUntil: null,
+      ptiPassed: null,
+      pressureFlag: 'unknown',
+      openLeakFoundAt: null,
+      madeUpKg365: 0,
+      eventCount: events,
+      visitCount: 0,
+      topUpCount: 0,
+      lastEventAt,
+      computeError: reason.slice(0, 300),
+    },
+    detail: { unitId, scoreFactors: null, detail: null },
+  };
 }
 
 export function toStatsDto(row: UnitStatsRow, detail: UnitStatsDetailRow['detail'] | null): UnitStatsDto {
@@ -222,6 +273,7 @@ export function toStatsDto(row: UnitStatsRow, detail: UnitStatsDetailRow['detail
     forecast: row.forecastDate
       ? { date: row.forecastDate, earliest: row.forecastEarliest, latest: row.forecastLatest, overdue: Boolean(row.forecastOverdue) }
       : null,
-    detail: (detail as unknown as UnitStatsSummary | null) ?? null,
+    detail: row.computeError ? null : ((detail as unknown as UnitStatsSummary | null) ?? null),
+    computeError: row.computeError ?? null,
   };
 }

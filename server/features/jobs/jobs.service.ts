@@ -11,9 +11,10 @@ import { mergeRepairEffectiveness, repairEffectiveness, type RepairEffectiveness
 import { settingsSchema, type Settings } from '../../../shared/schemas/settings';
 import type { JobDto } from '../../../shared/schemas/settings-api';
 import { getSettings } from '../settings/settings.service';
-import { ENGINE_EVENT_COLUMNS, recomputeUnitStats, toEngineEvent } from '../history/stats.service';
+import { ENGINE_EVENT_COLUMNS, toEngineEvent } from '../history/stats.service';
+import { writeUnit } from '../history/write-path';
 
-export type JobContext = { db: Db; clock: Clock; logger: Logger };
+export type JobContext = { db: Db; clock: Clock; logger: Logger; publicUrl: string };
 type JobRow = typeof backgroundJobs.$inferSelect;
 type JobKind = JobRow['kind'];
 
@@ -135,12 +136,9 @@ export async function startStatsRecompute(ctx: JobContext, opts: { settingsId: n
   });
 }
 
-/** One unit, in its own transaction, with the unit row locked like every write (so a visit cannot interleave). */
+/** One unit through the unit write path (its own transaction, the unit row locked first, the same effects). */
 async function recomputeOne(ctx: JobContext, unitId: number, settings: Settings): Promise<void> {
-  await ctx.db.transaction(async (tx) => {
-    const [u] = await tx.select({ id: units.id }).from(units).where(eq(units.id, unitId)).for('update');
-    if (u) await recomputeUnitStats(tx, unitId, ctx.clock.now(), settings);
-  });
+  await writeUnit(ctx, unitId, async () => ({ result: null }), { settings });
 }
 
 async function runStatsRecompute(ctx: JobContext, jobId: number): Promise<void> {
@@ -223,7 +221,13 @@ async function checkStatsRows(ctx: JobContext): Promise<void> {
     }
   } else if (missing.length) {
     const settings = await getSettings(ctx.db);
-    for (const m of missing) await recomputeOne(ctx, m.id, settings);
+    for (const m of missing) {
+      // A unit whose record the engine refuses (an old row from before the date rule) must not fail the fleet read
+      // that happened to fill it in; like the recompute job, it is logged and the rest go on.
+      await recomputeOne(ctx, m.id, settings).catch((err: unknown) =>
+        ctx.logger.warn({ err, unitId: m.id }, 'statistics backfill skipped a unit'),
+      );
+    }
   }
   statsWatermark = Math.max(statsWatermark, top);
 }

@@ -20,6 +20,7 @@ import {
   type UnitImportDto,
 } from '../../../shared/schemas/units';
 import { unitsAdded } from '../fleet/fleet-size';
+import { registerNewUnits } from '../history/write-path';
 import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './fleet-csv';
 
 /** Rows per INSERT: large enough to be fast, small enough to stay far below max_allowed_packet. */
@@ -259,6 +260,12 @@ export async function commitImport(
             updatedAt: at,
           })),
         );
+        // Their first figures and change records in the same transaction (the unit write path's rule for new units).
+        const ids = await tx
+          .select({ id: units.id })
+          .from(units)
+          .where(inArray(units.containerNumber, chunk.map((r) => r.data.containerNumber)));
+        await registerNewUnits(tx, actorId, ids.map((r) => r.id), at, `Imported from ${file.originalname}`.slice(0, 200));
         await progress({ processedRows: Math.min(total, skip.size + i + chunk.length) });
       }
       return rows.length;

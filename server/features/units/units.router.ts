@@ -50,12 +50,12 @@ export function unitsRoutes(ctx: AppContext) {
     }),
     route('post', '/api/units', 'manage:units', async (req, res) => {
       const input = createUnitSchema.parse(req.body);
-      res.status(201).json({ unit: await createUnit(ctx.db, ctx.clock.now(), input) });
+      res.status(201).json({ unit: await createUnit(ctx, req.user!.id, input) });
     }),
     route('patch', '/api/units/:id', 'manage:units', async (req, res) => {
       const { id } = unitIdParamSchema.parse(req.params);
       const input = updateUnitSchema.parse(req.body);
-      res.json({ unit: await updateUnit(ctx.db, req.user!.id, ctx.clock.now(), id, input) });
+      res.json({ unit: await updateUnit(ctx, req.user!.id, id, input) });
     }),
     route('post', '/api/units/:id/qr-token', 'manage:units', async (req, res) => {
       const { id } = unitIdParamSchema.parse(req.params);

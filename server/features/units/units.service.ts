@@ -17,6 +17,8 @@ import {
 } from '../../../shared/schemas/units';
 import { unitsAdded } from '../fleet/fleet-size';
 import { toUnitDto } from './units.mapper';
+import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../history/write-path';
+import { retryTransaction } from '../../lib/retry';
 
 const numberTaken = (containerNumber: string) =>
   conflict(`${formatContainerNumber(containerNumber)} is already registered.`, {
@@ -87,70 +89,62 @@ async function requireSite(tx: DbOrTx, siteId: number) {
   return site;
 }
 
-export async function createUnit(db: Db, now: Date, input: CreateUnitInput): Promise<UnitDto> {
+/** Registers one unit and writes its first figures and a change record in the same transaction. */
+export async function createUnit(ctx: WriteContext, actorId: string, input: CreateUnitInput): Promise<UnitDto> {
   try {
-    return await db.transaction(async (tx) => {
-      const [taken] = await tx
-        .select({ id: units.id })
-        .from(units)
-        .where(eq(units.containerNumber, input.containerNumber))
-        .limit(1);
-      if (taken) throw numberTaken(input.containerNumber);
-      if (input.siteId != null) await requireSite(tx, input.siteId);
-      const [{ id }] = await tx
-        .insert(units)
-        .values({
-          containerNumber: input.containerNumber,
-          refrigerant: input.refrigerant,
-          nominalChargeKg: input.nominalChargeKg,
-          commissionedOn: input.commissionedOn ?? null,
-          siteId: input.siteId ?? null,
-          status: input.status ?? 'in_service',
-          qrToken: newToken(),
-          machinerySerial: input.machinerySerial ?? null,
-          model: input.model ?? null,
-          manufactureYear: input.manufactureYear ?? null,
-          purchaseCost: input.purchaseCost ?? null,
-          residualValue: input.residualValue ?? null,
-          notes: input.notes ?? null,
-          qrIssuedAt: now,
-          createdAt: now,
-          updatedAt: now,
-        })
-        .$returningId();
-      return getUnit(tx, id);
-    });
+    return await retryTransaction(() =>
+      ctx.db.transaction(async (tx) => {
+        const [taken] = await tx.select({ id: units.id }).from(units).where(eq(units.containerNumber, input.containerNumber)).limit(1);
+        if (taken) throw numberTaken(input.containerNumber);
+        if (input.siteId != null) await requireSite(tx, input.siteId);
+        const now = ctx.clock.now();
+        const [{ id }] = await tx
+          .insert(units)
+          .values({
+            containerNumber: input.containerNumber,
+            refrigerant: input.refrigerant,
+            nominalChargeKg: input.nominalChargeKg,
+            commissionedOn: input.commissionedOn ?? null,
+            siteId: input.siteId ?? null,
+            status: input.status ?? 'in_service',
+            qrToken: newToken(),
+            machinerySerial: input.machinerySerial ?? null,
+            model: input.model ?? null,
+            manufactureYear: input.manufactureYear ?? null,
+            purchaseCost: input.purchaseCost ?? null,
+            residualValue: input.residualValue ?? null,
+            notes: input.notes ?? null,
+            qrIssuedAt: now,
+            createdAt: now,
+            updatedAt: now,
+          })
+          .$returningId();
+        await registerNewUnits(tx, actorId, [id], now, 'Registered in the unit register');
+        return getUnit(tx, id);
+      }, WRITE_ISOLATION),
+    );
   } catch (err) {
     if (isDuplicateKeyError(err)) throw numberTaken(input.containerNumber);
     throw err;
   } finally {
-    unitsAdded(db);
+    unitsAdded(ctx.db);
   }
 }
 
 type ChangeValue = string | number | null | undefined;
 const asText = (v: ChangeValue) => (v === null || v === undefined ? null : String(v));
 
-export async function updateUnit(
-  db: Db,
-  actorId: string,
-  now: Date,
-  id: number,
-  input: UpdateUnitInput,
-): Promise<UnitDto> {
+/**
+ * Edits a unit through the unit write path: each changed field leaves a change record (who, when, before → after),
+ * and the figures are recomputed in the same transaction (refrigerant, charge and commissioning date feed them).
+ */
+export async function updateUnit(ctx: WriteContext, actorId: string, id: number, input: UpdateUnitInput): Promise<UnitDto> {
   try {
-    return await db.transaction(async (tx) => {
-      const [current] = await tx.select().from(units).where(eq(units.id, id)).for('update');
-      if (!current) throw notFound('No such unit.');
+    const { result } = await writeUnit(ctx, id, async (tx, { unit: current }, now) => {
       if (input.containerNumber !== undefined && input.containerNumber !== current.containerNumber) {
-        const [taken] = await tx
-          .select({ id: units.id })
-          .from(units)
-          .where(eq(units.containerNumber, input.containerNumber))
-          .limit(1);
+        const [taken] = await tx.select({ id: units.id }).from(units).where(eq(units.containerNumber, input.containerNumber)).limit(1);
         if (taken) throw numberTaken(input.containerNumber);
       }
-
       const changes: { field: UnitField; before: string | null; after: string | null }[] = [];
       const set: Partial<typeof units.$inferInsert> = {};
       const plain = [
@@ -182,14 +176,14 @@ export async function updateUnit(
         changes.push({ field: 'site', before: beforeSite?.code ?? null, after: afterSite?.code ?? null });
         set.siteId = input.siteId;
       }
-
       if (changes.length > 0) {
         set.updatedAt = now;
         await tx.update(units).set(set).where(eq(units.id, id));
         await tx.insert(unitChanges).values(changes.map((c) => ({ unitId: id, userId: actorId, at: now, ...c })));
       }
-      return getUnit(tx, id);
+      return { result: await getUnit(tx, id), unitChanged: changes.length > 0 };
     });
+    return result;
   } catch (err) {
     if (isDuplicateKeyError(err) && input.containerNumber) throw numberTaken(input.containerNumber);
     throw err;

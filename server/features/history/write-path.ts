@@ -1,0 +1,103 @@
+// The single write path for a unit's history and for the inputs of its figures: visits, voids, unit edits,
+// registration and the settings recompute all go through writeUnit. One transaction per attempt:
+//   1. lock the unit row (SELECT … FOR UPDATE) before any other read, so writers of one unit queue here;
+//   2. the caller's change (events, voids, unit fields), reading the history after the lock;
+//   3. what every write sets off, always in this order (UNIT_WRITE_EFFECTS): statistics, monthly made-up totals,
+//      alerts; and after the commit, this process's cache versions.
+// Derived rows are upserts keyed by the locked unit or its visits, never locks on rows that may not exist. READ
+// COMMITTED: each read after the lock sees what the writers before it committed, and inserts take no gap locks.
+// A deadlock or lock-wait timeout runs the attempt again (retryTransaction); each write is idempotent by its
+// submission key or its unique keys, so a retry cannot record anything twice.
+import { eq, inArray } from 'drizzle-orm';
+import type { Db, Tx } from '../../db/client';
+import { unitChanges, units } from '../../db/schema';
+import type { Clock } from '../../lib/clock';
+import { notFound } from '../../lib/http-error';
+import { retryTransaction } from '../../lib/retry';
+import type { Settings } from '../../../shared/schemas/settings';
+import { getSettings } from '../settings/settings.service';
+import { queueAlertsForStatsChange } from '../alerts/alerts.service';
+import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
+import { computeStatsRows, lockUnitForHistory, recomputeUnitStats, storeStatsRows, type UnitStatsRow, type UnitStatsRows } from './stats.service';
+
+export type WriteContext = { db: Db; clock: Clock; publicUrl: string };
+export type LockedUnit = NonNullable<Awaited<ReturnType<typeof lockUnitForHistory>>>;
+
+/** What the caller's change reports back, so the path knows which derived rows follow. */
+export type UnitChange<T> = {
+  result: T;
+  /** Visits whose refrigerant movements were added or voided: their monthly totals follow. */
+  movedVisitIds?: readonly number[];
+  /** The unit row itself changed (refrigerant, charge, commissioning date, site): read again before computing. */
+  unitChanged?: boolean;
+};
+
+export type UnitWriteResult<T> = { result: T; before: UnitStatsRow | null } & UnitStatsRows;
+
+/** Names the effects in the order they run; the order is part of the locking contract (see the header). */
+export const UNIT_WRITE_EFFECTS = ['statistics', 'monthly totals', 'alerts', 'cache versions (after commit)'] as const;
+
+export const WRITE_ISOLATION = { isolationLevel: 'read committed' } as const;
+
+/**
+ * Runs `change` on one unit through the write path and returns its result with the unit's new statistics.
+ * `settings` pins the settings version (the recompute job); otherwise the settings in force are used.
+ */
+export async function writeUnit<T>(
+  ctx: WriteContext,
+  unitId: number,
+  change: (tx: Tx, locked: LockedUnit, now: Date) => Promise<UnitChange<T>>,
+  opts: { settings?: Settings } = {},
+): Promise<UnitWriteResult<T>> {
+  const outcome = await retryTransaction(() =>
+    ctx.db.transaction(async (tx) => {
+      const locked = await lockUnitForHistory(tx, unitId);
+      if (!locked) throw notFound('No such unit.');
+      const now = ctx.clock.now();
+      const done = await change(tx, locked, now);
+      const unit = done.unitChanged ? (await tx.select().from(units).where(eq(units.id, unitId)))[0] : locked.unit;
+      const written = await writeEffects(tx, ctx, unit, locked.stats, now, opts.settings ?? (await getSettings(tx)), done.movedVisitIds ?? []);
+      return { result: done.result, ...written, monthlyChanged: (done.movedVisitIds ?? []).length > 0 };
+    }, WRITE_ISOLATION),
+  );
+  if (outcome.monthlyChanged) fleetMonthlyChanged();
+  const { monthlyChanged: _m, ...rest } = outcome;
+  return rest;
+}
+
+/** Step 3 of the path for a unit already locked (or just inserted) in `tx`: UNIT_WRITE_EFFECTS, in order. */
+export async function writeEffects(
+  tx: Tx,
+  ctx: Pick<WriteContext, 'publicUrl' | 'clock'>,
+  unit: typeof units.$inferSelect,
+  before: UnitStatsRow | null,
+  now: Date,
+  settings: Settings,
+  movedVisitIds: readonly number[],
+) {
+  const { after, detail } = await recomputeUnitStats(tx, unit.id, now, settings, { unit, before });
+  if (movedVisitIds.length) await applyToFleetMonthly(tx, movedVisitIds);
+  await queueAlertsForStatsChange(tx, ctx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
+  return { before, stats: after, detail };
+}
+
+/** Rows per statement when registering many units at once (the wide part is a few kB a unit). */
+const REGISTER_CHUNK = 500;
+
+/**
+ * Units just inserted in `tx` (the insert holds their rows): their first figures and a change record each, in the
+ * same transaction, so a registered unit is never without figures. A unit with no history moves no refrigerant and
+ * crosses no alert threshold, so of UNIT_WRITE_EFFECTS only the statistics apply.
+ */
+export async function registerNewUnits(tx: Tx, actorId: string, unitIds: readonly number[], now: Date, how: string): Promise<void> {
+  const settings = await getSettings(tx);
+  for (let i = 0; i < unitIds.length; i += REGISTER_CHUNK) {
+    const chunk = unitIds.slice(i, i + REGISTER_CHUNK);
+    const rows = await tx.select().from(units).where(inArray(units.id, chunk));
+    await storeStatsRows(
+      tx,
+      rows.map((u) => computeStatsRows(u, u.id, [], now, settings)),
+    );
+    await tx.insert(unitChanges).values(rows.map((u) => ({ unitId: u.id, userId: actorId, at: now, field: 'registered', before: null, after: how })));
+  }
+}
