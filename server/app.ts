@@ -17,6 +17,7 @@ import { originCheck } from './middleware/origin-check';
 import { requireAccess } from './middleware/require-permission';
 import { errorHandler } from './middleware/error-handler';
 import { verifyUtf8Body, wellFormedText } from './middleware/well-formed-text';
+import { bodyDeadline } from './middleware/body-deadline';
 import { authRoutes } from './features/auth/auth.router';
 import { usersRoutes } from './features/users/users.router';
 import { healthRoutes } from './features/health/health.router';
@@ -46,6 +47,8 @@ export type AppDeps = {
   clientDir?: string;
   /** Where uploads go; local disk under .data/uploads by default. */
   storage?: Storage;
+  /** How long a JSON or form body may take to arrive (uploads: the server's request timeout); 15 s by default. */
+  bodyDeadlineMs?: number;
 };
 
 export const JSON_BODY_LIMIT = '256kb';
@@ -95,6 +98,7 @@ export function createApp(deps: AppDeps) {
     }),
   );
   app.use(requestLog(logger));
+  app.use('/api', bodyDeadline(deps.bodyDeadlineMs));
   app.use('/api', express.json({ limit: JSON_BODY_LIMIT, verify: verifyUtf8Body }));
   app.use('/api', wellFormedText());
   app.use('/api', sessionMiddleware(ctx.sessions));

@@ -6,6 +6,7 @@ import { publicUrl, readEnv } from './env';
 import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './features/mail/outbox-worker';
 import { createLocalStorage } from './lib/storage';
+import { createHttpServer } from './lib/http-server';
 
 export async function startServer(opts: { databaseUrl: string; port?: number }) {
   const env = readEnv();
@@ -21,10 +22,11 @@ export async function startServer(opts: { databaseUrl: string; port?: number }) 
   });
   const mailWorker = createOutboxWorker(ctx);
   mailWorker.start();
-  const server = app.listen(port);
+  const server = createHttpServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
     server.once('error', reject);
+    server.listen(port);
   });
 
   let closing = false;

@@ -1,7 +1,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import net from 'node:net';
+import type { AddressInfo } from 'node:net';
 import request from 'supertest';
 import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app';
+import { createHttpServer } from '../../server/lib/http-server';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 
@@ -124,5 +127,88 @@ describe('malformed unicode', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toEqual({ [`extra${'.0'.repeat(100_000)}`]: expect.any(String) });
     expect(performance.now() - started).toBeLessThan(1000);
+  });
+});
+
+describe('slow clients', () => {
+  // Short limits so the test is quick; production uses SERVER_TIMEOUTS and a 15 s body deadline.
+  const limits = { bodyMs: 500, headersMs: 600, requestMs: 1500, checkIntervalMs: 100 };
+  const slowApp = createApp({ db, bodyDeadlineMs: limits.bodyMs }).app;
+  const server = createHttpServer(slowApp, limits);
+  let port: number;
+  beforeAll(
+    () =>
+      new Promise<void>((r) =>
+        server.listen(0, '127.0.0.1', () => {
+          port = (server.address() as AddressInfo).port;
+          r();
+        }),
+      ),
+  );
+  afterAll(
+    () =>
+      new Promise<void>((r) => {
+        server.closeAllConnections();
+        server.close(() => r());
+      }),
+  );
+
+  /** Sends `head` at once, then `drip` one byte every 100 ms; resolves when the server closes the connection. */
+  const slowRequest = (head: string, drip: string) =>
+    new Promise<{ ms: number; response: string }>((resolve, reject) => {
+      const started = performance.now();
+      const socket = net.connect(port, '127.0.0.1');
+      let response = '';
+      let i = 0;
+      const timer = setInterval(() => {
+        if (i < drip.length && !socket.destroyed) socket.write(drip[i++]);
+      }, 100);
+      socket.on('connect', () => socket.write(head));
+      socket.on('data', (d) => (response += d.toString()));
+      socket.on('error', () => {}); // a reset after the cut is expected
+      socket.on('close', () => {
+        clearInterval(timer);
+        resolve({ ms: performance.now() - started, response });
+      });
+      setTimeout(() => {
+        socket.destroy();
+        reject(new Error(`still connected after 5 s; got ${response}`));
+      }, 5000).unref();
+    });
+
+  it('answers 408 and disconnects a client that sends a JSON body too slowly', async () => {
+    const body = '{"email":"slow@test.example","password":"x"}';
+    const { ms, response } = await slowRequest(
+      `POST /api/auth/sign-in HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: ${TEST_ORIGIN}\r\nContent-Type: application/json\r\nContent-Length: ${body.length}\r\n\r\n`,
+      body,
+    );
+    expect(response).toMatch(/^HTTP\/1\.1 408/);
+    expect(response).toContain('request_timeout');
+    expect(ms).toBeGreaterThanOrEqual(limits.bodyMs - 50);
+    expect(ms).toBeLessThan(limits.bodyMs + 700);
+  });
+
+  it('disconnects an upload that is still arriving at the request timeout', async () => {
+    const body = `--b\r\nContent-Disposition: form-data; name="file"; filename="f.csv"\r\n\r\n${'x'.repeat(200)}\r\n--b--\r\n`;
+    const { ms, response } = await slowRequest(
+      `POST /api/unit-imports/preview HTTP/1.1\r\nHost: 127.0.0.1\r\nOrigin: ${TEST_ORIGIN}\r\nContent-Type: multipart/form-data; boundary=b\r\nContent-Length: ${body.length}\r\n\r\n`,
+      body,
+    );
+    expect(ms).toBeLessThan(limits.requestMs + limits.checkIntervalMs + 700);
+    expect(response).not.toMatch(/^HTTP\/1\.1 [25]/);
+  });
+
+  it('disconnects a client that sends its headers too slowly', async () => {
+    const { ms, response } = await slowRequest('GET /api/health HTTP/1.1\r\n', 'X-Slow: ' + 'a'.repeat(100));
+    expect(response).toMatch(/^HTTP\/1\.1 408/);
+    expect(ms).toBeLessThan(limits.headersMs + limits.checkIntervalMs + 700);
+  });
+
+  it('still serves a client that sends at ordinary speed', async () => {
+    const res = await request(server)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: 'nobody@test.example', password: 'x' });
+    expect(res.status).toBe(401);
   });
 });

@@ -12,6 +12,7 @@ import { startFakeSmtp } from '../../server/lib/fake-smtp';
 import { createSmtpMailer } from '../../server/lib/mailer';
 import { storeReceivedMail } from '../../server/features/mail/mailbox.service';
 import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
+import { createHttpServer } from '../../server/lib/http-server';
 
 export default async function setup(project: TestProject) {
   buildClientIfStale();
@@ -20,14 +21,17 @@ export default async function setup(project: TestProject) {
   // A small fleet keeps the browser tests' start-up short.
   await seedDemo(db, { units: 40 });
   // Bind first so the origin check knows the port.
-  const http = await import('node:http');
-  const server = http.createServer();
+  const server = createHttpServer(undefined);
   await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
   const port = (server.address() as AddressInfo).port;
   const baseUrl = `http://127.0.0.1:${port}`;
   // Mail goes through SMTP to a fake server that files it in the e2e database's dev_mailbox, where tests read it.
   const smtp = await startFakeSmtp({ port: 0, onMessage: (m) => storeReceivedMail(db, m) });
-  const mailer = createSmtpMailer({ host: '127.0.0.1', port: smtp.port, from: 'Tightloop <no-reply@tightloop.example>' });
+  const mailer = createSmtpMailer({
+    host: '127.0.0.1',
+    port: smtp.port,
+    from: 'Tightloop <no-reply@tightloop.example>',
+  });
   const { app, ctx } = createApp({ db, mailer, publicUrl: baseUrl, clientDir: path.join(PROJECT_ROOT, 'dist') });
   const mailWorker = createOutboxWorker(ctx, { pollMs: 250 });
   mailWorker.start();
