@@ -3,8 +3,9 @@ import { DomainError } from './errors';
 /** Dates are handled as UTC milliseconds and UTC day numbers (days since 1970-01-01). */
 export const MS_PER_DAY = 86_400_000;
 
-const MIN_YEAR = 1900;
-const MAX_YEAR = 2199;
+/** The years the engine computes; every date the product accepts stays inside (shared/schemas/common.ts). */
+export const ENGINE_MIN_YEAR = 1900;
+export const ENGINE_MAX_YEAR = 2199;
 
 function isLeapYear(year: number): boolean {
   return (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
@@ -52,7 +53,7 @@ export function isoToMs(s: string): number {
   const day = twoDigits(s, 8);
   if (hi < 0 || lo < 0) return NaN;
   const year = hi * 100 + lo;
-  if (year < MIN_YEAR || year > MAX_YEAR || month < 1 || month > 12) return NaN;
+  if (year < ENGINE_MIN_YEAR || year > ENGINE_MAX_YEAR || month < 1 || month > 12) return NaN;
   if (day < 1 || day > daysInMonth(year, month)) return NaN;
   // Consecutive events mostly share a date: reuse the last day computed.
   if (year !== cachedYear || month !== cachedMonth || day !== cachedDay) {

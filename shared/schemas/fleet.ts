@@ -1,6 +1,7 @@
 // Fleet views: the fleet table (filters, sorting, pages), the overview charts, cylinder traceability.
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
+import { daySchema } from './common';
 import { UNIT_STATUS_VALUES } from './history';
 
 export const FLEET_SORTS = ['score', 'rate', 'forecast', 'leakCheck', 'pti', 'containerNumber', 'co2e'] as const;
@@ -161,7 +162,7 @@ export const MAX_TRACE_ROWS = 2000;
 export const MAX_TRACE_DAYS = 731;
 export const MAX_MARK_UNITS = 5000;
 
-const isoDay = (label: string) => z.iso.date({ message: `Enter the ${label} as a date, e.g. 2026-03-31` });
+const isoDay = (label: string) => daySchema({ format: `Enter the ${label} as a date, e.g. 2026-03-31` });
 
 export const traceQuerySchema = z
   .object({

@@ -6,6 +6,7 @@ import {
   REPAIR_ACTION_IDS,
   SIGHT_GLASS_STATE_IDS,
 } from '../domain/service-terms';
+import { momentSchema } from './common';
 import { MASS_UNITS, PRESSURE_UNITS, TEMPERATURE_UNITS } from '../domain/units';
 import type { PressureSnapshot } from '../domain/pressure-health';
 import type { UnitStats } from '../domain/unit-stats';
@@ -133,7 +134,7 @@ export const recordVisitSchema = z.object({
   idempotencyKey: z.string().min(8).max(64).regex(/^[\w-]+$/, 'Bad idempotency key'),
   unitId: z.number().int().positive(),
   siteId: z.number().int().positive().nullable().optional(),
-  occurredAt: z.iso.datetime({ offset: true, message: 'Enter when the work was done' }),
+  occurredAt: momentSchema({ format: 'Enter when the work was done' }),
   events: z
     .array(visitEventSchema)
     .min(1, 'Add at least one thing you did')
@@ -211,9 +212,9 @@ export type UnitStatsDto = {
   forecast: { date: string; earliest: string | null; latest: string | null; overdue: boolean } | null;
   /** The engine's result without its per-visit and per-snapshot series (those come with the timeline). */
   detail: UnitStatsSummary | null;
-};
   /** Why the figures could not be computed from this unit's record (then the figures above are placeholders). */
   computeError: string | null;
+};
 
 /** What the statistics row keeps of `computeUnitStats`: every figure and reason, not the series. */
 export type UnitStatsSummary = Omit<UnitStats, 'visits' | 'snapshots'>;

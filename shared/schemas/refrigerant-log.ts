@@ -1,5 +1,6 @@
 // The refrigerant log: every addition and recovery, and the leak checks, per period, site and refrigerant.
 import { z } from 'zod';
+import { daySchema } from './common';
 import { refrigerantCodeSchema } from './fleet';
 
 export const MAX_LOG_DAYS = 366;
@@ -7,8 +8,8 @@ export const LOG_PAGE_SIZE = 100;
 
 export const refrigerantLogQuerySchema = z
   .object({
-    from: z.iso.date({ message: 'Enter the first day, e.g. 2026-01-01' }),
-    to: z.iso.date({ message: 'Enter the last day, e.g. 2026-12-31' }),
+    from: daySchema({ format: 'Enter the first day, e.g. 2026-01-01' }),
+    to: daySchema({ format: 'Enter the last day, e.g. 2026-12-31' }),
     siteId: z.coerce.number().int().positive().max(2_147_483_647).optional(),
     refrigerant: refrigerantCodeSchema.optional(),
     /** Keyset paging, newest first: the `nextBefore` of the previous page (time and event id of its last entry). */
@@ -53,9 +54,10 @@ export type RefrigerantLogEntryDto = {
 export type RefrigerantLogTotalsDto = {
   refrigerant: string;
   addedKg: number;
-  addedCo2eTonnes: number;
+  /** Null when the total cannot be computed (old rows with a mass the engine refuses). */
+  addedCo2eTonnes: number | null;
   recoveredKg: number;
-  recoveredCo2eTonnes: number;
+  recoveredCo2eTonnes: number | null;
   additions: number;
   recoveries: number;
   leakChecks: number;

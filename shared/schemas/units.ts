@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, parseContainerNumber, REFRIGERANT_CODES } from '../domain';
+import { daySchema, EARLIEST_RECORD_DAY } from './common';
 import { SITE_KINDS } from './sites';
 
 export const UNIT_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
@@ -90,7 +91,10 @@ const unitFields = {
       .positive('The charge must be more than 0 kg')
       .max(MAX_CHARGE_KG, `A unit holds at most ${MAX_CHARGE_KG} kg; check the unit (kg, not g or lb)`),
   ),
-  commissionedOn: z.preprocess(blankToNull, z.iso.date('Use a date like 2024-05-31').nullable()),
+  commissionedOn: z.preprocess(
+    blankToNull,
+    daySchema({ format: 'Use a date like 2024-05-31', earliest: EARLIEST_RECORD_DAY, latest: 'today' }).nullable(),
+  ),
   siteId: z.preprocess(toNumber, z.number({ error: 'Choose a site' }).int().positive().nullable()),
   status: statusSchema,
   machinerySerial: optionalText(MAX_SERIAL_LENGTH),
@@ -158,11 +162,11 @@ export const UNIT_FIELD_LABELS = {
   residualValue: 'Residual value',
   notes: 'Notes',
   qrIssuedAt: 'QR label issued',
+  registered: 'Registered',
 } as const;
 export type UnitField = keyof typeof UNIT_FIELD_LABELS;
 
 export const UNIT_SORTS = ['containerNumber', 'updatedAt', 'commissionedOn', 'nominalChargeKg'] as const;
-  registered: 'Registered',
 export type UnitSort = (typeof UNIT_SORTS)[number];
 
 export const unitListQuerySchema = z.object({

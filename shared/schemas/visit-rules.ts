@@ -1,11 +1,11 @@
 // Plausibility rules of a visit that need the unit (its charge and refrigerant) and the clock.
 // Used by the form as a preview and by the server as the rule.
+import { dayOf } from '../domain/dates';
+import { BEFORE_COMMISSIONING_MARGIN_DAYS, CLOCK_SKEW_MS, dayWords } from './common';
 import type { RecordVisitInput } from './history';
 
 // Our definition: a single movement above twice the nominal charge is a typing error, not a service.
 export const MAX_MOVEMENT_CHARGE_RATIO = 2;
-// Our definition: readings dated more than 5 minutes ahead of the server clock are in the future.
-export const FUTURE_SLACK_MS = 5 * 60 * 1000;
 
 // Highest gauge pressure accepted per refrigerant, kPa. Our definition, set above each fluid's highest
 // condensing pressure at 60 °C (DOMAIN.md §3 curves) and, for R-744, above the usual high-side relief setting.
@@ -18,14 +18,22 @@ export const MAX_PLAUSIBLE_KPAG: Record<string, number> = {
   'R-744': 14_000,
 };
 
+/**
+ * The date rule for a visit (shared/schemas/common.ts has the rest): not in the future beyond the clock skew, and
+ * not long before the unit was commissioned. The commissioning date is optional: the form may not know it.
+ */
 export function visitPlausibilityIssues(
-  unit: { refrigerant: string; nominalChargeKg: number },
+  unit: { refrigerant: string; nominalChargeKg: number; commissionedOn?: string | null },
   input: Pick<RecordVisitInput, 'occurredAt' | 'events'>,
   now: Date,
 ): Record<string, string> {
   const fields: Record<string, string> = {};
-  if (Date.parse(input.occurredAt) > now.getTime() + FUTURE_SLACK_MS) {
+  const atMs = Date.parse(input.occurredAt);
+  const commissioned = unit.commissionedOn?.slice(0, 10) ?? null;
+  if (atMs > now.getTime() + CLOCK_SKEW_MS) {
     fields.occurredAt = 'That time is in the future';
+  } else if (commissioned && dayOf(Date.parse(commissioned)) - dayOf(atMs) > BEFORE_COMMISSIONING_MARGIN_DAYS) {
+    fields.occurredAt = `That is more than a year before this unit was commissioned (${dayWords(commissioned)}); check the date, or the unit's commissioning date`;
   }
   const maxKg = unit.nominalChargeKg * MAX_MOVEMENT_CHARGE_RATIO;
   const maxKPaG = MAX_PLAUSIBLE_KPAG[unit.refrigerant] ?? 14_000;

@@ -89,6 +89,16 @@ type LogRow = {
 
 const bool = (v: boolean | number | null) => (v == null ? null : Boolean(v));
 
+/** t CO2e of a mass, or null when the engine refuses it (an old row with a negative kg): one odd row leaves its
+ * own figure empty instead of failing the whole log for everyone. */
+function co2eOrNull(refrigerant: string, kg: number, settings: Settings): number | null {
+  try {
+    return round(co2eTonnes(refrigerant, kg, settings.gwpBasis), 4);
+  } catch {
+    return null;
+  }
+}
+
 export function toLogEntry(r: LogRow, settings: Settings): RefrigerantLogEntryDto {
   const movement = r.kind !== 'leak_check';
   return {
@@ -99,7 +109,7 @@ export function toLogEntry(r: LogRow, settings: Settings): RefrigerantLogEntryDt
     refrigerant: r.refrigerant,
     site: r.siteId != null ? { id: r.siteId, name: r.siteName ?? '' } : null,
     kg: movement ? (r.kg ?? 0) : null,
-    co2eTonnes: movement ? round(co2eTonnes(r.refrigerant, r.kg ?? 0, settings.gwpBasis), 4) : null,
+    co2eTonnes: movement ? co2eOrNull(r.refrigerant, r.kg ?? 0, settings) : null,
     cylinder: movement ? r.cylinder : null,
     reusedRecovered: movement ? bool(r.reusedRecovered) : null,
     excludedFromLeakRate: movement ? bool(r.excludedFromLeakRate) : null,
@@ -154,8 +164,8 @@ export async function logTotals(db: Db, q: RefrigerantLogQuery, settings: Settin
       ...t,
       addedKg: round(t.addedKg, 3),
       recoveredKg: round(t.recoveredKg, 3),
-      addedCo2eTonnes: round(co2eTonnes(t.refrigerant, t.addedKg, settings.gwpBasis), 4),
-      recoveredCo2eTonnes: round(co2eTonnes(t.refrigerant, t.recoveredKg, settings.gwpBasis), 4),
+      addedCo2eTonnes: co2eOrNull(t.refrigerant, t.addedKg, settings),
+      recoveredCo2eTonnes: co2eOrNull(t.refrigerant, t.recoveredKg, settings),
     }))
     .sort((a, b) => a.refrigerant.localeCompare(b.refrigerant));
 }

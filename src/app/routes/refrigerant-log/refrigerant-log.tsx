@@ -221,7 +221,7 @@ function Totals({ totals }: { totals: NonNullable<ReturnType<typeof useRefrigera
                 <td className="py-2 pr-3 text-right tabular-nums">
                   {fmtKg(t.addedKg)}
                   <span className="block text-sm text-ink-600">
-                    {fmtNumber(t.addedCo2eTonnes, 2)} t CO2e · {t.additions}×
+                    {t.addedCo2eTonnes === null ? 'CO2e cannot be computed' : `${fmtNumber(t.addedCo2eTonnes, 2)} t CO2e`} · {t.additions}×
                   </span>
                 </td>
                 <td className="py-2 pr-3 text-right tabular-nums">
