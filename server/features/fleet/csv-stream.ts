@@ -6,6 +6,7 @@ import type { Response } from 'express';
 import type { Pool as CorePool } from 'mysql2';
 import { stringify } from 'csv-stringify';
 import type { Db } from '../../db/client';
+import { CSV_OPTIONS } from '../../lib/csv';
 
 type Compiled = { toSQL(): { sql: string; params: unknown[] } };
 
@@ -16,17 +17,16 @@ export function streamRows(db: Db, query: Compiled): AsyncIterable<unknown[]> {
   return pool.query({ sql, values: params, rowsAsArray: true }).stream({ highWaterMark: 256 }) as unknown as AsyncIterable<unknown[]>;
 }
 
-/** Sends `records` as a CSV attachment (UTF-8 with a byte-order mark, so spreadsheet programs read accents right). */
+/**
+ * Sends `records` as a CSV attachment (UTF-8 with a byte-order mark, so spreadsheet programs read accents right).
+ * Cells follow the CSV injection rule of server/lib/csv.ts: formula-leading text escaped, numbers as numbers.
+ */
 export async function sendCsv(res: Response, fileName: string, columns: string[], records: AsyncIterable<unknown[]>): Promise<void> {
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
   res.setHeader('Cache-Control', 'no-store');
-  const csv = stringify({
-    header: true,
-    columns,
-    bom: true,
-    cast: { boolean: (v) => (v ? 'yes' : 'no'), date: (d) => d.toISOString() },
-  });
+  // The injection rule lives in CSV_OPTIONS, so no export can forget it.
+  const csv = stringify({ ...CSV_OPTIONS, header: true, columns, bom: true });
   await pipeline(Readable.from(records), csv, res);
 }
 
