@@ -216,6 +216,16 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
       </p>
     );
   }
+  if (stats.computeError) {
+    return (
+      <div role="alert" data-testid="unit-figures-error" className="rounded-md border-2 border-heed-800 bg-white px-4 py-3 text-ink-800">
+        <p className="font-bold">Cannot compute: {stats.computeError}</p>
+        <p className="text-sm text-ink-700">
+          The history is kept as recorded. Correct the unit's details (an engineer can edit them), and the figures are worked out again.
+        </p>
+      </div>
+    );
+  }
   const detail = statsDetail(stats);
   const pti = ptiFigure(stats);
   const leakOverdue = detail?.leakCheckOverdue ?? false;
