@@ -88,6 +88,8 @@ export type FleetRowDto = {
   ptiValid: boolean;
   pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
   lastEventAt: string | null;
+  /** Why the engine could not compute this unit's figures (then they are placeholders), or null. */
+  computeError: string | null;
 };
 
 export type FleetCountDto = { total: number; capped: boolean };

@@ -4,6 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import type TestAgent from 'supertest/lib/agent';
+import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { units } from '../../server/db/schema';
@@ -182,7 +183,7 @@ describe('query ranges', () => {
 });
 
 describe('a unit whose commissioning date the engine cannot compute, already in the database', () => {
-  it('leaves the fleet table, its count and its export answering 200 with the other units listed', async () => {
+  it('leaves the fleet table, its count and its export answering 200, the unit listed as one that cannot be computed', async () => {
     await resetDb(db);
     engineer = (await signInAs(app, db, 'engineer')).agent;
     // Straight into the database, past every schema, as a row from before the date rule would be.
@@ -190,12 +191,26 @@ describe('a unit whose commissioning date the engine cannot compute, already in 
     await createTestUnit(db, { containerNumber: halyardNumber(700302), commissionedOn: '2021-05-01' });
     const table = await engineer.get('/api/fleet?sort=containerNumber&dir=asc');
     expect(table.status, table.text).toBe(200);
-    expect(table.body.rows.map((r: { containerNumber: string }) => r.containerNumber)).toContain(halyardNumber(700302));
+    expect(table.body.rows).toEqual([
+      expect.objectContaining({
+        containerNumber: halyardNumber(700301),
+        computeError: expect.stringMatching(/commissioning date/i),
+      }),
+      expect.objectContaining({
+        containerNumber: halyardNumber(700302),
+        computeError: null,
+        co2eTonnes: expect.any(Number),
+      }),
+    ]);
     const count = await engineer.get('/api/fleet/count');
     expect(count.status, count.text).toBe(200);
     expect(count.body.total).toBe(2);
-    const csv = await engineer.get('/api/fleet/export.csv').buffer(true);
+    const csv = await engineer.get('/api/fleet/export.csv?sort=containerNumber&dir=asc').buffer(true);
     expect(csv.status, csv.text).toBe(200);
-    expect(csv.text).toContain(halyardNumber(700302));
+    const rows = parse(csv.text.replace(/^\uFEFF/, ''), { columns: true }) as Record<string, string>[];
+    expect(rows.map((r) => [r['Container number'], r.Figures.slice(0, 15)])).toEqual([
+      [halyardNumber(700301), 'cannot compute:'],
+      [halyardNumber(700302), 'computed'],
+    ]);
   });
 });

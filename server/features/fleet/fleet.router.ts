@@ -31,6 +31,7 @@ const FLEET_CSV_COLUMNS = [
   'PTI valid',
   'Pressure health',
   'Last event',
+  'Figures',
 ];
 
 const TRACE_CSV_COLUMNS = ['Date', 'Container number', 'Refrigerant', 'Entry', 'kg', 'Cylinder or lot', 'Site', 'Recorded by', 'Event id'];
@@ -81,6 +82,7 @@ export function fleetRoutes(ctx: AppContext) {
               r.ptiValid,
               r.pressureFlag,
               r.lastEventAt ?? '',
+              r.computeError ? `cannot compute: ${r.computeError}` : 'computed',
             ];
           }
         }

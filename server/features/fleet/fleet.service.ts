@@ -79,6 +79,7 @@ const rowFields = {
   ptiPassed: unitStats.ptiPassed,
   pressureFlag: unitStats.pressureFlag,
   lastEventAt: unitStats.lastEventAt,
+  computeError: unitStats.computeError,
 };
 /** Column order of a CSV/stream row (rowsAsArray follows the select list). */
 export const ROW_FIELD_NAMES = Object.keys(rowFields) as (keyof typeof rowFields)[];
@@ -102,6 +103,7 @@ type RawRow = {
   ptiPassed: boolean | number | null;
   pressureFlag: FleetRowDto['pressureFlag'];
   lastEventAt: Date | string | null;
+  computeError: string | null;
 };
 
 const dayText = (v: string | Date | null): string | null => (v == null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10));
@@ -129,6 +131,7 @@ export function toFleetRow(r: RawRow, today: string): FleetRowDto {
     ptiValid: ptiValidUntil !== null && ptiValidUntil >= today,
     pressureFlag: r.pressureFlag,
     lastEventAt: r.lastEventAt == null ? null : new Date(r.lastEventAt).toISOString(),
+    computeError: r.computeError ?? null,
   };
 }
 
