@@ -4,6 +4,9 @@
 //   --duration <s>   seconds per scenario (default 10)     --repeat <n>  runs of each scenario, medians quoted (3)
 //   --connections    concurrent connections (16)           --backtest-units <n>  units in the backtest (4000)
 //   --rate <n>       requests/s of the steady-load runs (50)
+//   --only <ids>     only these scenarios, comma-separated (e.g. `visitWrite,visitTopUp,mixedWrite`; `fleetTableEach`
+//                    and `backtest` name the two later parts). A partial run leaves bench/results.* and the README alone
+//                    and writes its table to `--out` (default .data/bench-partial.md, with a .json beside it).
 // Each scenario is measured twice: saturated (every connection sends its next request as soon as the last is
 // answered, so latency is mostly queueing and req/s is the capacity) and at a steady load (requests arrive at random,
 // `--rate` a second on average, and each is timed from when it was due, so a slow answer cannot hide the ones queued
@@ -33,6 +36,15 @@ const REPEAT = arg('repeat', 3);
 const CONNECTIONS = arg('connections', 16);
 const BACKTEST_UNITS = arg('backtest-units', 4000);
 const STEADY_RATE = arg('rate', 50);
+function textArg(name: string): string | undefined {
+  const i = process.argv.indexOf(`--${name}`);
+  return i >= 0 ? process.argv[i + 1] : undefined;
+}
+const ONLY = textArg('only')
+  ?.split(',')
+  .map((s) => s.trim())
+  .filter(Boolean);
+const PARTIAL = ONLY !== undefined;
 type Regime = 'saturated' | 'steady';
 type Target = { p95Ms: number; at: Regime };
 // Unit page (at 16 connections), visit write (the same) and the baseline share: the benchmark issue; the busy unit
@@ -244,6 +256,31 @@ const scenarios: Scenario[] = [
     ],
   },
   {
+    id: 'visitTopUp',
+    title: 'Visit with a top-up `POST /api/visits` (top-up + pressure reading, random units, unique keys)',
+    probe: '',
+    requests: () => [
+      {
+        method: 'POST',
+        setupRequest: (req) => ({ ...req, path: '/api/visits', body: JSON.stringify(visitBody(topUpEntries())) }),
+      },
+    ],
+  },
+  {
+    id: 'mixedWrite',
+    title:
+      'Mixed writes: visits with a top-up (35 %), a recovery (10 %) or a pressure reading (15 %), voids of recent entries ' +
+      '`POST /api/events/:id/void` (20 %), charge edits `PATCH /api/units/:id` (20 %)',
+    probe: '',
+    requests: () => [
+      {
+        method: 'POST',
+        setupRequest: (req, context) => ({ ...req, ...mixedWrite(context as WriteContext) }),
+        onResponse: (status, body, context) => answered(status, body, context as WriteContext),
+      },
+    ],
+  },
+  {
     id: 'scanLookup',
     title: 'Scan lookup `GET /api/units/by-token/:token`',
     probe: `/api/units/by-token/${tokens[0]}`,
@@ -251,20 +288,170 @@ const scenarios: Scenario[] = [
   },
 ];
 const runTag = Date.now().toString(36);
-function visitBody() {
+const LATER_PARTS = ['fleetTableEach', 'backtest'];
+const unknownIds = (ONLY ?? []).filter((id) => !scenarios.some((s) => s.id === id) && !LATER_PARTS.includes(id));
+if (unknownIds.length) {
+  console.error(
+    `Unknown --only ${unknownIds.join(', ')}; known: ${[...scenarios.map((s) => s.id), ...LATER_PARTS].join(', ')}.`,
+  );
+  stopAll();
+  process.exit(2);
+}
+const selected = scenarios.filter((s) => !ONLY || ONLY.includes(s.id));
+const runsPart = (id: string) => !ONLY || ONLY.includes(id);
+const pressureEntry = {
+  kind: 'pressure',
+  suctionKPaG: 95,
+  dischargeKPaG: 880,
+  ambientC: 21.5,
+  setPointC: -18,
+  sightGlass: 'full',
+};
+function visitBody(events: object[] = [pressureEntry, { kind: 'pti', passed: true }]) {
   seq++;
   return {
     idempotencyKey: `bench-${runTag}-${seq}`,
     unitId: pick(writeIds),
     occurredAt: new Date(Date.now() - 60_000).toISOString(),
-    events: [
-      { kind: 'pressure', suctionKPaG: 95, dischargeKPaG: 880, ambientC: 21.5, setPointC: -18, sightGlass: 'full' },
-      { kind: 'pti', passed: true },
-    ],
+    events,
   };
 }
+// Up to 1.5 kg, well under twice the smallest charge a unit is seeded with, so every body passes the plausibility rule.
+const someKg = () => Math.round(20 + rng.next() * 130) / 100;
+const cylinderId = () => `BENCH-CYL-${100 + Math.floor(rng.next() * 24)}`;
+const topUpEntries = () => [{ kind: 'top_up', kg: someKg(), cylinder: cylinderId() }, pressureEntry];
 
-type Run = { rps: number; p50: number; p95: number; p99: number; requests: number; errors: number; non2xx: number };
+// The mixed scenario: what each connection sends next is drawn by weight; voids take entries this process recorded
+// moments ago (each at most once, so a 409 for an entry voided twice does not count as a failure of the write path).
+type WriteKind = 'topUp' | 'recovery' | 'pressure' | 'void' | 'unitEdit';
+type WriteContext = { kind?: WriteKind };
+const MIX: [WriteKind, number][] = [
+  ['topUp', 0.35],
+  ['recovery', 0.1],
+  ['pressure', 0.15],
+  ['void', 0.2],
+  ['unitEdit', 0.2],
+];
+const recentEvents: number[] = [];
+const RECENT_EVENTS_KEPT = 5000;
+function mixedWrite(context: WriteContext): { method: string; path: string; body: string } {
+  let r = rng.next();
+  let kind = MIX.find(([, w]) => (r -= w) < 0)?.[0] ?? 'topUp';
+  if (kind === 'void' && !recentEvents.length) kind = 'topUp';
+  context.kind = kind;
+  switch (kind) {
+    case 'void': {
+      const i = Math.floor(rng.next() * recentEvents.length);
+      const id = recentEvents[i];
+      recentEvents[i] = recentEvents[recentEvents.length - 1];
+      recentEvents.pop();
+      return {
+        method: 'POST',
+        path: `/api/events/${id}/void`,
+        body: JSON.stringify({ reason: 'Benchmark: entered on the wrong unit' }),
+      };
+    }
+    case 'unitEdit':
+      return {
+        method: 'PATCH',
+        path: `/api/units/${pick(writeIds)}`,
+        body: JSON.stringify({ nominalChargeKg: Math.round(40 + rng.next() * 20) / 10 }),
+      };
+    case 'recovery':
+      return {
+        method: 'POST',
+        path: '/api/visits',
+        body: JSON.stringify(visitBody([{ kind: 'recovery', kg: someKg(), cylinder: cylinderId() }])),
+      };
+    case 'pressure':
+      return { method: 'POST', path: '/api/visits', body: JSON.stringify(visitBody([pressureEntry])) };
+    default:
+      return { method: 'POST', path: '/api/visits', body: JSON.stringify(visitBody(topUpEntries())) };
+  }
+}
+/** The kind of the request autocannon has just had answered; its 'response' event follows `onResponse` synchronously. */
+let answeredKind: WriteKind | undefined;
+const WRITE_NAMES = {
+  visitWrite: 'Visit (pressure reading + PTI)',
+  visitTopUp: 'Visit with a top-up',
+  mixedWrite: 'Mixed writes',
+};
+const KIND_NAMES: Record<WriteKind, string> = {
+  topUp: 'visit with a top-up',
+  recovery: 'visit with a recovery',
+  pressure: 'visit with a pressure reading',
+  void: 'void of a recent entry',
+  unitEdit: 'charge edit',
+};
+function answered(status: number, body: string, context: WriteContext) {
+  answeredKind = context.kind;
+  if (status !== 201 || context.kind === 'void' || context.kind === 'unitEdit') return;
+  for (const e of (JSON.parse(body) as { events: { id: number }[] }).events) recentEvents.push(e.id);
+  if (recentEvents.length > RECENT_EVENTS_KEPT) recentEvents.splice(0, recentEvents.length - RECENT_EVENTS_KEPT);
+}
+
+/** Answers other than 2xx by status code. */
+type Statuses = Record<string, number>;
+type KindRun = {
+  requests: number;
+  non2xx: number;
+  s5xx: number;
+  statuses: Statuses;
+  p50: number;
+  p95: number;
+  p99: number;
+};
+type Run = {
+  rps: number;
+  p50: number;
+  p95: number;
+  p99: number;
+  requests: number;
+  errors: number;
+  non2xx: number;
+  s5xx: number;
+  statuses: Statuses;
+  /** The mixed write scenario's figures per kind of request. */
+  byKind?: Record<string, KindRun>;
+};
+
+/** Tallies answers per kind of request, for scenarios that say which kind each request was. */
+function kindTally() {
+  const seen = new Map<string, { times: number[]; non2xx: number; s5xx: number; statuses: Statuses }>();
+  return {
+    add(kind: string | undefined, status: number, ms: number) {
+      if (!kind) return;
+      let k = seen.get(kind);
+      if (!k) seen.set(kind, (k = { times: [], non2xx: 0, s5xx: 0, statuses: {} }));
+      k.times.push(ms);
+      if (status < 200 || status >= 300) {
+        k.non2xx++;
+        k.statuses[status] = (k.statuses[status] ?? 0) + 1;
+      }
+      if (status >= 500) k.s5xx++;
+    },
+    result(): Record<string, KindRun> | undefined {
+      if (!seen.size) return undefined;
+      return Object.fromEntries(
+        [...seen].map(([kind, k]) => {
+          const sorted = Float64Array.from(k.times).sort();
+          return [
+            kind,
+            {
+              requests: k.times.length,
+              non2xx: k.non2xx,
+              s5xx: k.s5xx,
+              statuses: k.statuses,
+              p50: percentile(sorted, 50),
+              p95: percentile(sorted, 95),
+              p99: percentile(sorted, 99),
+            },
+          ];
+        }),
+      );
+    },
+  };
+}
 
 function percentile(sorted: Float64Array, p: number): number {
   if (!sorted.length) return NaN;
@@ -281,6 +468,10 @@ async function measure(
 ): Promise<Run> {
   const times: number[] = [];
   let non2xx = 0;
+  let s5xx = 0;
+  const statuses: Statuses = {};
+  const kinds = kindTally();
+  answeredKind = undefined;
   const instance = autocannon({
     url: base,
     connections,
@@ -290,7 +481,13 @@ async function measure(
   });
   instance.on('response', (_client: unknown, status: number, _bytes: number, ms: number) => {
     times.push(ms);
-    if (status < 200 || status >= 300) non2xx++;
+    if (status < 200 || status >= 300) {
+      non2xx++;
+      statuses[status] = (statuses[status] ?? 0) + 1;
+    }
+    if (status >= 500) s5xx++;
+    kinds.add(answeredKind, status, ms);
+    answeredKind = undefined;
   });
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
     instance.once('done', resolve);
@@ -305,6 +502,9 @@ async function measure(
     requests: times.length,
     errors: result.errors + result.timeouts,
     non2xx,
+    s5xx,
+    statuses,
+    byKind: kinds.result(),
   };
 }
 
@@ -325,10 +525,14 @@ async function measureSteady(
   const template = requests[0];
   const times: number[] = [];
   let non2xx = 0;
+  let s5xx = 0;
+  const statuses: Statuses = {};
   let errors = 0;
+  const kinds = kindTally();
   const send = (due: number) =>
     new Promise<void>((resolve) => {
-      const r = (template.setupRequest?.({ ...template, headers: {} } as autocannon.Request, {}) ?? template) as {
+      const context: WriteContext = {};
+      const r = (template.setupRequest?.({ ...template, headers: {} } as autocannon.Request, context) ?? template) as {
         method?: string;
         path?: string;
         body?: string;
@@ -336,10 +540,21 @@ async function measureSteady(
       const req = http.request(
         { host: target.hostname, port: target.port, method: r.method ?? 'GET', path: r.path, agent, headers },
         (res) => {
-          res.resume();
+          const chunks: Buffer[] = [];
+          res.on('data', (b: Buffer) => {
+            if (template.onResponse) chunks.push(b);
+          });
           res.on('end', () => {
-            times.push(performance.now() - due);
-            if (!res.statusCode || res.statusCode < 200 || res.statusCode >= 300) non2xx++;
+            const ms = performance.now() - due;
+            const status = res.statusCode ?? 0;
+            times.push(ms);
+            if (status < 200 || status >= 300) {
+              non2xx++;
+              statuses[status] = (statuses[status] ?? 0) + 1;
+            }
+            if (status >= 500) s5xx++;
+            template.onResponse?.(status, Buffer.concat(chunks).toString(), context, {});
+            kinds.add(context.kind, status, ms);
             resolve();
           });
         },
@@ -369,12 +584,15 @@ async function measureSteady(
     requests: times.length,
     errors,
     non2xx,
+    s5xx,
+    statuses,
+    byKind: kinds.result(),
   };
 }
 
 const appHeaders = { cookie, origin: appUrl, 'content-type': 'application/json', accept: 'application/json' };
 const available = new Map<string, number>();
-for (const s of scenarios) {
+for (const s of selected) {
   if (!s.probe) {
     available.set(s.id, 200);
     continue;
@@ -419,7 +637,7 @@ async function settle(base: string) {
 const WARM_S = Math.min(3, DURATION_S);
 console.log(`Warming up (${WARM_S} s per scenario)…`);
 await measure(baselineUrl, baselineRequests, WARM_S, {});
-for (const s of scenarios) {
+for (const s of selected) {
   if (available.get(s.id) === 404) continue;
   await settle(appUrl);
   await measure(appUrl, s.requests(), WARM_S, appHeaders, s.connections);
@@ -427,7 +645,7 @@ for (const s of scenarios) {
 
 const runs: Record<string, Run[]> = { baseline: [] };
 const steadyRuns: Record<string, Run[]> = { baseline: [] };
-for (const s of scenarios) {
+for (const s of selected) {
   runs[s.id] = [];
   steadyRuns[s.id] = [];
 }
@@ -441,7 +659,7 @@ for (let r = 1; r <= REPEAT; r++) {
   const steadyBase = await measureSteady(baselineUrl, baselineRequests, DURATION_S, STEADY_RATE, {});
   steadyRuns.baseline.push(steadyBase);
   console.log(`run ${r}/${REPEAT}  baseline   @${STEADY_RATE}/s     ${fmtRun(steadyBase)}`);
-  for (const s of scenarios) {
+  for (const s of selected) {
     const status = available.get(s.id)!;
     if (status === 404) continue;
     await settle(appUrl);
@@ -457,11 +675,16 @@ for (let r = 1; r <= REPEAT; r++) {
 }
 
 const EACH_S = Math.min(3, DURATION_S);
-console.log(
-  `Fleet table, each sort and filter by itself (${EACH_S} s saturated, ${EACH_S} s steady, ${REPEAT} rounds)…`,
-);
+if (runsPart('fleetTableEach'))
+  console.log(
+    `Fleet table, each sort and filter by itself (${EACH_S} s saturated, ${EACH_S} s steady, ${REPEAT} rounds)…`,
+  );
 // Round by round over all cases, so a slow spell of a shared machine lands on different cases, not on every run of one.
-const fleetEachRuns = fleetEachQueries.map((query) => ({ query, saturated: [] as Run[], steady: [] as Run[] }));
+const fleetEachRuns = (runsPart('fleetTableEach') ? fleetEachQueries : []).map((query) => ({
+  query,
+  saturated: [] as Run[],
+  steady: [] as Run[],
+}));
 for (let r = 1; r <= REPEAT; r++) {
   for (const f of fleetEachRuns) {
     const requests = get(() => `/api/fleet?${f.query}`);
@@ -479,7 +702,7 @@ for (let r = 1; r <= REPEAT; r++) {
 stopAll();
 
 function fmtRun(x: Run) {
-  return `p50 ${x.p50.toFixed(1)} ms  p95 ${x.p95.toFixed(1)} ms  p99 ${x.p99.toFixed(1)} ms  ${Math.round(x.rps)} req/s${x.non2xx ? `  (${x.non2xx} non-2xx)` : ''}${x.errors ? `  (${x.errors} errors)` : ''}`;
+  return `p50 ${x.p50.toFixed(1)} ms  p95 ${x.p95.toFixed(1)} ms  p99 ${x.p99.toFixed(1)} ms  ${Math.round(x.rps)} req/s${x.non2xx ? `  (${x.non2xx} non-2xx, ${x.s5xx} × 5xx)` : ''}${x.errors ? `  (${x.errors} errors)` : ''}`;
 }
 const med = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -495,21 +718,52 @@ const summary = (list: Run[]) =>
         rps: Math.round(med(list.map((x) => x.rps))),
         requests: list.reduce((s, x) => s + x.requests, 0),
         non2xx: list.reduce((s, x) => s + x.non2xx, 0),
+        s5xx: list.reduce((s, x) => s + x.s5xx, 0),
+        statuses: addStatuses(list),
         errors: list.reduce((s, x) => s + x.errors, 0),
+        ...(list.some((x) => x.byKind) ? { byKind: kindSummary(list) } : {}),
       }
     : null;
+function addStatuses(list: { statuses: Statuses }[]): Statuses {
+  const sum: Statuses = {};
+  for (const x of list) for (const [code, n] of Object.entries(x.statuses)) sum[code] = (sum[code] ?? 0) + n;
+  return sum;
+}
+/** Per kind of request: answers and failures summed over the runs, latency percentiles as medians of the runs. */
+function kindSummary(list: Run[]) {
+  const seen = new Set(list.flatMap((x) => Object.keys(x.byKind ?? {})));
+  const kinds = MIX.map(([kind]) => kind as string).filter((kind) => seen.has(kind));
+  return Object.fromEntries(
+    kinds.map((kind) => {
+      const ks = list.map((x) => x.byKind?.[kind]).filter((k): k is KindRun => !!k);
+      return [
+        kind,
+        {
+          p50Ms: +med(ks.map((k) => k.p50)).toFixed(2),
+          p95Ms: +med(ks.map((k) => k.p95)).toFixed(2),
+          p99Ms: +med(ks.map((k) => k.p99)).toFixed(2),
+          requests: ks.reduce((s, k) => s + k.requests, 0),
+          non2xx: ks.reduce((s, k) => s + k.non2xx, 0),
+          s5xx: ks.reduce((s, k) => s + k.s5xx, 0),
+          statuses: addStatuses(ks),
+        },
+      ];
+    }),
+  );
+}
 
 // --- forecast backtest -----------------------------------------------------------------------------------------
-console.log(`Forecast backtest over the first ${BACKTEST_UNITS.toLocaleString('en')} simulated units…`);
-const fleet = createFleet({
-  seed: Number(seedInfo?.seed ?? DEFAULT_SEED),
-  units: Number(seedInfo?.units ?? unitTotal) - 1,
-  now: new Date(String(seedInfo?.asOf ?? new Date().toISOString())),
-  busyUnitEvents: 0,
-});
-const backtest: BacktestResult = backtestForecast(fleet, DEFAULT_SETTINGS, {
-  to: Math.min(BACKTEST_UNITS, fleet.units),
-});
+let backtest: BacktestResult | null = null;
+if (runsPart('backtest')) {
+  console.log(`Forecast backtest over the first ${BACKTEST_UNITS.toLocaleString('en')} simulated units…`);
+  const fleet = createFleet({
+    seed: Number(seedInfo?.seed ?? DEFAULT_SEED),
+    units: Number(seedInfo?.units ?? unitTotal) - 1,
+    now: new Date(String(seedInfo?.asOf ?? new Date().toISOString())),
+    busyUnitEvents: 0,
+  });
+  backtest = backtestForecast(fleet, DEFAULT_SETTINGS, { to: Math.min(BACKTEST_UNITS, fleet.units) });
+}
 
 // --- results -----------------------------------------------------------------------------------------------------
 const cpu = (() => {
@@ -530,14 +784,20 @@ const baselineSummary = summary(runs.baseline)!;
 const results = {
   date: new Date().toISOString(),
   machine,
-  settings: { durationS: DURATION_S, repeat: REPEAT, connections: CONNECTIONS, steadyRate: STEADY_RATE },
+  settings: {
+    durationS: DURATION_S,
+    repeat: REPEAT,
+    connections: CONNECTIONS,
+    steadyRate: STEADY_RATE,
+    only: ONLY ?? null,
+  },
   dataset: { units: Number(unitTotal), events: Number(eventTotal), busyUnitEvents: busy.events, seed: seedInfo },
   baseline: {
     title: 'Bare Express + one mysql2 primary-key select (`SELECT * FROM units WHERE id = ?`)',
     ...baselineSummary,
     steady: summary(steadyRuns.baseline),
   },
-  scenarios: scenarios.map((s) => {
+  scenarios: selected.map((s) => {
     const status = available.get(s.id)!;
     const sum = summary(runs[s.id]);
     const steady = summary(steadyRuns[s.id]);
@@ -564,7 +824,7 @@ const results = {
     steadyP95Ms: +med(f.steady.map((x) => x.p95)).toFixed(2),
     non2xx: [...f.saturated, ...f.steady].reduce((n, x) => n + x.non2xx, 0),
   })),
-  backtest: {
+  backtest: backtest && {
     ...backtest,
     forecastMaeDays: +backtest.forecastMaeDays.toFixed(1),
     naiveMaeDays: +backtest.naiveMaeDays.toFixed(1),
@@ -603,44 +863,95 @@ for (const s of results.scenarios) {
     targets.push(`≥ ${TARGETS.unitPageBaselineShare * 100} % of baseline req/s ${share ? '✓' : '✗'}`);
   }
   const failed = (s.non2xx ?? 0) + (s.steady?.non2xx ?? 0);
-  const flags = failed ? ` (${failed} non-2xx)` : '';
+  const serverErrors = (s.s5xx ?? 0) + (s.steady?.s5xx ?? 0);
+  const flags = failed ? ` (${failed} non-2xx${serverErrors ? `, ${serverErrors} × 5xx` : ''})` : '';
   md.push(
     `| ${s.title}${flags} | ${s.p50Ms} / ${s.p95Ms} / ${s.p99Ms} | ${s.rps} | ${s.baselineRatio?.toFixed(2)} | ${steadyCell(s.steady)} | ${targets.join('; ')} |`,
   );
 }
 md.push('');
-const fleetLimit = TARGETS.fleetTable[0].p95Ms;
-const over = results.fleetTableEach.filter((f) => f.saturatedP95Ms > fleetLimit);
-md.push(
-  `Fleet table, each sort (both ways) and each filter by itself, ${EACH_S} s saturated and ${EACH_S} s steady, medians of ${REPEAT} rounds: ` +
-    (over.length
-      ? `${over.length} of ${results.fleetTableEach.length} above p95 ${fleetLimit} ms saturated.`
-      : `all ${results.fleetTableEach.length} within p95 ${fleetLimit} ms saturated.`),
-);
-md.push('');
-md.push(
-  `| \`GET /api/fleet?…\` | saturated p95 ms | req/s | steady ${STEADY_RATE}/s p95 ms | ≤ ${fleetLimit} ms saturated |`,
-);
-md.push('|---|---:|---:|---:|---|');
-for (const f of results.fleetTableEach) {
+const writeRows = results.scenarios.filter((s) => s.available && s.id in WRITE_NAMES);
+if (writeRows.length) {
   md.push(
-    `| \`${f.query}\`${f.non2xx ? ` (${f.non2xx} non-2xx)` : ''} | ${f.saturatedP95Ms} | ${f.saturatedRps} | ${f.steadyP95Ms} | ${f.saturatedP95Ms <= fleetLimit ? '✓' : '✗'} |`,
+    `Write scenarios, every answer counted (summed over the ${REPEAT} runs of each load; latency as medians of the runs). ` +
+      'Concurrent writers must never get a 5xx (the integrity issue); a 4xx here is a refused write the load did not mean to send.',
   );
+  md.push('');
+  md.push('| write scenario | load | requests | non-2xx | 5xx | p50 / p95 / p99 ms | no 5xx |');
+  md.push('|---|---|---:|---:|---:|---:|---|');
+  const share = (n: number, of: number) =>
+    `${n.toLocaleString('en')} (${of ? ((100 * n) / of).toFixed(n && n < of / 100 ? 2 : 1) : '0'} %)`;
+  const byStatus = (x: Statuses) =>
+    Object.entries(x)
+      .map(([code, n]) => `${code} × ${n.toLocaleString('en')}`)
+      .join(', ');
+  const row = (
+    name: string,
+    load: string,
+    x: {
+      requests: number;
+      non2xx: number;
+      s5xx: number;
+      statuses: Statuses;
+      p50Ms: number;
+      p95Ms: number;
+      p99Ms: number;
+    },
+  ) =>
+    md.push(
+      `| ${name} | ${load} | ${x.requests.toLocaleString('en')} | ${share(x.non2xx, x.requests)}${x.non2xx ? `: ${byStatus(x.statuses)}` : ''} | ` +
+        `${share(x.s5xx, x.requests)} | ${x.p50Ms} / ${x.p95Ms} / ${x.p99Ms} | ${x.s5xx ? '✗' : '✓'} |`,
+    );
+  for (const s of writeRows) {
+    const name = WRITE_NAMES[s.id as keyof typeof WRITE_NAMES];
+    for (const [load, x] of [
+      ['saturated', summary(runs[s.id])],
+      [`steady ${STEADY_RATE}/s`, summary(steadyRuns[s.id])],
+    ] as const) {
+      if (!x) continue;
+      row(name, load, x);
+      for (const [kind, k] of Object.entries(x.byKind ?? {}))
+        row(`↳ ${KIND_NAMES[kind as WriteKind] ?? kind}`, load, k);
+    }
+  }
+  md.push('');
 }
-md.push('');
-md.push(
-  `Forecast backtest (DOMAIN.md §7) over ${backtest.units.toLocaleString('en')} simulated units with hidden leaks, a cut-off every ${backtest.stepDays} days, ` +
-    `${backtest.cases.toLocaleString('en')} cases: next top-up forecast MAE **${results.backtest.forecastMaeDays} days** ` +
-    `(median ${backtest.forecastMedianErrorDays} days) vs **${results.backtest.naiveMaeDays} days** (median ${backtest.naiveMedianErrorDays}) for ` +
-    `"the last interval repeats"; the forecast is closer in ${(backtest.forecastCloserShare * 100).toFixed(0)} % of cases.`,
-);
-md.push('');
-md.push('| backtest cases | n | forecast MAE (bias) days | naive MAE (bias) days |');
-md.push('|---|---:|---:|---:|');
-for (const b of backtest.breakdown)
+if (results.fleetTableEach.length) {
+  const fleetLimit = TARGETS.fleetTable[0].p95Ms;
+  const over = results.fleetTableEach.filter((f) => f.saturatedP95Ms > fleetLimit);
   md.push(
-    `| ${b.group} | ${b.cases} | ${b.forecastMaeDays} (${b.forecastBiasDays >= 0 ? '+' : ''}${b.forecastBiasDays}) | ${b.naiveMaeDays} (${b.naiveBiasDays >= 0 ? '+' : ''}${b.naiveBiasDays}) |`,
+    `Fleet table, each sort (both ways) and each filter by itself, ${EACH_S} s saturated and ${EACH_S} s steady, medians of ${REPEAT} rounds: ` +
+      (over.length
+        ? `${over.length} of ${results.fleetTableEach.length} above p95 ${fleetLimit} ms saturated.`
+        : `all ${results.fleetTableEach.length} within p95 ${fleetLimit} ms saturated.`),
   );
+  md.push('');
+  md.push(
+    `| \`GET /api/fleet?…\` | saturated p95 ms | req/s | steady ${STEADY_RATE}/s p95 ms | ≤ ${fleetLimit} ms saturated |`,
+  );
+  md.push('|---|---:|---:|---:|---|');
+  for (const f of results.fleetTableEach) {
+    md.push(
+      `| \`${f.query}\`${f.non2xx ? ` (${f.non2xx} non-2xx)` : ''} | ${f.saturatedP95Ms} | ${f.saturatedRps} | ${f.steadyP95Ms} | ${f.saturatedP95Ms <= fleetLimit ? '✓' : '✗'} |`,
+    );
+  }
+  md.push('');
+}
+if (backtest && results.backtest) {
+  md.push(
+    `Forecast backtest (DOMAIN.md §7) over ${backtest.units.toLocaleString('en')} simulated units with hidden leaks, a cut-off every ${backtest.stepDays} days, ` +
+      `${backtest.cases.toLocaleString('en')} cases: next top-up forecast MAE **${results.backtest.forecastMaeDays} days** ` +
+      `(median ${backtest.forecastMedianErrorDays} days) vs **${results.backtest.naiveMaeDays} days** (median ${backtest.naiveMedianErrorDays}) for ` +
+      `"the last interval repeats"; the forecast is closer in ${(backtest.forecastCloserShare * 100).toFixed(0)} % of cases.`,
+  );
+  md.push('');
+  md.push('| backtest cases | n | forecast MAE (bias) days | naive MAE (bias) days |');
+  md.push('|---|---:|---:|---:|');
+  for (const b of backtest.breakdown)
+    md.push(
+      `| ${b.group} | ${b.cases} | ${b.forecastMaeDays} (${b.forecastBiasDays >= 0 ? '+' : ''}${b.forecastBiasDays}) | ${b.naiveMaeDays} (${b.naiveBiasDays >= 0 ? '+' : ''}${b.naiveBiasDays}) |`,
+    );
+}
 if (seedInfo) {
   md.push('');
   md.push(
@@ -650,13 +961,30 @@ if (seedInfo) {
 }
 md.push('');
 md.push(
-  'Reproduce: `npm run seed:bench -- --units 100000`, then `npm run bench` (options: `--duration`, `--repeat`, `--connections`, `--rate`).',
+  'Reproduce: `npm run seed:bench -- --units 100000`, then `npm run bench` (options: `--duration`, `--repeat`, `--connections`, `--rate`, ' +
+    '`--only <scenarios>`).',
 );
-// Hand-written findings (what misses its target and why) live beside the results and are quoted with them.
-const notesFile = path.join(PROJECT_ROOT, 'bench', 'notes.md');
-if (existsSync(notesFile)) md.push('', readFileSync(notesFile, 'utf8').trim());
-const mdText = md.join('\n') + '\n';
+if (PARTIAL) {
+  md.push('', `Partial run: \`--only ${ONLY.join(',')}\`.`);
+} else {
+  // Hand-written findings (what misses its target and why) live beside the results and are quoted with them.
+  const notesFile = path.join(PROJECT_ROOT, 'bench', 'notes.md');
+  if (existsSync(notesFile)) md.push('', readFileSync(notesFile, 'utf8').trim());
+}
+// Parts left out of a partial run would leave blank lines doubled.
+const mdText = md.join('\n').replace(/\n{3,}/g, '\n\n') + '\n';
 
+if (PARTIAL) {
+  // A partial run would leave the published table with scenarios missing: it goes to a file of its own.
+  const out = path.resolve(textArg('out') ?? path.join(PROJECT_ROOT, '.data', 'bench-partial.md'));
+  const outJson = out.replace(/(\.md)?$/, '.json');
+  mkdirSync(path.dirname(out), { recursive: true });
+  writeFileSync(out, `# Benchmark results (partial run)\n\n${mdText}`);
+  writeFileSync(outJson, JSON.stringify(results, null, 2) + '\n');
+  console.log(`\n${mdText}`);
+  console.log(`Wrote ${out} and ${outJson}; bench/results.* and README.md are unchanged.`);
+  process.exit(0);
+}
 const outDir = path.join(PROJECT_ROOT, 'bench');
 mkdirSync(outDir, { recursive: true });
 writeFileSync(path.join(outDir, 'results.json'), JSON.stringify(results, null, 2) + '\n');
