@@ -1,5 +1,7 @@
 // Refrigerant traceability (DOMAIN.md §10): every unit charged from a cylinder or lot, or at a site in a date range,
 // and marking those units for inspection with a note event on each, in one transaction.
+import { retryTransaction } from '../../lib/retry';
+import { WRITE_ISOLATION } from '../history/write-path';
 import { and, asc, count, desc, eq, gte, inArray, like, lt, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { events, sites, units, users, visits } from '../../db/schema';
@@ -143,7 +145,9 @@ export async function markForInspection(db: Db, user: SessionUser, input: MarkFo
   if (earlier) return earlier;
 
   try {
-    return await db.transaction(async (tx) => {
+    // Notes change no figures, so of the unit write path only its locking and retry rule apply (many units at once,
+    // locked in id order).
+    return await retryTransaction(() => db.transaction(async (tx) => {
       const found = await tx
         .selectDistinct({ unitId: events.unitId })
         .from(events)
@@ -196,7 +200,7 @@ export async function markForInspection(db: Db, user: SessionUser, input: MarkFo
         .where(inArray(events.visitId, visitIds.map((v) => v.id)))
         .orderBy(asc(events.id));
       return { marked: inserted.length, replayed: false, eventIds: inserted.map((r) => r.id) };
-    });
+    }, WRITE_ISOLATION));
   } catch (err) {
     // A concurrent retry lost the race on the visits' unique keys: the first one's result stands.
     const e = err as { code?: string; cause?: { code?: string } };
