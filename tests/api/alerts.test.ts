@@ -11,7 +11,7 @@ import { queueDailyDigest, queueOverdueLeakAlerts } from '../../server/features/
 import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
 import { containerCheckDigit } from '../../shared/domain/container-number';
 import { isoDate, dayOf, MS_PER_DAY } from '../../shared/domain/dates';
-import type { AlertKind } from '../../shared/schemas/alerts';
+import { ALERT_KINDS, type AlertKind } from '../../shared/schemas/alerts';
 import { openTestDb, resetDb } from '../support/db';
 import { signInAs, TEST_ORIGIN } from '../support/factories';
 import { linkIn, startTestSmtp, testClock } from '../support/mail';
@@ -216,6 +216,27 @@ describe('alert settings', () => {
     ]);
     const res = await subscribe(agent, [{ siteId: b, kind: 'leak_rate' }]);
     expect(res.body.subscriptions).toEqual([{ siteId: b, kind: 'leak_rate' }]);
+  });
+
+  it('answers every one of several saves at once (a double click) and keeps one of them whole, never a mix', async () => {
+    const sitesFollowed = [await createSite('Cedar Quay'), await createSite('Dock Eleven')];
+    const { agent, user } = await signInAs(app, db, 'engineer');
+    const choices = ALERT_KINDS.map((kind) => sitesFollowed.map((siteId) => ({ siteId, kind })));
+    for (let round = 0; round < 5; round++) {
+      const saves = await Promise.all(
+        [...choices, ...choices].map((subscriptions) =>
+          agent.put('/api/alerts/subscriptions').set('Origin', TEST_ORIGIN).send({ subscriptions }),
+        ),
+      );
+      expect(saves.map((r) => r.status)).toEqual(saves.map(() => 200));
+    }
+    const kept = await db
+      .select({ siteId: alertSubscriptions.siteId, kind: alertSubscriptions.kind })
+      .from(alertSubscriptions)
+      .where(eq(alertSubscriptions.userId, user.id));
+    expect(choices.map((c) => JSON.stringify(c))).toContain(
+      JSON.stringify([...kept].sort((x, y) => x.siteId - y.siteId)),
+    );
   });
 
   it('answers 400 for an unknown site or kind, 403 for a technician, 401 signed out', async () => {

@@ -3,6 +3,7 @@ import type { Db, DbOrTx } from '../../db/client';
 import { alertSubscriptions, sites, users, type unitStats } from '../../db/schema';
 import type { AppContext } from '../../deps';
 import { badRequest, HttpError } from '../../lib/http-error';
+import { retryTransaction } from '../../lib/retry';
 import { can } from '../../../shared/permissions';
 import {
   ALERT_KIND_LABELS,
@@ -172,20 +173,25 @@ export async function getSubscriptions(db: DbOrTx, userId: string): Promise<Subs
 /** Replaces the person's whole set of subscriptions with the given one. */
 export async function putSubscriptions(db: Db, userId: string, input: PutSubscriptionsInput): Promise<SubscriptionsDto> {
   const wanted = [...new Map(input.subscriptions.map((s) => [`${s.siteId}:${s.kind}`, s])).values()];
-  await db.transaction(async (tx) => {
-    const siteIds = [...new Set(wanted.map((s) => s.siteId))];
-    if (siteIds.length) {
-      const known = new Set(
-        (await tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, siteIds))).map((r) => r.id),
-      );
-      const unknown = wanted.findIndex((s) => !known.has(s.siteId));
-      if (unknown >= 0) {
-        throw badRequest('One of the sites does not exist.', { [`subscriptions.${unknown}.siteId`]: 'No such site' });
+  await retryTransaction(() =>
+    db.transaction(async (tx) => {
+      // One save of a person's list at a time: two at once (a double click) each delete the list, hold the gap that
+      // leaves in the index, and deadlock inserting into it. A site removed meanwhile can still deadlock; that retries.
+      await tx.select({ id: users.id }).from(users).where(eq(users.id, userId)).for('update');
+      const siteIds = [...new Set(wanted.map((s) => s.siteId))];
+      if (siteIds.length) {
+        const known = new Set(
+          (await tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, siteIds))).map((r) => r.id),
+        );
+        const unknown = wanted.findIndex((s) => !known.has(s.siteId));
+        if (unknown >= 0) {
+          throw badRequest('One of the sites does not exist.', { [`subscriptions.${unknown}.siteId`]: 'No such site' });
+        }
       }
-    }
-    await tx.delete(alertSubscriptions).where(eq(alertSubscriptions.userId, userId));
-    if (wanted.length) await tx.insert(alertSubscriptions).values(wanted.map((s) => ({ userId, ...s })));
-  });
+      await tx.delete(alertSubscriptions).where(eq(alertSubscriptions.userId, userId));
+      if (wanted.length) await tx.insert(alertSubscriptions).values(wanted.map((s) => ({ userId, ...s })));
+    }),
+  );
   return getSubscriptions(db, userId);
 }
 
@@ -195,6 +201,8 @@ export async function unsubscribe(db: Db, input: UnsubscribeInput): Promise<{ ki
     if (!(await verifyUnsubscribe(tx, input.user, input.kind, input.sig))) {
       throw new HttpError(404, 'link_invalid', 'This unsubscribe link is not valid. Check that you opened the whole link from the e-mail.');
     }
+    // After the person's own saves, like every change of their list (see putSubscriptions).
+    await tx.select({ id: users.id }).from(users).where(eq(users.id, input.user)).for('update');
     const [result] = await tx
       .delete(alertSubscriptions)
       .where(and(eq(alertSubscriptions.userId, input.user), eq(alertSubscriptions.kind, input.kind)));
