@@ -1,31 +1,64 @@
 // Where uploaded files live. Local disk by default (content-addressed under .data/uploads); the interface is what an
 // object-storage adapter implements for production.
 import { createHash, randomBytes } from 'node:crypto';
-import { existsSync } from 'node:fs';
-import { mkdir, readFile, rename, writeFile } from 'node:fs/promises';
+import { createReadStream, existsSync } from 'node:fs';
+import { mkdir, open, readFile, rename, rm, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 
 export interface Storage {
-  /** Stores the bytes and returns their key (the SHA-256 of the content); storing the same bytes twice is a no-op. */
-  put(bytes: Buffer): Promise<string>;
+  /**
+   * Stores the bytes under their key (the SHA-256 of the content); storing the same bytes twice is a no-op, and then
+   * `created` is false (nothing may remove that file on this caller's behalf).
+   */
+  put(bytes: Buffer): Promise<Stored>;
+  /** Moves a finished upload (a file under `tempDir`) into the store like `put`; the file is gone afterwards. */
+  putFile(file: string, sha256?: string): Promise<Stored>;
   get(key: string): Promise<Buffer | null>;
+  /** Removes a stored file; for taking back what a refused request created. */
+  remove(key: string): Promise<void>;
+  /** Where uploads stream to while they arrive (the same disk as the store, so keeping one is a rename). */
+  readonly tempDir: string;
 }
 
+export type Stored = { key: string; created: boolean };
+
 const KEY = /^[a-f0-9]{64}$/;
+
+/** The SHA-256 of a file, read as a stream. */
+export function hashFile(file: string): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const hash = createHash('sha256');
+    createReadStream(file)
+      .on('error', reject)
+      .on('data', (chunk) => hash.update(chunk))
+      .on('end', () => resolve(hash.digest('hex')));
+  });
+}
 
 export function createLocalStorage(root: string): Storage {
   const fileOf = (key: string) => path.join(root, key.slice(0, 2), key.slice(2, 4), key);
   return {
+    tempDir: path.join(root, 'incoming'),
     async put(bytes) {
       const key = createHash('sha256').update(bytes).digest('hex');
       const file = fileOf(key);
-      if (!existsSync(file)) {
-        await mkdir(path.dirname(file), { recursive: true });
-        const tmp = `${file}.${randomBytes(6).toString('hex')}.tmp`;
-        await writeFile(tmp, bytes);
-        await rename(tmp, file);
+      if (existsSync(file)) return { key, created: false };
+      await mkdir(path.dirname(file), { recursive: true });
+      const tmp = `${file}.${randomBytes(6).toString('hex')}.tmp`;
+      await writeFile(tmp, bytes);
+      await rename(tmp, file);
+      return { key, created: true };
+    },
+    async putFile(upload, sha256) {
+      const key = sha256 ?? (await hashFile(upload));
+      const file = fileOf(key);
+      if (existsSync(file)) {
+        await rm(upload, { force: true });
+        return { key, created: false };
       }
-      return key;
+      await mkdir(path.dirname(file), { recursive: true });
+      await rename(upload, file);
+      return { key, created: true };
     },
     async get(key) {
       if (!KEY.test(key)) return null;
@@ -35,11 +68,16 @@ export function createLocalStorage(root: string): Storage {
         return null;
       }
     },
+    async remove(key) {
+      if (KEY.test(key)) await rm(fileOf(key), { force: true });
+    },
   };
 }
 
+export type SniffedType = 'image/jpeg' | 'image/png' | 'image/webp' | 'application/pdf';
+
 /** Recognises the allowed upload types by their first bytes, never by the file name. */
-export function sniffMimeType(bytes: Buffer): 'image/jpeg' | 'image/png' | 'image/webp' | 'application/pdf' | null {
+export function sniffMimeType(bytes: Buffer): SniffedType | null {
   if (bytes.length >= 3 && bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff) return 'image/jpeg';
   if (bytes.length >= 8 && bytes.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))) {
     return 'image/png';
@@ -49,4 +87,16 @@ export function sniffMimeType(bytes: Buffer): 'image/jpeg' | 'image/png' | 'imag
   }
   if (bytes.length >= 5 && bytes.toString('latin1', 0, 5) === '%PDF-') return 'application/pdf';
   return null;
+}
+
+/** The type of a file on disk by its first bytes. */
+export async function sniffFile(file: string): Promise<SniffedType | null> {
+  const handle = await open(file, 'r');
+  try {
+    const head = Buffer.alloc(16);
+    const { bytesRead } = await handle.read(head, 0, head.length, 0);
+    return sniffMimeType(head.subarray(0, bytesRead));
+  } finally {
+    await handle.close();
+  }
 }

@@ -1,32 +1,13 @@
-import multer from 'multer';
-import type { NextFunction, Request, Response } from 'express';
 import { z } from 'zod';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
-import { HttpError } from '../../lib/http-error';
 import type { Storage } from '../../lib/storage';
-import { historyQuerySchema, MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
+import { attachmentUpload } from '../../middleware/upload';
+import { historyQuerySchema, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
 import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent } from './history.service';
 import { addAttachments, readAttachment } from './attachments.service';
 
 const numericId = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) });
-
-function uploadFiles() {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: MAX_PHOTOS_PER_EVENT } }).array(
-    'files',
-    MAX_PHOTOS_PER_EVENT,
-  );
-  return (req: Request, res: Response, next: NextFunction) =>
-    upload(req, res, (err: unknown) => {
-      if (!err) return next();
-      const code = (err as { code?: string }).code;
-      if (code === 'LIMIT_FILE_SIZE') return next(new HttpError(413, 'too_large', `Each file must be ${MAX_UPLOAD_BYTES / 1024 / 1024} MB or less.`));
-      if (code === 'LIMIT_FILE_COUNT' || code === 'LIMIT_UNEXPECTED_FILE') {
-        return next(new HttpError(400, 'too_many_files', `Send at most ${MAX_PHOTOS_PER_EVENT} files, in the field "files".`));
-      }
-      next(new HttpError(400, 'bad_upload', 'The upload could not be read.'));
-    });
-}
 
 export function historyRoutes(ctx: AppContext & { storage: Storage }) {
   return [
@@ -51,7 +32,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
         const files = (req.files as Express.Multer.File[] | undefined) ?? [];
         res.status(201).json({ attachments: await addAttachments(ctx, req.user!, id, files) });
       },
-      [uploadFiles()],
+      [attachmentUpload(ctx.storage.tempDir)],
     ),
     route('get', '/api/attachments/:id/file', 'view:unit', async (req, res) => {
       const { id } = numericId.parse(req.params);

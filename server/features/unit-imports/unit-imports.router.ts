@@ -8,15 +8,8 @@ import type { AppContext } from '../../deps';
 import { badRequest } from '../../lib/http-error';
 import { singleFileUpload } from '../../middleware/upload';
 import { route } from '../../routes';
-import { acceptCsvUpload } from './fleet-csv';
+import { acceptCsvHead, acceptCsvUpload } from './fleet-csv';
 import { commitImport, getImport, importTemplateCsv, previewImport } from './unit-imports.service';
-
-const csvUpload = singleFileUpload({
-  field: 'file',
-  maxBytes: MAX_IMPORT_BYTES,
-  limitText: `${MAX_IMPORT_BYTES / 1024 / 1024} MB`,
-  accept: acceptCsvUpload,
-});
 
 function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
   if (!file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
@@ -24,6 +17,15 @@ function requireFile(file: Express.Multer.File | undefined): Express.Multer.File
 }
 
 export function unitImportsRoutes(ctx: AppContext) {
+  // Streamed to a temporary file and parsed from there; removed again when the response is sent.
+  const csvUpload = singleFileUpload({
+    field: 'file',
+    maxBytes: MAX_IMPORT_BYTES,
+    limitText: `${MAX_IMPORT_BYTES / 1024 / 1024} MB`,
+    tempDir: ctx.storage.tempDir,
+    acceptFile: acceptCsvUpload,
+    acceptHead: acceptCsvHead,
+  });
   return [
     route('get', '/api/unit-imports/template', 'manage:units', async (_req, res) => {
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
