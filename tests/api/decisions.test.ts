@@ -115,6 +115,34 @@ describe('POST /api/decisions/units/:id', () => {
     expect((await post(agent, leaker, good)).status).toBe(403);
     expect((await post(owner, leaker, good)).status).toBe(201);
   });
+
+  it('returns 409 when the submission key was used for a visit, another decision or another unit, and replays a voided one', async () => {
+    const d = (await owner.get(`/api/decisions/units/${leaker}`)).body as UnitDecisionDto;
+    const post = (id: number, b: object) => owner.post(`/api/decisions/units/${id}`).set('Origin', TEST_ORIGIN).send(b);
+    const tech = (await signInAs(app, db, 'technician')).agent;
+    const visitKey = randomUUID();
+    const visit = await tech
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({ idempotencyKey: visitKey, unitId: leaker, occurredAt: '2026-05-20T10:00:00Z', events: [{ kind: 'pti', passed: true }] });
+    expect(visit.status).toBe(201);
+    const body = { choice: 'keep', economics: d.economics, inputs: { topUpIntervalDays: 90, madeUpKgPerVisit: 0.8, leakLocation: 'service_valve' }, idempotencyKey: visitKey };
+    const onVisitKey = await post(leaker, body);
+    expect(onVisitKey.status).toBe(409);
+    expect(onVisitKey.body.error.fields.idempotencyKey).toBeTruthy();
+
+    const decision = { ...body, idempotencyKey: randomUUID() };
+    const first = await post(leaker, decision);
+    expect(first.status).toBe(201);
+    expect((await post(leaker, { ...decision, choice: 'retire' })).status).toBe(409);
+    expect((await post(tight, decision)).status).toBe(409);
+
+    const voided = await owner.post(`/api/events/${first.body.decision.eventId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Decided twice' });
+    expect(voided.status).toBe(201);
+    const replayed = await post(leaker, decision);
+    expect(replayed.status).toBe(200);
+    expect(replayed.body).toMatchObject({ replayed: true, decision: { eventId: first.body.decision.eventId, choice: 'keep' } });
+  });
 });
 
 describe('GET /api/decisions/candidates', () => {
