@@ -51,8 +51,18 @@ export type JobDto = {
   finishedAt: string | null;
 };
 
+/** Sections a role may not even read: prices are the owners' (ASVS 4.0 4.1.3, least privilege). */
+export const SETTINGS_SECTION_READ_PERMISSION: Partial<Record<SettingsSection, Permission>> = {
+  economics: 'manage:costs',
+};
+
+/** The settings as a reader sees them: a section they may not read is left out. */
+export type VisibleSettings = Omit<Settings, 'economics'> & Partial<Pick<Settings, 'economics'>>;
+
 export type SettingsDto = {
-  settings: Settings;
+  settings: VisibleSettings;
+  /** Sections left out for this reader's role. */
+  hiddenSections: SettingsSection[];
   /** 0 while the defaults are in force. */
   version: number;
   updatedAt: string | null;

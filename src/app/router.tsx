@@ -77,7 +77,7 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: paths.refrigerantLog.path, ...page(refrigerantLogRoute, queryClient, paths.refrigerantLog.permission) },
             { path: paths.decisions.path, ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission) },
             { path: paths.unitDecision.path, ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission) },
-            { path: paths.settings.path, ...page(settingsRoute, queryClient) },
+            { path: paths.settings.path, ...page(settingsRoute, queryClient, paths.settings.permission) },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],
         },

@@ -137,10 +137,11 @@ export const paths = {
     getHref: (unitId: number) => `/decisions/${unitId}`,
     permission: 'decide:retirement',
   },
-  // Every signed-in role may read the settings; the page lets each change only its own sections.
+  // Engineers, owners and admins read the settings (prices: owners and admins only); each changes only its sections.
   settings: {
     path: '/settings',
     getHref: () => '/settings',
+    permission: 'view:fleet',
   },
 } as const satisfies Record<string, PathEntry>;
 
@@ -169,7 +170,6 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Alerts', href: paths.alertSettings.getHref(), icon: 'alerts', permission: paths.alertSettings.permission },
   { label: 'Log', href: paths.refrigerantLog.getHref(), icon: 'log', permission: paths.refrigerantLog.permission },
   { label: 'Decisions', href: paths.decisions.getHref(), icon: 'decisions', permission: paths.decisions.permission },
-  // Shown to the roles that act on fleet-wide settings; the page itself is open to every signed-in user.
-  { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: 'view:fleet' },
+  { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: paths.settings.permission },
   { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },
 ];

@@ -29,12 +29,34 @@ describe('reading the settings', () => {
     expect((await request(app).get('/api/settings')).status).toBe(401);
   });
 
-  it('gives every signed-in role the defaults while nothing was saved', async () => {
-    const { agent } = await signInAs(app, db, 'technician');
+  it('gives owners and admins the defaults while nothing was saved, prices included', async () => {
+    for (const role of ['owner', 'admin'] as const) {
+      const { agent } = await signInAs(app, db, role);
+      const res = await agent.get('/api/settings');
+      expect(res.status).toBe(200);
+      expect(res.body).toMatchObject({ version: 0, updatedAt: null, updatedBy: null, recompute: null, hiddenSections: [] });
+      expect(res.body.settings).toEqual(JSON.parse(JSON.stringify(DEFAULT_SETTINGS)));
+    }
+  });
+
+  it('gives engineers the policy, thresholds and PTI validity without the prices', async () => {
+    const { agent } = await signInAs(app, db, 'engineer');
     const res = await agent.get('/api/settings');
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ version: 0, updatedAt: null, updatedBy: null, recompute: null });
-    expect(res.body.settings).toEqual(JSON.parse(JSON.stringify(DEFAULT_SETTINGS)));
+    expect(res.body.hiddenSections).toEqual(['economics']);
+    expect(res.body.settings.economics).toBeUndefined();
+    const { economics: _prices, ...rest } = JSON.parse(JSON.stringify(DEFAULT_SETTINGS)) as Settings;
+    expect(res.body.settings).toEqual(rest);
+  });
+
+  it('refuses technicians with 403 (cost settings are the owners\' and admins\', ASVS 4.0 4.1.3)', async () => {
+    const { agent } = await signInAs(app, db, 'technician');
+    for (const path of ['/api/settings', '/api/settings/history', '/api/jobs/1']) {
+      const res = await agent.get(path);
+      expect(res.status, path).toBe(403);
+      expect(res.body.error.code).toBe('forbidden');
+      expect(JSON.stringify(res.body)).not.toContain('refrigerantPricePerKg');
+    }
   });
 });
 
@@ -155,7 +177,7 @@ describe('a change that moves the statistics', () => {
 
 describe('jobs', () => {
   it('answers 404 for an unknown job and 400 for a bad id', async () => {
-    const { agent } = await signInAs(app, db, 'technician');
+    const { agent } = await signInAs(app, db, 'engineer');
     expect((await agent.get('/api/jobs/999999')).status).toBe(404);
     expect((await agent.get('/api/jobs/abc')).status).toBe(400);
     expect((await request(app).get('/api/jobs/1')).status).toBe(401);

@@ -9,9 +9,11 @@ const jobIdSchema = z.object({ id: z.coerce.number({ message: 'Not a valid job i
 
 export function settingsRoutes(ctx: AppContext) {
   return [
-    route('get', '/api/settings', 'signed-in', async (_req, res) => {
+    // Engineers read the policy, thresholds and PTI validity they work by; prices only owners and admins
+    // (technicians need none of it: their screens get the figures computed on the server).
+    route('get', '/api/settings', 'view:fleet', async (req, res) => {
       await resumeStaleJobs(ctx);
-      res.json(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute')));
+      res.json(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'), req.user!));
     }),
     // The route admits whoever may change any section (owners: prices); the service checks each changed section.
     route('put', '/api/settings', 'manage:costs', async (req, res) => {
@@ -22,12 +24,12 @@ export function settingsRoutes(ctx: AppContext) {
       }
       // The hold window (thresholds) and the minimum repair count (economics) shape repair effectiveness.
       if (saved.sections.includes('thresholds') || saved.sections.includes('economics')) await startRepairEffectiveness(ctx, req.user!.id);
-      res.json({ ...(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'))), changedSections: saved.sections });
+      res.json({ ...(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'), req.user!)), changedSections: saved.sections });
     }),
-    route('get', '/api/settings/history', 'signed-in', async (_req, res) => {
+    route('get', '/api/settings/history', 'view:fleet', async (_req, res) => {
       res.json(await getSettingsHistory(ctx.db));
     }),
-    route('get', '/api/jobs/:id', 'signed-in', async (req, res) => {
+    route('get', '/api/jobs/:id', 'view:fleet', async (req, res) => {
       const { id } = jobIdSchema.parse(req.params);
       await resumeStaleJobs(ctx);
       res.json({ job: await getJob(ctx.db, id) });

@@ -10,7 +10,10 @@ import {
   changedSections,
   RECOMPUTING_SECTIONS,
   SETTINGS_SECTION_LABELS,
+  SETTINGS_SECTION_KEYS,
   SETTINGS_SECTION_PERMISSION,
+  SETTINGS_SECTION_READ_PERMISSION,
+  SETTINGS_SECTIONS,
   type SettingsDto,
   type SettingsHistoryDto,
   type SettingsSection,
@@ -58,14 +61,21 @@ export async function getSettingsVersion(db: DbOrTx): Promise<{ settings: Settin
   return { settings: c.settings, version: c.version };
 }
 
-export async function getSettingsDto(db: Db, recompute: SettingsDto['recompute']): Promise<SettingsDto> {
+/** The settings in force as `viewer` may read them (sections their role may not read are left out). */
+export async function getSettingsDto(db: Db, recompute: SettingsDto['recompute'], viewer: SessionUser): Promise<SettingsDto> {
   const c = await readCurrent(db);
+  const hiddenSections = SETTINGS_SECTIONS.filter((s) => {
+    const needs = SETTINGS_SECTION_READ_PERMISSION[s];
+    return needs !== undefined && !can(viewer, needs);
+  });
+  const settings: Record<string, unknown> = { ...c.settings };
+  for (const s of hiddenSections) for (const k of SETTINGS_SECTION_KEYS[s]) delete settings[k];
   let updatedBy: SettingsDto['updatedBy'] = null;
   if (c.updatedBy) {
     const [u] = await db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, c.updatedBy));
     updatedBy = u ?? null;
   }
-  return { settings: c.settings, version: c.version, updatedAt: c.updatedAt?.toISOString() ?? null, updatedBy, recompute };
+  return { settings: settings as SettingsDto['settings'], hiddenSections, version: c.version, updatedAt: c.updatedAt?.toISOString() ?? null, updatedBy, recompute };
 }
 
 export async function getSettingsHistory(db: Db, limit = 50): Promise<SettingsHistoryDto> {

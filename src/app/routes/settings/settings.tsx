@@ -42,13 +42,13 @@ export default function SettingsPage() {
           </p>
           <RecomputeProgress key={settings.data.recompute?.id ?? 0} job={settings.data.recompute} />
           <nav aria-label="Sections" className="flex flex-wrap gap-2">
-            {SETTINGS_SECTIONS.map((s) => (
+            {SETTINGS_SECTIONS.filter((s) => !settings.data.hiddenSections.includes(s)).map((s) => (
               <a key={s} href={`#settings-${s}`} className="rounded-full border-2 border-ink-300 bg-white px-3 py-1.5 text-sm font-semibold text-ink-800 hover:border-fjord-700">
                 {SETTINGS_SECTION_LABELS[s]}
               </a>
             ))}
           </nav>
-          {SETTINGS_SECTIONS.map((s) => (
+          {SETTINGS_SECTIONS.filter((s) => !settings.data.hiddenSections.includes(s)).map((s) => (
             <SettingsSectionForm key={`${s}-${settings.data.version}`} section={s} dto={settings.data} canEdit={can(user, SETTINGS_SECTION_PERMISSION[s])} />
           ))}
           {history.data && history.data.versions.length > 0 && (
