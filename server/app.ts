@@ -5,15 +5,18 @@ import path from 'node:path';
 import type { Db } from './db/client';
 import { type Clock, systemClock } from './lib/clock';
 import { createLogger, type Logger } from './lib/logger';
-import { createSessionManager } from './lib/session';
+import { createSessionManager, type SessionLifetimes } from './lib/session';
+import { counterStore } from './lib/rate-limit-store';
+import { createSignInGuard } from './features/auth/sign-in-guard';
+import { accountRoutes } from './features/auth/account.router';
 import { createSmtpMailer, smtpSettingsFrom, type Mailer } from './lib/mailer';
-import { readEnv } from './env';
+import { mailGoesToFakeSmtp, readEnv, type TrustProxy } from './env';
 import { notFound } from './lib/http-error';
 import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './deps';
 import type { RouteSpec } from './routes';
 import { requestLog } from './middleware/request-log';
 import { sessionMiddleware } from './middleware/session';
-import { originCheck } from './middleware/origin-check';
+import { allowedOrigins, originCheck } from './middleware/origin-check';
 import { requireAccess } from './middleware/require-permission';
 import { errorHandler } from './middleware/error-handler';
 import { verifyUtf8Body, wellFormedText } from './middleware/well-formed-text';
@@ -41,8 +44,14 @@ export type AppDeps = {
   rateLimits?: Partial<RateLimits>;
   /** Defaults to SMTP with the settings from the environment. */
   mailer?: Mailer;
-  /** Defaults to on unless NODE_ENV=production. */
+  /** The development mailbox; defaults to on while mail goes to the fake SMTP server (never in production). */
   devTools?: boolean;
+  /** Let the development mailbox answer other addresses than loopback; off by default. */
+  mailboxFromAnyAddress?: boolean;
+  /** Which proxies' X-Forwarded-For/-Proto to believe (Express's `trust proxy`); none by default. */
+  trustProxy?: TrustProxy;
+  /** Session lifetimes; decision record 008 has the defaults. */
+  sessionLifetimes?: Partial<SessionLifetimes>;
   /** Folder of the built client; served with a history fallback when present. */
   clientDir?: string;
   /** Where uploads go; local disk under .data/uploads by default. */
@@ -54,28 +63,36 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx), ...fleetRoutes(ctx), ...refrigerantLogRoutes(ctx), ...decisionsRoutes(ctx), ...settingsRoutes(ctx)];
+  return [...healthRoutes(ctx), ...authRoutes(ctx), ...accountRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx), ...fleetRoutes(ctx), ...refrigerantLogRoutes(ctx), ...decisionsRoutes(ctx), ...settingsRoutes(ctx)];
 }
 
 export function createApp(deps: AppDeps) {
   const logger = deps.logger ?? createLogger('silent');
   const publicUrl = (deps.publicUrl ?? 'http://localhost:3000').replace(/\/$/, '');
+  const clock = deps.clock ?? systemClock;
+  const rateLimits = { ...DEFAULT_RATE_LIMITS, ...deps.rateLimits };
+  const sessions = createSessionManager(deps.db, { clock, publicUrl, lifetimes: deps.sessionLifetimes });
+  const counters = counterStore(deps.db);
   const ctx: AppContext = {
     db: deps.db,
-    clock: deps.clock ?? systemClock,
+    clock,
     logger,
-    sessions: createSessionManager(deps.db),
+    sessions,
     publicUrl,
-    rateLimits: { ...DEFAULT_RATE_LIMITS, ...deps.rateLimits },
+    rateLimits,
+    counters,
+    signInGuard: createSignInGuard({ db: deps.db, clock, counters, limits: rateLimits, cookies: sessions.cookies }),
     storage: deps.storage ?? createLocalStorage(path.resolve('.data/uploads')),
     mailer: deps.mailer ?? createSmtpMailer(smtpSettingsFrom(readEnv())),
-    devTools: deps.devTools ?? readEnv().NODE_ENV !== 'production',
+    devTools: deps.devTools ?? mailGoesToFakeSmtp(readEnv()),
+    mailboxFromAnyAddress: deps.mailboxFromAnyAddress ?? false,
   };
 
   const app = express();
   app.disable('x-powered-by');
-  // Behind a load balancer the client's address and scheme come from X-Forwarded-*.
-  app.set('trust proxy', 'loopback, linklocal, uniquelocal');
+  // X-Forwarded-For/-Proto are believed only from the proxies named in TRUST_PROXY; by default from no one, so a
+  // client cannot pick its own address for the rate limits.
+  app.set('trust proxy', deps.trustProxy ?? false);
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -98,11 +115,16 @@ export function createApp(deps: AppDeps) {
     }),
   );
   app.use(requestLog(logger));
+  // API answers are personal and current: no browser or shared cache keeps them (attachments set their own).
+  app.use('/api', (_req: Request, res: Response, next: NextFunction) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   app.use('/api', bodyDeadline(deps.bodyDeadlineMs));
   app.use('/api', express.json({ limit: JSON_BODY_LIMIT, verify: verifyUtf8Body }));
   app.use('/api', wellFormedText());
   app.use('/api', sessionMiddleware(ctx.sessions));
-  app.use('/api', originCheck([new URL(publicUrl).origin]));
+  app.use('/api', originCheck(allowedOrigins(publicUrl)));
 
   const routes = allRoutes(ctx);
   for (const r of routes) {

@@ -4,18 +4,36 @@ import type { Logger } from './lib/logger';
 import type { Mailer } from './lib/mailer';
 import type { SessionManager } from './lib/session';
 import type { Storage } from './lib/storage';
+import type { CounterStore } from './lib/rate-limit-store';
+import type { SignInGuard } from './features/auth/sign-in-guard';
 
 export type RateLimits = {
-  /** Sign-in attempts per IP per 15 minutes. */
+  /** Failed sign-ins from one address (IPv6: one /64), over all accounts, per hour. */
   signInPerIp: number;
-  /** Failed sign-in attempts per account per 15 minutes. */
+  /**
+   * Failed sign-ins on one account per hour from devices it has never signed in on. Past it the account accepts only
+   * its known devices (and password-reset links) until the hour is over.
+   */
   signInPerAccount: number;
-  /** Password-reset requests per IP and per e-mail address per 15 minutes. */
+  /** Tries of one account from one address (or one known device) before each further try has to wait. */
+  signInFreeTries: number;
+  /** The first wait; it doubles with each further try, up to signInMaxDelaySeconds. */
+  signInDelaySeconds: number;
+  signInMaxDelaySeconds: number;
+  /** Password-reset requests per address and per e-mail address per 15 minutes. */
   resetPerIp: number;
   resetPerEmail: number;
 };
 
-export const DEFAULT_RATE_LIMITS: RateLimits = { signInPerIp: 50, signInPerAccount: 8, resetPerIp: 20, resetPerEmail: 3 };
+export const DEFAULT_RATE_LIMITS: RateLimits = {
+  signInPerIp: 50,
+  signInPerAccount: 30,
+  signInFreeTries: 5,
+  signInDelaySeconds: 1,
+  signInMaxDelaySeconds: 15 * 60,
+  resetPerIp: 20,
+  resetPerEmail: 3,
+};
 
 /** What every router and service may use; built once in createApp. */
 export type AppContext = {
@@ -25,8 +43,13 @@ export type AppContext = {
   sessions: SessionManager;
   publicUrl: string;
   rateLimits: RateLimits;
+  /** Counters in MariaDB for rate limits (shared by every API process). */
+  counters: CounterStore;
+  signInGuard: SignInGuard;
   storage: Storage;
   mailer: Mailer;
-  /** Development helpers (the fake SMTP mailbox); off when NODE_ENV=production. */
+  /** Development helpers (the fake SMTP mailbox): only while mail goes to the fake SMTP server, never in production. */
   devTools: boolean;
+  /** Whether the development mailbox answers addresses other than loopback (MAILBOX_FROM_ANY_ADDRESS). */
+  mailboxFromAnyAddress: boolean;
 };

@@ -8,15 +8,25 @@ import { createOutboxWorker } from './features/mail/outbox-worker';
 import { createLocalStorage } from './lib/storage';
 import { createHttpServer } from './lib/http-server';
 
-export async function startServer(opts: { databaseUrl: string; port?: number }) {
+const HOUR_MS = 3600_000;
+
+export async function startServer(opts: { databaseUrl: string; port?: number; host?: string; exitOnSignal?: boolean }) {
   const env = readEnv();
   const logger = createLogger(env.LOG_LEVEL);
   const { db, pool } = createDb(opts.databaseUrl);
   const port = opts.port ?? env.PORT;
+  const host = opts.host ?? env.HOST;
   const { app, ctx } = createApp({
     db,
     logger,
     publicUrl: env.PUBLIC_URL ?? `http://localhost:${port}`,
+    trustProxy: env.TRUST_PROXY,
+    mailboxFromAnyAddress: env.MAILBOX_FROM_ANY_ADDRESS,
+    sessionLifetimes: {
+      absoluteMs: env.SESSION_ABSOLUTE_DAYS * 24 * HOUR_MS,
+      idleMs: env.SESSION_IDLE_HOURS * HOUR_MS,
+      idleTechnicianMs: env.SESSION_IDLE_HOURS_TECHNICIAN * HOUR_MS,
+    },
     storage: createLocalStorage(path.resolve(env.STORAGE_DIR)),
     clientDir: path.resolve(path.dirname(new URL(import.meta.url).pathname), '../dist'),
   });
@@ -26,26 +36,35 @@ export async function startServer(opts: { databaseUrl: string; port?: number }) 
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
     server.once('error', reject);
-    server.listen(port);
+    // Loopback unless HOST says otherwise: `npm start` on a laptop is not reachable from its network.
+    server.listen(port, host);
   });
+  if (env.NODE_ENV === 'production' && !/^https:/.test(env.PUBLIC_URL ?? '')) {
+    logger.warn('PUBLIC_URL is not https: session cookies are sent without Secure and without the __Host- prefix.');
+  }
 
-  let closing = false;
+  let closing: Promise<void> | null = null;
+  const stop = () =>
+    (closing ??= (async () => {
+      server.close();
+      server.closeIdleConnections();
+      const force = setTimeout(() => server.closeAllConnections(), 5000);
+      force.unref();
+      await new Promise((r) => server.once('close', r));
+      await mailWorker.stop();
+      await pool.end();
+    })());
   const shutdown = async (signal: string) => {
     if (closing) return;
-    closing = true;
     logger.info({ signal }, 'shutting down');
-    server.close();
-    server.closeIdleConnections();
-    const force = setTimeout(() => server.closeAllConnections(), 5000);
-    force.unref();
-    await new Promise((r) => server.once('close', r));
-    await mailWorker.stop();
-    await pool.end();
+    await stop();
     process.exit(0);
   };
-  process.once('SIGINT', () => void shutdown('SIGINT'));
-  process.once('SIGTERM', () => void shutdown('SIGTERM'));
-  return { server, url: `${publicUrl({ ...env, PORT: port })}` };
+  if (opts.exitOnSignal !== false) {
+    process.once('SIGINT', () => void shutdown('SIGINT'));
+    process.once('SIGTERM', () => void shutdown('SIGTERM'));
+  }
+  return { server, url: `${publicUrl({ ...env, PORT: port })}`, stop };
 }
 
 if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname)) {

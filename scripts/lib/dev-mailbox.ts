@@ -1,6 +1,6 @@
 // The fake SMTP server for `npm start` and `npm run dev`: what Tightloop mails lands in the admin mailbox page.
 import { createDb } from '../../server/db/client';
-import { readEnv } from '../../server/env';
+import { mailGoesToFakeSmtp, readEnv } from '../../server/env';
 import { startFakeSmtp } from '../../server/lib/fake-smtp';
 import { storeReceivedMail } from '../../server/features/mail/mailbox.service';
 import { MAIL_PAGE_PATHS } from '../../shared/schemas/mail';
@@ -10,8 +10,7 @@ export const MAILBOX_PAGE = MAIL_PAGE_PATHS.mailbox;
 /** Starts it unless a real SMTP server is configured (not on loopback, or with a login) or NODE_ENV=production. */
 export async function startDevMailbox(databaseUrl: string): Promise<{ port: number; stop(): Promise<void> } | null> {
   const env = readEnv();
-  const loopback = ['127.0.0.1', 'localhost', '::1'].includes(env.SMTP_HOST);
-  if (env.NODE_ENV === 'production' || !loopback || env.SMTP_USER) return null;
+  if (!mailGoesToFakeSmtp(env)) return null;
   const { db, pool } = createDb(databaseUrl, { connectionLimit: 2 });
   try {
     const smtp = await startFakeSmtp({ port: env.SMTP_PORT, host: '127.0.0.1', onMessage: (m) => storeReceivedMail(db, m) });

@@ -2,6 +2,7 @@ import type { NextFunction, Request, Response } from 'express';
 import { ZodError } from 'zod';
 import { HttpError } from '../lib/http-error';
 import type { Logger } from '../lib/logger';
+import { DATABASE_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from '../lib/db-unavailable';
 
 export function zodFields(error: ZodError): Record<string, string> {
   const fields: Record<string, string> = {};
@@ -21,13 +22,22 @@ export function errorHandler(logger: Logger) {
       if (res.headersSent) return;
       res.status(status).json({ error: fields ? { code, message, fields } : { code, message } });
     };
-    if (err instanceof HttpError) return send(err.status, err.code, err.message, err.fields);
+    if (err instanceof HttpError) {
+      const retryAfter = (err as HttpError & { retryAfterSeconds?: number }).retryAfterSeconds;
+      if (retryAfter !== undefined && !res.headersSent) res.setHeader('Retry-After', String(retryAfter));
+      return send(err.status, err.code, err.message, err.fields);
+    }
     if (err instanceof ZodError) return send(400, 'invalid_input', 'Some fields need attention.', zodFields(err));
     const bp = err as BodyParserError;
     if (bp?.type === 'entity.parse.failed') return send(400, 'invalid_json', 'The request body is not valid JSON.');
     if (bp?.type === 'entity.too.large') return send(413, 'too_large', 'The request is too large.');
     if (typeof bp?.status === 'number' && bp.status >= 400 && bp.status < 500) {
       return send(bp.status, 'bad_request', bp.message || 'Bad request.');
+    }
+    if (isDatabaseUnavailable(err)) {
+      logger.error({ err, requestId: req.requestId }, 'database unavailable');
+      if (!res.headersSent) res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
+      return send(503, 'database_unavailable', 'The server cannot reach its database. Try again shortly.');
     }
     logger.error({ err, requestId: req.requestId }, 'unhandled error');
     send(500, 'internal', `Something went wrong on our side. Reference: ${req.requestId}`);

@@ -19,7 +19,7 @@ export function sessionMiddleware(sessions: SessionManager) {
       if (!resumed.user.active) {
         // A deactivated account loses its sessions at once, even one that slipped through.
         await sessions.endAllFor(resumed.user.id);
-        sessions.clearCookie(req, res);
+        sessions.clearCookie(res);
       } else {
         req.user = resumed.user;
         req.sessionId = resumed.sessionId;

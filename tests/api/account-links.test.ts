@@ -3,7 +3,7 @@ import request from 'supertest';
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
-import { accountLinks, mailOutbox, users } from '../../server/db/schema';
+import { accountLinks, mailOutbox, rateLimits, users } from '../../server/db/schema';
 import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
@@ -215,6 +215,8 @@ describe('password reset', () => {
   });
 
   it('rate-limits requests per e-mail address and per IP address', async () => {
+    // The counters live in MariaDB and every app on this database shares them: start from none.
+    await db.delete(rateLimits);
     const limited = createApp({ db, mailer, clock, rateLimits: { resetPerEmail: 2, resetPerIp: 4 } }).app;
     const send = (email: string) => request(limited).post('/api/password-reset').set('Origin', TEST_ORIGIN).send({ email });
     const sameAddress = [await send('same@halyard.example'), await send('SAME@halyard.example'), await send('same@halyard.example')];
@@ -222,5 +224,6 @@ describe('password reset', () => {
     expect(sameAddress[2].body.error.code).toBe('rate_limited');
     const others = [await send('a@halyard.example'), await send('b@halyard.example')];
     expect(others.map((r) => r.status)).toEqual([202, 429]);
+    expect(Number(others[1].headers['retry-after'])).toBeGreaterThan(0);
   });
 });

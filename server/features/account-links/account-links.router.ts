@@ -1,32 +1,36 @@
-import { rateLimit } from 'express-rate-limit';
-import type { Request, Response } from 'express';
+import type { NextFunction, Request, Response } from 'express';
 import { idParamSchema } from '../../../shared/schemas/common';
 import { linkTokenParamSchema, requestPasswordResetSchema, setPasswordSchema } from '../../../shared/schemas/account-links';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
 import { HttpError } from '../../lib/http-error';
+import { addressBucket, clientAddress } from '../../lib/client-address';
 import { toUserDto } from '../users/users.mapper';
 import { completeLink, describeLink, requestPasswordReset, resendInvitation } from './account-links.service';
 
-const WINDOW_MS = 15 * 60 * 1000;
-
-function limited(_req: Request, _res: Response, next: (err: unknown) => void) {
-  next(new HttpError(429, 'rate_limited', 'Too many password-reset requests. Wait 15 minutes and try again.'));
-}
+const WINDOW_S = 15 * 60;
 
 export function accountLinkRoutes(ctx: AppContext) {
-  const perIp = rateLimit({ windowMs: WINDOW_MS, limit: ctx.rateLimits.resetPerIp, standardHeaders: 'draft-8', legacyHeaders: false, handler: limited });
-  const perEmail = rateLimit({
-    windowMs: WINDOW_MS,
-    limit: ctx.rateLimits.resetPerEmail,
-    standardHeaders: false,
-    legacyHeaders: false,
-    keyGenerator: (req) => {
-      const email = (req.body as { email?: unknown } | undefined)?.email;
-      return `reset:${typeof email === 'string' ? email.trim().toLowerCase() : ''}`;
-    },
-    handler: limited,
-  });
+  // Counted in MariaDB, like the sign-in limits: per address and per e-mail address asked about.
+  const perAddress = ctx.counters('reset_addr', WINDOW_S);
+  const perEmail = ctx.counters('reset_email', WINDOW_S);
+  async function resetLimits(req: Request, _res: Response, next: NextFunction) {
+    const email = (req.body as { email?: unknown } | undefined)?.email;
+    const [a, e] = await Promise.all([
+      perAddress.add(addressBucket(clientAddress(req))),
+      perEmail.add(typeof email === 'string' ? email.trim().toLowerCase().slice(0, 254) : ''),
+    ]);
+    const over = [a.count > ctx.rateLimits.resetPerIp && a, e.count > ctx.rateLimits.resetPerEmail && e].filter((x) => x !== false);
+    if (over.length) {
+      const msLeft = Math.max(...over.map((x) => x.msLeft));
+      return next(
+        Object.assign(new HttpError(429, 'rate_limited', 'Too many password-reset requests. Wait 15 minutes and try again.'), {
+          retryAfterSeconds: Math.max(1, Math.ceil(msLeft / 1000)),
+        }),
+      );
+    }
+    next();
+  }
 
   return [
     route('post', '/api/users/:id/invitation', 'manage:users', async (req, res) => {
@@ -42,7 +46,8 @@ export function accountLinkRoutes(ctx: AppContext) {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
       const user = await completeLink(ctx.db, ctx, 'invitation', token, password);
-      await ctx.sessions.start(req, res, user.id);
+      await ctx.sessions.start(req, res, user);
+      await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });
     }),
     route(
@@ -54,7 +59,7 @@ export function accountLinkRoutes(ctx: AppContext) {
         await requestPasswordReset(ctx.db, ctx, email);
         res.status(202).json({ ok: true });
       },
-      [perIp, perEmail],
+      [resetLimits],
     ),
     route('get', '/api/password-reset/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
@@ -63,8 +68,10 @@ export function accountLinkRoutes(ctx: AppContext) {
     route('post', '/api/password-reset/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
+      // A reset link signs in even while the account's ceiling of failed sign-ins is reached (decision record 007).
       const user = await completeLink(ctx.db, ctx, 'password_reset', token, password);
-      await ctx.sessions.start(req, res, user.id);
+      await ctx.sessions.start(req, res, user);
+      await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });
     }),
   ];

@@ -8,6 +8,7 @@ import type { AppContext } from '../../deps';
 import { conflict, HttpError, notFound } from '../../lib/http-error';
 import { newToken } from '../../lib/ids';
 import { hashPassword } from '../../lib/password';
+import { assertAcceptablePassword } from '../../lib/password-policy';
 import { INVITATION_HOURS, PASSWORD_RESET_HOURS, type AccountLinkDto } from '../../../shared/schemas/account-links';
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { enqueueMail } from '../mail/outbox';
@@ -143,7 +144,8 @@ export async function describeLink(db: Db, ctx: LinkContext, purpose: Purpose, t
  */
 export async function completeLink(db: Db, ctx: LinkContext, purpose: Purpose, token: string, password: string) {
   // Check before hashing (argon2 is slow and needs no row lock), and again under the lock.
-  await usableLink(db, ctx, purpose, token, false);
+  const { user: person } = await usableLink(db, ctx, purpose, token, false);
+  assertAcceptablePassword(password, person);
   const passwordHash = await hashPassword(password);
   return db.transaction(async (tx) => {
     const { user } = await usableLink(tx, ctx, purpose, token, true);

@@ -4,14 +4,19 @@ import { route, type RouteSpec } from '../../routes';
 import { accountLinkRoutes } from '../account-links/account-links.router';
 import { alertRoutes } from '../alerts/alerts.router';
 import { listMailbox } from './mailbox.service';
+import { notFound } from '../../lib/http-error';
+import { clientAddress, isLoopback } from '../../lib/client-address';
 
 /** Everything that goes out by e-mail: invitation and reset links, alert subscriptions, the development mailbox. */
 export function mailRoutes(ctx: AppContext): RouteSpec[] {
   const routes = [...accountLinkRoutes(ctx), ...alertRoutes(ctx)];
-  // Not mounted in production, so the path answers the ordinary API 404 there.
+  // Mounted only while mail goes to the fake SMTP server (never in production, never with a real SMTP server), so
+  // the path answers the ordinary API 404 otherwise. It holds every reset link: from another address than loopback
+  // it is not there either, unless MAILBOX_FROM_ANY_ADDRESS asks for it.
   if (ctx.devTools) {
     routes.push(
       route('get', '/api/dev/mailbox', 'manage:settings', async (req, res) => {
+        if (!ctx.mailboxFromAnyAddress && !isLoopback(clientAddress(req))) throw notFound('No such API route.');
         const { limit } = mailboxQuerySchema.parse(req.query);
         res.json(await listMailbox(ctx.db, limit));
       }),

@@ -4,6 +4,7 @@ import { sessions, users } from '../../db/schema';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { conflict, notFound } from '../../lib/http-error';
 import { hashPassword } from '../../lib/password';
+import { assertAcceptablePassword } from '../../lib/password-policy';
 import { newId } from '../../lib/ids';
 import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/users';
 import { toUserDto } from './users.mapper';
@@ -16,6 +17,7 @@ export async function listUsers(db: Db) {
 }
 
 export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppContext, 'publicUrl' | 'clock'>) {
+  if (input.password) assertAcceptablePassword(input.password, input);
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   const id = newId();
   const emailTaken = () => conflict('A user with this e-mail already exists.', { email: 'Already in use' });

@@ -1,0 +1,58 @@
+// "Signed-in devices" and the password, for the person themselves; administrators see and end anyone's sessions.
+import { eq } from 'drizzle-orm';
+import { changePasswordSchema, endMySessionsSchema, sessionParamSchema } from '../../../shared/schemas/account';
+import { idParamSchema } from '../../../shared/schemas/common';
+import { users } from '../../db/schema';
+import type { AppContext } from '../../deps';
+import { badRequest, notFound } from '../../lib/http-error';
+import { route } from '../../routes';
+import { changePassword, confirmPassword } from './account.service';
+
+export function accountRoutes(ctx: AppContext) {
+  async function userOr404(id: string) {
+    const [u] = await ctx.db.select({ id: users.id, role: users.role }).from(users).where(eq(users.id, id));
+    if (!u) throw notFound('No such user.');
+    return u;
+  }
+
+  return [
+    route('get', '/api/account/sessions', 'signed-in', async (req, res) => {
+      res.json({ sessions: await ctx.sessions.list(req.user!, req.sessionId) });
+    }),
+    // Asks for the password again, so a stolen session cannot sign the owner out of their other devices.
+    route('post', '/api/account/sessions/sign-out', 'signed-in', async (req, res) => {
+      const input = endMySessionsSchema.parse(req.body);
+      if (input.sessionId === req.sessionId) {
+        throw badRequest('Use "Sign out" to end this session.', { sessionId: 'This is the session you are using.' });
+      }
+      await confirmPassword(ctx, req, req.user!, input.password, 'password');
+      if (input.sessionId) {
+        if (!(await ctx.sessions.endOne(req.user!.id, input.sessionId)))
+          throw notFound('That session has already ended.');
+        res.json({ ended: 1 });
+      } else {
+        res.json({ ended: await ctx.sessions.endOthers(req.user!.id, req.sessionId!) });
+      }
+    }),
+    route('post', '/api/account/password', 'signed-in', async (req, res) => {
+      const input = changePasswordSchema.parse(req.body);
+      res.json(await changePassword(ctx, req, req.user!, input.currentPassword, input.newPassword));
+    }),
+    route('get', '/api/users/:id/sessions', 'manage:users', async (req, res) => {
+      const { id } = idParamSchema.parse(req.params);
+      res.json({ sessions: await ctx.sessions.list(await userOr404(id), req.sessionId) });
+    }),
+    route('delete', '/api/users/:id/sessions', 'manage:users', async (req, res) => {
+      const { id } = idParamSchema.parse(req.params);
+      await userOr404(id);
+      await ctx.sessions.endAllFor(id);
+      res.status(204).end();
+    }),
+    route('delete', '/api/users/:id/sessions/:sessionId', 'manage:users', async (req, res) => {
+      const { id, sessionId } = sessionParamSchema.parse(req.params);
+      await userOr404(id);
+      if (!(await ctx.sessions.endOne(id, sessionId))) throw notFound('That session has already ended.');
+      res.status(204).end();
+    }),
+  ];
+}
