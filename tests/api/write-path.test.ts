@@ -19,11 +19,13 @@ const NOW = new Date('2026-06-01T12:00:00Z');
 const { app } = createApp({ db, clock: { now: () => NOW }, rateLimits: { signInPerIp: 1000 } });
 let engineer: TestAgent;
 let technician: TestAgent;
+let owner: TestAgent;
 
 beforeAll(async () => {
   await resetDb(db);
   engineer = (await signInAs(app, db, 'engineer')).agent;
   technician = (await signInAs(app, db, 'technician')).agent;
+  owner = (await signInAs(app, db, 'owner')).agent;
 });
 afterAll(() => pool.end());
 
@@ -60,6 +62,16 @@ describe('unit edits through the write path', () => {
         ['refrigerant', 'R-134a', 'R-404A'],
       ]),
     );
+  });
+
+  it('refuses a commissioning date more than a year after the first entry of the history (400 on the field)', async () => {
+    const unit = await createTestUnit(db, { commissionedOn: '2020-01-01' });
+    expect((await topUp(unit.id, '2021-03-01T10:00:00Z', 0.5)).status).toBe(201);
+    const late = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2023-05-01' });
+    expect(late.status).toBe(400);
+    expect(late.body.error.fields.commissionedOn).toMatch(/1 Mar 2021/);
+    const fine = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2021-06-01' });
+    expect(fine.status).toBe(200);
   });
 
   it('gives a unit registered through the API its figures and a change record at once', async () => {
@@ -134,6 +146,12 @@ describe('a record the engine cannot compute', () => {
     expect(overview.body.stats.computeError).toMatch(/\w/);
     expect(overview.body.stats.detail).toBeNull();
     // Fixing the record through the write path brings the figures back.
+    const timeline = await engineer.get(`/api/units/${unit.id}/timeline`);
+    expect(timeline.status).toBe(200);
+    expect(timeline.body.events.length).toBeGreaterThan(0);
+    const decision = await owner.get(`/api/decisions/units/${unit.id}`);
+    expect(decision.status).toBe(409);
+    expect(decision.body.error.code).toBe('cannot_compute');
     const fix = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2019-01-01' });
     expect(fix.status).toBe(200);
     const after = await engineer.get(`/api/units/${unit.id}/overview`);

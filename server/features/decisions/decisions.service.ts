@@ -6,7 +6,7 @@ import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { events, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
-import { conflict, notFound } from '../../lib/http-error';
+import { conflict, HttpError, notFound } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import { compareRepairOptions, isLeakLocation, unitAgeYears, type LeakLocationId, type RepairOptionsInput } from '../../../shared/domain';
 import {
@@ -148,10 +148,22 @@ async function engineInputOf(db: DbOrTx, row: Awaited<ReturnType<typeof loadUnit
   return { input, sources: { leakLocation: loc.source, interval: forecast ? 'forecast' : 'no_leak_evidence' } as UnitDecisionDto['sources'] };
 }
 
+/** The engine's throw on a record it cannot price (a date it cannot place) as a 409 saying why, never a 500. */
+async function pricing<T>(work: () => Promise<T> | T): Promise<T> {
+  try {
+    return await work();
+  } catch (err) {
+    if (err instanceof HttpError) throw err;
+    const reason = err instanceof Error && err.message ? err.message : 'the record breaks a rule of the computation';
+    throw new HttpError(409, 'cannot_compute', `Cannot compute the options for this unit: ${reason} Correct the unit's details first.`);
+  }
+}
+
 export async function getUnitDecision(db: Db, unitId: number, now: Date): Promise<UnitDecisionDto> {
   const row = await loadUnit(db, unitId);
   const { settings } = await getSettingsVersion(db);
-  const { input, sources } = await engineInputOf(db, row, now);
+  const { input, sources } = await pricing(() => engineInputOf(db, row, now));
+  const result = await pricing(() => compareRepairOptions(input, settings));
   return {
     asOf: now.toISOString().slice(0, 10),
     unit: {
@@ -168,7 +180,7 @@ export async function getUnitDecision(db: Db, unitId: number, now: Date): Promis
       : null,
     engineInput: input,
     economics: settings.economics,
-    result: compareRepairOptions(input, settings),
+    result,
     sources,
     decisions: await decisionsOf(db, unitId),
   };
@@ -207,10 +219,10 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
     const { result: eventId } = await writeUnit(ctx, unitId, async (tx, _locked, now) => {
       const row = await loadUnit(tx, unitId);
       const { settings, version } = await getSettingsVersion(tx);
-      const { input: facts } = await engineInputOf(tx, row, now);
+      const { input: facts } = await pricing(() => engineInputOf(tx, row, now));
       const inputs: DecisionInputs = body.inputs;
       const input: RepairOptionsInput = { ...facts, ...inputs };
-      const result = compareRepairOptions(input, withEconomics(settings, body.economics));
+      const result = await pricing(() => compareRepairOptions(input, withEconomics(settings, body.economics)));
       const [visit] = await tx
         .insert(visits)
         .values({ unitId, siteId: row.u.siteId, recordedBy: user.id, occurredAt: now, enteredAt: now, idempotencyKey: body.idempotencyKey })
@@ -287,15 +299,16 @@ export async function retirementCandidates(db: Db, opts: { siteId?: number; limi
     const location = locations.get(p.unitId)!.location;
     const interval = p.intervalDays == null ? null : Number(p.intervalDays);
     const kg = p.expectedKg == null ? null : Number(p.expectedKg);
-    const ageYears = ageOf({ commissionedOn: p.commissionedOn, createdAt: p.createdAt }, now);
     let r;
+    let ageYears: number;
     try {
+      ageYears = ageOf({ commissionedOn: p.commissionedOn, createdAt: p.createdAt }, now);
       r = compareRepairOptions(
         { refrigerant: p.refrigerant, ageYears, topUpIntervalDays: interval && interval > 0 ? interval : null, madeUpKgPerVisit: kg, leakLocation: location, fleetRepairs: fleet.get(location) ?? null },
         settings,
       );
     } catch {
-      continue; // a unit the engine cannot price (unknown refrigerant) is not a candidate
+      continue; // a unit the engine cannot price (unknown refrigerant, a date it cannot place) is not a candidate
     }
     const keep = r.options.find((o) => o.id === 'keep_topping_up')!;
     const retire = r.options.find((o) => o.id === 'retire_and_sell')!;

@@ -374,7 +374,13 @@ export async function getUnitTimeline(db: Db, unitId: number, now: Date): Promis
     .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`))
     .orderBy(events.occurredAt, events.id);
   const counted = rows.filter((r) => !Number(r.voided)).flatMap((r) => toEngineEvent(r) ?? []);
-  const { snapshots } = computeUnitStats(engineUnit(unit), counted, now.toISOString(), await getSettings(db));
+  let snapshots: UnitTimelineDto['snapshots'] = [];
+  try {
+    ({ snapshots } = computeUnitStats(engineUnit(unit), counted, now.toISOString(), await getSettings(db)));
+  } catch {
+    // A record the engine cannot compute still has a timeline: its entries, without derived readings (the unit's
+    // figures say why).
+  }
   return {
     events: rows.map((r) => ({
       id: r.id,

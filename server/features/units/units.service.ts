@@ -1,6 +1,7 @@
-import { and, asc, count, desc, eq, inArray, like, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, like, min, sql, type SQL } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
-import { sites, unitChanges, units, users } from '../../db/schema';
+import { events, sites, unitChanges, units, users } from '../../db/schema';
+import { BEFORE_COMMISSIONING_MARGIN_DAYS, dayWords } from '../../../shared/schemas/common';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { badRequest, conflict, notFound } from '../../lib/http-error';
 import { newToken } from '../../lib/ids';
@@ -134,6 +135,21 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
 type ChangeValue = string | number | null | undefined;
 const asText = (v: ChangeValue) => (v === null || v === undefined ? null : String(v));
 
+/** A commissioning date must not contradict the history: the same margin as a visit dated before it (the date rule). */
+async function requireHistoryFits(tx: DbOrTx, unitId: number, commissionedOn: string) {
+  const [{ first }] = await tx
+    .select({ first: min(events.occurredAt) })
+    .from(events)
+    .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`, sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`));
+  if (!first) return;
+  const firstDay = new Date(first).toISOString().slice(0, 10);
+  if ((Date.parse(commissionedOn) - Date.parse(firstDay)) / 86_400_000 > BEFORE_COMMISSIONING_MARGIN_DAYS) {
+    throw badRequest('The commissioning date contradicts the history.', {
+      commissionedOn: `The history has entries from ${dayWords(firstDay)}; a commissioning date more than a year later cannot be right`,
+    });
+  }
+}
+
 /**
  * Edits a unit through the unit write path: each changed field leaves a change record (who, when, before → after),
  * and the figures are recomputed in the same transaction (refrigerant, charge and commissioning date feed them).
@@ -144,6 +160,9 @@ export async function updateUnit(ctx: WriteContext, actorId: string, id: number,
       if (input.containerNumber !== undefined && input.containerNumber !== current.containerNumber) {
         const [taken] = await tx.select({ id: units.id }).from(units).where(eq(units.containerNumber, input.containerNumber)).limit(1);
         if (taken) throw numberTaken(input.containerNumber);
+      }
+      if (input.commissionedOn && input.commissionedOn !== current.commissionedOn) {
+        await requireHistoryFits(tx, id, input.commissionedOn);
       }
       const changes: { field: UnitField; before: string | null; after: string | null }[] = [];
       const set: Partial<typeof units.$inferInsert> = {};
