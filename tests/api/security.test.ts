@@ -3,7 +3,12 @@
 import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
 import request from 'supertest';
 import type { Express } from 'express';
-import { createHash } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
+import { mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { PDFDocument, PDFName, PDFString } from 'pdf-lib';
+import sharp from 'sharp';
 import type { AddressInfo } from 'node:net';
 import { createServer } from 'node:net';
 import { eq, like } from 'drizzle-orm';
@@ -14,12 +19,14 @@ import { readEnv } from '../../server/env';
 import { startServer } from '../../server/index';
 import { hashToken } from '../../server/features/account-links/account-links.service';
 import { openTestDb, resetDb } from '../support/db';
-import { createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
+import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
+import { createLocalStorage } from '../../server/lib/storage';
 import { testClock } from '../support/mail';
 
 const { db, pool } = openTestDb();
+const storage = createLocalStorage(mkdtempSync(path.join(os.tmpdir(), 'tightloop-uploads-')));
 // Supertest connects from loopback; with the loopback proxy trusted, X-Forwarded-For names the "client".
-const { app } = createApp({ db, trustProxy: 'loopback' });
+const { app } = createApp({ db, storage, trustProxy: 'loopback' });
 
 beforeAll(() => resetDb(db));
 afterAll(() => pool.end());
@@ -49,7 +56,7 @@ describe('sign-in throttling does not let anyone lock an account (ASVS 2.2.1)', 
     const slow = createApp({
       db,
       trustProxy: 'loopback',
-      rateLimits: { signInFreeTries: 2, signInDelaySeconds: 1 },
+      rateLimits: { signInFreeTries: 2, signInDelaySeconds: 5 },
     }).app;
     const user = await createTestUser(db);
     const from = '198.51.100.8';
@@ -102,14 +109,12 @@ describe('sign-in throttling does not let anyone lock an account (ASVS 2.2.1)', 
     expect((await signIn(phone, user.email, TEST_PASSWORD, '192.0.2.200')).status).toBe(200);
     // So does a password-reset link, opened on a new device.
     const token = 'reset-token-for-ceiling-test-0001';
-    await db
-      .insert(accountLinks)
-      .values({
-        userId: user.id,
-        purpose: 'password_reset',
-        tokenHash: hashToken(token),
-        expiresAt: new Date(Date.now() + 3600_000),
-      });
+    await db.insert(accountLinks).values({
+      userId: user.id,
+      purpose: 'password_reset',
+      tokenHash: hashToken(token),
+      expiresAt: new Date(Date.now() + 3600_000),
+    });
     const reset = await request(limited)
       .post(`/api/password-reset/${token}`)
       .set('Origin', TEST_ORIGIN)
@@ -230,14 +235,12 @@ describe('passwords (ASVS 2.1.1, 2.1.2, 2.1.7)', () => {
     expect((await create(agent, 'good@test.example', 'Ilse Varn', 'brine-pump-lantern-42')).status).toBe(201);
     const user = await createTestUser(db);
     const token = 'reset-token-for-password-rules-01';
-    await db
-      .insert(accountLinks)
-      .values({
-        userId: user.id,
-        purpose: 'password_reset',
-        tokenHash: hashToken(token),
-        expiresAt: new Date(Date.now() + 3600_000),
-      });
+    await db.insert(accountLinks).values({
+      userId: user.id,
+      purpose: 'password_reset',
+      tokenHash: hashToken(token),
+      expiresAt: new Date(Date.now() + 3600_000),
+    });
     const weak = await request(app)
       .post(`/api/password-reset/${token}`)
       .set('Origin', TEST_ORIGIN)
@@ -457,6 +460,78 @@ describe('no API answer is cached (ASVS 8.2.1)', () => {
     const out = await agent.post('/api/auth/sign-out').set('Origin', TEST_ORIGIN);
     expect(out.status).toBe(204);
     expect(out.headers['clear-site-data']).toBe('"cache"');
+  });
+});
+
+describe('uploaded files never run in the app (ASVS 12.5.2) and are not cached (8.2.1)', () => {
+  let agent: Awaited<ReturnType<typeof signInAs>>['agent'];
+  let eventId: number;
+  beforeAll(async () => {
+    agent = (await signInAs(app, db, 'technician')).agent;
+    const unit = await createTestUnit(db);
+    const res = await agent
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({
+        idempotencyKey: randomUUID(),
+        unitId: unit.id,
+        occurredAt: new Date(Date.now() - 3600_000).toISOString(),
+        events: [{ kind: 'note', note: 'Service report attached' }],
+      });
+    expect(res.status).toBe(201);
+    eventId = res.body.events[0].id;
+  });
+  const upload = (bytes: Buffer, name: string) =>
+    agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN).attach('files', bytes, name);
+
+  async function plainPdf() {
+    const doc = await PDFDocument.create();
+    doc.addPage().drawText('Leak check report');
+    return Buffer.from(await doc.save());
+  }
+
+  it('refuses a PDF with JavaScript, even inside compressed object streams', async () => {
+    const doc = await PDFDocument.create();
+    doc.addPage();
+    doc.addJavaScript('hello', 'app.alert("hello")');
+    const res = await upload(Buffer.from(await doc.save({ useObjectStreams: true })), 'report.pdf');
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('active_content');
+    expect(res.body.error.fields['files.0']).toBeTruthy();
+  });
+
+  it('refuses a PDF that opens with a launch action', async () => {
+    const doc = await PDFDocument.create();
+    doc.addPage();
+    doc.catalog.set(PDFName.of('OpenAction'), doc.context.obj({ S: 'Launch', F: PDFString.of('calc.exe') }));
+    const res = await upload(Buffer.from(await doc.save({ useObjectStreams: false })), 'report.pdf');
+    expect(res.status).toBe(415);
+    expect(res.body.error.code).toBe('active_content');
+  });
+
+  it('serves a plain PDF only as a download, sandboxed and not cached', async () => {
+    const res = await upload(await plainPdf(), 'leak report "Q3".pdf');
+    expect(res.status).toBe(201);
+    const file = await agent.get(res.body.attachments[0].url);
+    expect(file.status).toBe(200);
+    expect(file.headers['content-disposition']).toBe(
+      `attachment; filename="leak report _Q3_.pdf"; filename*=UTF-8''leak%20report%20%22Q3%22.pdf`,
+    );
+    expect(file.headers['content-security-policy']).toMatch(/sandbox/);
+    expect(file.headers['cache-control']).toBe('private, no-store');
+  });
+
+  it('shows photos inline, and neither the photo nor its thumbnail is cached', async () => {
+    const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#2a6' } })
+      .png()
+      .toBuffer();
+    const res = await upload(png, 'valve.png');
+    expect(res.status).toBe(201);
+    const file = await agent.get(res.body.attachments[0].url);
+    expect(file.headers['content-disposition']).toMatch(/^inline;/);
+    expect(file.headers['cache-control']).toBe('private, no-store');
+    const thumb = await agent.get(res.body.attachments[0].thumbnailUrl);
+    expect(thumb.headers['cache-control']).toBe('private, no-store');
   });
 });
 

@@ -1,3 +1,4 @@
+import { readFile } from 'node:fs/promises';
 import { eq, or, sql } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { AppContext } from '../../deps';
@@ -5,6 +6,7 @@ import type { DbOrTx } from '../../db/client';
 import { attachments, events } from '../../db/schema';
 import { badRequest, HttpError, notFound } from '../../lib/http-error';
 import { sniffFile, type SniffedType } from '../../lib/storage';
+import { activePdfContent } from '../../lib/pdf-active-content';
 import type { SessionUser } from '../../lib/session';
 import { MAX_PHOTOS_PER_EVENT } from '../../../shared/schemas/history';
 import { attachmentDto } from './history.service';
@@ -55,6 +57,14 @@ export async function addAttachments(ctx: AppContext, user: SessionUser, eventId
       throw new HttpError(415, 'unsupported_type', `${f.originalname} is not a JPEG, PNG, WebP or PDF file.`, {
         [`files.${i}`]: 'Only JPEG, PNG, WebP or PDF',
       });
+    }
+    if (mimeType === 'application/pdf') {
+      const active = await activePdfContent(await readFile(f.path));
+      if (active) {
+        throw new HttpError(415, 'active_content', `${f.originalname} contains ${active === 'Encrypt' ? 'encryption' : `active content (${active})`}, which Tightloop does not keep.`, {
+          [`files.${i}`]: 'Save or print it as a plain PDF without scripts, attachments or a password, then upload that',
+        });
+      }
     }
     let thumbnail: Buffer | null = null;
     if (mimeType !== 'application/pdf') {

@@ -34,19 +34,24 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       },
       [attachmentUpload(ctx.storage.tempDir)],
     ),
+    // Photos show inline; anything else (PDFs) only downloads, so nothing uploaded runs in the app's origin
+    // (ASVS 4.0 12.5.2). Not kept by the browser's cache: a shared phone holds nothing after sign-out (8.2.1).
     route('get', '/api/attachments/:id/file', 'view:unit', async (req, res) => {
       const { id } = numericId.parse(req.params);
       const f = await readAttachment(ctx, id, 'file');
+      const disposition = f.mimeType.startsWith('image/') ? 'inline' : 'attachment';
+      const ascii = f.name.replace(/[^\x20-\x7e]|["\\]/g, '_');
       res.setHeader('Content-Type', f.mimeType);
-      res.setHeader('Content-Disposition', `inline; filename="${encodeURIComponent(f.name)}"`);
-      res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+      res.setHeader('Content-Disposition', `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(f.name)}`);
+      res.setHeader('Content-Security-Policy', "default-src 'none'; sandbox");
+      res.setHeader('Cache-Control', 'private, no-store');
       res.send(f.bytes);
     }),
     route('get', '/api/attachments/:id/thumbnail', 'view:unit', async (req, res) => {
       const { id } = numericId.parse(req.params);
       const f = await readAttachment(ctx, id, 'thumbnail');
       res.setHeader('Content-Type', f.mimeType);
-      res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+      res.setHeader('Cache-Control', 'private, no-store');
       res.send(f.bytes);
     }),
     route('get', '/api/units/:id/overview', 'view:unit', async (req, res) => {
