@@ -115,9 +115,11 @@ export function createApp(deps: AppDeps) {
     }),
   );
   app.use(requestLog(logger));
-  // API answers are personal and current: no browser or shared cache keeps them (attachments set their own).
+  // API answers are personal and current: no browser or shared cache keeps them, and opened directly they download
+  // rather than render (ASVS 8.2.1, 14.4.2). Attachments, labels and exports set their own.
   app.use('/api', (_req: Request, res: Response, next: NextFunction) => {
     res.setHeader('Cache-Control', 'no-store');
+    res.setHeader('Content-Disposition', 'attachment; filename="api.json"');
     next();
   });
   app.use('/api', bodyDeadline(deps.bodyDeadlineMs));

@@ -32,6 +32,16 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
   });
   const mailWorker = createOutboxWorker(ctx);
   mailWorker.start();
+  // Ended sessions and expired known devices leave their rows; sweep them hourly.
+  const sweep = setInterval(
+    () =>
+      void ctx.sessions
+        .deleteExpired()
+        .then(ctx.signInGuard.forgetExpired)
+        .catch((err: unknown) => logger.warn({ err }, 'session sweep failed')),
+    3600_000,
+  );
+  sweep.unref();
   const server = createHttpServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
@@ -46,6 +56,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
   let closing: Promise<void> | null = null;
   const stop = () =>
     (closing ??= (async () => {
+      clearInterval(sweep);
       server.close();
       server.closeIdleConnections();
       const force = setTimeout(() => server.closeAllConnections(), 5000);

@@ -9,6 +9,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { PDFDocument, PDFName, PDFString } from 'pdf-lib';
 import sharp from 'sharp';
+import pino from 'pino';
 import type { AddressInfo } from 'node:net';
 import { createServer } from 'node:net';
 import { eq, like } from 'drizzle-orm';
@@ -452,7 +453,10 @@ describe('no API answer is cached (ASVS 8.2.1)', () => {
     const { agent } = await signInAs(app, db, 'engineer');
     expect((await agent.get('/api/auth/me')).headers['cache-control']).toBe('no-store');
     expect((await request(app).get('/api/auth/me')).headers['cache-control']).toBe('no-store');
-    expect((await agent.get('/api/units')).headers['cache-control']).toBe('no-store');
+    const units = await agent.get('/api/units');
+    expect(units.headers['cache-control']).toBe('no-store');
+    // Opened directly in a browser, an API answer downloads instead of rendering (ASVS 14.4.2).
+    expect(units.headers['content-disposition']).toBe('attachment; filename="api.json"');
   });
 
   it('asks the browser to drop its cache on sign-out, keeping its storage (the visit queue)', async () => {
@@ -532,6 +536,26 @@ describe('uploaded files never run in the app (ASVS 12.5.2) and are not cached (
     expect(file.headers['cache-control']).toBe('private, no-store');
     const thumb = await agent.get(res.body.attachments[0].thumbnailUrl);
     expect(thumb.headers['cache-control']).toBe('private, no-store');
+  });
+});
+
+describe('logs (ASVS 7.1.1, 7.2.1)', () => {
+  it('records every sign-in decision without the password, and no link secret', async () => {
+    const lines: string[] = [];
+    const logger = pino({ level: 'info' }, { write: (l: string) => void lines.push(l) });
+    const logged = createApp({ db, logger }).app;
+    const user = await createTestUser(db);
+    await signIn(logged, user.email, 'a-wrong-password-9');
+    await signIn(logged, user.email, TEST_PASSWORD);
+    await request(logged).get('/api/password-reset/secret-link-token-123');
+    const events = lines.map((l) => JSON.parse(l) as { event?: string; outcome?: string; url?: string; user?: string });
+    expect(events.filter((e) => e.event === 'sign_in').map((e) => e.outcome)).toEqual(['refused', 'signed_in']);
+    expect(events.find((e) => e.outcome === 'signed_in')?.user).toBe(user.id);
+    const all = lines.join('\n');
+    expect(all).not.toContain('a-wrong-password-9');
+    expect(all).not.toContain(TEST_PASSWORD);
+    expect(all).not.toContain('secret-link-token-123');
+    expect(all).toContain('/api/password-reset/:token');
   });
 });
 

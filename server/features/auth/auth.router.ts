@@ -1,4 +1,7 @@
+import { createHash } from 'node:crypto';
 import { signInSchema } from '../../../shared/schemas/auth';
+import { HttpError } from '../../lib/http-error';
+import { clientAddress } from '../../lib/client-address';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
 import { toUserDto } from '../users/users.mapper';
@@ -8,7 +11,21 @@ export function authRoutes(ctx: AppContext) {
   return [
     route('post', '/api/auth/sign-in', 'public', async (req, res) => {
       const input = signInSchema.parse(req.body);
-      const user = await checkCredentials(ctx.db, ctx.signInGuard, req, input);
+      // Every sign-in decision is logged (ASVS 7.2.1): the account as a short hash, never the password.
+      const account = createHash('sha256').update(input.email).digest('hex').slice(0, 16);
+      const log = (outcome: string, user?: string) =>
+        ctx.logger.info(
+          { requestId: req.requestId, event: 'sign_in', outcome, account, user, ip: clientAddress(req) },
+          'sign-in',
+        );
+      let user;
+      try {
+        user = await checkCredentials(ctx.db, ctx.signInGuard, req, input);
+      } catch (err) {
+        if (err instanceof HttpError) log(err.status === 429 ? 'throttled' : 'refused');
+        throw err;
+      }
+      log('signed_in', user.id);
       await ctx.sessions.start(req, res, user);
       await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });

@@ -5,7 +5,7 @@
 //   a known device (a cookie from an earlier sign-in) or a password-reset link gets in.
 // Every counter lives in MariaDB (rate_limits), shared by all API processes and kept across restarts.
 import { createHash } from 'node:crypto';
-import { and, eq, gt } from 'drizzle-orm';
+import { and, eq, gt, lte } from 'drizzle-orm';
 import type { Request, Response } from 'express';
 import { generateIdFromEntropySize } from 'lucia';
 import type { Db } from '../../db/client';
@@ -149,6 +149,11 @@ export function createSignInGuard(deps: {
           ]);
         },
       };
+    },
+
+    /** Deletes known devices past their expiry. */
+    async forgetExpired(): Promise<void> {
+      await db.delete(knownDevices).where(lte(knownDevices.expiresAt, clock.now()));
     },
 
     /** After any successful sign-in (password, invitation, reset link): this browser becomes a known device. */
