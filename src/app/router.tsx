@@ -27,6 +27,7 @@ import * as mailboxRoute from './routes/admin/mailbox';
 import * as fleetRoute from './routes/fleet/fleet';
 import * as refrigerantLogRoute from './routes/refrigerant-log/refrigerant-log';
 import * as settingsRoute from './routes/settings/settings';
+import * as accountRoute from './routes/account/account';
 
 /**
  * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
@@ -77,6 +78,7 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: paths.refrigerantLog.path, ...page(refrigerantLogRoute, queryClient, paths.refrigerantLog.permission) },
             { path: paths.decisions.path, ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission) },
             { path: paths.unitDecision.path, ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission) },
+            { path: paths.account.path, ...page(accountRoute, queryClient) },
             { path: paths.settings.path, ...page(settingsRoute, queryClient, paths.settings.permission) },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],

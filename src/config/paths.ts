@@ -137,6 +137,10 @@ export const paths = {
     getHref: (unitId: number) => `/decisions/${unitId}`,
     permission: 'decide:retirement',
   },
+  account: {
+    path: '/account',
+    getHref: () => '/account',
+  },
   // Engineers, owners and admins read the settings (prices: owners and admins only); each changes only its sections.
   settings: {
     path: '/settings',
@@ -145,7 +149,7 @@ export const paths = {
   },
 } as const satisfies Record<string, PathEntry>;
 
-export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import' | 'fleet' | 'log' | 'decisions' | 'settings';
+export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import' | 'fleet' | 'log' | 'decisions' | 'settings' | 'account';
 
 export type NavEntry = {
   label: string;
@@ -172,4 +176,5 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Decisions', href: paths.decisions.getHref(), icon: 'decisions', permission: paths.decisions.permission },
   { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: paths.settings.permission },
   { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },
+  { label: 'Account', href: paths.account.getHref(), icon: 'account' },
 ];

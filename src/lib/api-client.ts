@@ -28,6 +28,9 @@ export function isApiError(error: unknown): error is ApiError {
   return error instanceof ApiError;
 }
 
+/** What a 503 from the API means: the server is up but its database is not (the server sends the same words). */
+export const DATABASE_UNAVAILABLE_MESSAGE = 'The server cannot reach its database. Try again shortly.';
+
 const FALLBACK_MESSAGES: Record<number, string> = {
   400: 'Some of the values were not accepted.',
   401: 'Please sign in.',
@@ -35,6 +38,7 @@ const FALLBACK_MESSAGES: Record<number, string> = {
   404: 'Not found.',
   409: 'That clashes with something already saved.',
   429: 'Too many attempts. Wait a moment and try again.',
+  503: DATABASE_UNAVAILABLE_MESSAGE,
 };
 
 function parseRetryAfter(header: string | null): number | undefined {

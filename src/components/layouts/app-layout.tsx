@@ -55,10 +55,10 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
             <Logo tone="dark" compact />
           </Link>
           <div className="ml-auto flex min-w-0 items-center gap-3">
-            <div className="min-w-0 text-right leading-tight" data-testid="current-user" title={user.name}>
+            <Link to={paths.account.getHref()} className="min-w-0 rounded-md text-right leading-tight" data-testid="current-user" title={`${user.name}: your account`}>
               <p className="truncate text-base font-semibold">{user.name}</p>
               <p className="truncate text-sm text-lime-300">{ROLE_LABELS[user.role]}</p>
-            </div>
+            </Link>
             <Button
               variant="on-dark"
               onClick={() => signOut.mutate()}

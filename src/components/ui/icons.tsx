@@ -158,4 +158,5 @@ export const navIcons: Record<NavIcon, (p: IconProps) => ReactElement> = {
   import: ImportIcon,
   alerts: BellIcon,
   mail: MailIcon,
+  account: LockIcon,
 };

@@ -27,9 +27,10 @@ function failureText(error: unknown): { title: string; body: string } {
         body: 'Check both and try again. Passwords are case-sensitive.',
       };
     case 'rate_limited':
+      // The server says which pause applies (this account from here, this network, or unknown devices).
       return {
         title: 'Too many sign-in attempts',
-        body: `For safety, sign-in is paused for this account or network. Try again in ${waitText(error.retryAfterSeconds)}.`,
+        body: error.message || `For safety, sign-in is paused. Try again in ${waitText(error.retryAfterSeconds)}.`,
       };
     case 'network_error':
       return { title: 'No connection', body: error.message };

@@ -3,7 +3,7 @@ import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { setPasswordSchema } from '../../../../shared/schemas/account-links';
-import { MIN_PASSWORD_LENGTH } from '../../../../shared/schemas/auth';
+import { PASSWORD_RULE_HINT } from '../../../../shared/schemas/auth';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField } from '../../../components/ui/field';
@@ -53,7 +53,7 @@ export function SetPasswordForm({
       )}
       <PasswordField
         label="New password"
-        hint={`At least ${MIN_PASSWORD_LENGTH} characters. A few unrelated words make a strong one.`}
+        hint={PASSWORD_RULE_HINT}
         autoComplete="new-password"
         error={errors.password?.message}
         {...register('password')}

@@ -106,7 +106,7 @@ export function CreateUserForm({ onCreated, onCancel }: { onCreated: (user: User
         <PasswordField
           label="First password"
           optional
-          hint={`At least ${MIN_PASSWORD_LENGTH} characters. Leave it empty to let the person set their own by invitation.`}
+          hint={`At least ${MIN_PASSWORD_LENGTH} characters; common passwords and the person's own name or e-mail are refused. Leave it empty to let the person set their own by invitation.`}
           autoComplete="new-password"
           className="md:col-span-2 md:max-w-[calc(50%-0.625rem)]"
           error={errors.password?.message}

@@ -4,6 +4,7 @@ import { cx } from '../../../components/ui/cx';
 import { Badge } from '../../../components/ui/page';
 import { ActiveControl } from './active-control';
 import { RoleControl } from './role-control';
+import { UserSessionsControl } from './user-sessions-control';
 
 const COLUMNS = ['Person', 'Role', 'Certificate', 'Status', 'Access'] as const;
 
@@ -104,6 +105,7 @@ function UserRow({ user, isSelf }: { user: UserDto; isSelf: boolean }) {
       </Cell>
       <Cell label="Access" className="col-span-2 md:w-60">
         <ActiveControl user={user} isSelf={isSelf} />
+        {user.active && <UserSessionsControl user={user} />}
       </Cell>
     </tr>
   );
