@@ -210,8 +210,8 @@ describe('photo and document uploads', () => {
     console.info(
       `3 uploads of 8 × 10 MB at once: RSS ${mb(before)} MB before, ${mb(peak)} MB at the peak (+${mb(peak - before)} MB)`,
     );
-    // Held in memory they took +250 MB and more; streamed to disk well under one request's size.
-    expect(peak - before).toBeLessThan(80 * 1024 * 1024);
+    // Held in memory the three took ~295 MB more; streamed to disk, tens of MB (the client in this process included).
+    expect(peak - before).toBeLessThan(150 * 1024 * 1024);
     await expect.poll(() => filesIn(storage.tempDir)).toEqual([]);
   });
 });

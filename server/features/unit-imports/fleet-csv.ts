@@ -103,7 +103,7 @@ async function parseFile(file: string, encoding: 'utf-8' | 'windows-1252', delim
   const records: string[][] = [];
   let count = 0;
   await pipeline(
-    createReadStream(file, { highWaterMark: 64 * 1024 }),
+    createReadStream(file, { highWaterMark: 16 * 1024 }),
     textChecker(encoding),
     parse({
       bom: true,
@@ -112,11 +112,14 @@ async function parseFile(file: string, encoding: 'utf-8' | 'windows-1252', delim
       skip_empty_lines: true,
       skip_records_with_empty_values: true,
       trim: true,
-      cast: (value: string) => shared(value),
     }),
     async (source: AsyncIterable<string[]>) => {
       // Past the limit rows are only counted, so the refusal can say how many there are.
-      for await (const record of source) if (count++ <= MAX_IMPORT_ROWS) records.push(record);
+      for await (const record of source) {
+        if (count++ > MAX_IMPORT_ROWS) continue;
+        for (let i = 0; i < record.length; i++) record[i] = shared(record[i]);
+        records.push(record);
+      }
     },
   );
   return { records, count };

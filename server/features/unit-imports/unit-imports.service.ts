@@ -28,8 +28,8 @@ const INSERT_CHUNK = 2000;
 const LOOKUP_CHUNK = 1000;
 /** Errors carried in a refused commit's `fields`; the preview lists many more. */
 const MAX_ERRORS_IN_FIELDS = 50;
-/** Rows checked between two turns of the event loop (about 10 ms of work). */
-const YIELD_EVERY_ROWS = 1000;
+/** Rows checked between two turns of the event loop (a few milliseconds of work). */
+const YIELD_EVERY_ROWS = 250;
 
 /** An upload streamed to a temporary file (middleware/upload.ts). */
 type UploadedFile = { originalname: string; path: string };
