@@ -21,6 +21,7 @@ import { requireAccess } from './middleware/require-permission';
 import { errorHandler } from './middleware/error-handler';
 import { verifyUtf8Body, wellFormedText } from './middleware/well-formed-text';
 import { bodyDeadline } from './middleware/body-deadline';
+import { apiCompression, clientAssets } from './middleware/client-assets';
 import { authRoutes } from './features/auth/auth.router';
 import { usersRoutes } from './features/users/users.router';
 import { healthRoutes } from './features/health/health.router';
@@ -115,6 +116,7 @@ export function createApp(deps: AppDeps) {
     }),
   );
   app.use(requestLog(logger));
+  app.use('/api', apiCompression());
   // API answers are personal and current: no browser or shared cache keeps them, and opened directly they download
   // rather than render (ASVS 8.2.1, 14.4.2). Attachments, labels and exports set their own.
   app.use('/api', (_req: Request, res: Response, next: NextFunction) => {
@@ -136,12 +138,10 @@ export function createApp(deps: AppDeps) {
 
   const clientDir = deps.clientDir;
   if (clientDir && existsSync(path.join(clientDir, 'index.html'))) {
-    app.use(express.static(clientDir, { index: false, maxAge: '1h', immutable: false }));
+    const client = clientAssets(clientDir);
+    app.use(client.files);
     // History fallback: any other GET is a client route.
-    app.get('/{*splat}', (_req, res) => {
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(path.join(clientDir, 'index.html'));
-    });
+    app.get('/{*splat}', client.indexHtml);
   }
 
   app.use(errorHandler(logger));
