@@ -157,7 +157,7 @@ await admin.query('ANALYZE TABLE units, visits, events, unit_stats, sites, users
 const a0 = secs();
 await admin.query(
   'ANALYZE TABLE events PERSISTENT FOR COLUMNS (voids_event_id, cylinder, visit_id, recorded_by, unit_id, site_id, kind) ' +
-    'INDEXES (events_voids_idx, events_cylinder_idx, events_visit_idx, events_recorded_by_users_id_fk, events_unit_time_idx, events_site_time_idx, events_kind_time_idx)',
+    'INDEXES (events_voids_unique, events_cylinder_idx, events_visit_idx, events_recorded_by_users_id_fk, events_unit_time_idx, events_site_time_idx, events_kind_time_idx)',
 );
 await admin.query('ANALYZE TABLE unit_stats PERSISTENT FOR COLUMNS (forecast_date, next_leak_check_due, pti_valid_until) INDEXES ()');
 log(`Collected statistics in ${(secs() - a0).toFixed(0)} s.`);
