@@ -4,6 +4,7 @@ import { readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { brotliCompressSync, constants, gzipSync } from 'node:zlib';
 import { defineConfig, type Plugin } from 'vite';
+import { VitePWA } from 'vite-plugin-pwa';
 
 // The Express server owns /api; in development Vite forwards it there. /u/<token> (QR labels) is a client route.
 const apiOrigin = 'http://localhost:3000';
@@ -37,8 +38,49 @@ function compressAssets(): Plugin {
 }
 
 export default defineConfig({
-  plugins: [react(), tailwindcss(), compressAssets()],
-  build: { outDir: 'dist' },
+  plugins: [
+    react(),
+    tailwindcss(),
+    // Installable, and the app shell opens with no signal: every built file is precached by the service worker and
+    // any page address falls back to index.html. Unit data offline comes from the persisted query cache, not from here.
+    VitePWA({
+      registerType: 'prompt',
+      injectRegister: false,
+      includeAssets: ['favicon.svg', 'icons/apple-touch-icon-180.png'],
+      manifest: {
+        id: '/',
+        name: 'Tightloop',
+        short_name: 'Tightloop',
+        description: 'Service history for refrigerated container units: scan a label, see the unit, record a visit.',
+        lang: 'en',
+        start_url: '/',
+        scope: '/',
+        display: 'standalone',
+        orientation: 'any',
+        theme_color: '#0b161d',
+        background_color: '#f3f4ee',
+        icons: [
+          { src: '/icons/icon-192.png', sizes: '192x192', type: 'image/png', purpose: 'any' },
+          { src: '/icons/icon-512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
+          { src: '/icons/maskable-192.png', sizes: '192x192', type: 'image/png', purpose: 'maskable' },
+          { src: '/icons/maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+        ],
+      },
+      workbox: {
+        globPatterns: ['**/*.{js,css,html,svg,png,woff2,webmanifest}'],
+        // The camera reader's fallback decoder (zxing) is big and only needed where the browser has no barcode detector.
+        maximumFileSizeToCacheInBytes: 1024 * 1024,
+        navigateFallback: '/index.html',
+        navigateFallbackDenylist: [/^\/api\//],
+        cleanupOutdatedCaches: true,
+        // A new version waits until the page says so (the update prompt), never mid-form.
+        skipWaiting: false,
+        clientsClaim: false,
+      },
+    }),
+    compressAssets(),
+  ],
+  build: { outDir: 'dist', chunkSizeWarningLimit: 600 },
   server: {
     port: 5173,
     strictPort: true,

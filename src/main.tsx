@@ -1,20 +1,28 @@
-import '@fontsource/work-sans/400.css';
-import '@fontsource/work-sans/500.css';
-import '@fontsource/work-sans/600.css';
-import '@fontsource/work-sans/700.css';
+import '@fontsource/work-sans/latin-400.css';
+import '@fontsource/work-sans/latin-500.css';
+import '@fontsource/work-sans/latin-600.css';
+import '@fontsource/work-sans/latin-700.css';
 import './styles.css';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
+import { registerServiceWorker } from './lib/app-update';
+import { restorePersistedQueries } from './lib/persist-queries';
+import { createQueryClient } from './lib/query-client';
 
 const root = document.getElementById('root');
 if (!root) throw new Error('index.html has no #root element');
 
-createRoot(root).render(
-  <StrictMode>
-    <AppProvider>
-      <AppRouter />
-    </AppProvider>
-  </StrictMode>,
-);
+const queryClient = createQueryClient();
+// The units seen before are back in the cache before the first page asks for them, so they open with no signal.
+void restorePersistedQueries(queryClient).then(() => {
+  createRoot(root).render(
+    <StrictMode>
+      <AppProvider client={queryClient}>
+        <AppRouter />
+      </AppProvider>
+    </StrictMode>,
+  );
+  registerServiceWorker();
+});

@@ -7,46 +7,30 @@ import { paths } from '../config/paths';
 import { setUnauthenticatedHandler } from '../lib/query-client';
 import { lazyPage, page } from './route-module';
 import * as protectedLayout from './routes/app/layout';
-import * as homeRoute from './routes/app/home';
-import * as signInRoute from './routes/auth/sign-in';
 import * as notFoundRoute from './routes/errors/not-found';
-import * as peopleRoute from './routes/people/people';
-import * as unitsRoute from './routes/units/units';
 import * as unitRoute from './routes/units/unit';
-import * as newUnitRoute from './routes/units/new-unit';
-import * as editUnitRoute from './routes/units/edit-unit';
-import * as unitImportRoute from './routes/units/import';
-import * as sitesRoute from './routes/units/sites';
 import * as labelLinkRoute from './routes/units/label-link';
-import * as inviteRoute from './routes/auth/invite';
-import * as resetPasswordRoute from './routes/auth/reset-password';
-import * as forgotPasswordRoute from './routes/auth/forgot-password';
-import * as unsubscribeRoute from './routes/auth/unsubscribe';
-import * as alertSettingsRoute from './routes/settings/alerts';
-import * as mailboxRoute from './routes/admin/mailbox';
-import * as fleetRoute from './routes/fleet/fleet';
-import * as refrigerantLogRoute from './routes/refrigerant-log/refrigerant-log';
-import * as settingsRoute from './routes/settings/settings';
-import * as accountRoute from './routes/account/account';
 
 /**
  * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
- * routes/<area>/, and one line here — `page(...)` bundles it with the shell, `lazyPage(() => import(...))` splits it off.
+ * routes/<area>/, and one line here — `lazyPage(() => import(...))`. Only what a scanned label needs on a phone with one
+ * bar of signal is bundled with the shell by `page(...)`: the protected layout, the label link and the unit page (sign-in and its
+ * form library load on their own).
  */
 export function createAppRouter(queryClient: QueryClient) {
   return createBrowserRouter([
     {
       path: paths.signIn.path,
-      ...page(signInRoute, queryClient),
+      ...lazyPage(() => import('./routes/auth/sign-in'), queryClient),
       errorElement: <FullPageRouteError />,
       hydrateFallbackElement: <AppSplash />,
     },
     ...[
-      { path: paths.invitation.path, module: inviteRoute },
-      { path: paths.passwordReset.path, module: resetPasswordRoute },
-      { path: paths.forgotPassword.path, module: forgotPasswordRoute },
-      { path: paths.unsubscribe.path, module: unsubscribeRoute },
-    ].map(({ path, module }) => ({ path, ...page(module, queryClient), errorElement: <FullPageRouteError />, hydrateFallbackElement: <AppSplash /> })),
+      { path: paths.invitation.path, module: () => import('./routes/auth/invite') },
+      { path: paths.passwordReset.path, module: () => import('./routes/auth/reset-password') },
+      { path: paths.forgotPassword.path, module: () => import('./routes/auth/forgot-password') },
+      { path: paths.unsubscribe.path, module: () => import('./routes/auth/unsubscribe') },
+    ].map(({ path, module }) => ({ path, ...lazyPage(module, queryClient), errorElement: <FullPageRouteError />, hydrateFallbackElement: <AppSplash /> })),
     {
       path: paths.home.path,
       ...page(protectedLayout, queryClient),
@@ -56,30 +40,30 @@ export function createAppRouter(queryClient: QueryClient) {
         {
           errorElement: <RouteError />,
           children: [
-            { index: true, ...page(homeRoute, queryClient) },
-            { path: paths.units.path, ...page(unitsRoute, queryClient, paths.units.permission) },
-            { path: paths.newUnit.path, ...page(newUnitRoute, queryClient, paths.newUnit.permission) },
-            { path: paths.unitImport.path, ...page(unitImportRoute, queryClient, paths.unitImport.permission) },
+            { index: true, ...lazyPage(() => import('./routes/app/home'), queryClient) },
+            { path: paths.units.path, ...lazyPage(() => import('./routes/units/units'), queryClient, paths.units.permission) },
+            { path: paths.newUnit.path, ...lazyPage(() => import('./routes/units/new-unit'), queryClient, paths.newUnit.permission) },
+            { path: paths.unitImport.path, ...lazyPage(() => import('./routes/units/import'), queryClient, paths.unitImport.permission) },
             { path: paths.unit.path, ...page(unitRoute, queryClient, paths.unit.permission) },
-            { path: paths.editUnit.path, ...page(editUnitRoute, queryClient, paths.editUnit.permission) },
-            { path: paths.sites.path, ...page(sitesRoute, queryClient, paths.sites.permission) },
+            { path: paths.editUnit.path, ...lazyPage(() => import('./routes/units/edit-unit'), queryClient, paths.editUnit.permission) },
+            { path: paths.sites.path, ...lazyPage(() => import('./routes/units/sites'), queryClient, paths.sites.permission) },
             { path: paths.labelLink.path, ...page(labelLinkRoute, queryClient, paths.labelLink.permission) },
             { path: paths.scan.path, ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission) },
             {
               path: paths.unitVisit.path,
               ...lazyPage(() => import('./routes/units/record-visit'), queryClient, paths.unitVisit.permission),
             },
-            { path: paths.people.path, ...page(peopleRoute, queryClient, paths.people.permission) },
-            { path: paths.alertSettings.path, ...page(alertSettingsRoute, queryClient, paths.alertSettings.permission) },
-            { path: paths.mailbox.path, ...page(mailboxRoute, queryClient, paths.mailbox.permission) },
-            { path: paths.fleet.path, ...page(fleetRoute, queryClient, paths.fleet.permission) },
+            { path: paths.people.path, ...lazyPage(() => import('./routes/people/people'), queryClient, paths.people.permission) },
+            { path: paths.alertSettings.path, ...lazyPage(() => import('./routes/settings/alerts'), queryClient, paths.alertSettings.permission) },
+            { path: paths.mailbox.path, ...lazyPage(() => import('./routes/admin/mailbox'), queryClient, paths.mailbox.permission) },
+            { path: paths.fleet.path, ...lazyPage(() => import('./routes/fleet/fleet'), queryClient, paths.fleet.permission) },
             { path: paths.fleetOverview.path, ...lazyPage(() => import('./routes/fleet/overview'), queryClient, paths.fleetOverview.permission) },
             { path: paths.fleetTrace.path, ...lazyPage(() => import('./routes/fleet/trace'), queryClient, paths.fleetTrace.permission) },
-            { path: paths.refrigerantLog.path, ...page(refrigerantLogRoute, queryClient, paths.refrigerantLog.permission) },
+            { path: paths.refrigerantLog.path, ...lazyPage(() => import('./routes/refrigerant-log/refrigerant-log'), queryClient, paths.refrigerantLog.permission) },
             { path: paths.decisions.path, ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission) },
             { path: paths.unitDecision.path, ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission) },
-            { path: paths.account.path, ...page(accountRoute, queryClient) },
-            { path: paths.settings.path, ...page(settingsRoute, queryClient, paths.settings.permission) },
+            { path: paths.account.path, ...lazyPage(() => import('./routes/account/account'), queryClient) },
+            { path: paths.settings.path, ...lazyPage(() => import('./routes/settings/settings'), queryClient, paths.settings.permission) },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],
         },

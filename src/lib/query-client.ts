@@ -21,6 +21,8 @@ export function createQueryClient(): QueryClient {
     defaultOptions: {
       queries: {
         staleTime: 30_000,
+        // Kept as long as the offline copy (lib/persist-queries): only what is in the cache is written to the phone.
+        gcTime: 14 * 24 * 3600_000,
         // Retry only what may pass on a second try: a dropped connection or a server hiccup. A 4xx will not change.
         retry: (failureCount, error) =>
           isApiError(error) && (error.status === 0 || error.status >= 500) && failureCount < 2,

@@ -3,6 +3,7 @@ import { Link, NavLink, useLocation, useNavigation } from 'react-router-dom';
 import { can, ROLE_LABELS } from '../../../shared/permissions';
 import type { UserDto } from '../../../shared/schemas/auth';
 import { navEntries, paths } from '../../config/paths';
+import { updateIfSafe } from '../../lib/app-update';
 import { useSignOut } from '../../lib/auth';
 import { useDevTools } from '../../lib/dev-tools';
 import { Alert } from '../ui/alert';
@@ -11,12 +12,14 @@ import { cx } from '../ui/cx';
 import { navIcons, SignOutIcon } from '../ui/icons';
 import { Logo } from '../ui/logo';
 import { MoreSheet, TAB_BAR_SLOTS } from './more-sheet';
+import { UpdatePrompt } from './update-prompt';
 
 /**
  * The signed-in shell. One <nav> that is a bottom tab bar on phones (thumb reach, big targets, dark so it reads in
- * sunlight) and a side rail from the `md` breakpoint up.
+ * sunlight) and a side rail from the `md` breakpoint up. `status` sits in the header on every page (the connection and
+ * the visits waiting on this phone).
  */
-export function AppLayout({ user, children }: { user: UserDto; children: ReactNode }) {
+export function AppLayout({ user, status, children }: { user: UserDto; status?: ReactNode; children: ReactNode }) {
   const navigation = useNavigation();
   const location = useLocation();
   const signOut = useSignOut();
@@ -26,6 +29,8 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
 
   // After moving to another page, put keyboard and screen-reader focus at the start of the new content.
   useEffect(() => {
+    // A page change is a safe moment to switch to a new version of the app (unless a form holds unsent input).
+    if (updateIfSafe()) return;
     if (firstRender.current) {
       firstRender.current = false;
       return;
@@ -54,6 +59,7 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
           <Link to={paths.home.getHref()} className="flex min-h-touch shrink-0 items-center rounded-md">
             <Logo tone="dark" compact />
           </Link>
+          {status}
           <div className="ml-auto flex min-w-0 items-center gap-3">
             <Link to={paths.account.getHref()} className="min-w-0 rounded-md text-right leading-tight" data-testid="current-user" title={`${user.name}: your account`}>
               <p className="truncate text-base font-semibold">{user.name}</p>
@@ -137,6 +143,7 @@ export function AppLayout({ user, children }: { user: UserDto; children: ReactNo
         className="min-w-0 px-4 pt-6 pb-[calc(var(--spacing-tabbar)+env(safe-area-inset-bottom)+2rem)] outline-none md:px-8 md:pt-8 md:pb-12"
       >
         <div className="mx-auto max-w-5xl">
+          <UpdatePrompt />
           {signOut.isError && (
             <Alert tone="alarm" title="Could not sign out" className="mb-6">
               {signOut.error.message}

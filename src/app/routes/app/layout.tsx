@@ -3,6 +3,7 @@ import { Outlet, redirect, useMatches, type LoaderFunctionArgs } from 'react-rou
 import { can, ROLE_LABELS } from '../../../../shared/permissions';
 import { NotAllowed } from '../../../components/errors/not-allowed';
 import { AppLayout } from '../../../components/layouts/app-layout';
+import { ConnectionStatus } from '../../../features/history/components/connection-status';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { meQuery, useUser } from '../../../lib/auth';
@@ -32,5 +33,9 @@ export default function ProtectedLayout() {
     return !permission || can(user, permission);
   });
 
-  return <AppLayout user={user}>{allowed ? <Outlet /> : <NotAllowed roleLabel={ROLE_LABELS[user.role]} />}</AppLayout>;
+  return (
+    <AppLayout user={user} status={<ConnectionStatus userId={user.id} />}>
+      {allowed ? <Outlet /> : <NotAllowed roleLabel={ROLE_LABELS[user.role]} />}
+    </AppLayout>
+  );
 }

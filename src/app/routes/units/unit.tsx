@@ -6,6 +6,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
+import { overviewQuery } from '../../../features/history/api/get-overview';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
 import { UnitChanges } from '../../../features/units/components/unit-changes';
@@ -14,10 +15,9 @@ import { UnitLabelActions } from '../../../features/units/components/unit-label-
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
 
-// The charts (visx) load with the history, not with the app shell.
-const ServiceHistory = lazy(() =>
-  import('../../../features/history/components/service-history').then((m) => ({ default: m.ServiceHistory })),
-);
+// The history (and after it the charts) loads apart from the app shell; the loader starts it alongside the data.
+const loadServiceHistory = () => import('../../../features/history/components/service-history');
+const ServiceHistory = lazy(() => loadServiceHistory().then((m) => ({ default: m.ServiceHistory })));
 // A visit or a void can change the unit's own record (its status), so the registry's copy is refreshed too.
 const historyChangesUnit = (unitId: number) => [unitKeys.detail(unitId)];
 
@@ -27,7 +27,11 @@ export const loader =
   (queryClient: QueryClient) =>
   async ({ params }: LoaderFunctionArgs) => {
     const id = idOf(params.id);
-    if (id !== null) await queryClient.prefetchQuery(unitQuery(id));
+    if (id === null) return null;
+    // The figures' data and code are fetched at the same time as the unit, not one after the other.
+    void loadServiceHistory();
+    void queryClient.prefetchQuery(overviewQuery(id));
+    await queryClient.prefetchQuery(unitQuery(id));
     return null;
   };
 

@@ -1,6 +1,6 @@
 import type { QueryKey } from '@tanstack/react-query';
 import { differenceInMinutes, parseISO } from 'date-fns';
-import { useState, type ReactNode } from 'react';
+import { lazy, Suspense, useState, type ReactNode } from 'react';
 import {
   convertMass,
   convertPressure,
@@ -25,7 +25,9 @@ import { entryKindLabel, fmtDateTime, fmtKg, fmtNumber, UNIT_STATUS_WORDS } from
 import { temperatureSymbol, type UnitPrefs } from '../utils/unit-prefs';
 import { AttachPhotos } from './attach-photos';
 import { EntryGlyph } from './entry-glyph';
-import { VoidEventDialog } from './void-event-dialog';
+
+// The void form (react-hook-form + its resolver) loads when someone voids an entry, not with the unit page.
+const VoidEventDialog = lazy(() => import('./void-event-dialog').then((m) => ({ default: m.VoidEventDialog })));
 
 type EnteredPressure = { pressureUnit?: UnitPrefs['pressure'] | 'MPa'; temperatureUnit?: 'C' | 'F' | 'K' };
 
@@ -339,7 +341,11 @@ export function EventList({
           The next page could not be loaded. Try again.
         </p>
       )}
-      {voiding && <VoidEventDialog unitId={unitId} event={voiding} onClose={() => setVoiding(null)} alsoInvalidate={alsoInvalidate} />}
+      {voiding && (
+        <Suspense fallback={null}>
+          <VoidEventDialog unitId={unitId} event={voiding} onClose={() => setVoiding(null)} alsoInvalidate={alsoInvalidate} />
+        </Suspense>
+      )}
     </div>
   );
 }

@@ -1,5 +1,5 @@
 import type { QueryKey } from '@tanstack/react-query';
-import type { ReactNode } from 'react';
+import { lazy, Suspense, type ReactNode } from 'react';
 import { can } from '../../../../shared/permissions';
 import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
@@ -10,9 +10,11 @@ import { useOverview } from '../api/get-overview';
 import { useTimeline } from '../api/get-timeline';
 import { EventList } from './event-list';
 import { PendingVisitsBanner } from './pending-visits-banner';
-import { PressureTrend } from './pressure-trend';
 import { UnitFigures } from './unit-figures';
-import { UnitTimeline } from './unit-timeline';
+
+// The charts (visx) load after the figures: a technician on one bar of signal reads the figures first.
+const UnitTimeline = lazy(() => import('./unit-timeline').then((m) => ({ default: m.UnitTimeline })));
+const PressureTrend = lazy(() => import('./pressure-trend').then((m) => ({ default: m.PressureTrend })));
 
 function Section({
   id,
@@ -119,11 +121,13 @@ export function ServiceHistory({
             </Alert>
           ) : (
             <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
-              <UnitTimeline
-                events={timeline.data.events}
-                stats={overview.data?.stats ?? null}
-                commissionedOn={commissionedOn}
-              />
+              <Suspense fallback={<Loading what="the timeline" />}>
+                <UnitTimeline
+                  events={timeline.data.events}
+                  stats={overview.data?.stats ?? null}
+                  commissionedOn={commissionedOn}
+                />
+              </Suspense>
             </div>
           )}
         </Section>
@@ -137,7 +141,9 @@ export function ServiceHistory({
             <p className="text-ink-700">The pressure trend comes with the timeline, which could not be loaded.</p>
           ) : (
             <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
-              <PressureTrend stats={overview.data?.stats ?? null} snapshots={timeline.data.snapshots} />
+              <Suspense fallback={<Loading what="the pressure trend" />}>
+                <PressureTrend stats={overview.data?.stats ?? null} snapshots={timeline.data.snapshots} />
+              </Suspense>
             </div>
           )}
         </Section>

@@ -1,0 +1,57 @@
+// The query cache kept in IndexedDB, so a unit opened once opens again with no signal (the label's address, its
+// figures and its history). Restored before the first render; written at most once a second while in use.
+import type { QueryClient } from '@tanstack/react-query';
+import {
+  persistQueryClientRestore,
+  persistQueryClientSubscribe,
+  type PersistedClient,
+  type Persister,
+} from '@tanstack/react-query-persist-client';
+import { createStore, del, get, set } from 'idb-keyval';
+
+/** How long a unit seen on this phone stays readable offline; the query cache keeps entries as long (query-client). */
+export const PERSIST_MAX_AGE_MS = 14 * 24 * 3600_000;
+// Bumped when a stored answer's shape changes in a way the app cannot read.
+const BUSTER = 'tightloop-1';
+const KEY = 'queries';
+const WRITE_EVERY_MS = 1000;
+
+/** TanStack Query's IndexedDB persister (its documented idb-keyval recipe): the object is stored as is, no JSON. */
+function indexedDbPersister(): Persister {
+  const store = createStore('tightloop', 'query-cache');
+  let pending: PersistedClient | null = null;
+  let timer: ReturnType<typeof setTimeout> | null = null;
+  return {
+    persistClient: (client) => {
+      pending = client;
+      timer ??= setTimeout(() => {
+        timer = null;
+        const next = pending;
+        pending = null;
+        if (next) void set(KEY, next, store).catch(() => undefined);
+      }, WRITE_EVERY_MS);
+    },
+    restoreClient: () => get<PersistedClient>(KEY, store),
+    removeClient: () => del(KEY, store),
+  };
+}
+
+// The persister package pins its own copy of query-core; the client is the same shape, only the type names differ.
+type PersistedQueryClient = Parameters<typeof persistQueryClientRestore>[0]['queryClient'];
+
+export async function restorePersistedQueries(queryClient: QueryClient): Promise<void> {
+  const persister = indexedDbPersister();
+  const client = queryClient as unknown as PersistedQueryClient;
+  try {
+    await persistQueryClientRestore({ queryClient: client, persister, maxAge: PERSIST_MAX_AGE_MS, buster: BUSTER });
+  } catch {
+    // A blocked or broken store (private mode, full disk) only costs the offline copy.
+  }
+  persistQueryClientSubscribe({
+    queryClient: client,
+    persister,
+    buster: BUSTER,
+    // Only answers that arrived; a pending or failed query has nothing worth keeping.
+    dehydrateOptions: { shouldDehydrateQuery: (query) => query.state.status === 'success' },
+  });
+}
