@@ -1,7 +1,20 @@
 // Fleet-level tables: the settings in force (append-only versions), background jobs with progress, and small
 // pre-aggregated tables the fleet views read instead of scanning the events.
 import { sql } from 'drizzle-orm';
-import { bigint, char, datetime, double, index, int, json, mysqlEnum, mysqlTable, primaryKey, varchar } from 'drizzle-orm/mysql-core';
+import {
+  bigint,
+  char,
+  customType,
+  datetime,
+  double,
+  index,
+  int,
+  json,
+  mysqlEnum,
+  mysqlTable,
+  primaryKey,
+  varchar,
+} from 'drizzle-orm/mysql-core';
 import { users } from './users';
 
 /** Every saved version of the settings; the row with the highest id is in force. Rows are never updated. */
@@ -15,10 +28,12 @@ export const settingsVersions = mysqlTable('settings', {
     .notNull()
     .references(() => users.id),
   updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 }).notNull(),
-  createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
 });
 
-export const JOB_KINDS = ['stats_recompute', 'repair_effectiveness'] as const;
+export const JOB_KINDS = ['stats_recompute', 'repair_effectiveness', 'forecast_cases'] as const;
 export const JOB_STATUSES = ['running', 'done', 'failed', 'superseded'] as const;
 
 /** A background job and its progress (read by other requests while it runs). */
@@ -39,7 +54,9 @@ export const backgroundJobs = mysqlTable(
     startedAt: datetime('started_at', { mode: 'date', fsp: 3 }).notNull(),
     heartbeatAt: datetime('heartbeat_at', { mode: 'date', fsp: 3 }).notNull(),
     finishedAt: datetime('finished_at', { mode: 'date', fsp: 3 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('background_jobs_kind_idx').on(t.kind, t.id)],
 );
@@ -56,7 +73,9 @@ export const fleetMonthly = mysqlTable(
     refrigerant: varchar('refrigerant', { length: 16 }).notNull(),
     madeUpKg: double('made_up_kg').notNull().default(0),
     visits: int('visits').notNull().default(0),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [primaryKey({ columns: [t.month, t.siteId, t.refrigerant] })],
 );
@@ -71,7 +90,9 @@ export const visitMadeUp = mysqlTable(
     siteId: int('site_id').notNull(),
     refrigerant: varchar('refrigerant', { length: 16 }).notNull(),
     madeUpKg: double('made_up_kg').notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('visit_made_up_unit_idx').on(t.unitId)],
 );
@@ -88,7 +109,30 @@ export const repairEffectivenessRows = mysqlTable(
     pending: int('pending').notNull(),
     holdRatePct: double('hold_rate_pct'),
     computedAt: datetime('computed_at', { mode: 'date', fsp: 3 }).notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [primaryKey({ columns: [t.location, t.action] })],
 );
+
+const longblob = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'longblob' });
+
+/**
+ * The next top-up forecast's case base (DOMAIN.md §7b), learned from the fleet's history by a background job: the
+ * encoded cases (gzip) and the accuracy measured on the fleet's own record. Each process loads the newest row once
+ * and again when a newer one appears; older rows are pruned.
+ */
+export const forecastCaseBases = mysqlTable('forecast_case_bases', {
+  id: int('id').autoincrement().primaryKey(),
+  builtAt: datetime('built_at', { mode: 'date', fsp: 3 }).notNull(),
+  // Cut-offs with a known next top-up (before sampling) and the units they came from.
+  cases: int('cases').notNull(),
+  units: int('units').notNull(),
+  buildMs: int('build_ms').notNull(),
+  accuracy: json('accuracy').$type<Record<string, unknown>>(),
+  data: longblob('data').notNull(),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
+});
