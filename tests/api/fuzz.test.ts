@@ -464,9 +464,13 @@ async function afterAnswer(req: FuzzRequest, res: request.Response, info: RouteI
         add('jobId', (body.recompute as { id?: number } | null)?.id);
         break;
       case 'get /api/account/sessions':
-      case 'get /api/users/:id/sessions':
         add('sessionId', ...((body.sessions ?? []) as { id: string }[]).map((x) => x.id));
         break;
+      case 'get /api/users/:id/sessions': {
+        const user = decodeURIComponent(url.split('/')[3]);
+        add('userSession', ...((body.sessions ?? []) as { id: string }[]).map((x) => ({ user, id: x.id })));
+        break;
+      }
       case 'post /api/fleet/repair-effectiveness/refresh':
         add('jobId', (body.job as { id?: number })?.id);
         break;

@@ -37,6 +37,7 @@ export const POOLS = [
   'unsubscribe',
   'settingsVersion',
   'sessionId',
+  'userSession',
 ] as const;
 export type PoolName = (typeof POOLS)[number];
 export type Pools = Record<PoolName, unknown[]>;
@@ -636,9 +637,12 @@ const importForm = (withKey: boolean) =>
       files: [{ field: 'file', name: f.name, contentType: f.contentType, content: Buffer.from(f.csv) }],
     }));
 
+/** A pool, or one field of a pool's rows; the fields of one request come from the same row (a user and their session). */
+type ParamSource = PoolName | { pool: PoolName; field: string };
+
 type RouteShape = {
   /** Pool that fills each path parameter with a real row. */
-  params?: Record<string, PoolName>;
+  params?: Record<string, ParamSource>;
   query?: fc.Arbitrary<Shape>;
   body?: fc.Arbitrary<Shape>;
   multipart?: fc.Arbitrary<{ fields: [string, string | PoolRef][]; files: FilePart[] }>;
@@ -679,7 +683,10 @@ export const ROUTE_SHAPES: Record<string, RouteShape> = {
   },
   'get /api/users/:id/sessions': { params: { id: 'userId' } },
   'delete /api/users/:id/sessions': { weight: 0.5, params: { id: 'userId' } },
-  'delete /api/users/:id/sessions/:sessionId': { weight: 0.5, params: { id: 'userId', sessionId: 'sessionId' } },
+  'delete /api/users/:id/sessions/:sessionId': {
+    weight: 0.5,
+    params: { id: { pool: 'userSession', field: 'user' }, sessionId: { pool: 'userSession', field: 'id' } },
+  },
   'post /api/users': {
     body: rec({
       email: fc.oneof({ weight: 4, arbitrary: freshEmail }, { weight: 1, arbitrary: ref('userEmail') }),
@@ -848,13 +855,35 @@ const INVALID_PARAMS = [
 ];
 const RAW_PARAMS = ['%', '%zz', '%ED%A0%80', '%C0%AF', '%FF%FE', '%2F', '..', '%00', 'a%2Fb'];
 
-const paramValue = (pool: PoolName | null): fc.Arbitrary<ParamValue> =>
+const paramValue = (pool: ParamSource | null): fc.Arbitrary<ParamValue> =>
   fc.oneof(
-    { weight: pool ? 6 : 0, arbitrary: pool ? ref(pool) : fc.constant({ text: '1' }) },
+    {
+      weight: pool ? 6 : 0,
+      arbitrary:
+        pool === null
+          ? fc.constant({ text: '1' })
+          : typeof pool === 'string'
+            ? ref(pool)
+            : fc.nat().map((i) => new PoolRef(pool.pool, i, pool.field)),
+    },
     { weight: 3, arbitrary: fc.constantFrom(...INVALID_PARAMS).map((text) => ({ text })) },
     { weight: 1, arbitrary: fc.constantFrom(...RAW_PARAMS).map((raw) => ({ raw })) },
     { weight: 2, arbitrary: weirdString.filter((s) => s.length > 0).map((text) => ({ text })) },
   );
+
+/** Points every field reference of one pool at the same row as the first one. */
+function sameRow(params: Record<string, ParamValue>): Record<string, ParamValue> {
+  const first = Object.values(params).find((v): v is PoolRef => v instanceof PoolRef && v.field !== undefined);
+  if (!first) return params;
+  return Object.fromEntries(
+    Object.entries(params).map(([k, v]) => [
+      k,
+      v instanceof PoolRef && v.field !== undefined && v.pool === first.pool
+        ? new PoolRef(v.pool, first.index, v.field)
+        : v,
+    ]),
+  );
+}
 
 const RAW_QUERY = ['%', '%zz', '%ED%A0%80', '%C0%AF', '%00'];
 const queryValue: fc.Arbitrary<QueryValue> = fc.oneof(
@@ -964,7 +993,7 @@ export function requestArbitrary(routes: RouteInfo[]): fc.Arbitrary<FuzzRequest>
         ),
         copies: fc.oneof({ weight: 15, arbitrary: fc.constant(1) }, { weight: 1, arbitrary: fc.constantFrom(2, 3) }),
       })
-      .map((x): FuzzRequest => ({ route: key, ...x, params: x.params as Record<string, ParamValue> }));
+      .map((x): FuzzRequest => ({ route: key, ...x, params: sameRow(x.params as Record<string, ParamValue>) }));
     // Weights are integers; tenths keep the relative shares.
     return { weight: Math.round((shape.weight ?? 1) * 10), arbitrary };
   });
