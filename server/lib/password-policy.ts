@@ -29,18 +29,35 @@ function personalWords(person: { email: string; name?: string | null }): string[
   return [...new Set(words.filter((w) => w.length >= 3))];
 }
 
-/** Why the password is refused, in words for the form, or null when it is fine. */
-export function passwordProblem(password: string, person: { email: string; name?: string | null }): string | null {
-  if (password.length < MIN_PASSWORD_LENGTH) return `Use at least ${MIN_PASSWORD_LENGTH} characters.`;
-  if (password.length > MAX_PASSWORD_LENGTH) return `Use at most ${MAX_PASSWORD_LENGTH} characters.`;
+export type PasswordAssessment = {
+  /** zxcvbn's 0–4; 3 and up is accepted. */
+  score: number;
+  /** Why it is refused, in words for the form; null when it is fine. */
+  problem: string | null;
+};
+
+/** How the password fares against the rule, for the form's meter and for the server's own check. */
+export function assessPassword(password: string, person: { email: string; name?: string | null }): PasswordAssessment {
+  if (password.length > MAX_PASSWORD_LENGTH)
+    return { score: 0, problem: `Use at most ${MAX_PASSWORD_LENGTH} characters.` };
   const lower = password.toLowerCase();
   if (personalWords(person).some((w) => w.length >= 5 && lower.includes(w) && w.length * 2 >= password.length)) {
-    return 'Do not use your own e-mail address or name as the password.';
+    return { score: 0, problem: 'Do not use your own e-mail address or name as the password.' };
   }
   const result = zxcvbn().check(password, personalWords(person));
-  if (result.score >= MIN_SCORE) return null;
+  if (password.length < MIN_PASSWORD_LENGTH)
+    return { score: Math.min(result.score, 2), problem: `Use at least ${MIN_PASSWORD_LENGTH} characters.` };
+  if (result.score >= MIN_SCORE) return { score: result.score, problem: null };
   const why = result.feedback.warning ?? 'This password is easy to guess.';
-  return `${why.replace(/\.?$/, '.')} Choose another: a few unrelated words make a good password.`;
+  return {
+    score: result.score,
+    problem: `${why.replace(/\.?$/, '.')} Choose another: a few unrelated words make a good password.`,
+  };
+}
+
+/** Why the password is refused, in words for the form, or null when it is fine. */
+export function passwordProblem(password: string, person: { email: string; name?: string | null }): string | null {
+  return assessPassword(password, person).problem;
 }
 
 /** Throws 400 with the reason on `field` when the password is not acceptable. */

@@ -1,6 +1,6 @@
 // The signed-in person's own account: their password and the devices they are signed in on.
 import { z } from 'zod';
-import { MAX_SIGN_IN_PASSWORD_LENGTH, passwordSchema } from './auth';
+import { MAX_EMAIL_LENGTH, MAX_SIGN_IN_PASSWORD_LENGTH, passwordSchema } from './auth';
 
 const currentPasswordSchema = z.string().min(1, 'Enter your current password').max(MAX_SIGN_IN_PASSWORD_LENGTH);
 
@@ -37,3 +37,18 @@ export type SessionDto = z.infer<typeof sessionDto>;
 
 export const sessionsListDto = z.object({ sessions: z.array(sessionDto) });
 export type SessionsListDto = z.infer<typeof sessionsListDto>;
+
+/** The form's strength meter asks the server, which holds the common-password lists (too big for the phone). */
+export const passwordCheckSchema = z.object({
+  password: z.string().max(MAX_SIGN_IN_PASSWORD_LENGTH),
+  email: z.string().max(MAX_EMAIL_LENGTH).optional(),
+  name: z.string().max(120).optional(),
+});
+export type PasswordCheckInput = z.infer<typeof passwordCheckSchema>;
+
+export const passwordCheckDto = z.object({
+  score: z.number(),
+  acceptable: z.boolean(),
+  problem: z.string().nullable(),
+});
+export type PasswordCheckDto = z.infer<typeof passwordCheckDto>;

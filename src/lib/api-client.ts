@@ -91,7 +91,7 @@ async function request<T>(method: string, url: string, body?: unknown, signal?: 
 
 export const apiClient = {
   get: <T>(url: string, options?: { signal?: AbortSignal }) => request<T>('GET', url, undefined, options?.signal),
-  post: <T>(url: string, body?: unknown) => request<T>('POST', url, body),
+  post: <T>(url: string, body?: unknown, options?: { signal?: AbortSignal }) => request<T>('POST', url, body, options?.signal),
   patch: <T>(url: string, body: unknown) => request<T>('PATCH', url, body),
   put: <T>(url: string, body: unknown) => request<T>('PUT', url, body),
   delete: <T>(url: string) => request<T>('DELETE', url),

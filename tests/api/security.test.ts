@@ -249,6 +249,24 @@ describe('passwords (ASVS 2.1.1, 2.1.2, 2.1.7)', () => {
     expect(weak.status).toBe(400);
     expect(weak.body.error.fields.password).toBeTruthy();
   });
+
+  it("answers the form's strength meter with a score and the reason, for the signed-in person or the one named", async () => {
+    const check = (body: object, agent: Target = app) =>
+      client(agent).post('/api/password-check').set('Origin', TEST_ORIGIN).send(body);
+    const weak = await check({ password: 'sunshine2024' });
+    expect(weak.status).toBe(200);
+    expect(weak.body).toMatchObject({ acceptable: false, problem: expect.stringMatching(/common/i) });
+    expect(weak.body.score).toBeLessThan(3);
+    const strong = await check({ password: 'brine-pump-lantern-42' });
+    expect(strong.body).toMatchObject({ acceptable: true, problem: null });
+    expect(
+      (await check({ password: 'marek.holloway@test.example', email: 'marek.holloway@test.example' })).body.acceptable,
+    ).toBe(false);
+    const { agent, user } = await signInAs(app, db, 'owner');
+    expect((await check({ password: user.email, email: 'someone.else@test.example' }, agent)).body.problem).toMatch(
+      /e-mail address or name/,
+    );
+  });
 });
 
 describe('sessions end: absolute and idle lifetimes, devices, password change (ASVS 3.3.1–3.3.4)', () => {

@@ -1,10 +1,17 @@
 // "Signed-in devices" and the password, for the person themselves; administrators see and end anyone's sessions.
 import { eq } from 'drizzle-orm';
-import { changePasswordSchema, endMySessionsSchema, sessionParamSchema } from '../../../shared/schemas/account';
+import {
+  changePasswordSchema,
+  endMySessionsSchema,
+  passwordCheckSchema,
+  sessionParamSchema,
+} from '../../../shared/schemas/account';
 import { idParamSchema } from '../../../shared/schemas/common';
 import { users } from '../../db/schema';
 import type { AppContext } from '../../deps';
-import { badRequest, notFound } from '../../lib/http-error';
+import { badRequest, HttpError, notFound } from '../../lib/http-error';
+import { addressBucket, clientAddress } from '../../lib/client-address';
+import { assessPassword } from '../../lib/password-policy';
 import { route } from '../../routes';
 import { changePassword, confirmPassword } from './account.service';
 
@@ -15,7 +22,24 @@ export function accountRoutes(ctx: AppContext) {
     return u;
   }
 
+  // The meter asks as the person types; a generous limit per address keeps it from being a free CPU for anyone.
+  const checks = ctx.counters('pwcheck_addr', 15 * 60);
+  const PASSWORD_CHECKS_PER_ADDRESS = 600;
+
   return [
+    route('post', '/api/password-check', 'public', async (req, res) => {
+      const counted = await checks.add(addressBucket(clientAddress(req)));
+      if (counted.count > PASSWORD_CHECKS_PER_ADDRESS) {
+        throw Object.assign(new HttpError(429, 'rate_limited', 'Too many password checks. Wait a few minutes.'), {
+          retryAfterSeconds: Math.max(1, Math.ceil(counted.msLeft / 1000)),
+        });
+      }
+      const input = passwordCheckSchema.parse(req.body);
+      // Signed in (the account page): the person is the session's user, whatever the body says.
+      const person = req.user ?? { email: input.email ?? '', name: input.name ?? null };
+      const { score, problem } = assessPassword(input.password, person);
+      res.json({ score, acceptable: problem === null, problem });
+    }),
     route('get', '/api/account/sessions', 'signed-in', async (req, res) => {
       res.json({ sessions: await ctx.sessions.list(req.user!, req.sessionId) });
     }),

@@ -36,6 +36,7 @@ export default function InvitePage() {
               it with this e-mail address to sign in. The invitation works once, for {INVITATION_HOURS} hours.
             </p>
             <SetPasswordForm
+              person={{ email: link.data.email, name: link.data.name }}
               submitLabel="Set password and sign in"
               pendingLabel="Setting up…"
               pending={complete.isPending}

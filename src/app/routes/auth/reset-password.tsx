@@ -34,6 +34,7 @@ export default function ResetPasswordPage() {
               For <span className="font-semibold">{link.data.email}</span>. Saving it signs you out on every other device.
             </p>
             <SetPasswordForm
+              person={{ email: link.data.email, name: link.data.name }}
               submitLabel="Save password and sign in"
               pendingLabel="Saving…"
               pending={complete.isPending}

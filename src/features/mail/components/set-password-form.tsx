@@ -1,6 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
+import { PasswordStrength } from '../../../components/ui/password-strength';
+import { usePasswordCheck } from '../../../lib/password-check';
 import { z } from 'zod';
 import { setPasswordSchema } from '../../../../shared/schemas/account-links';
 import { PASSWORD_RULE_HINT } from '../../../../shared/schemas/auth';
@@ -21,7 +23,10 @@ export function SetPasswordForm({
   pending,
   error,
   onSubmit,
+  person,
 }: {
+  /** Whose password it is: their e-mail and name may not be (part of) it. */
+  person?: { email: string; name: string };
   submitLabel: string;
   pendingLabel: string;
   pending: boolean;
@@ -33,8 +38,10 @@ export function SetPasswordForm({
     handleSubmit,
     setError,
     setFocus,
+    watch,
     formState: { errors },
   } = useForm<FormValues>({ resolver: zodResolver(formSchema), defaultValues: { password: '', confirm: '' } });
+  const strength = usePasswordCheck(watch('password'), person);
 
   useEffect(() => setFocus('password'), [setFocus]);
   useEffect(() => {
@@ -58,7 +65,13 @@ export function SetPasswordForm({
         error={errors.password?.message}
         {...register('password')}
       />
-      <PasswordField label="Repeat the password" autoComplete="new-password" error={errors.confirm?.message} {...register('confirm')} />
+      <PasswordStrength {...strength} />
+      <PasswordField
+        label="Repeat the password"
+        autoComplete="new-password"
+        error={errors.confirm?.message}
+        {...register('confirm')}
+      />
       <Button type="submit" size="lg" pending={pending} pendingLabel={pendingLabel} className="w-full">
         {submitLabel}
       </Button>

@@ -7,6 +7,8 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
+import { PasswordStrength } from '../../../components/ui/password-strength';
+import { usePasswordCheck } from '../../../lib/password-check';
 import { useChangePassword } from '../api/sessions';
 
 const formSchema = changePasswordSchema
@@ -22,6 +24,7 @@ export function ChangePasswordForm() {
     handleSubmit,
     setError,
     reset,
+    watch,
     formState: { errors },
   } = useForm<FormValues>({
     resolver: zodResolver(formSchema),
@@ -41,6 +44,8 @@ export function ChangePasswordForm() {
       },
     ),
   );
+  // Signed in: the server knows whose password it is.
+  const strength = usePasswordCheck(watch('newPassword'));
   const otherFailure = change.isError && !(isApiError(change.error) && change.error.fields);
 
   return (
@@ -71,6 +76,7 @@ export function ChangePasswordForm() {
         error={errors.newPassword?.message}
         {...register('newPassword')}
       />
+      <PasswordStrength {...strength} />
       <PasswordField
         label="Repeat the new password"
         autoComplete="new-password"

@@ -9,6 +9,8 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField, SelectField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
+import { PasswordStrength } from '../../../components/ui/password-strength';
+import { usePasswordCheck } from '../../../lib/password-check';
 import { useCreateUser } from '../api/create-user';
 
 type FormInput = z.input<typeof createUserSchema>;
@@ -25,11 +27,13 @@ export function CreateUserForm({ onCreated, onCancel }: { onCreated: (user: User
     handleSubmit,
     setError,
     setFocus,
+    watch,
     formState: { errors },
   } = useForm<FormInput, unknown, FormOutput>({
     resolver: zodResolver(createUserSchema),
     defaultValues: { name: '', email: '', certificateNumber: '', password: undefined },
   });
+  const strength = usePasswordCheck(watch('password') ?? '', { email: watch('email'), name: watch('name') });
 
   useEffect(() => setFocus('name'), [setFocus]);
 
@@ -112,6 +116,9 @@ export function CreateUserForm({ onCreated, onCancel }: { onCreated: (user: User
           error={errors.password?.message}
           {...register('password', { setValueAs: (v: string | undefined) => (v ? v : undefined) })}
         />
+        <div className="md:col-span-2 md:max-w-[calc(50%-0.625rem)]">
+          <PasswordStrength {...strength} />
+        </div>
       </div>
       <div className="flex flex-col-reverse gap-3 sm:flex-row">
         <Button variant="secondary" onClick={onCancel} className="sm:min-w-32">
