@@ -18,7 +18,7 @@ import { ALERT_KINDS } from '../../../shared/schemas/alerts';
 import { sites } from './sites';
 import { users } from './users';
 
-export const MAIL_KINDS = ['invitation', 'password_reset', 'alert', 'digest'] as const;
+export const MAIL_KINDS = ['invitation', 'password_reset', 'alert', 'digest', 'password_changed'] as const;
 
 export const mailOutbox = mysqlTable(
   'mail_outbox',

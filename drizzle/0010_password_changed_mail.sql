@@ -1,0 +1,1 @@
+ALTER TABLE `mail_outbox` MODIFY COLUMN `kind` enum('invitation','password_reset','alert','digest','password_changed') NOT NULL;
