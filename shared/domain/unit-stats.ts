@@ -2,7 +2,15 @@ import { addMonthsToDay, dayFromCivil, dayOf, isoDate, parseAsOf, parseIso, year
 import { co2eTonnes as co2eOf, leakCheckIntervalForPolicy, CHRONIC_CALENDAR_YEAR_SHARE_PCT } from './emissions';
 import { DomainError } from './errors';
 import { prepareHistory, type PressureEvent, type PtiEvent, type UnitEvent, type VisitStats } from './events';
-import { forecastFromVisits, type ForecastReason, type TopUpForecast } from './forecast';
+import { type ForecastReason, type TopUpForecast } from './forecast';
+import {
+  forecastState,
+  learnedForecast,
+  type ForecastCaseBase,
+  type ForecastTimeline,
+  type LearnedForecast,
+  type TimelineVisit,
+} from './learned-forecast';
 import { annualizedLeakRatePct, firstVisitInWindow, rollingSeries } from './leak-rate';
 import { isFiniteNumber, roundTo } from './numbers';
 import { pressureHealthFromReadings, type PressureHealth, type PressureSnapshot } from './pressure-health';
@@ -47,13 +55,24 @@ export interface UnitStats {
   ptiValidUntil: string | null;
   ptiValid: boolean;
   score: RepeatLeakScore;
-  forecast: TopUpForecast | null;
+  /** The unit's own rhythm (DOMAIN.md §7a): last addition + I, with the range of its fastest and slowest intervals. */
+  rhythm: TopUpForecast | null;
+  /** The forecast the product shows (§7b): learned from the fleet's case base, or the scaled rhythm without one. */
+  forecast: LearnedForecast | null;
   forecastReason: ForecastReason | null;
   pressureHealth: PressureHealth;
   openLeak: { foundAt: string; location: LeakLocationId | null } | null;
   visits: VisitStats[];
   snapshots: PressureSnapshot[];
-  counts: { events: number; visits: number; topUps: number; repairs: number; leakChecks: number; afterAsOf: number; ignored: number };
+  counts: {
+    events: number;
+    visits: number;
+    topUps: number;
+    repairs: number;
+    leakChecks: number;
+    afterAsOf: number;
+    ignored: number;
+  };
 }
 
 function checkUnit(unit: UnitInput): { code: RefrigerantCode; startMs: number | null } {
@@ -65,20 +84,46 @@ function checkUnit(unit: UnitInput): { code: RefrigerantCode; startMs: number | 
       'nominalChargeKg',
     );
   }
-  const startMs = unit.commissionedOn == null ? null : parseIso(unit.commissionedOn, 'commissionedOn', 'The commissioning date');
+  const startMs =
+    unit.commissionedOn == null ? null : parseIso(unit.commissionedOn, 'commissionedOn', 'The commissioning date');
   return { code, startMs };
 }
 
 /**
  * Every figure of one unit as of `asOf` (DOMAIN.md §4–§8), from its events in any order. One sort, then linear passes.
- * Figures that cannot be known are null, never NaN.
+ * Figures that cannot be known are null, never NaN. `caseBase` is the fleet's learned record for the forecast (§7b);
+ * without it the forecast falls back to the unit's rhythm.
  */
 export function computeUnitStats(
   unit: UnitInput,
   events: readonly UnitEvent[],
   asOf: string,
   settings: Settings = DEFAULT_SETTINGS,
+  caseBase: ForecastCaseBase | null = null,
 ): UnitStats {
+  return computeAll(unit, events, asOf, settings, caseBase).stats;
+}
+
+/**
+ * The record of one unit as the forecast reads it (§7b), as of `asOf`: the input of forecastCases when the case base
+ * is built. Same checks as computeUnitStats.
+ */
+export function unitForecastTimeline(
+  unit: UnitInput,
+  events: readonly UnitEvent[],
+  asOf: string,
+  settings: Settings = DEFAULT_SETTINGS,
+): ForecastTimeline {
+  return computeAll(unit, events, asOf, settings, null).timeline;
+}
+
+function computeAll(
+  unit: UnitInput,
+  events: readonly UnitEvent[],
+  asOf: string,
+  settings: Settings,
+  caseBase: ForecastCaseBase | null,
+): { stats: UnitStats; timeline: ForecastTimeline } {
   const { code, startMs } = checkUnit(unit);
   const asOfMs = parseAsOf(asOf);
   const asOfDay = dayOf(asOfMs);
@@ -115,14 +160,24 @@ export function computeUnitStats(
   const calendarPct = (calendarKg / full) * 100;
 
   const score = repeatLeakScore(
-    scoreInputsFromVisits(visits, asOfDay, rollingPct, settings, repairCutsWindow ? visits[series.lastRepair].day : null),
+    scoreInputsFromVisits(
+      visits,
+      asOfDay,
+      rollingPct,
+      settings,
+      repairCutsWindow ? visits[series.lastRepair].day : null,
+    ),
     settings,
   );
-  const { forecast, reason } = forecastFromVisits(visits, startDay, asOfDay);
 
   // One pass over the events for what is read straight off them.
   const readings: PressureEvent[] = [];
   const readingMs: number[] = [];
+  // For the forecast: which visits were routine calls (a PTI), and which readings came after refrigerant went in.
+  const ptiVisit = new Uint8Array(visits.length);
+  const filledVisit = new Uint8Array(visits.length);
+  const readingVisit: number[] = [];
+  const readingAfterFill: boolean[] = [];
   const resets: number[] = startMs !== null ? [startMs] : [];
   let topUps = 0;
   let repairs = 0;
@@ -140,9 +195,13 @@ export function computeUnitStats(
     switch (e.kind) {
       case 'top_up':
         topUps++;
+        if (e.kg > 0) filledVisit[history.visitOf[k]] = 1;
         break;
       case 'recharge':
-        if (e.kg > 0) resets.push(msAt[k]);
+        if (e.kg > 0) {
+          resets.push(msAt[k]);
+          filledVisit[history.visitOf[k]] = 1;
+        }
         break;
       case 'leak_check':
         leakChecks++;
@@ -166,9 +225,12 @@ export function computeUnitStats(
       case 'pressure':
         readings.push(e);
         readingMs.push(msAt[k]);
+        readingVisit.push(history.visitOf[k]);
+        readingAfterFill.push(filledVisit[history.visitOf[k]] === 1);
         break;
       case 'pti':
         lastPti = k;
+        ptiVisit[history.visitOf[k]] = 1;
         break;
     }
   }
@@ -180,9 +242,36 @@ export function computeUnitStats(
 
   const pressure = pressureHealthFromReadings(code, readings, readingMs, resets, settings);
 
+  const approach = new Float64Array(visits.length).fill(Number.NaN);
+  const approachAfterFill = new Float64Array(visits.length).fill(Number.NaN);
+  for (let i = 0; i < readings.length; i++) {
+    const a = pressure.snapshots[i].approachK;
+    if (a === null) continue;
+    approach[readingVisit[i]] = a;
+    if (readingAfterFill[i]) approachAfterFill[readingVisit[i]] = a;
+  }
+  const timelineVisits: TimelineVisit[] = visits.map((v, i) => ({
+    day: v.day,
+    madeUpKg: v.madeUpKg,
+    verifiedRepair: v.verifiedRepair,
+    repaired: v.repaired,
+    pti: ptiVisit[i] === 1,
+    approachK: approach[i],
+    approachAfterFillK: approachAfterFill[i],
+  }));
+  const timeline: ForecastTimeline = { startDay, fullKg: full, visits: timelineVisits };
+  const { state, rhythm, reason } = forecastState(timeline, asOfDay);
+  const forecast = state ? learnedForecast(state, caseBase, settings.forecast.neighbours) : null;
+
   const tCO2e = co2eOf(code, full, settings.gwpBasis);
   const interval = leakCheckIntervalForPolicy(
-    { tCO2e, fullChargeKg: full, rollingLeakRatePct: rollingPct, leakDetection: unit.leakDetection, hermetic: unit.hermetic },
+    {
+      tCO2e,
+      fullChargeKg: full,
+      rollingLeakRatePct: rollingPct,
+      leakDetection: unit.leakDetection,
+      hermetic: unit.hermetic,
+    },
     settings,
   );
   let dueDay: number | null = null;
@@ -193,7 +282,7 @@ export function computeUnitStats(
   }
   const ptiUntilDay = pti?.passed ? dayAt[lastPti] + settings.ptiValidityDays : null;
 
-  return {
+  const stats: UnitStats = {
     asOf: isoDate(asOfDay),
     refrigerant: code,
     rollingLeakRatePct: roundTo(rollingPct, 2),
@@ -213,6 +302,7 @@ export function computeUnitStats(
     ptiValidUntil: ptiUntilDay === null ? null : isoDate(ptiUntilDay),
     ptiValid: ptiUntilDay !== null && asOfDay <= ptiUntilDay,
     score,
+    rhythm,
     forecast,
     forecastReason: reason,
     pressureHealth: pressure.health,
@@ -229,4 +319,5 @@ export function computeUnitStats(
       ignored: history.ignored,
     },
   };
+  return { stats, timeline };
 }

@@ -121,6 +121,11 @@ const economicsSchema = z.object({
   minRepairsForRate: z.number().int().min(1).max(1000).default(5),
 });
 
+const forecastSchema = z.object({
+  /** K: the most similar past cases the next top-up forecast learns from (DOMAIN.md §7b; our definition, 100). */
+  neighbours: z.number().int().min(10).max(1000).default(100),
+});
+
 export const settingsSchema = z.object({
   /** EU: Reg. (EU) 2024/573 intervals (default); US: 40 CFR 82 reference thresholds; custom: the bands below. */
   policy: z.enum(['EU', 'US', 'custom']).default('EU'),
@@ -134,6 +139,7 @@ export const settingsSchema = z.object({
   ptiValidityDays: z.number().int().min(MIN_PTI_VALIDITY_DAYS).max(MAX_PTI_VALIDITY_DAYS).default(90),
   pressure: pressureSchema.prefault({}),
   economics: economicsSchema.prefault({}),
+  forecast: forecastSchema.prefault({}),
 });
 
 export type Settings = z.infer<typeof settingsSchema>;
