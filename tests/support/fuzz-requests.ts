@@ -673,6 +673,13 @@ export const ROUTE_SHAPES: Record<string, RouteShape> = {
   'get /api/auth/me': { weight: 0.3 },
   'get /api/users': {},
   'get /api/account/sessions': {},
+  'post /api/password-check': {
+    body: rec({
+      password: fc.constantFrom(NEW_PASSWORD, TEST_PASSWORD, 'password1234'),
+      email: opt(ref('userEmail')),
+      name: opt(fc.constant('Ana Žilić')),
+    }),
+  },
   'post /api/account/sessions/sign-out': {
     weight: 0.5,
     body: rec({ password: signInPassword, sessionId: opt(ref('sessionId')) }),
