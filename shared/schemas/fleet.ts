@@ -1,6 +1,6 @@
 // Fleet views: the fleet table (filters, sorting, pages), the overview charts, cylinder traceability.
 import { z } from 'zod';
-import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
+import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES, type ForecastSituation } from '../domain';
 import { daySchema } from './common';
 import { UNIT_STATUS_VALUES } from './history';
 
@@ -156,6 +156,28 @@ export type FleetOverviewDto = {
     overdue: number;
     units: { unitId: number; containerNumber: string; site: string | null; due: string }[];
   };
+  /** The next top-up forecast's accuracy on this fleet's own record (DOMAIN.md §7b); null before the first case base. */
+  forecastAccuracy: ForecastAccuracyDto | null;
+};
+
+/** Accuracy of one situation (or of all): cases judged, those still open, MAE, 80 % range coverage, pinball loss. */
+export type ForecastAccuracyRowDto = {
+  situation: ForecastSituation | null;
+  cases: number;
+  open: number;
+  maeDays: number | null;
+  coveragePct: number | null;
+  pinballDays: number | null;
+};
+export type ForecastAccuracyDto = {
+  /** When the case base was learned and measured. */
+  builtAt: string;
+  /** Past cut-offs with a known next top-up it learned from, and the units they came from. */
+  cases: number;
+  units: number;
+  k: number;
+  all: ForecastAccuracyRowDto;
+  bySituation: ForecastAccuracyRowDto[];
 };
 
 // --- traceability ---------------------------------------------------------------------------------------------

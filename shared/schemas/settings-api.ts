@@ -9,7 +9,7 @@ export type SettingsSection = (typeof SETTINGS_SECTIONS)[number];
 /** The top-level settings keys each section of the page holds. */
 export const SETTINGS_SECTION_KEYS = {
   policy: ['policy', 'customLeakCheck', 'gwpBasis'],
-  thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure'],
+  thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'],
   pti: ['ptiValidityDays'],
   economics: ['economics'],
 } as const satisfies Record<SettingsSection, readonly (keyof Settings)[]>;
@@ -42,7 +42,7 @@ export type UpdateSettingsBody = z.input<typeof updateSettingsSchema>;
 
 export type JobDto = {
   id: number;
-  kind: 'stats_recompute' | 'repair_effectiveness';
+  kind: 'stats_recompute' | 'repair_effectiveness' | 'forecast_cases';
   status: 'running' | 'done' | 'failed' | 'superseded';
   total: number;
   processed: number;

@@ -7,7 +7,7 @@ import {
   markForInspectionSchema,
   traceQuerySchema,
 } from '../../../shared/schemas/fleet';
-import { ensureStatsRows, refreshRepairEffectivenessIfStale, startRepairEffectiveness } from '../jobs/jobs.service';
+import { ensureStatsRows, refreshForecastIfStale, refreshRepairEffectivenessIfStale, startForecastCases, startRepairEffectiveness } from '../jobs/jobs.service';
 import { dayText, sendCsv, streamRows } from './csv-stream';
 import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, shouldForceSortIndex, todayOf, toFleetRow } from './fleet.service';
 import { createOverviewCache, fleetOverview } from './overview.service';
@@ -95,11 +95,20 @@ export function fleetRoutes(ctx: AppContext) {
       if (Date.now() - repairAgeCheckedAt > REPAIR_AGE_CHECK_MS) {
         repairAgeCheckedAt = Date.now();
         void refreshRepairEffectivenessIfStale(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'repair effectiveness refresh'));
+        // The forecast's case base, should no process have run its nightly refresh (DOMAIN.md §7b); the first one is
+        // the start-up check's or the refresh button's to build.
+        void refreshForecastIfStale(ctx, { firstBuild: false, message: 'Older than a day when the overview was read.' }).catch((err: unknown) =>
+          ctx.logger.warn({ err }, 'forecast case base refresh'),
+        );
       }
       res.json(await fleetOverview(ctx.db, q, ctx.clock.now(), overviewCache));
     }),
     route('post', '/api/fleet/repair-effectiveness/refresh', 'view:fleet', async (req, res) => {
       res.status(202).json({ job: await startRepairEffectiveness(ctx, req.user!.id) });
+    }),
+    // Learns the forecast's case base again from the whole fleet, measures it, then recomputes every forecast.
+    route('post', '/api/fleet/forecast/refresh', 'view:fleet', async (req, res) => {
+      res.status(202).json({ job: await startForecastCases(ctx, { userId: req.user!.id, message: 'Asked for on the overview.' }) });
     }),
     route('get', '/api/traceability', 'view:fleet', async (req, res) => {
       const q = traceQuerySchema.parse(req.query);

@@ -9,6 +9,7 @@ import { fleetMonthlyGeneration } from './fleet-monthly.service';
 import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
 import { getSettings } from '../settings/settings.service';
 import { dayPlus, todayOf } from './fleet.service';
+import { latestForecastAccuracy, type ForecastAccuracyInfo } from '../forecast/case-base.service';
 
 const BIN_PCT = 10;
 /** Sums of doubles carry float dust; the screen shows grams and kilograms of CO2e. */
@@ -164,9 +165,10 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
   const basis = settings.gwpBasis;
   const emissionsContext: EmissionsContext = { db, q: figuresQ, fromMonth: months[0], basis };
   const emissionsKey = JSON.stringify([fleetMonthlyGeneration(), months[0], figuresQ.siteId ?? null, figuresQ.refrigerant ?? null, basis]);
-  const [emissions, repairs] = await Promise.all([
+  const [emissions, repairs, forecast] = await Promise.all([
     cache ? cache.emissions.fetch(emissionsKey, { context: emissionsContext }) : readEmissions(db, figuresQ, months[0], basis),
     db.select().from(repairEffectivenessRows).orderBy(desc(repairEffectivenessRows.repairs)),
+    latestForecastAccuracy(db),
   ]);
 
   let zero = 0;
@@ -220,5 +222,20 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
       overdue,
       units: dueList.map((d) => ({ unitId: d.unitId, containerNumber: d.containerNumber, site: d.siteName, due: String(d.due).slice(0, 10) })),
     },
+    forecastAccuracy: forecastAccuracyDto(forecast),
+  };
+}
+
+/** The whole fleet's measured forecast accuracy (it is not split by site or refrigerant). */
+function forecastAccuracyDto(info: ForecastAccuracyInfo | null): FleetOverviewDto['forecastAccuracy'] {
+  const a = info?.accuracy;
+  if (!info || !a) return null;
+  return {
+    builtAt: info.builtAt,
+    cases: info.cases,
+    units: info.units,
+    k: a.k,
+    all: { situation: null, cases: a.cases, open: a.open, maeDays: a.maeDays, coveragePct: a.coveragePct, pinballDays: a.pinballDays },
+    bySituation: a.bySituation.map((s) => ({ ...s })),
   };
 }

@@ -4,7 +4,7 @@
 import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { events, units, unitStats, unitStatsDetail } from '../../db/schema';
-import { computeUnitStats } from '../../../shared/domain';
+import { computeUnitStats, type ForecastCaseBase } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
 import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/history';
 
@@ -182,7 +182,8 @@ export async function lockUnitForHistory(tx: DbOrTx, unitId: number) {
 
 /**
  * Recomputes and stores the unit's statistics; returns the row before and after (for alerts). `known` passes the unit
- * and its previous row when the caller has just read them (lockUnitForHistory), saving two reads.
+ * and its previous row when the caller has just read them (lockUnitForHistory), saving two reads. `caseBase` is the
+ * fleet's forecast case base (DOMAIN.md §7b), read by the caller outside the transaction.
  */
 export async function recomputeUnitStats(
   tx: DbOrTx,
@@ -190,6 +191,7 @@ export async function recomputeUnitStats(
   asOf: Date,
   settings: Settings,
   known?: { unit: StatsUnit; before: UnitStatsRow | null },
+  caseBase: ForecastCaseBase | null = null,
 ): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow; detail: UnitStatsDetailRow }> {
   let unit = known?.unit;
   let before = known?.before ?? null;
@@ -198,16 +200,23 @@ export async function recomputeUnitStats(
     [before = null] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
   }
   const history = await loadEngineHistory(tx, unitId);
-  const rows = computeStatsRows(unit!, unitId, history, asOf, settings);
+  const rows = computeStatsRows(unit!, unitId, history, asOf, settings, caseBase);
   await storeStatsRows(tx, [rows]);
   return { before, after: rows.stats, detail: rows.detail };
 }
 
 /** The rows a unit's figures are stored in, from its counted history; the reason in words when the engine refuses it. */
-export function computeStatsRows(unit: StatsUnit | Parameters<typeof engineUnit>[0], unitId: number, history: EngineEvent[], asOf: Date, settings: Settings): UnitStatsRows {
+export function computeStatsRows(
+  unit: StatsUnit | Parameters<typeof engineUnit>[0],
+  unitId: number,
+  history: EngineEvent[],
+  asOf: Date,
+  settings: Settings,
+  caseBase: ForecastCaseBase | null = null,
+): UnitStatsRows {
   const last = history.length ? new Date(history[history.length - 1].at) : null;
   try {
-    return statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, iso(asOf), settings), asOf, last);
+    return statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, iso(asOf), settings, caseBase), asOf, last);
   } catch (err) {
     // The engine is pure: a throw means this record breaks one of its rules (a date it cannot place, a charge of 0).
     // The unit keeps a row that says so, and every fleet-wide read goes on.

@@ -19,6 +19,8 @@ import { getSettings } from '../settings/settings.service';
 import { queueAlertsForStatsChange } from '../alerts/alerts.service';
 import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
 import { computeStatsRows, lockUnitForHistory, recomputeUnitStats, storeStatsRows, type UnitStatsRow, type UnitStatsRows } from './stats.service';
+import { currentCaseBase } from '../forecast/case-base.service';
+import type { ForecastCaseBase } from '../../../shared/domain';
 
 export type WriteContext = { db: Db; clock: Clock; publicUrl: string };
 export type LockedUnit = NonNullable<Awaited<ReturnType<typeof lockUnitForHistory>>>;
@@ -49,6 +51,8 @@ export async function writeUnit<T>(
   change: (tx: Tx, locked: LockedUnit, now: Date) => Promise<UnitChange<T>>,
   opts: { settings?: Settings } = {},
 ): Promise<UnitWriteResult<T>> {
+  // Held in memory by the process (loaded once, refreshed by the case-base job): read outside the transaction.
+  const caseBase = await currentCaseBase(ctx.db);
   const outcome = await retryTransaction(() =>
     ctx.db.transaction(async (tx) => {
       const locked = await lockUnitForHistory(tx, unitId);
@@ -56,7 +60,7 @@ export async function writeUnit<T>(
       const now = ctx.clock.now();
       const done = await change(tx, locked, now);
       const unit = done.unitChanged ? (await tx.select().from(units).where(eq(units.id, unitId)))[0] : locked.unit;
-      const written = await writeEffects(tx, ctx, unit, locked.stats, now, opts.settings ?? (await getSettings(tx)), done.movedVisitIds ?? []);
+      const written = await writeEffects(tx, ctx, unit, locked.stats, now, opts.settings ?? (await getSettings(tx)), done.movedVisitIds ?? [], caseBase);
       return { result: done.result, ...written, monthlyChanged: (done.movedVisitIds ?? []).length > 0 };
     }, WRITE_ISOLATION),
   );
@@ -74,8 +78,9 @@ export async function writeEffects(
   now: Date,
   settings: Settings,
   movedVisitIds: readonly number[],
+  caseBase: ForecastCaseBase | null = null,
 ) {
-  const { after, detail } = await recomputeUnitStats(tx, unit.id, now, settings, { unit, before });
+  const { after, detail } = await recomputeUnitStats(tx, unit.id, now, settings, { unit, before }, caseBase);
   if (movedVisitIds.length) await applyToFleetMonthly(tx, movedVisitIds);
   await queueAlertsForStatsChange(tx, ctx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
   return { before, stats: after, detail };

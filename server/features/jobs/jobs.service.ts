@@ -13,6 +13,8 @@ import type { JobDto } from '../../../shared/schemas/settings-api';
 import { getSettings } from '../settings/settings.service';
 import { ENGINE_EVENT_COLUMNS, toEngineEvent } from '../history/stats.service';
 import { writeUnit } from '../history/write-path';
+import { collectFleetCases, latestCaseBaseAt, learnFromTable, storeCaseBase } from '../forecast/case-base.service';
+import { retryTransaction } from '../../lib/retry';
 
 export type JobContext = { db: Db; clock: Clock; logger: Logger; publicUrl: string };
 type JobRow = typeof backgroundJobs.$inferSelect;
@@ -57,9 +59,15 @@ export async function waitForJobs(): Promise<void> {
   while (active.size) await Promise.allSettled([...active.values()]);
 }
 
+const RUNNERS: Record<JobKind, (ctx: JobContext, jobId: number) => Promise<void>> = {
+  stats_recompute: (ctx, id) => runStatsRecompute(ctx, id),
+  repair_effectiveness: (ctx, id) => runRepairEffectiveness(ctx, id),
+  forecast_cases: (ctx, id) => runForecastCases(ctx, id),
+};
+
 function launch(ctx: JobContext, job: JobRow) {
   if (active.has(job.id)) return;
-  const run = job.kind === 'stats_recompute' ? runStatsRecompute : runRepairEffectiveness;
+  const run = RUNNERS[job.kind];
   const p = run(ctx, job.id)
     .catch(async (err: unknown) => {
       ctx.logger.error({ err, jobId: job.id }, 'background job failed');
@@ -336,4 +344,125 @@ async function runRepairEffectiveness(ctx: JobContext, jobId: number): Promise<v
       .set({ status: 'done', finishedAt: computedAt, processed: unitIds.length })
       .where(eq(backgroundJobs.id, jobId));
   });
+}
+
+// --- forecast case base ----------------------------------------------------------------------------------------
+
+/** The case base is rebuilt when older than this (the nightly refresh, and a check on overview reads). */
+export const FORECAST_CASES_MAX_AGE_MS = 24 * 3600_000;
+
+/** Rebuilds the forecast case base now (a running rebuild is superseded), then every unit's forecast. */
+export async function startForecastCases(ctx: JobContext, opts: { userId?: string | null; message?: string } = {}): Promise<JobDto> {
+  return startJob(ctx, 'forecast_cases', { createdBy: opts.userId ?? null, message: opts.message ?? null });
+}
+
+/**
+ * Starts a rebuild when the newest case base is older than `maxAgeMs` and none is running, claiming it so that of
+ * several processes only one runs it: the newest job row of the kind is read under a lock, so a second claimant waits
+ * and then sees the first one's row. Returns the job, or null when nothing was due.
+ */
+export async function refreshForecastIfStale(
+  ctx: JobContext,
+  opts: { maxAgeMs?: number; message?: string; firstBuild?: boolean } = {},
+): Promise<JobDto | null> {
+  const maxAgeMs = opts.maxAgeMs ?? FORECAST_CASES_MAX_AGE_MS;
+  const job = await retryTransaction(() =>
+    ctx.db.transaction(async (tx) => {
+      const now = ctx.clock.now();
+      const [last] = await tx
+        .select()
+        .from(backgroundJobs)
+        .where(eq(backgroundJobs.kind, 'forecast_cases'))
+        .orderBy(desc(backgroundJobs.id))
+        .limit(1)
+        .for('update');
+      if (last?.status === 'running' && now.getTime() - last.heartbeatAt.getTime() < STALE_AFTER_MS) return null;
+      const builtAt = await latestCaseBaseAt(tx);
+      if (builtAt ? now.getTime() - builtAt.getTime() < maxAgeMs : opts.firstBuild === false) return null;
+      if (last?.status === 'running') {
+        await tx.update(backgroundJobs).set({ status: 'superseded', finishedAt: now, message: 'Its process stopped; a newer job replaced it.' }).where(eq(backgroundJobs.id, last.id));
+      }
+      const [{ id }] = await tx
+        .insert(backgroundJobs)
+        .values({ kind: 'forecast_cases', startedAt: now, heartbeatAt: now, message: opts.message ?? 'Nightly refresh.' })
+        .$returningId();
+      const [row] = await tx.select().from(backgroundJobs).where(eq(backgroundJobs.id, id));
+      return row;
+    }),
+  );
+  if (!job) return null;
+  launch(ctx, job);
+  return toJobDto(job);
+}
+
+const NIGHTLY_HOUR_UTC = 2;
+const FIRST_CHECK_MS = 30_000;
+
+/**
+ * The nightly refresh of the case base (and with it every unit's forecast), at 02:00 UTC plus a few random minutes
+ * per process; and one check shortly after start-up, so a new installation gets its first case base. Timers do not
+ * keep the process alive.
+ */
+export function scheduleForecastRefresh(ctx: JobContext): { stop(): void } {
+  let timer: NodeJS.Timeout | null = null;
+  const run = (maxAgeMs: number) =>
+    void refreshForecastIfStale(ctx, { maxAgeMs }).catch((err: unknown) => ctx.logger.warn({ err }, 'forecast case base refresh'));
+  const arm = () => {
+    const now = Date.now();
+    const next = new Date(now);
+    next.setUTCHours(NIGHTLY_HOUR_UTC, Math.floor(Math.random() * 10), 0, 0);
+    if (next.getTime() <= now) next.setUTCDate(next.getUTCDate() + 1);
+    timer = setTimeout(() => {
+      // Anything built in the last 20 hours counts as tonight's.
+      run(20 * 3600_000);
+      arm();
+    }, next.getTime() - now);
+    timer.unref();
+  };
+  const first = setTimeout(() => run(FORECAST_CASES_MAX_AGE_MS), FIRST_CHECK_MS);
+  first.unref();
+  arm();
+  return {
+    stop() {
+      clearTimeout(first);
+      if (timer) clearTimeout(timer);
+    },
+  };
+}
+
+async function runForecastCases(ctx: JobContext, jobId: number): Promise<void> {
+  const started = Date.now();
+  const settings = await getSettings(ctx.db);
+  const asOf = ctx.clock.now();
+  const [{ n }] = await ctx.db.select({ n: count() }).from(units);
+  await ctx.db.update(backgroundJobs).set({ total: Number(n), processed: 0 }).where(eq(backgroundJobs.id, jobId));
+  const beat = async (processed?: number) => {
+    if (!(await stillRunning(ctx.db, jobId))) return false;
+    await ctx.db
+      .update(backgroundJobs)
+      .set({ heartbeatAt: ctx.clock.now(), ...(processed === undefined ? {} : { processed }) })
+      .where(and(eq(backgroundJobs.id, jobId), eq(backgroundJobs.status, 'running')));
+    return true;
+  };
+  const collected = await collectFleetCases(ctx.db, asOf, settings, (done) => beat(done));
+  if (!collected) return;
+  const learned = await learnFromTable(collected.table, asOf, settings, () => beat());
+  if (!learned) return;
+  if (!(await stillRunning(ctx.db, jobId))) return;
+  await storeCaseBase(ctx.db, learned.caseBase, { cases: learned.cases, units: collected.units, buildMs: Date.now() - started });
+  const acc = learned.caseBase.accuracy;
+  await ctx.db
+    .update(backgroundJobs)
+    .set({
+      status: 'done',
+      finishedAt: ctx.clock.now(),
+      processed: collected.units,
+      message:
+        `${learned.cases.toLocaleString('en')} cases from ${collected.units.toLocaleString('en')} units` +
+        (acc?.maeDays != null ? `; measured MAE ${acc.maeDays} d, 80 % range held ${acc.coveragePct} %` : '') +
+        (collected.skipped ? `; ${collected.skipped} unit(s) the engine refuses left out` : ''),
+    })
+    .where(and(eq(backgroundJobs.id, jobId), eq(backgroundJobs.status, 'running')));
+  // Every unit's forecast from the new case base.
+  await startStatsRecompute(ctx, { settingsId: null, message: 'Forecasts from the new case base.' });
 }

@@ -2,8 +2,8 @@ import { z } from 'zod';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
 import { updateSettingsSchema } from '../../../shared/schemas/settings-api';
-import { getJob, latestJob, resumeStaleJobs, startRepairEffectiveness, startStatsRecompute } from '../jobs/jobs.service';
-import { getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
+import { getJob, latestJob, resumeStaleJobs, startForecastCases, startRepairEffectiveness, startStatsRecompute } from '../jobs/jobs.service';
+import { getSettings, getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
 
 const jobIdSchema = z.object({ id: z.coerce.number({ message: 'Not a valid job id' }).int().positive().max(2_147_483_647) });
 
@@ -18,9 +18,14 @@ export function settingsRoutes(ctx: AppContext) {
     // The route admits whoever may change any section (owners: prices); the service checks each changed section.
     route('put', '/api/settings', 'manage:costs', async (req, res) => {
       const input = updateSettingsSchema.parse(req.body);
+      const neighboursBefore = (await getSettings(ctx.db)).forecast.neighbours;
       const saved = await saveSettings(ctx.db, req.user!, input, ctx.clock.now());
       if (saved.recompute) {
         await startStatsRecompute(ctx, { settingsId: saved.version, userId: req.user!.id, message: 'Figures with the new settings.' });
+        // The forecast's case base is measured and calibrated for K: learned again when K changes (every forecast follows).
+        if (input.settings.forecast.neighbours !== neighboursBefore) {
+          await startForecastCases(ctx, { userId: req.user!.id, message: 'After the number of similar cases changed.' });
+        }
       }
       // The hold window (thresholds) and the minimum repair count (economics) shape repair effectiveness.
       if (saved.sections.includes('thresholds') || saved.sections.includes('economics')) await startRepairEffectiveness(ctx, req.user!.id);
