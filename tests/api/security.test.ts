@@ -12,10 +12,10 @@ import sharp from 'sharp';
 import pino from 'pino';
 import type { AddressInfo } from 'node:net';
 import { createServer } from 'node:net';
-import { eq, like } from 'drizzle-orm';
+import { and, eq, like } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { createDb } from '../../server/db/client';
-import { accountLinks, knownDevices, rateLimits, sessions } from '../../server/db/schema';
+import { accountLinks, knownDevices, mailOutbox, rateLimits, sessions } from '../../server/db/schema';
 import { readEnv } from '../../server/env';
 import { startServer } from '../../server/index';
 import { hashToken } from '../../server/features/account-links/account-links.service';
@@ -248,6 +248,17 @@ describe('passwords (ASVS 2.1.1, 2.1.2, 2.1.7)', () => {
       .send({ password: 'password1234' });
     expect(weak.status).toBe(400);
     expect(weak.body.error.fields.password).toBeTruthy();
+    const good = await request(app)
+      .post(`/api/password-reset/${token}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: 'harbour-crane-at-dusk' });
+    expect(good.status).toBe(200);
+    const notices = await db
+      .select()
+      .from(mailOutbox)
+      .where(and(eq(mailOutbox.toAddress, user.email), eq(mailOutbox.kind, 'password_changed')));
+    expect(notices).toHaveLength(1);
+    expect(notices[0].textBody).toMatch(/reset through an e-mailed link/);
   });
 
   it("answers the form's strength meter with a score and the reason, for the signed-in person or the one named", async () => {
@@ -376,6 +387,13 @@ describe('sessions end: absolute and idle lifetimes, devices, password change (A
     expect((await b.get('/api/auth/me')).status).toBe(401);
     expect((await c.get('/api/auth/me')).status).toBe(401);
     expect((await signIn(app, user.email, 'tidewater-gauge-lamp')).status).toBe(200);
+    // The person hears of it by e-mail (ASVS 2.2.3).
+    const notices = await db
+      .select()
+      .from(mailOutbox)
+      .where(and(eq(mailOutbox.toAddress, user.email), eq(mailOutbox.kind, 'password_changed')));
+    expect(notices).toHaveLength(1);
+    expect(notices[0].textBody).toMatch(/changed on the account page/);
   });
 
   it("lets an administrator see and end anyone's sessions, and no one else", async () => {

@@ -45,7 +45,7 @@ export function accountLinkRoutes(ctx: AppContext) {
     route('post', '/api/invitations/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
-      const user = await completeLink(ctx.db, ctx, 'invitation', token, password);
+      const user = await completeLink(ctx.db, ctx, 'invitation', token, password, { address: clientAddress(req), browser: req.get('user-agent') ?? null });
       await ctx.sessions.start(req, res, user);
       await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });
@@ -69,7 +69,7 @@ export function accountLinkRoutes(ctx: AppContext) {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
       // A reset link signs in even while the account's ceiling of failed sign-ins is reached (decision record 007).
-      const user = await completeLink(ctx.db, ctx, 'password_reset', token, password);
+      const user = await completeLink(ctx.db, ctx, 'password_reset', token, password, { address: clientAddress(req), browser: req.get('user-agent') ?? null });
       await ctx.sessions.start(req, res, user);
       await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });

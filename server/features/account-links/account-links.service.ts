@@ -13,6 +13,7 @@ import { INVITATION_HOURS, PASSWORD_RESET_HOURS, type AccountLinkDto } from '../
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { enqueueMail } from '../mail/outbox';
 import { renderMail } from '../mail/layout';
+import { queuePasswordChangedNotice } from '../auth/password-notice';
 
 type Purpose = (typeof ACCOUNT_LINK_PURPOSES)[number];
 type LinkContext = Pick<AppContext, 'publicUrl' | 'clock'>;
@@ -142,7 +143,14 @@ export async function describeLink(db: Db, ctx: LinkContext, purpose: Purpose, t
  * Sets the password through a link, once: marks every open link of that purpose used and ends the user's
  * sessions (the caller starts a fresh one). Returns the user.
  */
-export async function completeLink(db: Db, ctx: LinkContext, purpose: Purpose, token: string, password: string) {
+export async function completeLink(
+  db: Db,
+  ctx: LinkContext,
+  purpose: Purpose,
+  token: string,
+  password: string,
+  from: { address: string; browser: string | null },
+) {
   // Check before hashing (argon2 is slow and needs no row lock), and again under the lock.
   const { user: person } = await usableLink(db, ctx, purpose, token, false);
   assertAcceptablePassword(password, person);
@@ -156,6 +164,7 @@ export async function completeLink(db: Db, ctx: LinkContext, purpose: Purpose, t
       .set({ usedAt: now })
       .where(and(eq(accountLinks.userId, user.id), eq(accountLinks.purpose, purpose), isNull(accountLinks.usedAt)));
     await tx.delete(sessions).where(eq(sessions.userId, user.id));
+    if (purpose === 'password_reset') await queuePasswordChangedNotice(tx, ctx, user, 'reset', from);
     return { ...user, passwordHash };
   });
 }

@@ -7,6 +7,8 @@ import { badRequest, notFound } from '../../lib/http-error';
 import { hashPassword, verifyPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';
 import type { SessionUser } from '../../lib/session';
+import { clientAddress } from '../../lib/client-address';
+import { queuePasswordChangedNotice } from './password-notice';
 
 /** Checks the person's password again, under the same throttle as sign-in; a wrong one is a 400 on `field`. */
 export async function confirmPassword(
@@ -57,6 +59,10 @@ export async function changePassword(
           gt(accountLinks.expiresAt, now),
         ),
       );
+    await queuePasswordChangedNotice(tx, ctx, user, 'changed', {
+      address: clientAddress(req),
+      browser: req.get('user-agent') ?? null,
+    });
     return { endedSessions: await ctx.sessions.endOthers(user.id, req.sessionId!, tx) };
   });
 }
