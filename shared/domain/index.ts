@@ -157,6 +157,7 @@ export {
   MAX_CASES_PER_SITUATION,
   MIN_CASES_FOR_NEIGHBOURS,
   MAX_MEASURED_PER_SITUATION,
+  MIN_JUDGED_FOR_COVERAGE,
   forecastState,
   forecastCases,
   buildCaseBase,

@@ -324,6 +324,8 @@ export interface ForecastCaseBase {
 export const MAX_CASES_PER_SITUATION = 25_000;
 /** Fewer cases than this in a situation: the rhythm, scaled by the fleet's ratio (§7b small-fleet fallback). */
 export const MIN_CASES_FOR_NEIGHBOURS = 100;
+/** Fewer judged cases than this in a situation: its measured coverage is too uncertain to quote (our definition). */
+export const MIN_JUDGED_FOR_COVERAGE = 30;
 /** Held-out cases per situation and half of the fleet that the accuracy is measured on. */
 export const MAX_MEASURED_PER_SITUATION = 5_000;
 
@@ -774,10 +776,8 @@ export function learnedForecast(state: ForecastState, caseBase: ForecastCaseBase
   const D = state.asOfDay;
   const { lo, mid, hi } = q;
   const waited = D - state.lastAdditionDay;
-  const coverage =
-    q.basis === 'cases'
-      ? (caseBase?.accuracy?.bySituation.find((s) => s.situation === state.situation)?.coveragePct ?? null)
-      : null;
+  const measured = q.basis === 'cases' ? caseBase?.accuracy?.bySituation.find((s) => s.situation === state.situation) : undefined;
+  const coverage = measured && measured.cases >= MIN_JUDGED_FOR_COVERAGE ? measured.coveragePct : null;
   return {
     date: isoDate(D + mid),
     earliest: lo === null ? null : isoDate(D + lo),

@@ -12,6 +12,7 @@ import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/compo
 import { fmtContainer, fmtDay, fmtPct, unitHref } from '../../../features/fleet/utils/format';
 import { toSearch } from '../../../features/fleet/utils/query-string';
 import { RefreshRepairs } from '../../../features/fleet/components/refresh-repairs';
+import { ForecastAccuracy } from '../../../features/fleet/components/forecast-accuracy';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -220,6 +221,12 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
           <RefreshRepairs computedAt={o.repairEffectiveness.computedAt} />
         </Panel>
       </div>
+      <Panel aria-labelledby="ov-forecast" className="mt-5">
+        <h2 id="ov-forecast" className="text-xl font-bold">
+          Forecast accuracy on this fleet
+        </h2>
+        <ForecastAccuracy accuracy={o.forecastAccuracy} />
+      </Panel>
     </div>
   );
 }

@@ -137,8 +137,8 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
           <fieldset className="mt-4">
             <legend className="mb-2 text-base font-bold">This unit</legend>
             <div className="grid gap-3 sm:grid-cols-3">
-              {field('inputs.topUpIntervalDays', 'Days between top-ups', { nullable: true, hint: data.sources.interval === 'forecast' ? 'From the top-up forecast' : 'No leak evidence: leave empty' })}
-              {field('inputs.madeUpKgPerVisit', 'kg per top-up', { nullable: true, hint: data.sources.interval === 'forecast' ? 'From the forecast' : undefined })}
+              {field('inputs.topUpIntervalDays', 'Days between top-ups', { nullable: true, hint: data.sources.interval === 'forecast' ? 'The forecast’s median: from the last top-up to its median next date' : 'No leak evidence: leave empty' })}
+              {field('inputs.madeUpKgPerVisit', 'kg per top-up', { nullable: true, hint: data.sources.interval === 'forecast' ? 'Typical made-up kg of its recent top-ups' : undefined })}
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 Leak to repair
                 <select className={cx(input, 'border-ink-400')} {...form.register('inputs.leakLocation')}>

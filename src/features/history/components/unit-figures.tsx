@@ -139,11 +139,30 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
   );
 }
 
+type Forecast = NonNullable<NonNullable<ReturnType<typeof statsDetail>>['forecast']>;
+
+/** The unit's situation in words, with its dates (DOMAIN.md §7b). */
+function situationWords(f: Forecast): string {
+  const last = fmtDay(f.lastAdditionDate);
+  const intervals = f.basisIntervals.length;
+  switch (f.situation) {
+    case 'first_top_up':
+      return `First top-up on record (${last}): how fast it leaks is not known yet.`;
+    case 'after_repair':
+      return `First top-up after the repair of ${f.repairDate ? fmtDay(f.repairDate) : 'its last repair'}: the leak came back (${last}).`;
+    case 'unverified_repair':
+      return `Repaired${f.repairDate ? ` on ${fmtDay(f.repairDate)}` : ''} without a leak check after: a top-up comes only if the repair did not hold.`;
+    case 'one_interval':
+      return `One interval between top-ups so far; the last on ${last}.`;
+    default:
+      return `${intervals >= 3 ? 'Three or more' : 'Two'} intervals between top-ups; the last on ${last}.`;
+  }
+}
+
 function ForecastCard({ stats }: { stats: UnitStatsDto }) {
   const detail = statsDetail(stats);
-  const f = stats.forecast;
-  const today = new Date();
-  if (!f) {
+  const f = detail?.forecast;
+  if (!stats.forecast || !f) {
     const repaired = detail?.forecastReason === 'repaired_since_last_addition';
     return (
       <div className="flex flex-col justify-center rounded-lg border-2 border-ink-200 bg-white px-4 py-3" data-testid="forecast-card">
@@ -152,38 +171,55 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
           {repaired ? 'None expected' : 'No leak evidence'}
         </p>
         <p className="text-sm text-ink-700">
-          {repaired
-            ? 'A verified repair came after the last top-up.'
-            : 'No refrigerant has been made up, so there is nothing to project.'}
+          {repaired ? 'A verified repair came after the last top-up.' : 'No refrigerant has been made up, so there is nothing to project.'}
         </p>
       </div>
     );
   }
-  const days = differenceInCalendarDays(parseISO(f.date), today);
+  // Worked out on the server, refreshed nightly: counted from today so a day-old figure does not drift.
+  const days = Math.max(0, differenceInCalendarDays(parseISO(f.date), new Date()));
+  const inDays = days === 0 ? 'today' : days === 1 ? 'tomorrow' : `in ${days} days`;
+  const rhythm = Math.round(f.rhythmIntervalDays);
   return (
-    <div
-      className={cx('flex flex-col justify-center rounded-lg border-2 bg-white px-4 py-3', f.overdue ? 'border-alarm-700' : 'border-ink-950')}
-      data-testid="forecast-card"
-    >
-      <p className="text-sm font-semibold text-ink-600">
-        Next top-up expected
-        {f.overdue && <Flag tone="alarm">Overdue</Flag>}
+    <div className="flex flex-col gap-1 rounded-lg border-2 border-ink-950 bg-white px-4 py-3" data-testid="forecast-card">
+      <p className="text-sm font-semibold text-ink-600">Next top-up</p>
+      <p className="text-sm text-ink-800" data-testid="forecast-situation">
+        {situationWords(f)}
       </p>
-      <p className="text-xl font-bold tabular-nums" data-testid="forecast-value">
-        {fmtDay(f.date)}
-        <span className="ml-2 text-base font-semibold text-ink-700">
-          {f.overdue ? `${Math.abs(days)} d ago` : days === 0 ? 'today' : `in ${days} d`}
-        </span>
+      {f.pastRhythm ? (
+        <p className="text-xl font-bold tabular-nums" data-testid="forecast-value">
+          Likely within {days <= 1 ? 'a day' : `${days} days`}
+          <span className="ml-2 text-base font-semibold text-ink-700">by {fmtDay(f.date)}</span>
+        </p>
+      ) : (
+        <p className="text-xl font-bold tabular-nums" data-testid="forecast-value">
+          {fmtDay(f.date)}
+          <span className="ml-2 text-base font-semibold text-ink-700">{inDays}</span>
+        </p>
+      )}
+      {f.pastRhythm && (
+        <p className="text-sm text-ink-700">
+          It has gone {f.waitedDays} days without a top-up, longer than its usual {rhythm};{' '}
+          {f.basis === 'cases' ? 'of the fleet’s units that waited as long, half were topped up by this date.' : 'by its own rhythm it is due.'}
+        </p>
+      )}
+      <p className="text-sm text-ink-800" data-testid="forecast-range">
+        {f.earliest && f.latest
+          ? `Range (80 %): ${fmtDay(f.earliest)} – ${fmtDay(f.latest)}.`
+          : 'No range: nothing yet to say how far the date may move.'}
       </p>
-      <p className="text-sm text-ink-700">
-        {f.earliest && f.latest ? (
-          <>
-            Range {fmtDay(f.earliest)} – {fmtDay(f.latest)}.{' '}
-          </>
-        ) : (
-          'One interval so far: no range yet. '
-        )}
-        {detail?.forecast && <>About {fmtKg(detail.forecast.expectedKg)} every {Math.round(detail.forecast.intervalDays)} days.</>}
+      <p className="text-sm text-ink-700" data-testid="forecast-coverage">
+        {f.basis === 'cases' && f.coveragePct !== null
+          ? `On this fleet, ranges like this held the next top-up ${fmtNumber(f.coveragePct, 0)} % of the time.`
+          : f.basis === 'cases'
+            ? `Learned from the ${f.neighbours} most similar past cases of the fleet; how often such ranges hold is not measured yet.`
+            : f.situationCases > 0
+              ? `The fleet’s record has too few cases like this (${f.situationCases}) to learn from: this is the unit’s own rhythm, scaled by the fleet’s.`
+              : 'No fleet record learned yet: this is the unit’s own rhythm.'}
+      </p>
+      <p className="text-sm text-ink-600" data-testid="forecast-basis">
+        Basis: {f.basisIntervals.length} interval{f.basisIntervals.length === 1 ? '' : 's'}, about {fmtKg(f.expectedKg)} every {rhythm} days
+        {f.basis === 'cases' ? `; the ${f.neighbours} most similar past cases of the fleet.` : '.'}
       </p>
     </div>
   );

@@ -50,7 +50,7 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
   const onSubmit = handleSubmit((values) => {
     // Only this section's edits go in; the rest is the version in force.
     const merged = { ...dto.settings } as Settings;
-    const keys = { policy: ['policy', 'customLeakCheck', 'gwpBasis'], thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure'], pti: ['ptiValidityDays'], economics: ['economics'] }[section] as (keyof Settings)[];
+    const keys = { policy: ['policy', 'customLeakCheck', 'gwpBasis'], thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'], pti: ['ptiValidityDays'], economics: ['economics'] }[section] as (keyof Settings)[];
     for (const k of keys) (merged as Record<string, unknown>)[k] = values[k];
     save.mutate(
       { settings: merged, baseVersion: dto.version },
@@ -145,6 +145,13 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
             <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
               <Num {...p} path="pressure.baselineWindowDays" label="Pressure baseline window (days)" step="1" />
               <Num {...p} path="pressure.driftFlagK" label="Low-charge drift flag (K)" />
+              <Num
+                {...p}
+                path="forecast.neighbours"
+                label="Forecast: similar past cases"
+                step="1"
+                hint="The next top-up is learned from this many (10 to 1,000)"
+              />
             </div>
           </>
         )}

@@ -1,0 +1,124 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { useEffect } from 'react';
+import { FORECAST_SITUATION_LABELS, MIN_JUDGED_FOR_COVERAGE } from '../../../../shared/domain';
+import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
+import type { JobDto } from '../../../../shared/schemas/settings-api';
+import { Button } from '../../../components/ui/button';
+import { apiClient } from '../../../lib/api-client';
+import { fleetKeys } from '../api/keys';
+
+const num = (v: number | null, unit: string) =>
+  v === null ? '—' : `${v.toLocaleString('en-GB', { maximumFractionDigits: 1 })}${unit}`;
+
+/** The case base is learned by a background job; this asks for a fresh one and reloads when it is done. */
+function RefreshForecast({ builtAt }: { builtAt: string | null }) {
+  const queryClient = useQueryClient();
+  const refresh = useMutation({
+    mutationFn: async () => {
+      let { job } = await apiClient.post<{ job: JobDto }>('/api/fleet/forecast/refresh');
+      for (let i = 0; i < 600 && job.status === 'running'; i++) {
+        await new Promise((r) => setTimeout(r, 1000));
+        job = (await apiClient.get<{ job: JobDto }>(`/api/jobs/${job.id}`)).job;
+      }
+      return job;
+    },
+  });
+  useEffect(() => {
+    if (refresh.isSuccess) void queryClient.invalidateQueries({ queryKey: [...fleetKeys.all, 'overview'] });
+  }, [refresh.isSuccess, queryClient]);
+  return (
+    <div className="mt-3 flex flex-wrap items-center gap-3 text-sm text-ink-600">
+      {builtAt && <span>Learned {new Date(builtAt).toLocaleString('en-GB')}; again every night.</span>}
+      <Button
+        variant="quiet"
+        onClick={() => refresh.mutate()}
+        pending={refresh.isPending}
+        pendingLabel="Learning from the fleet…"
+      >
+        Learn again now
+      </Button>
+      {refresh.isError && <span className="text-alarm-700">{refresh.error.message}</span>}
+    </div>
+  );
+}
+
+function Measure({ label, value, testId }: { label: string; value: string; testId?: string }) {
+  return (
+    <div className="flex items-baseline justify-between gap-3 rounded-md border-2 border-ink-200 px-3 py-2 sm:block">
+      <dt className="text-sm font-semibold text-ink-600">{label}</dt>
+      <dd className="text-lg font-bold whitespace-nowrap tabular-nums" data-testid={testId}>
+        {value}
+      </dd>
+    </div>
+  );
+}
+
+/**
+ * How good the next top-up forecast is on this fleet (DOMAIN.md §7b): measured on the fleet's own record, each half
+ * of the units forecast from the other half's cases.
+ */
+export function ForecastAccuracy({ accuracy }: { accuracy: FleetOverviewDto['forecastAccuracy'] }) {
+  if (!accuracy) {
+    return (
+      <div data-testid="forecast-accuracy">
+        <p className="mt-1 text-base text-ink-700">
+          Not learned yet. The forecast learns from the fleet’s own record every night; until then each unit shows its
+          own rhythm.
+        </p>
+        <RefreshForecast builtAt={null} />
+      </div>
+    );
+  }
+  const a = accuracy.all;
+  return (
+    <div data-testid="forecast-accuracy">
+      <p className="mt-1 text-base text-ink-700">
+        Each half of the units forecast from the other half’s past, at {a.cases.toLocaleString('en-GB')} past days whose
+        next top-up is known
+        {a.open ? ` (${a.open.toLocaleString('en-GB')} more still open, not judged yet)` : ''}.
+      </p>
+      <dl className="mt-3 grid gap-2 sm:grid-cols-3 sm:gap-3">
+        <Measure label="Off by, on average" testId="forecast-accuracy-mae" value={num(a.maeDays, ' days')} />
+        <Measure label="80 % ranges that held" testId="forecast-accuracy-coverage" value={num(a.coveragePct, ' %')} />
+        <Measure label="Range-end loss" value={num(a.pinballDays, ' days')} />
+      </dl>
+      <div className="mt-3 overflow-x-auto">
+        <table className="w-full text-left text-base">
+          <thead className="text-sm text-ink-700">
+            <tr>
+              <th className="py-2 pr-3">Situation</th>
+              <th className="py-2 pr-3 text-right">Cases</th>
+              <th className="py-2 pr-3 text-right">Off by</th>
+              <th className="py-2 text-right">Held</th>
+            </tr>
+          </thead>
+          <tbody>
+            {accuracy.bySituation.map((s) => (
+              <tr key={s.situation} className="border-t border-ink-100">
+                <td className="py-2 pr-3">{s.situation ? FORECAST_SITUATION_LABELS[s.situation] : 'All'}</td>
+                <td className="py-2 pr-3 text-right tabular-nums">{s.cases.toLocaleString('en-GB')}</td>
+                {s.cases >= MIN_JUDGED_FOR_COVERAGE ? (
+                  <>
+                    <td className="py-2 pr-3 text-right whitespace-nowrap tabular-nums">{num(s.maeDays, ' d')}</td>
+                    <td className="py-2 text-right whitespace-nowrap tabular-nums">{num(s.coveragePct, ' %')}</td>
+                  </>
+                ) : (
+                  <td colSpan={2} className="py-2 text-right text-sm text-ink-600">
+                    too few to say
+                  </td>
+                )}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      <p className="mt-2 text-sm text-ink-600">
+        “Off by” is the mean absolute error of the forecast date; “held” how often the next top-up fell inside the 80 %
+        range; the range-end loss (pinball loss of its 10 % and 90 % ends) is lower for ranges that are both right and
+        narrow. A still-open interval counts once it has outlasted its range. Fewer than {MIN_JUDGED_FOR_COVERAGE}{' '}
+        judged cases are too few to give figures. {accuracy.k} most similar cases per forecast.
+      </p>
+      <RefreshForecast builtAt={accuracy.builtAt} />
+    </div>
+  );
+}
