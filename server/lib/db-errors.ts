@@ -13,6 +13,11 @@ export function isDuplicateKeyError(err: unknown): boolean {
   return codesOf(err).includes('ER_DUP_ENTRY');
 }
 
+/** True when a row names a parent (a site, a unit) that a concurrent write removed before this one committed. */
+export function isMissingParentError(err: unknown): boolean {
+  return codesOf(err).includes('ER_NO_REFERENCED_ROW_2');
+}
+
 // A deadlock or lock-wait timeout rolls back the whole transaction; running it again is safe when the write is
 // idempotent (every history write is, by its submission key). The cluster adds certification failures here.
 const RETRYABLE = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT']);

@@ -3,6 +3,7 @@ import { ZodError } from 'zod';
 import { HttpError } from '../lib/http-error';
 import type { Logger } from '../lib/logger';
 import { DATABASE_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from '../lib/db-unavailable';
+import { isMissingParentError } from '../lib/db-errors';
 
 export function zodFields(error: ZodError): Record<string, string> {
   const fields: Record<string, string> = {};
@@ -33,6 +34,11 @@ export function errorHandler(logger: Logger) {
     if (bp?.type === 'entity.too.large') return send(413, 'too_large', 'The request is too large.');
     if (typeof bp?.status === 'number' && bp.status >= 400 && bp.status < 500) {
       return send(bp.status, 'bad_request', bp.message || 'Bad request.');
+    }
+    // Each service checks what a write refers to; a parent removed between that check and the commit is a race the
+    // person can resolve by reloading, not a server fault.
+    if (isMissingParentError(err)) {
+      return send(409, 'conflict', 'Something this refers to (a site, a unit) was removed meanwhile. Reload and try again.');
     }
     if (isDatabaseUnavailable(err)) {
       logger.error({ err, requestId: req.requestId }, 'database unavailable');

@@ -3,6 +3,7 @@ import { stringify } from 'csv-stringify/sync';
 import type { Db, DbOrTx } from '../../db/client';
 import { sites, unitImports, units } from '../../db/schema';
 import { isDuplicateKeyError } from '../../lib/db-errors';
+import { CSV_OPTIONS } from '../../lib/csv';
 import { HttpError, badRequest, conflict, notFound } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
 import { newToken } from '../../lib/ids';
@@ -317,5 +318,5 @@ export async function importTemplateCsv(db: Db): Promise<string> {
               : '',
     ),
   ];
-  return stringify(rows);
+  return stringify(rows, CSV_OPTIONS);
 }
