@@ -21,15 +21,22 @@ function indexedDbPersister(): Persister {
   const store = createStore('tightloop', 'query-cache');
   let pending: PersistedClient | null = null;
   let timer: ReturnType<typeof setTimeout> | null = null;
+  const write = () => {
+    if (timer) clearTimeout(timer);
+    timer = null;
+    const next = pending;
+    pending = null;
+    if (next) void set(KEY, next, store).catch(() => undefined);
+  };
+  // A label opened and the phone locked within the second: the last answers are written as the page goes away.
+  window.addEventListener('pagehide', write);
+  document.addEventListener('visibilitychange', () => {
+    if (document.visibilityState === 'hidden') write();
+  });
   return {
     persistClient: (client) => {
       pending = client;
-      timer ??= setTimeout(() => {
-        timer = null;
-        const next = pending;
-        pending = null;
-        if (next) void set(KEY, next, store).catch(() => undefined);
-      }, WRITE_EVERY_MS);
+      timer ??= setTimeout(write, WRITE_EVERY_MS);
     },
     restoreClient: () => get<PersistedClient>(KEY, store),
     removeClient: () => del(KEY, store),

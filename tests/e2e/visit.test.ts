@@ -6,6 +6,7 @@ import { attachments, visits } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
 import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
 import { createHistoryUnit, recordVisits } from '../support/history';
+import { readVisitQueue, writeVisitQueue } from '../support/visit-queue';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
 afterAll(() => pool.end());
@@ -93,17 +94,15 @@ describe('recording a visit on a phone', () => {
       await page.getByText('Kept on this phone: no connection right now').waitFor();
       await page.getByText('1 visit waiting to send').waitFor();
       expect(await visitsOf(unit.id)).toBe(0);
-      const queued = await page.evaluate(() => {
-        const key = Object.keys(localStorage).find((k) => k.startsWith('tightloop:visit-queue:'))!;
-        return { key, value: localStorage.getItem(key)! };
-      });
+      const queued = await readVisitQueue(page);
+      expect(queued.value).toHaveLength(1);
 
       await context.setOffline(false);
       await expect.poll(() => visitsOf(unit.id), { timeout: 15_000 }).toBe(1);
       await page.getByTestId('visit-queue').waitFor({ state: 'detached' });
 
       // The same submission once more (an answer lost on the way back): the server knows the key; nothing doubles.
-      await page.evaluate(({ key, value }) => localStorage.setItem(key, value), queued);
+      await writeVisitQueue(page, queued);
       await page.goto(`/units/${unit.id}`);
       await page.getByTestId('history-entry').first().waitFor();
       await page.getByTestId('visit-queue').waitFor({ state: 'detached' });

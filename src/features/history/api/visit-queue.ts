@@ -1,11 +1,16 @@
-// Visits captured without a connection wait in localStorage (per user, with their idempotency key) and are sent
-// when the phone is back online. Replaying is safe: the server answers a key it already has with the first result,
-// so a visit that did arrive before the connection dropped is not saved twice.
+// Visits captured without a connection wait in IndexedDB (per user, with their idempotency key and their photos) and
+// are sent when the phone is back online, even after the browser was closed. Replaying is safe: the server answers a
+// key it already has with the first result, so a visit that did arrive before the connection dropped is not saved
+// twice; photos already on an entry (same file name) are not sent again.
 import { useQueryClient, type QueryKey } from '@tanstack/react-query';
+import { createStore, get, set } from 'idb-keyval';
 import { useCallback, useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import type { RecordVisitInput } from '../../../../shared/schemas/history';
 import { isApiError } from '../../../lib/api-client';
 import { recordVisit, refreshAfterVisit } from './record-visit';
+import { uploadAttachments } from './upload-attachments';
+
+export type QueuedPhoto = { name: string; type: string; blob: Blob };
 
 export type QueuedVisit = {
   input: RecordVisitInput;
@@ -13,74 +18,140 @@ export type QueuedVisit = {
   unitLabel: string;
   queuedAt: string;
   attempts: number;
+  /** Why the last attempt did not get through (the connection, the server), shown beside the waiting count. */
+  lastError?: string;
+  /** Photos waiting with the visit, by the index of the entry they belong to (downscaled before they were kept). */
+  photos?: Record<number, QueuedPhoto[]>;
   /** The server refused it (a rule, not the connection): kept for the person to read and discard. */
   refused?: { status: number; message: string; fields?: Record<string, string> };
 };
 
-const PREFIX = 'tightloop:visit-queue:';
-const storageKey = (userId: string) => `${PREFIX}${userId}`;
+const LEGACY_PREFIX = 'tightloop:visit-queue:';
+const store = typeof indexedDB === 'undefined' ? undefined : createStore('tightloop-visits', 'queue');
+const storeKey = (userId: string) => `visits:${userId}`;
 const listeners = new Set<() => void>();
-const snapshots = new Map<string, { raw: string | null; items: QueuedVisit[] }>();
+const cache = new Map<string, QueuedVisit[]>();
+const loading = new Map<string, Promise<QueuedVisit[]>>();
 const EMPTY: QueuedVisit[] = [];
+// Other tabs of the app hear of every change and read the queue again.
+const channel = typeof BroadcastChannel === 'undefined' ? null : new BroadcastChannel('tightloop-visit-queue');
+channel?.addEventListener('message', (e: MessageEvent<string>) => {
+  cache.delete(e.data);
+  loading.delete(e.data);
+  void load(e.data);
+});
 
-function readRaw(userId: string): string | null {
-  try {
-    return localStorage.getItem(storageKey(userId));
-  } catch {
-    return null;
-  }
-}
-
-export function readQueue(userId: string): QueuedVisit[] {
-  const raw = readRaw(userId);
-  const hit = snapshots.get(userId);
-  if (hit && hit.raw === raw) return hit.items;
-  let items: QueuedVisit[] = EMPTY;
-  if (raw) {
-    try {
-      const parsed = JSON.parse(raw) as unknown;
-      if (Array.isArray(parsed)) items = parsed as QueuedVisit[];
-    } catch {
-      items = EMPTY;
-    }
-  }
-  snapshots.set(userId, { raw, items });
-  return items;
-}
-
-function writeQueue(userId: string, items: QueuedVisit[]) {
-  if (items.length === 0) localStorage.removeItem(storageKey(userId));
-  else localStorage.setItem(storageKey(userId), JSON.stringify(items));
+function notify() {
   for (const l of listeners) l();
 }
 
-function update(userId: string, fn: (items: QueuedVisit[]) => QueuedVisit[]) {
-  writeQueue(userId, fn(readQueue(userId)));
+/** Visits the earlier version kept in localStorage, moved over once. */
+function takeLegacy(userId: string): QueuedVisit[] {
+  try {
+    const raw = localStorage.getItem(`${LEGACY_PREFIX}${userId}`);
+    const parsed = raw ? (JSON.parse(raw) as unknown) : null;
+    return Array.isArray(parsed) ? (parsed as QueuedVisit[]) : [];
+  } catch {
+    return [];
+  }
 }
 
-/** Keeps a visit to send later. Throws when the phone's storage refuses it (full or blocked). */
-export function enqueueVisit(userId: string, input: RecordVisitInput, unitLabel: string) {
-  update(userId, (items) =>
+function load(userId: string): Promise<QueuedVisit[]> {
+  const hit = cache.get(userId);
+  if (hit) return Promise.resolve(hit);
+  let running = loading.get(userId);
+  if (!running) {
+    running = (async () => {
+      let items = (store && (await get<QueuedVisit[]>(storeKey(userId), store).catch(() => undefined))) || [];
+      const legacy = takeLegacy(userId).filter(
+        (l) => !items.some((i) => i.input.idempotencyKey === l.input.idempotencyKey),
+      );
+      if (legacy.length > 0 && store) {
+        items = [...items, ...legacy];
+        await set(storeKey(userId), items, store);
+        localStorage.removeItem(`${LEGACY_PREFIX}${userId}`);
+      }
+      cache.set(userId, items);
+      loading.delete(userId);
+      notify();
+      return items;
+    })();
+    loading.set(userId, running);
+  }
+  return running;
+}
+
+/** The queue as last read; the first call starts reading it from IndexedDB and subscribers hear when it is there. */
+export function readQueue(userId: string): QueuedVisit[] {
+  const hit = cache.get(userId);
+  if (!hit) void load(userId);
+  return hit ?? EMPTY;
+}
+
+// Writes one after the other, so two quick changes cannot overwrite each other.
+let writes: Promise<unknown> = Promise.resolve();
+
+/** Rejects when the phone's storage refuses the write (full, blocked, private mode). */
+function update(userId: string, fn: (items: QueuedVisit[]) => QueuedVisit[]): Promise<void> {
+  const run = writes.then(async () => {
+    if (!store) throw new Error('This browser has no storage for waiting visits.');
+    const items = fn(await load(userId));
+    await set(storeKey(userId), items, store);
+    cache.set(userId, items);
+    notify();
+    channel?.postMessage(userId);
+  });
+  writes = run.catch(() => undefined);
+  return run;
+}
+
+/** Keeps a visit to send later. Rejects when the phone's storage refuses it (full or blocked). */
+export function enqueueVisit(userId: string, input: RecordVisitInput, unitLabel: string): Promise<void> {
+  return update(userId, (items) =>
     items.some((i) => i.input.idempotencyKey === input.idempotencyKey)
       ? items
       : [...items, { input, unitLabel, queuedAt: new Date().toISOString(), attempts: 0 }],
   );
 }
 
+/** Adds photos to one entry of a waiting visit; they are uploaded right after the visit is sent. */
+export function addQueuedPhotos(userId: string, idempotencyKey: string, entryIndex: number, photos: QueuedPhoto[]) {
+  return update(userId, (items) =>
+    items.map((i) =>
+      i.input.idempotencyKey === idempotencyKey
+        ? { ...i, photos: { ...i.photos, [entryIndex]: [...(i.photos?.[entryIndex] ?? []), ...photos] } }
+        : i,
+    ),
+  );
+}
+
 export function discardQueuedVisit(userId: string, idempotencyKey: string) {
-  update(userId, (items) => items.filter((i) => i.input.idempotencyKey !== idempotencyKey));
+  return update(userId, (items) => items.filter((i) => i.input.idempotencyKey !== idempotencyKey));
 }
 
 function subscribe(listener: () => void) {
   listeners.add(listener);
-  const onStorage = (e: StorageEvent) => {
-    if (e.key === null || e.key.startsWith(PREFIX)) listener();
-  };
-  window.addEventListener('storage', onStorage);
   return () => {
     listeners.delete(listener);
-    window.removeEventListener('storage', onStorage);
   };
+}
+
+/** Uploads a sent visit's waiting photos, entry by entry, forgetting each entry's photos once they are up. */
+async function sendPhotos(userId: string, item: QueuedVisit, result: Awaited<ReturnType<typeof recordVisit>>) {
+  // The server creates a visit's events in the order they were sent.
+  const events = [...result.events].sort((a, b) => a.id - b.id);
+  for (const [index, photos] of Object.entries(item.photos ?? {})) {
+    const event = events[Number(index)];
+    if (!event || photos.length === 0) continue;
+    const there = new Set(event.attachments.map((a) => a.originalName));
+    const files = photos.filter((p) => !there.has(p.name)).map((p) => new File([p.blob], p.name, { type: p.type }));
+    if (files.length > 0) await uploadAttachments({ eventId: event.id, files });
+    await update(userId, (items) =>
+      items.map((i) =>
+        i.input.idempotencyKey === item.input.idempotencyKey ? { ...i, photos: { ...i.photos, [index]: [] } } : i,
+      ),
+    );
+  }
 }
 
 // One replay at a time per user, however many banners are on screen.
@@ -101,22 +172,27 @@ export function flushQueue(
   if (running) return running;
   const run = (async () => {
     let sent = 0;
-    for (const item of readQueue(userId)) {
+    for (const item of await load(userId)) {
       if (item.refused && !includeRefused) continue;
       try {
         const result = await recordVisit(item.input);
-        discardQueuedVisit(userId, item.input.idempotencyKey);
+        await sendPhotos(userId, item, result);
+        await discardQueuedVisit(userId, item.input.idempotencyKey);
         sent++;
         onSent(result, item);
       } catch (error) {
         const status = isApiError(error) ? error.status : 0;
         if (status === 0 || status >= 500 || status === 401 || status === 429) {
-          update(userId, (items) =>
-            items.map((i) => (i.input.idempotencyKey === item.input.idempotencyKey ? { ...i, attempts: i.attempts + 1 } : i)),
-          );
+          await update(userId, (items) =>
+            items.map((i) =>
+              i.input.idempotencyKey === item.input.idempotencyKey
+                ? { ...i, attempts: i.attempts + 1, lastError: isApiError(error) ? error.message : 'No connection.' }
+                : i,
+            ),
+          ).catch(() => undefined);
           break;
         }
-        update(userId, (items) =>
+        await update(userId, (items) =>
           items.map((i) =>
             i.input.idempotencyKey === item.input.idempotencyKey
               ? {
@@ -130,10 +206,10 @@ export function flushQueue(
                 }
               : i,
           ),
-        );
+        ).catch(() => undefined);
       }
     }
-    const left = readQueue(userId);
+    const left = await load(userId);
     return { sent, waiting: left.filter((i) => !i.refused).length, refused: left.filter((i) => i.refused).length };
   })().finally(() => inFlight.delete(userId));
   inFlight.set(userId, run);
@@ -198,6 +274,6 @@ export function useVisitQueue(userId: string, options: { alsoInvalidate?: (unitI
     refused: items.filter((i) => i.refused),
     sending,
     sendNow: () => flush(true),
-    discard: (idempotencyKey: string) => discardQueuedVisit(userId, idempotencyKey),
+    discard: (idempotencyKey: string) => void discardQueuedVisit(userId, idempotencyKey),
   };
 }

@@ -3,6 +3,7 @@ import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, type AttachmentDto } from '../.
 import { cx } from '../../../components/ui/cx';
 import { Spinner } from '../../../components/ui/spinner';
 import { useUploadAttachments, type UploadProgress } from '../api/upload-attachments';
+import { downscalePhoto } from '../utils/downscale-photo';
 
 const MB = 1024 * 1024;
 
@@ -35,8 +36,9 @@ export function AttachPhotos({
   const [problem, setProblem] = useState<string | null>(null);
   const room = MAX_PHOTOS_PER_EVENT - existing - done.length;
 
-  const onChange = (e: ChangeEvent<HTMLInputElement>) => {
-    const files = Array.from(e.target.files ?? []);
+  const onChange = async (e: ChangeEvent<HTMLInputElement>) => {
+    // Downscaled on the phone first: a camera photo is megabytes, a depot's connection is slow.
+    const files = await Promise.all(Array.from(e.target.files ?? []).map(downscalePhoto));
     e.target.value = '';
     if (files.length === 0) return;
     setProblem(null);
@@ -103,7 +105,7 @@ export function AttachPhotos({
             capture="environment"
             multiple
             className="sr-only"
-            onChange={onChange}
+            onChange={(e) => void onChange(e)}
             data-testid={`attach-${eventId}`}
           />
         </label>

@@ -19,6 +19,8 @@ export function PendingVisitsBanner({
   const [confirming, setConfirming] = useState<string | null>(null);
   if (queue.items.length === 0) return null;
   const n = queue.waiting;
+  // Why the last try did not get through; the visit stays and is tried again.
+  const lastError = queue.items.find((i) => !i.refused && i.lastError)?.lastError;
   return (
     <div role="status" className="flex flex-col gap-3 rounded-md border-2 border-ink-950 bg-lime-300 px-4 py-3 text-ink-950" data-testid="visit-queue">
       {n > 0 && (
@@ -32,6 +34,11 @@ export function PendingVisitsBanner({
               {n === 1 ? '1 visit waiting to send' : `${n} visits waiting to send`}
             </span>
             <span className="block text-sm">Kept on this phone. It goes out by itself once the connection is back.</span>
+            {lastError && (
+              <span className="block text-sm" data-testid="visit-queue-last-error">
+                Last try: {lastError}
+              </span>
+            )}
           </p>
           <Button variant="secondary" onClick={() => void queue.sendNow()} pending={queue.sending} pendingLabel="Sending…">
             Send now

@@ -15,6 +15,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { isApiError } from '../../../lib/api-client';
+import { useUnsentInput } from '../../../lib/unsent-input';
 import { useRecordVisit } from '../api/record-visit';
 import { enqueueVisit } from '../api/visit-queue';
 import { ENTRY_KIND_LABELS, fmtDateTime, fmtKg } from '../utils/labels';
@@ -32,6 +33,7 @@ import { EntryCard } from './entry-card';
 import { EntryGlyph } from './entry-glyph';
 import { PreviewContext } from './form-controls';
 import { PendingVisitsBanner } from './pending-visits-banner';
+import { QueuedPhotos } from './queued-photos';
 
 /** What the form needs to know about the unit; the route module gets it from the registry. */
 export type VisitUnit = {
@@ -85,7 +87,7 @@ function issuesToErrors(issues: Record<string, string>) {
 type Outcome =
   | { state: 'editing' }
   | { state: 'saved'; result: RecordVisitResultDto }
-  | { state: 'queued'; occurredAt: string; count: number };
+  | { state: 'queued'; input: RecordVisitInput };
 
 export function RecordVisitForm({
   unit,
@@ -147,6 +149,8 @@ export function RecordVisitForm({
   });
   const { control, handleSubmit, setError, register, setValue, reset, formState } = form;
   const entries = useFieldArray({ control, name: 'events' });
+  // A new version of the app waits while this form holds something not yet sent.
+  useUnsentInput(outcome.state === 'editing' && (formState.isDirty || entries.fields.length > 0));
   const lastAdded = useRef<number | null>(null);
 
   // Live preview of the plausibility rules while typing (warnings until sent; the server refuses them).
@@ -169,9 +173,9 @@ export function RecordVisitForm({
     entries.append(emptyEntry(kind, prefs), { shouldFocus: false });
   };
 
-  const queue = (input: RecordVisitInput) => {
+  const queue = async (input: RecordVisitInput) => {
     try {
-      enqueueVisit(userId, input, unit.containerNumber);
+      await enqueueVisit(userId, input, unit.containerNumber);
     } catch {
       setFormError({
         title: 'The visit could not be kept on this phone',
@@ -182,7 +186,7 @@ export function RecordVisitForm({
       return;
     }
     lastAttempt.current = null;
-    setOutcome({ state: 'queued', occurredAt: input.occurredAt, count: input.events.length });
+    setOutcome({ state: 'queued', input });
     window.scrollTo({ top: 0 });
   };
 
@@ -212,7 +216,7 @@ export function RecordVisitForm({
           return;
         }
         if (error.status === 0) {
-          queue(input);
+          void queue(input);
           return;
         }
         if (error.status >= 500) {
@@ -273,11 +277,14 @@ export function RecordVisitForm({
     return (
       <div className="flex max-w-3xl flex-col gap-5">
         <Alert tone="info" title="Kept on this phone: no connection right now">
-          The visit of {fmtDateTime(outcome.occurredAt)} ({outcome.count} {outcome.count === 1 ? 'entry' : 'entries'})
-          is saved here and goes out by itself once the phone is back online. Sending it twice is not possible: the
-          server knows it by its key. Photos can be added once it has been sent.
+          The visit of {fmtDateTime(outcome.input.occurredAt)} ({outcome.input.events.length}{' '}
+          {outcome.input.events.length === 1 ? 'entry' : 'entries'}) is saved here, also if the browser is closed, and
+          goes out by itself once the phone is back online. Sending it twice is not possible: the server knows it by its
+          key. Photos added below wait with it and go up right after it.
         </Alert>
         {banner}
+        <h2 className="text-xl font-bold">Photos</h2>
+        <QueuedPhotos userId={userId} input={outcome.input} />
         <div className="flex flex-col gap-3 sm:flex-row">
           <ButtonLink to={unitHref} size="lg">
             Back to {unit.containerNumber}
@@ -305,7 +312,7 @@ export function RecordVisitForm({
                 <Button type="submit" variant="secondary">
                   Try again
                 </Button>
-                <Button variant="quiet" onClick={() => currentInput.current && queue(currentInput.current)}>
+                <Button variant="quiet" onClick={() => currentInput.current && void queue(currentInput.current)}>
                   Keep it on this phone and send later
                 </Button>
               </div>
