@@ -67,7 +67,14 @@ export const FEATURE_WEIGHTS: Readonly<Record<ForecastFeature, number>> = {
   minCallKgShare: 1,
   logExpectedDays: 1,
 };
-const WEIGHTS = Float64Array.from(FORECAST_FEATURES, (f) => FEATURE_WEIGHTS[f]);
+// The features that count, heaviest first: a case's partial distance passes the K-th best sooner and is dropped.
+const ORDER = Int32Array.from(
+  FORECAST_FEATURES.map((f, i) => [FEATURE_WEIGHTS[f], i] as const)
+    .filter(([w]) => w > 0)
+    .sort((a, b) => b[0] - a[0] || a[1] - b[1])
+    .map(([, i]) => i),
+);
+const ORDER_WEIGHTS = Float64Array.from(ORDER, (i) => FEATURE_WEIGHTS[FORECAST_FEATURES[i]]);
 
 /** One visit as the forecast reads it (a visit with its made-up kg, repairs, routine call and readings). */
 export interface TimelineVisit extends ForecastVisit {
@@ -679,14 +686,19 @@ function nearestOutcomes(cases: SituationCases, query: Float64Array, k: number):
   // A max-heap of the kk best distances so far.
   const heapD = new Float64Array(kk);
   const heapI = new Int32Array(kk);
+  const A = ORDER.length;
   let size = 0;
   for (let i = 0; i < n; i++) {
-    let d = 0;
+    const bound = size < kk ? Number.POSITIVE_INFINITY : heapD[0];
     const o = i * F;
-    for (let f = 0; f < F; f++) {
-      const diff = x[o + f] - q[f];
-      d += WEIGHTS[f] * diff * diff;
+    let d = 0;
+    let j = 0;
+    for (; j < A; j++) {
+      const diff = x[o + ORDER[j]] - q[ORDER[j]];
+      d += ORDER_WEIGHTS[j] * diff * diff;
+      if (d >= bound) break;
     }
+    if (j < A) continue;
     if (size < kk) {
       let j = size++;
       while (j > 0) {
@@ -776,7 +788,8 @@ export function learnedForecast(state: ForecastState, caseBase: ForecastCaseBase
   const D = state.asOfDay;
   const { lo, mid, hi } = q;
   const waited = D - state.lastAdditionDay;
-  const measured = q.basis === 'cases' ? caseBase?.accuracy?.bySituation.find((s) => s.situation === state.situation) : undefined;
+  const measured =
+    q.basis === 'cases' ? caseBase?.accuracy?.bySituation.find((s) => s.situation === state.situation) : undefined;
   const coverage = measured && measured.cases >= MIN_JUDGED_FOR_COVERAGE ? measured.coveragePct : null;
   return {
     date: isoDate(D + mid),
