@@ -21,7 +21,7 @@ export function ConnectionStatus({ userId }: { userId: string }) {
       data-online={online}
       data-waiting={waiting}
       className={cx(
-        'flex min-h-9 shrink-0 items-center gap-2 rounded-full border-2 px-3 text-sm font-bold',
+        'flex min-h-9 shrink-0 items-center gap-2 rounded-full border-2 px-2.5 text-sm font-bold sm:px-3',
         online ? 'border-ink-700 text-white' : 'border-heed-50 bg-heed-50 text-ink-950',
       )}
     >
@@ -35,7 +35,8 @@ export function ConnectionStatus({ userId }: { userId: string }) {
             refused ? 'bg-alarm-700 text-white' : 'bg-lime-400 text-ink-950',
           )}
         >
-          {waiting + refused} waiting
+          {waiting + refused}
+          <span className="max-sm:hidden"> waiting</span>
         </span>
       )}
     </p>
