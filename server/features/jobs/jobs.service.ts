@@ -396,6 +396,7 @@ export async function refreshForecastIfStale(
 }
 
 const NIGHTLY_HOUR_UTC = 2;
+const NIGHTLY_FRESH_MS = 6 * 3600_000;
 const FIRST_CHECK_MS = 30_000;
 
 /**
@@ -413,8 +414,9 @@ export function scheduleForecastRefresh(ctx: JobContext): { stop(): void } {
     next.setUTCHours(NIGHTLY_HOUR_UTC, Math.floor(Math.random() * 10), 0, 0);
     if (next.getTime() <= now) next.setUTCDate(next.getUTCDate() + 1);
     timer = setTimeout(() => {
-      // Anything built in the last 20 hours counts as tonight's.
-      run(20 * 3600_000);
+      // Every night, so each date moves on with the wait; one built in the last few hours (another process's, a
+      // button press) counts as tonight's.
+      run(NIGHTLY_FRESH_MS);
       arm();
     }, next.getTime() - now);
     timer.unref();
