@@ -5,6 +5,7 @@ import { Alert } from '../../../components/ui/alert';
 import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
+import { overviewQuery } from '../../../features/history/api/get-overview';
 import { unitByTokenQuery, useUnitByToken } from '../../../features/units/api/get-unit-by-token';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
@@ -21,6 +22,8 @@ export const loader =
     try {
       const unit = await queryClient.fetchQuery(unitByTokenQuery(params.token ?? ''));
       queryClient.setQueryData(unitKeys.detail(unit.id), unit);
+      // The figures are asked for now, not after the redirect has been handled.
+      void queryClient.prefetchQuery(overviewQuery(unit.id));
       return redirect(paths.unit.getHref(unit.id));
     } catch {
       return null; // the page below says what went wrong
