@@ -3,6 +3,7 @@ import { useNavigate } from 'react-router-dom';
 import { meDto, type SignInInput, type UserDto } from '../../shared/schemas/auth';
 import { paths } from '../config/paths';
 import { apiClient } from './api-client';
+import { forgetPersistedQueries } from './persist-queries';
 
 export const authKeys = {
   all: ['auth'] as const,
@@ -36,8 +37,9 @@ export function useSignIn() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signIn,
-    onSuccess: (user) => {
-      // Whatever an earlier session left in the cache is not this user's to see.
+    onSuccess: async (user) => {
+      // Whatever an earlier session left in the cache, or on the phone, is not this user's to see.
+      await forgetPersistedQueries();
       queryClient.clear();
       queryClient.setQueryData(meQuery().queryKey, user);
     },
@@ -50,6 +52,8 @@ export function useSignOut() {
   return useMutation({
     mutationFn: () => apiClient.post<void>('/api/auth/sign-out'),
     onSuccess: async () => {
+      // The phone's copy goes first, so a reload or the next start cannot bring the session's answers back.
+      await forgetPersistedQueries();
       // Leave the protected pages first; clearing the cache under them would make them fetch again and get 401s.
       await navigate(paths.signIn.getHref(), { replace: true });
       queryClient.clear();

@@ -39,15 +39,36 @@ function indexedDbPersister(): Persister {
       timer ??= setTimeout(write, WRITE_EVERY_MS);
     },
     restoreClient: () => get<PersistedClient>(KEY, store),
-    removeClient: () => del(KEY, store),
+    removeClient: () => {
+      // A write still waiting would put the removed copy back.
+      pending = null;
+      if (timer) clearTimeout(timer);
+      timer = null;
+      return del(KEY, store);
+    },
   };
 }
 
 // The persister package pins its own copy of query-core; the client is the same shape, only the type names differ.
 type PersistedQueryClient = Parameters<typeof persistQueryClientRestore>[0]['queryClient'];
 
+let activePersister: Persister | null = null;
+
+/**
+ * Drops the phone's copy of the cache, for sign-out and for another person signing in: the next start must not
+ * restore the previous session's answers (ASVS 4.0 8.2.3), whoever holds the phone.
+ */
+export async function forgetPersistedQueries(): Promise<void> {
+  try {
+    await activePersister?.removeClient();
+  } catch {
+    // A blocked store has nothing to forget.
+  }
+}
+
 export async function restorePersistedQueries(queryClient: QueryClient): Promise<void> {
   const persister = indexedDbPersister();
+  activePersister = persister;
   const client = queryClient as unknown as PersistedQueryClient;
   try {
     await persistQueryClientRestore({ queryClient: client, persister, maxAge: PERSIST_MAX_AGE_MS, buster: BUSTER });

@@ -16,15 +16,13 @@ describe('signed-in devices and the password', () => {
   let phone: Awaited<ReturnType<typeof openBrowser>>;
 
   beforeAll(async () => {
-    await db
-      .insert(users)
-      .values({
-        id: newId(),
-        email,
-        name: 'Tomasz Veld',
-        role: 'engineer',
-        passwordHash: await hashPassword(password),
-      });
+    await db.insert(users).values({
+      id: newId(),
+      email,
+      name: 'Tomasz Veld',
+      role: 'engineer',
+      passwordHash: await hashPassword(password),
+    });
     laptop = await openBrowser({ viewport: DESKTOP });
     phone = await openBrowser({ viewport: PHONE });
   });
@@ -40,13 +38,13 @@ describe('signed-in devices and the password', () => {
     await laptop.page.getByTestId('current-user').click();
     await laptop.page.getByRole('heading', { name: 'Signed-in devices' }).waitFor();
     const devices = laptop.page.getByTestId('device-list').getByRole('listitem');
-    await expect.poll(() => devices.count()).toBe(2);
+    await expect.poll(() => devices.count(), { timeout: 15_000 }).toBe(2);
     expect(await laptop.page.getByText('This device').count()).toBe(1);
 
     await laptop.page.getByLabel('Your password').fill(password);
     await laptop.page.getByRole('button', { name: /^Sign out Chrome/ }).click();
     await laptop.page.getByText('That device is signed out.').waitFor();
-    await expect.poll(() => devices.count()).toBe(1);
+    await expect.poll(() => devices.count(), { timeout: 15_000 }).toBe(1);
 
     await phone.page.goto('/units');
     await phone.page.waitForURL(/\/sign-in/);
@@ -61,10 +59,13 @@ describe('signed-in devices and the password', () => {
     await form.getByLabel('New password', { exact: true }).fill('password1234');
     await form.getByLabel('Repeat the new password').fill('password1234');
     // The meter says why before saving; the server refuses it all the same.
-    await form.getByTestId('password-strength').getByText(/commonly used password/).waitFor();
+    await form
+      .getByTestId('password-strength')
+      .getByText(/commonly used password/)
+      .waitFor();
     await form.getByRole('button', { name: 'Change password' }).click();
     // …and its reason stands under the field as well as in the meter.
-    await expect.poll(() => form.getByText(/commonly used password/).count()).toBe(2);
+    await expect.poll(() => form.getByText(/commonly used password/).count(), { timeout: 15_000 }).toBe(2);
 
     await form.getByLabel('New password', { exact: true }).fill(newPassword);
     await form.getByLabel('Repeat the new password').fill(newPassword);
