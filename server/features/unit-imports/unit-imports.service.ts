@@ -6,7 +6,6 @@ import { isDuplicateKeyError } from '../../lib/db-errors';
 import { CSV_OPTIONS } from '../../lib/csv';
 import { HttpError, badRequest, conflict, notFound } from '../../lib/http-error';
 import type { Logger } from '../../lib/logger';
-import { newToken } from '../../lib/ids';
 import { containerCheckDigit, formatContainerNumber } from '../../../shared/domain';
 import {
   IMPORT_COLUMNS,
@@ -22,6 +21,7 @@ import {
 } from '../../../shared/schemas/units';
 import { unitsAdded } from '../fleet/fleet-size';
 import { registerNewUnits } from '../history/write-path';
+import { newUnitRow } from '../units/units.mapper';
 import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './fleet-csv';
 
 /** Rows per INSERT: large enough to be fast, small enough to stay far below max_allowed_packet. */
@@ -246,26 +246,7 @@ export async function commitImport(
       const at = now();
       for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
         const chunk = rows.slice(i, i + INSERT_CHUNK);
-        await tx.insert(units).values(
-          chunk.map(({ data: d, siteId }) => ({
-            containerNumber: d.containerNumber,
-            refrigerant: d.refrigerant,
-            nominalChargeKg: d.nominalChargeKg,
-            commissionedOn: d.commissionedOn ?? null,
-            siteId,
-            status: d.status ?? 'in_service',
-            qrToken: newToken(),
-            machinerySerial: d.machinerySerial ?? null,
-            model: d.model ?? null,
-            manufactureYear: d.manufactureYear ?? null,
-            purchaseCost: d.purchaseCost ?? null,
-            residualValue: d.residualValue ?? null,
-            notes: d.notes ?? null,
-            qrIssuedAt: at,
-            createdAt: at,
-            updatedAt: at,
-          })),
-        );
+        await tx.insert(units).values(chunk.map(({ data, siteId }) => newUnitRow(data, siteId, at)));
         // Their first figures and change records in the same transaction (the unit write path's rule for new units).
         const ids = await tx
           .select({ id: units.id })

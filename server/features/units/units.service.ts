@@ -17,7 +17,7 @@ import {
   type UpdateUnitInput,
 } from '../../../shared/schemas/units';
 import { unitsAdded } from '../fleet/fleet-size';
-import { toUnitDto } from './units.mapper';
+import { newUnitRow, toUnitDto } from './units.mapper';
 import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../history/write-path';
 import { retryTransaction } from '../../lib/retry';
 
@@ -101,24 +101,7 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
         const now = ctx.clock.now();
         const [{ id }] = await tx
           .insert(units)
-          .values({
-            containerNumber: input.containerNumber,
-            refrigerant: input.refrigerant,
-            nominalChargeKg: input.nominalChargeKg,
-            commissionedOn: input.commissionedOn ?? null,
-            siteId: input.siteId ?? null,
-            status: input.status ?? 'in_service',
-            qrToken: newToken(),
-            machinerySerial: input.machinerySerial ?? null,
-            model: input.model ?? null,
-            manufactureYear: input.manufactureYear ?? null,
-            purchaseCost: input.purchaseCost ?? null,
-            residualValue: input.residualValue ?? null,
-            notes: input.notes ?? null,
-            qrIssuedAt: now,
-            createdAt: now,
-            updatedAt: now,
-          })
+          .values(newUnitRow(input, input.siteId ?? null, now))
           .$returningId();
         await registerNewUnits(tx, actorId, [id], now, 'Registered in the unit register');
         return getUnit(tx, id);
