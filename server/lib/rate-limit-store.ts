@@ -2,6 +2,7 @@
 // restart does not forget them and every API process behind the load balancer counts against the same limit.
 import { RateLimiterMySQL, type RateLimiterRes } from 'rate-limiter-flexible';
 import type { Db } from '../db/client';
+import { retryTransaction } from './retry';
 
 export type Counter = {
   /** Adds one (a new window of `seconds` when none is open) and answers the count and time left in the window. */
@@ -34,10 +35,13 @@ export function counterStore(db: Db) {
     });
     cleanupOwner = false;
     const read = (r: RateLimiterRes) => ({ count: r.consumedPoints, msLeft: Math.max(0, r.msBeforeNext) });
+    // The store upserts in a transaction of its own; two counters of one request (per address, per account) insert
+    // into neighbouring gaps of the same index and may deadlock. InnoDB rolls the loser back, so it counts again.
     return {
-      add: async (key, seconds) => read(await limiter.penalty(key, 1, seconds ? { customDuration: seconds } : {})),
-      takeBack: async (key) => void (await limiter.reward(key, 1)),
-      reset: async (key) => void (await limiter.delete(key)),
+      add: async (key, seconds) =>
+        read(await retryTransaction(() => limiter.penalty(key, 1, seconds ? { customDuration: seconds } : {}))),
+      takeBack: async (key) => void (await retryTransaction(() => limiter.reward(key, 1))),
+      reset: async (key) => void (await retryTransaction(() => limiter.delete(key))),
     };
   };
 }
