@@ -87,6 +87,8 @@ describe('inviting a technician', () => {
     const tech = techBrowser.page;
     await tech.goto('/sign-in');
     await tech.getByRole('link', { name: 'Forgot password?' }).click();
+    // The page is loaded on demand: filling before it shows would type into the sign-in form's e-mail field.
+    await tech.getByRole('button', { name: 'Send me a link' }).waitFor();
     await tech.getByLabel('E-mail').fill(email);
     await tech.getByRole('button', { name: 'Send me a link' }).click();
     await tech.getByText('Check your e-mail').waitFor();
