@@ -42,7 +42,7 @@ const result = backtestForecast({
 
 const pct = (x: number | null) => (x === null ? '–' : `${(x * 100).toFixed(1)} %`);
 const line = (r: BacktestRow) =>
-  `| ${r.title} | ${r.cases.toLocaleString('en')} | ${r.forecastMaeDays} | ${r.rhythmMaeDays} | ${r.naiveMaeDays} | ${pct(r.coverage80)} | ` +
+  `| ${r.title} | ${r.cases.toLocaleString('en')} | ${r.forecastMaeDays} | ${r.rhythmMaeDays} | ${r.naiveMaeDays ?? '–'} | ${pct(r.coverage80)} | ` +
   `${r.pinball1090Days} | ${pct(r.rhythmCoverage)} of ${pct(r.rhythmRangeShare)} | ${pct(r.rhythmBeforeCutoff)} |`;
 console.log(
   `Training fleet seed ${trainSeed} (${trainUnits.toLocaleString('en')} units, ${result.caseBaseCases.toLocaleString('en')} cases, ` +
@@ -59,7 +59,7 @@ console.log(line(result.all));
 console.log(line(result.withoutNaive));
 console.log('');
 const a = result.all;
-const ratio = a.forecastMaeDays / a.naiveMaeDays;
+const ratio = a.forecastMaeDays / (a.naiveMaeDays ?? Number.NaN);
 const inRange = result.bySituation
   .filter((r) => r.cases >= 500)
   .every((r) => r.coverage80 >= 0.75 && r.coverage80 <= 0.85);

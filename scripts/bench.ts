@@ -960,7 +960,7 @@ if (backtest) {
     `Next top-up forecast (DOMAIN.md §7b, \`npm run backtest -- --seed ${backtest.testSeed} --train-seed ${backtest.trainSeed} --units ${backtest.testUnits}\`): ` +
       `case base learned from ${backtest.caseBaseCases.toLocaleString('en')} cut-offs of a ${backtest.trainUnits.toLocaleString('en')}-unit fleet of seed ${backtest.trainSeed} ` +
       `(${(backtest.caseBaseMs / 1000).toFixed(1)} s), tested on ${backtest.cases.toLocaleString('en')} cut-offs of the benchmark fleet (seed ${backtest.testSeed}), ` +
-      `K = ${backtest.k}: MAE **${a.forecastMaeDays} days** = ${(a.forecastMaeDays / a.naiveMaeDays).toFixed(2)} × naive ` +
+      `K = ${backtest.k}: MAE **${a.forecastMaeDays} days** = ${(a.forecastMaeDays / (a.naiveMaeDays ?? Number.NaN)).toFixed(2)} × naive ` +
       `("the last interval repeats", ${a.naiveMaeDays} days; target ≤ 0.55), the rhythm alone ${a.rhythmMaeDays} days; the 80 % range held ` +
       `**${(a.coverage80 * 100).toFixed(1)} %** (target 75–85 %), pinball loss of its ends ${a.pinball1090Days} days; ${a.forecastBeforeCutoff} dates before the cut-off.`,
   );

@@ -108,6 +108,7 @@ type Tally = {
   rPinball: number;
   rBefore: number;
   nAbs: number;
+  nCount: number;
   fBefore: number;
   closer: number;
 };
@@ -123,6 +124,7 @@ const tally = (): Tally => ({
   rPinball: 0,
   rBefore: 0,
   nAbs: 0,
+  nCount: 0,
   fBefore: 0,
   closer: 0,
 });
@@ -137,7 +139,8 @@ export type BacktestRow = {
   forecastMaeDays: number;
   forecastBiasDays: number;
   rhythmMaeDays: number;
-  naiveMaeDays: number;
+  /** null where no case has two top-ups before it (the naive forecast needs them). */
+  naiveMaeDays: number | null;
   /** Share of cases whose 80 % range held the next top-up. */
   coverage80: number;
   pinball1090Days: number;
@@ -186,7 +189,7 @@ function row(situation: BacktestRow['situation'], title: string, t: Tally): Back
     forecastMaeDays: r1(t.fAbs / n),
     forecastBiasDays: r1(t.fSigned / n),
     rhythmMaeDays: r1(t.rAbs / n),
-    naiveMaeDays: r1(t.nAbs / n),
+    naiveMaeDays: t.nCount ? r1(t.nAbs / t.nCount) : null,
     coverage80: r3(t.covered / n),
     pinball1090Days: r1(t.pinball / n),
     rhythmRangeShare: r3(t.rRanged / n),
@@ -262,6 +265,7 @@ export function backtestForecast(opts: {
         if (naive !== null) {
           const ne = Math.abs(naive - actual);
           t.nAbs += ne;
+          t.nCount++;
           const fe = Math.abs(mid - y);
           t.closer += fe < ne ? 1 : fe === ne ? 0.5 : 0;
         }
