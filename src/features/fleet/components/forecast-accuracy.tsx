@@ -1,31 +1,14 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { useEffect } from 'react';
 import { FORECAST_SITUATION_LABELS, MIN_JUDGED_FOR_COVERAGE } from '../../../../shared/domain';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
-import type { JobDto } from '../../../../shared/schemas/settings-api';
 import { Button } from '../../../components/ui/button';
-import { apiClient } from '../../../lib/api-client';
-import { fleetKeys } from '../api/keys';
+import { useRefreshJob } from '../api/refresh-job';
 
 const num = (v: number | null, unit: string) =>
   v === null ? '—' : `${v.toLocaleString('en-GB', { maximumFractionDigits: 1 })}${unit}`;
 
 /** The case base is learned by a background job; this asks for a fresh one and reloads when it is done. */
 function RefreshForecast({ builtAt }: { builtAt: string | null }) {
-  const queryClient = useQueryClient();
-  const refresh = useMutation({
-    mutationFn: async () => {
-      let { job } = await apiClient.post<{ job: JobDto }>('/api/fleet/forecast/refresh');
-      for (let i = 0; i < 600 && job.status === 'running'; i++) {
-        await new Promise((r) => setTimeout(r, 1000));
-        job = (await apiClient.get<{ job: JobDto }>(`/api/jobs/${job.id}`)).job;
-      }
-      return job;
-    },
-  });
-  useEffect(() => {
-    if (refresh.isSuccess) void queryClient.invalidateQueries({ queryKey: [...fleetKeys.all, 'overview'] });
-  }, [refresh.isSuccess, queryClient]);
+  const refresh = useRefreshJob('/api/fleet/forecast/refresh', 600);
   return (
     <div className="mt-3 flex flex-wrap items-center gap-3 text-sm text-ink-600">
       {builtAt && <span>Learned {new Date(builtAt).toLocaleString('en-GB')}; again every night.</span>}
