@@ -14,6 +14,7 @@ import { chromium, type BrowserContext, type CDPSession, type Page } from 'playw
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../seed/demo-accounts';
 import { resolveDatabaseUrl } from './lib/database-url';
 import { PROJECT_ROOT } from './lib/mariadb';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from './lib/chromium';
 
 function arg(name: string): string | undefined {
   const i = process.argv.indexOf(`--${name}`);
@@ -32,17 +33,6 @@ export const SLOW_4G = {
   uploadThroughput: (750 * 1024) / 8,
 };
 export const CPU_SLOWDOWN = 4;
-
-const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
 
 type Visit = { ms: number | null; bytes: number };
 type Run = { cold: Visit; warm: Visit; offline: Visit };
@@ -104,7 +94,7 @@ async function oneRun(units: { token: string }[], i: number): Promise<Run> {
   let context: BrowserContext | undefined;
   try {
     context = await chromium.launchPersistentContext(profile, {
-      executablePath: '/usr/bin/chromium',
+      executablePath: CHROMIUM_PATH,
       args: CHROMIUM_ARGS,
       viewport: { width: 390, height: 844 },
       deviceScaleFactor: 3,

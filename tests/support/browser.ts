@@ -3,17 +3,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { inject } from 'vitest';
+import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../scripts/lib/chromium';
 
-export const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
+export { CHROMIUM_ARGS };
 
 // Fixed once: os.tmpdir() follows TMPDIR, which is pointed here below. Short, because Chromium's socket path is limited.
 const BROWSER_TMP = path.join(os.tmpdir(), 'tightloop-e2e');
@@ -29,7 +21,7 @@ export async function openBrowser(opts: { viewport?: { width: number; height: nu
   const profile = mkdtempSync(path.join(tmp, 'profile-'));
   const launch = () =>
     chromium.launchPersistentContext(profile, {
-      executablePath: '/usr/bin/chromium',
+      executablePath: CHROMIUM_PATH,
       args: [...CHROMIUM_ARGS, ...(opts.extraArgs ?? [])],
       viewport: opts.viewport ?? PHONE,
       baseURL: inject('baseUrl'),
