@@ -1,6 +1,6 @@
 import { useId, useState, type ChangeEvent } from 'react';
 import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, type AttachmentDto } from '../../../../shared/schemas/history';
-import { cx } from '../../../components/ui/cx';
+import { PhotoPicker } from './photo-picker';
 import { Spinner } from '../../../components/ui/spinner';
 import { useUploadAttachments, type UploadProgress } from '../api/upload-attachments';
 import { downscalePhoto } from '../utils/downscale-photo';
@@ -88,27 +88,10 @@ export function AttachPhotos({
           <progress max={100} value={pct} className="h-2 w-24 accent-fjord-700" aria-label="Upload progress" />
         </div>
       ) : room > 0 ? (
-        <label
-          htmlFor={id}
-          className={cx(
-            'flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-dashed border-fjord-700 bg-white px-4',
-            'font-semibold text-fjord-700 hover:bg-fjord-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ink-950',
-          )}
-        >
+        <PhotoPicker id={id} label={label} testId={`attach-${eventId}`} onChange={(e) => void onChange(e)}>
           <CameraIcon />
           {done.length > 0 ? 'Add more photos' : 'Add photos'}
-          <span className="sr-only"> to the {label}</span>
-          <input
-            id={id}
-            type="file"
-            accept="image/*,application/pdf"
-            capture="environment"
-            multiple
-            className="sr-only"
-            onChange={(e) => void onChange(e)}
-            data-testid={`attach-${eventId}`}
-          />
-        </label>
+        </PhotoPicker>
       ) : (
         <p className="text-sm text-ink-600">{MAX_PHOTOS_PER_EVENT} files attached: that is the most an entry takes.</p>
       )}

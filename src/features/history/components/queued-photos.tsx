@@ -1,6 +1,6 @@
 import { useId, useState, type ChangeEvent } from 'react';
 import { MAX_PHOTOS_PER_EVENT, type RecordVisitInput } from '../../../../shared/schemas/history';
-import { cx } from '../../../components/ui/cx';
+import { PhotoPicker } from './photo-picker';
 import { addQueuedPhotos, useVisitQueue } from '../api/visit-queue';
 import { downscalePhoto } from '../utils/downscale-photo';
 import { entryKindLabel } from '../utils/labels';
@@ -68,26 +68,9 @@ function QueuedPhotoInput(props: {
   return (
     <div className="flex flex-col gap-2">
       {room > 0 && (
-        <label
-          htmlFor={id}
-          className={cx(
-            'flex min-h-touch cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-dashed border-fjord-700 bg-white px-4',
-            'font-semibold text-fjord-700 hover:bg-fjord-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ink-950',
-          )}
-        >
+        <PhotoPicker id={id} label={props.label} testId={`queued-attach-${props.index}`} onChange={(e) => void onChange(e)}>
           {busy ? 'Keeping the photo…' : props.kept > 0 ? 'Add more photos' : 'Add photos'}
-          <span className="sr-only"> to the {props.label}</span>
-          <input
-            id={id}
-            type="file"
-            accept="image/*,application/pdf"
-            capture="environment"
-            multiple
-            className="sr-only"
-            onChange={(e) => void onChange(e)}
-            data-testid={`queued-attach-${props.index}`}
-          />
-        </label>
+        </PhotoPicker>
       )}
       {props.kept > 0 && (
         <p className="text-sm font-semibold text-okay-700" role="status">
