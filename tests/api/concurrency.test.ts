@@ -14,6 +14,7 @@ import { createDb } from '../../server/db/client';
 import { events, fleetMonthly, units, unitStats, unitStatsDetail, visitMadeUp, visits } from '../../server/db/schema';
 import { engineUnit, loadEngineHistory, statsRowsFrom } from '../../server/features/history/stats.service';
 import { getSettings } from '../../server/features/settings/settings.service';
+import { waitForJobs } from '../../server/features/jobs/jobs.service';
 import { computeUnitStats, groupVisits, type UnitEvent } from '../../shared/domain';
 import type { Role } from '../../shared/permissions';
 import { resetDb } from '../support/db';
@@ -188,7 +189,7 @@ describe('writers side by side', () => {
     expect(await monthlyMismatches()).toEqual([]);
   });
 
-  it('keeps every figure, void and monthly total right under 16 mixed writers for 10 seconds', async () => {
+  it('keeps every figure, void and monthly total right under 16 mixed writers and two settings changes for 10 seconds', async () => {
     const unitList = await Promise.all(
       [0, 1, 2, 3, 4, 5].map(() => createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2020-01-01', refrigerant: 'R-134a' })),
     );
@@ -196,10 +197,24 @@ describe('writers side by side', () => {
     const writers = await Promise.all(Array.from({ length: 16 }, (_, i) => writer(roles[i % 2])));
     // Entries recorded so far, newest last: voids pick among the latest few, so several writers strike the same one.
     const recent: { id: number; by: string }[] = [];
+    const admin = await writer('admin');
     const t = tally();
     const until = Date.now() + 10_000;
-    await Promise.all(
-      writers.map(async ({ agent, userId }, w) => {
+    // An administrator changes the PTI validity twice meanwhile: each save recomputes every unit in a background job.
+    const settingsChanges = (async () => {
+      for (const days of [60, 120]) {
+        await new Promise((r) => setTimeout(r, 3_000));
+        const current = await admin.agent.get('/api/settings');
+        const res = await admin.agent
+          .put('/api/settings')
+          .set('Origin', TEST_ORIGIN)
+          .send({ settings: { ...current.body.settings, ptiValidityDays: days }, baseVersion: current.body.version || null });
+        count(t, 'settings', res);
+      }
+    })();
+    await Promise.all([
+      settingsChanges,
+      ...writers.map(async ({ agent, userId }, w) => {
         const engineer = w % 2 === 1;
         while (Date.now() < until) {
           const roll = Math.random();
@@ -235,7 +250,9 @@ describe('writers side by side', () => {
           }
         }
       }),
-    );
+    ]);
+    // The settings recompute runs through the same write path in the background: let it finish before comparing.
+    await waitForJobs();
     const stale = await staleUnits(unitList.map((u) => u.id));
     const monthly = await monthlyMismatches();
     const duplicates = await duplicateVoids();
@@ -244,6 +261,7 @@ describe('writers side by side', () => {
     expect(t.total).toBeGreaterThan(100);
     // Only refusals a person can act on: a second void of the same entry (409).
     for (const status of t.byStatus.keys()) expect([200, 201, 409]).toContain(status);
+    expect((await getSettings(db)).ptiValidityDays).toBe(120);
     expect(stale).toEqual([]);
     expect(monthly).toEqual([]);
     expect(duplicates).toBe(0);
