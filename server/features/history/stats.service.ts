@@ -181,28 +181,19 @@ export async function lockUnitForHistory(tx: DbOrTx, unitId: number) {
 }
 
 /**
- * Recomputes and stores the unit's statistics; returns the row before and after (for alerts). `known` passes the unit
- * and its previous row when the caller has just read them (lockUnitForHistory), saving two reads. `caseBase` is the
- * fleet's forecast case base (DOMAIN.md §7b), read by the caller outside the transaction.
+ * Recomputes and stores the statistics of a unit the caller has locked (the unit write path), from its history.
+ * `caseBase` is the fleet's forecast case base (DOMAIN.md §7b), read by the caller outside the transaction.
  */
 export async function recomputeUnitStats(
   tx: DbOrTx,
-  unitId: number,
+  unit: StatsUnit,
   asOf: Date,
   settings: Settings,
-  known?: { unit: StatsUnit; before: UnitStatsRow | null },
   caseBase: ForecastCaseBase | null = null,
-): Promise<{ before: UnitStatsRow | null; after: UnitStatsRow; detail: UnitStatsDetailRow }> {
-  let unit = known?.unit;
-  let before = known?.before ?? null;
-  if (!known) {
-    [unit] = await tx.select().from(units).where(eq(units.id, unitId));
-    [before = null] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unitId));
-  }
-  const history = await loadEngineHistory(tx, unitId);
-  const rows = computeStatsRows(unit!, unitId, history, asOf, settings, caseBase);
+): Promise<UnitStatsRows> {
+  const rows = computeStatsRows(unit, unit.id, await loadEngineHistory(tx, unit.id), asOf, settings, caseBase);
   await storeStatsRows(tx, [rows]);
-  return { before, after: rows.stats, detail: rows.detail };
+  return rows;
 }
 
 /** The rows a unit's figures are stored in, from its counted history; the reason in words when the engine refuses it. */

@@ -2,7 +2,7 @@
 // registration and the settings recompute all go through writeUnit. One transaction per attempt:
 //   1. lock the unit row (SELECT … FOR UPDATE) before any other read, so writers of one unit queue here;
 //   2. the caller's change (events, voids, unit fields), reading the history after the lock;
-//   3. what every write sets off, always in this order (UNIT_WRITE_EFFECTS): statistics, monthly made-up totals,
+//   3. what every write sets off, always in this order (writeEffects): statistics, monthly made-up totals,
 //      alerts; and after the commit, this process's cache versions.
 // Derived rows are upserts keyed by the locked unit or its visits, never locks on rows that may not exist. READ
 // COMMITTED: each read after the lock sees what the writers before it committed, and inserts take no gap locks.
@@ -36,9 +36,6 @@ export type UnitChange<T> = {
 
 export type UnitWriteResult<T> = { result: T; before: UnitStatsRow | null } & UnitStatsRows;
 
-/** Names the effects in the order they run; the order is part of the locking contract (see the header). */
-export const UNIT_WRITE_EFFECTS = ['statistics', 'monthly totals', 'alerts', 'cache versions (after commit)'] as const;
-
 export const WRITE_ISOLATION = { isolationLevel: 'read committed' } as const;
 
 /**
@@ -69,7 +66,7 @@ export async function writeUnit<T>(
   return rest;
 }
 
-/** Step 3 of the path for a unit already locked (or just inserted) in `tx`: UNIT_WRITE_EFFECTS, in order. */
+/** Step 3 of the path for a unit already locked (or just inserted) in `tx`: statistics, monthly totals, alerts. */
 export async function writeEffects(
   tx: Tx,
   ctx: Pick<WriteContext, 'publicUrl' | 'clock'>,
@@ -80,7 +77,7 @@ export async function writeEffects(
   movedVisitIds: readonly number[],
   caseBase: ForecastCaseBase | null = null,
 ) {
-  const { after, detail } = await recomputeUnitStats(tx, unit.id, now, settings, { unit, before }, caseBase);
+  const { stats: after, detail } = await recomputeUnitStats(tx, unit, now, settings, caseBase);
   if (movedVisitIds.length) await applyToFleetMonthly(tx, movedVisitIds);
   await queueAlertsForStatsChange(tx, ctx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
   return { before, stats: after, detail };
@@ -92,7 +89,7 @@ const REGISTER_CHUNK = 500;
 /**
  * Units just inserted in `tx` (the insert holds their rows): their first figures and a change record each, in the
  * same transaction, so a registered unit is never without figures. A unit with no history moves no refrigerant and
- * crosses no alert threshold, so of UNIT_WRITE_EFFECTS only the statistics apply.
+ * crosses no alert threshold, so of writeEffects only the statistics apply.
  */
 export async function registerNewUnits(tx: Tx, actorId: string, unitIds: readonly number[], now: Date, how: string): Promise<void> {
   const settings = await getSettings(tx);
