@@ -6,6 +6,7 @@ import type { DbOrTx } from '../../db/client';
 import { events, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { computeUnitStats, type ForecastCaseBase } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
+import { dayWords, EARLIEST_RECORD_DAY } from '../../../shared/schemas/common';
 import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/history';
 
 type EngineEvent = Parameters<typeof computeUnitStats>[1][number];
@@ -210,8 +211,12 @@ export function computeStatsRows(
     return statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, iso(asOf), settings, caseBase), asOf, last);
   } catch (err) {
     // The engine is pure: a throw means this record breaks one of its rules (a date it cannot place, a charge of 0).
-    // The unit keeps a row that says so, and every fleet-wide read goes on.
-    return uncomputableRows(unitId, asOf, last, history.length, err);
+    // The unit keeps a row that says so, and every fleet-wide read goes on. A commissioning date outside the date rule
+    // (an old row) is said in the rule's words rather than the engine's.
+    const day = unit.commissionedOn?.slice(0, 10);
+    const outside = day && (day < EARLIEST_RECORD_DAY || day > iso(asOf).slice(0, 10));
+    const reason = outside ? new Error(`the commissioning date (${dayWords(day)}) is outside ${dayWords(EARLIEST_RECORD_DAY)} to today.`) : err;
+    return uncomputableRows(unitId, asOf, last, history.length, reason);
   }
 }
 
