@@ -18,7 +18,14 @@ function prng(seed: number): () => number {
 
 const DAY_MS = 86_400_000;
 const START_MS = Date.UTC(2000, 0, 1);
-const LOCATIONS = ['service_valve', 'brazed_joint', 'condenser_coil', 'evaporator_coil', 'filter_drier', 'sight_glass'] as const;
+const LOCATIONS = [
+  'service_valve',
+  'brazed_joint',
+  'condenser_coil',
+  'evaporator_coil',
+  'filter_drier',
+  'sight_glass',
+] as const;
 const ACTIONS = ['rebrazed', 'valve_core_replaced', 'component_replaced', 'tightened', 'coil_replaced'] as const;
 const SIGHT = ['full', 'full', 'full', 'bubbles', 'not_checked'] as const;
 
@@ -51,14 +58,28 @@ function syntheticHistory(count: number, seed: number): { events: UnitEvent[]; a
     let leak = false;
     if (rnd() < 0.35) {
       leak = rnd() < 0.3;
-      bundle.push({ kind: 'leak_check', at: at(), visitId, leakFound: leak, location: leak ? pick(LOCATIONS) : undefined });
+      bundle.push({
+        kind: 'leak_check',
+        at: at(),
+        visitId,
+        leakFound: leak,
+        location: leak ? pick(LOCATIONS) : undefined,
+      });
     }
     if (rnd() < 0.3) bundle.push({ kind: 'top_up', at: at(), visitId, kg: Math.round((0.2 + rnd()) * 1000) / 1000 });
     if (rnd() < 0.02) {
       bundle.push({ kind: 'recovery', at: at(), visitId, kg: 3 + rnd() });
       bundle.push({ kind: 'recharge', at: at(), visitId, kg: 5 });
     }
-    if (leak && rnd() < 0.25) bundle.push({ kind: 'repair', at: at(), visitId, location: pick(LOCATIONS), action: pick(ACTIONS), verified: rnd() < 0.7 });
+    if (leak && rnd() < 0.25)
+      bundle.push({
+        kind: 'repair',
+        at: at(),
+        visitId,
+        location: pick(LOCATIONS),
+        action: pick(ACTIONS),
+        verified: rnd() < 0.7,
+      });
     for (const e of bundle) if (events.length < count) events.push(e);
   }
   return { events, asOf: events[events.length - 1].at.slice(0, 10) };
@@ -71,7 +92,11 @@ function percentile(sorted: readonly number[], p: number): number {
 const unit = { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: '2000-01-01' };
 let sink = 0;
 
-function time(events: UnitEvent[], asOf: string, runs: number): { min: number; median: number; p95: number; cpu: number } {
+function time(
+  events: UnitEvent[],
+  asOf: string,
+  runs: number,
+): { min: number; median: number; p95: number; cpu: number } {
   for (let i = 0; i < Math.max(20, runs / 5); i++) sink += computeUnitStats(unit, events, asOf).score.value; // warm-up
   const samples: number[] = [];
   const cpu0 = process.cpuUsage();
@@ -83,7 +108,12 @@ function time(events: UnitEvent[], asOf: string, runs: number): { min: number; m
   const cpu = process.cpuUsage(cpu0);
   samples.sort((a, b) => a - b);
   // CPU time of the process (all threads, so GC helpers count too), per call.
-  return { min: samples[0], median: percentile(samples, 0.5), p95: percentile(samples, 0.95), cpu: (cpu.user + cpu.system) / 1000 / runs };
+  return {
+    min: samples[0],
+    median: percentile(samples, 0.5),
+    p95: percentile(samples, 0.95),
+    cpu: (cpu.user + cpu.system) / 1000 / runs,
+  };
 }
 
 /** Fisher–Yates with the seeded PRNG: the same "do not trust order" input every run. */
@@ -99,7 +129,15 @@ function shuffled<T>(xs: readonly T[], seed: number): T[] {
 
 const sizes = [100, 1_000, 10_000];
 const runsFor: Record<number, number> = { 100: 5_000, 1_000: 1_000, 10_000: 200 };
-const rows: { events: number; order: string; min: number; median: number; p95: number; cpu: number; usPerEvent: number }[] = [];
+const rows: {
+  events: number;
+  order: string;
+  min: number;
+  median: number;
+  p95: number;
+  cpu: number;
+  usPerEvent: number;
+}[] = [];
 for (const n of sizes) {
   const { events, asOf } = syntheticHistory(n, 42 + n);
   for (const [order, input] of [
@@ -113,7 +151,9 @@ for (const n of sizes) {
 
 const fmt = (x: number, d = 3) => x.toFixed(d).padStart(9);
 const load = loadavg()[0];
-console.log(`computeUnitStats — wall-clock per call after warm-up (${cpus().length} CPUs, load average ${load.toFixed(1)})`);
+console.log(
+  `computeUnitStats — wall-clock per call after warm-up (${cpus().length} CPUs, load average ${load.toFixed(1)})`,
+);
 console.log('   events  input order      min ms   median ms    p95 ms  CPU ms/call   µs/event  per-event ratio vs 100');
 for (const r of rows) {
   const base = rows.find((b) => b.events === 100 && b.order === r.order);
@@ -123,8 +163,11 @@ for (const r of rows) {
   );
 }
 const big = rows.find((r) => r.events === 10_000 && r.order === 'time order');
-console.log(`target ≤ 5 ms for 10,000 events: ${big && big.median <= 5 ? 'met' : 'NOT met'} (median ${big?.median.toFixed(3)} ms)`);
-if (load > cpus().length) console.log('note: the machine is busier than its CPU count; wall-clock figures are inflated.');
+console.log(
+  `target ≤ 5 ms for 10,000 events: ${big && big.median <= 5 ? 'met' : 'NOT met'} (median ${big?.median.toFixed(3)} ms)`,
+);
+if (load > cpus().length)
+  console.log('note: the machine is busier than its CPU count; wall-clock figures are inflated.');
 
 // Forecast accuracy on a synthetic fleet: each unit leaks at its own rate; the technician tops up when the loss
 // is noticed (somewhere between 10 % and 30 % of the charge) and adds back what was lost.
@@ -166,5 +209,7 @@ function forecastAccuracy(units: number, seed: number): { engine: number; naive:
 const acc = forecastAccuracy(2_000, 2024);
 console.log('');
 console.log(`next top-up forecast, synthetic fleet of 2,000 units (${acc.cases} forecasts):`);
-console.log(`  mean absolute error  engine ${acc.engine.toFixed(1)} days   naive "last interval repeats" ${acc.naive.toFixed(1)} days`);
+console.log(
+  `  mean absolute error  engine ${acc.engine.toFixed(1)} days   naive "last interval repeats" ${acc.naive.toFixed(1)} days`,
+);
 if (sink === Number.MIN_VALUE) console.log(''); // keeps the results alive

@@ -16,7 +16,11 @@ await pool.end();
 const mailbox = await startDevMailbox(databaseUrl);
 
 const bin = (name: string) => path.join(PROJECT_ROOT, 'node_modules', '.bin', name);
-const env = { ...process.env, DATABASE_URL: databaseUrl, PUBLIC_URL: process.env.PUBLIC_URL ?? 'http://localhost:5173' };
+const env = {
+  ...process.env,
+  DATABASE_URL: databaseUrl,
+  PUBLIC_URL: process.env.PUBLIC_URL ?? 'http://localhost:5173',
+};
 const children = [
   spawn(bin('tsx'), ['watch', 'server/index.ts'], { cwd: PROJECT_ROOT, env, stdio: 'inherit' }),
   spawn(bin('vite'), [], { cwd: PROJECT_ROOT, env, stdio: 'inherit' }),
@@ -25,6 +29,9 @@ const stop = () => {
   children.forEach((c) => c.kill('SIGTERM'));
   void mailbox?.stop();
 };
-if (mailbox) console.log(`Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${env.PUBLIC_URL}${MAILBOX_PAGE} as the administrator.`);
+if (mailbox)
+  console.log(
+    `Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${env.PUBLIC_URL}${MAILBOX_PAGE} as the administrator.`,
+  );
 process.on('SIGINT', stop);
 process.on('SIGTERM', stop);

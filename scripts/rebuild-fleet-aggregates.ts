@@ -14,7 +14,12 @@ const t0 = Date.now();
 await rebuildFleetMonthly(db, { onProgress: (v) => process.stdout.write(`\rvisits up to ${v}`) });
 console.log(`\nfleet_monthly rebuilt in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
 const t1 = Date.now();
-await startRepairEffectiveness({ db, clock: systemClock, logger: createLogger('warn'), publicUrl: publicUrl(readEnv()) });
+await startRepairEffectiveness({
+  db,
+  clock: systemClock,
+  logger: createLogger('warn'),
+  publicUrl: publicUrl(readEnv()),
+});
 await waitForJobs();
 console.log(`repair effectiveness rebuilt in ${((Date.now() - t1) / 1000).toFixed(1)} s`);
 await pool.end();

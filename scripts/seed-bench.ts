@@ -14,7 +14,6 @@ import { FleetWriter, fleetRows, writeSitesAndPeople, type Exec } from '../seed/
 import { ensureProjectDatabase } from './lib/mariadb';
 import { BENCH_DATABASE, BENCH_SEED_INFO } from './lib/bench-paths';
 
-
 function arg(name: string, fallback: string): string {
   const i = process.argv.indexOf(`--${name}`);
   return i >= 0 && process.argv[i + 1] ? process.argv[i + 1] : fallback;
@@ -85,7 +84,9 @@ if (deferIndexes) {
 
 // --- the load ------------------------------------------------------------------------------------------------
 const conns = await Promise.all(
-  Array.from({ length: connectionCount }, () => mysql.createConnection({ uri: url, timezone: 'Z', multipleStatements: false })),
+  Array.from({ length: connectionCount }, () =>
+    mysql.createConnection({ uri: url, timezone: 'Z', multipleStatements: false }),
+  ),
 );
 for (const c of conns) {
   // Our own freshly generated rows: keys are unique and references resolve by construction.
@@ -134,7 +135,9 @@ for (let from = 0; from < total; from += batchUnits) {
 await writer.flush();
 progress(total, true);
 const loadSeconds = secs() - loadStart;
-log(`Loaded ${writer.counts.units.toLocaleString('en')} units, ${writer.counts.visits.toLocaleString('en')} visits, ${writer.counts.events.toLocaleString('en')} events (simulation and statistics ${computeSeconds.toFixed(0)} s of it).`);
+log(
+  `Loaded ${writer.counts.units.toLocaleString('en')} units, ${writer.counts.visits.toLocaleString('en')} visits, ${writer.counts.events.toLocaleString('en')} events (simulation and statistics ${computeSeconds.toFixed(0)} s of it).`,
+);
 for (const c of conns) await c.end();
 
 let indexSeconds = 0;
@@ -143,7 +146,9 @@ if (deferred.length) {
   const byTable = new Map<string, IndexDef[]>();
   for (const d of deferred) byTable.set(d.table, [...(byTable.get(d.table) ?? []), d]);
   for (const [table, list] of byTable) {
-    await admin.query(`ALTER TABLE \`${table}\` ${list.map((d) => `ADD INDEX \`${d.name}\` (${d.columns.map((c) => `\`${c}\``).join(', ')})`).join(', ')}`);
+    await admin.query(
+      `ALTER TABLE \`${table}\` ${list.map((d) => `ADD INDEX \`${d.name}\` (${d.columns.map((c) => `\`${c}\``).join(', ')})`).join(', ')}`,
+    );
   }
   indexSeconds = secs() - i0;
   log(`Built the deferred indexes in ${indexSeconds.toFixed(0)} s.`);
@@ -159,7 +164,9 @@ await admin.query(
   'ANALYZE TABLE events PERSISTENT FOR COLUMNS (voids_event_id, cylinder, visit_id, recorded_by, unit_id, site_id, kind) ' +
     'INDEXES (events_voids_unique, events_cylinder_idx, events_visit_idx, events_recorded_by_users_id_fk, events_unit_time_idx, events_site_time_idx, events_kind_time_idx)',
 );
-await admin.query('ANALYZE TABLE unit_stats PERSISTENT FOR COLUMNS (forecast_date, next_leak_check_due, pti_valid_until) INDEXES ()');
+await admin.query(
+  'ANALYZE TABLE unit_stats PERSISTENT FOR COLUMNS (forecast_date, next_leak_check_due, pti_valid_until) INDEXES ()',
+);
 log(`Collected statistics in ${(secs() - a0).toFixed(0)} s.`);
 await admin.end();
 

@@ -25,7 +25,10 @@ buildClientIfStale(step);
 const mailbox = await startDevMailbox(databaseUrl);
 const { url } = await startServer({ databaseUrl });
 step(`Tightloop is running at ${url}`);
-if (mailbox) console.log(`Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${url}${MAILBOX_PAGE} as the administrator.`);
+if (mailbox)
+  console.log(
+    `Mail goes to a local fake SMTP server (port ${mailbox.port}); read it at ${url}${MAILBOX_PAGE} as the administrator.`,
+  );
 console.log(`\nDemo sign-ins (${DEMO_COMPANY}, invented), password "${DEMO_PASSWORD}":`);
 for (const a of DEMO_ACCOUNTS) console.log(`  ${ROLE_LABELS[a.role].padEnd(16)} ${a.email}`);
 console.log('\nStop the server with Ctrl+C; stop the database with `npm run db:stop`.');

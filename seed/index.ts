@@ -49,7 +49,10 @@ export type SeedSummary = {
 
 /** The demo's story units, with their container numbers for this seed. */
 export function storyUnits(fleet: Pick<Fleet, 'ctx' | 'units'>) {
-  return STORY_UNITS.filter((s) => s.index < fleet.units).map((s) => ({ containerNumber: containerNumberFor(fleet.ctx.seed, s.index), title: s.title }));
+  return STORY_UNITS.filter((s) => s.index < fleet.units).map((s) => ({
+    containerNumber: containerNumberFor(fleet.ctx.seed, s.index),
+    title: s.title,
+  }));
 }
 
 /**
@@ -92,7 +95,12 @@ export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<Seed
     conn.release();
   }
   // The repair-effectiveness table is a cache the server rebuilds in the background; build it now with the same job.
-  await startRepairEffectiveness({ db, clock: { now: () => now }, logger: createLogger('silent'), publicUrl: publicUrl(readEnv()) });
+  await startRepairEffectiveness({
+    db,
+    clock: { now: () => now },
+    logger: createLogger('silent'),
+    publicUrl: publicUrl(readEnv()),
+  });
   await waitForJobs();
   const summary: SeedSummary = {
     units: writer.counts.units,

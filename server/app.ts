@@ -64,7 +64,22 @@ export type AppDeps = {
 export const JSON_BODY_LIMIT = '256kb';
 
 export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [...healthRoutes(ctx), ...authRoutes(ctx), ...accountRoutes(ctx), ...usersRoutes(ctx), ...historyRoutes(ctx), ...mailRoutes(ctx), ...unitsRoutes(ctx), ...sitesRoutes(ctx), ...labelsRoutes(ctx), ...unitImportsRoutes(ctx), ...fleetRoutes(ctx), ...refrigerantLogRoutes(ctx), ...decisionsRoutes(ctx), ...settingsRoutes(ctx)];
+  return [
+    ...healthRoutes(ctx),
+    ...authRoutes(ctx),
+    ...accountRoutes(ctx),
+    ...usersRoutes(ctx),
+    ...historyRoutes(ctx),
+    ...mailRoutes(ctx),
+    ...unitsRoutes(ctx),
+    ...sitesRoutes(ctx),
+    ...labelsRoutes(ctx),
+    ...unitImportsRoutes(ctx),
+    ...fleetRoutes(ctx),
+    ...refrigerantLogRoutes(ctx),
+    ...decisionsRoutes(ctx),
+    ...settingsRoutes(ctx),
+  ];
 }
 
 export function createApp(deps: AppDeps) {

@@ -13,12 +13,23 @@ const envSchema = z.object({
     .string()
     .trim()
     .default('')
-    .refine((v) => !/^(true|all|\*)$/i.test(v), { message: 'Name the proxies (addresses, subnets or a hop count); trusting every sender makes X-Forwarded-For spoofable' })
+    .refine((v) => !/^(true|all|\*)$/i.test(v), {
+      message:
+        'Name the proxies (addresses, subnets or a hop count); trusting every sender makes X-Forwarded-For spoofable',
+    })
     .transform(parseTrustProxy),
   // Session lifetimes (decision record 008): absolute, idle for office roles, idle for technicians' phones.
   SESSION_ABSOLUTE_DAYS: z.coerce.number().positive().max(365).default(30),
-  SESSION_IDLE_HOURS: z.coerce.number().positive().max(24 * 365).default(12),
-  SESSION_IDLE_HOURS_TECHNICIAN: z.coerce.number().positive().max(24 * 365).default(72),
+  SESSION_IDLE_HOURS: z.coerce
+    .number()
+    .positive()
+    .max(24 * 365)
+    .default(12),
+  SESSION_IDLE_HOURS_TECHNICIAN: z.coerce
+    .number()
+    .positive()
+    .max(24 * 365)
+    .default(72),
   DATABASE_URL: z.string().optional(),
   PUBLIC_URL: z.string().url().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),

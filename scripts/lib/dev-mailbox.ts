@@ -13,7 +13,11 @@ export async function startDevMailbox(databaseUrl: string): Promise<{ port: numb
   if (!mailGoesToFakeSmtp(env)) return null;
   const { db, pool } = createDb(databaseUrl, { connectionLimit: 2 });
   try {
-    const smtp = await startFakeSmtp({ port: env.SMTP_PORT, host: '127.0.0.1', onMessage: (m) => storeReceivedMail(db, m) });
+    const smtp = await startFakeSmtp({
+      port: env.SMTP_PORT,
+      host: '127.0.0.1',
+      onMessage: (m) => storeReceivedMail(db, m),
+    });
     return {
       port: smtp.port,
       async stop() {

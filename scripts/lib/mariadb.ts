@@ -123,9 +123,13 @@ export async function startMariaDb(opts: StartOptions): Promise<LocalMariaDb> {
 
 /** Runs SQL as the database superuser over the unix socket (socket authentication, no password). */
 export function rootSql(socket: string, sql: string): string {
-  return execFileSync('mariadb', ['--no-defaults', `--socket=${socket}`, '-u', isRoot() ? 'root' : osUser(), '-N', '-e', sql], {
-    encoding: 'utf8',
-  });
+  return execFileSync(
+    'mariadb',
+    ['--no-defaults', `--socket=${socket}`, '-u', isRoot() ? 'root' : osUser(), '-N', '-e', sql],
+    {
+      encoding: 'utf8',
+    },
+  );
 }
 
 export function createDatabaseAndUser(db: LocalMariaDb, database: string, user: string, password: string): string {

@@ -12,7 +12,12 @@ declare module 'autocannon' {
     interface Request extends RawRequest {
       /** Returns the request to send (autocannon starts again from the first request on a falsy value). */
       setupRequest?: (req: RawRequest, context: Record<string, unknown>) => RawRequest | null | undefined;
-      onResponse?: (status: number, body: string, context: Record<string, unknown>, headers: Record<string, string>) => void;
+      onResponse?: (
+        status: number,
+        body: string,
+        context: Record<string, unknown>,
+        headers: Record<string, string>,
+      ) => void;
     }
     interface Options {
       url: string;

@@ -83,16 +83,40 @@ export function fleetSites(unitCount: number): SiteSpec[] {
   const workshops = clamp(unitCount / 250, 1, 4);
   const out: SiteSpec[] = [];
   for (const p of DEPOT_PLACES.slice(0, depots)) {
-    out.push({ code: `${code3(p.name)}D`, name: `${p.name} Depot`, kind: 'depot', country: p.country, climate: climateOf(p) });
+    out.push({
+      code: `${code3(p.name)}D`,
+      name: `${p.name} Depot`,
+      kind: 'depot',
+      country: p.country,
+      climate: climateOf(p),
+    });
   }
   for (const p of TERMINAL_PLACES.slice(0, terminals)) {
-    out.push({ code: `${code3(p.name)}T`, name: `${p.name} Terminal`, kind: 'terminal', country: p.country, climate: climateOf(p) });
+    out.push({
+      code: `${code3(p.name)}T`,
+      name: `${p.name} Terminal`,
+      kind: 'terminal',
+      country: p.country,
+      climate: climateOf(p),
+    });
   }
   for (const v of VESSELS.slice(0, vessels)) {
-    out.push({ code: `V${code3(v)}`, name: v, kind: 'vessel', country: null, climate: { meanC: 22, swingC: 6, southern: false } });
+    out.push({
+      code: `V${code3(v)}`,
+      name: v,
+      kind: 'vessel',
+      country: null,
+      climate: { meanC: 22, swingC: 6, southern: false },
+    });
   }
   for (const p of DEPOT_PLACES.slice(0, workshops)) {
-    out.push({ code: `${code3(p.name)}W`, name: `Halyard Workshop ${p.name}`, kind: 'workshop', country: p.country, climate: climateOf(p) });
+    out.push({
+      code: `${code3(p.name)}W`,
+      name: `Halyard Workshop ${p.name}`,
+      kind: 'workshop',
+      country: p.country,
+      climate: climateOf(p),
+    });
   }
   return out;
 }
@@ -106,17 +130,96 @@ export const TECHNICIANS_PER_SITE: Record<SiteKind, number> = { depot: 3, termin
 export const EXTRA_ENGINEERS = 3;
 
 export const FIRST_NAMES = [
-  'Aurelio', 'Bettina', 'Casimir', 'Delphine', 'Emrys', 'Farida', 'Gideon', 'Halvard', 'Ilka', 'Jorun',
-  'Kasimir', 'Liesel', 'Matteo', 'Noor', 'Odile', 'Pavo', 'Quentin', 'Rasa', 'Soren', 'Talia',
-  'Ulric', 'Vesna', 'Wendel', 'Ximena', 'Yusuf', 'Zofia', 'Anouk', 'Bram', 'Cyra', 'Dario',
-  'Elif', 'Femi', 'Greta', 'Hugo', 'Ife', 'Jonas', 'Kaito', 'Lotte', 'Mads', 'Nadia',
-  'Oren', 'Pia', 'Rafael', 'Sanne', 'Tiago', 'Uma', 'Viggo', 'Wren',
+  'Aurelio',
+  'Bettina',
+  'Casimir',
+  'Delphine',
+  'Emrys',
+  'Farida',
+  'Gideon',
+  'Halvard',
+  'Ilka',
+  'Jorun',
+  'Kasimir',
+  'Liesel',
+  'Matteo',
+  'Noor',
+  'Odile',
+  'Pavo',
+  'Quentin',
+  'Rasa',
+  'Soren',
+  'Talia',
+  'Ulric',
+  'Vesna',
+  'Wendel',
+  'Ximena',
+  'Yusuf',
+  'Zofia',
+  'Anouk',
+  'Bram',
+  'Cyra',
+  'Dario',
+  'Elif',
+  'Femi',
+  'Greta',
+  'Hugo',
+  'Ife',
+  'Jonas',
+  'Kaito',
+  'Lotte',
+  'Mads',
+  'Nadia',
+  'Oren',
+  'Pia',
+  'Rafael',
+  'Sanne',
+  'Tiago',
+  'Uma',
+  'Viggo',
+  'Wren',
 ];
 export const LAST_NAMES = [
-  'Ashgrove', 'Brannock', 'Corliss', 'Dunmore', 'Eskdale', 'Farrand', 'Galloway', 'Harwick', 'Ivesdale', 'Jessop',
-  'Kellan', 'Lowrie', 'Maddox', 'Nettleford', 'Oakhurst', 'Penrose', 'Quarles', 'Rendall', 'Starling', 'Thorne',
-  'Upjohn', 'Varga', 'Wetherell', 'Yarrow', 'Zeller', 'Abernethy', 'Brisco', 'Calder', 'Delacroix', 'Ellery',
-  'Fairlie', 'Grieve', 'Hollis', 'Ingram', 'Jardine', 'Kinnear', 'Lindell', 'Marchetti', 'Norwood', 'Orcutt',
+  'Ashgrove',
+  'Brannock',
+  'Corliss',
+  'Dunmore',
+  'Eskdale',
+  'Farrand',
+  'Galloway',
+  'Harwick',
+  'Ivesdale',
+  'Jessop',
+  'Kellan',
+  'Lowrie',
+  'Maddox',
+  'Nettleford',
+  'Oakhurst',
+  'Penrose',
+  'Quarles',
+  'Rendall',
+  'Starling',
+  'Thorne',
+  'Upjohn',
+  'Varga',
+  'Wetherell',
+  'Yarrow',
+  'Zeller',
+  'Abernethy',
+  'Brisco',
+  'Calder',
+  'Delacroix',
+  'Ellery',
+  'Fairlie',
+  'Grieve',
+  'Hollis',
+  'Ingram',
+  'Jardine',
+  'Kinnear',
+  'Lindell',
+  'Marchetti',
+  'Norwood',
+  'Orcutt',
 ];
 
 // Invented machinery makers and models; `refrigerants` are what each model is built for.
@@ -131,9 +234,25 @@ export const MODELS: { maker: string; model: string; serialPrefix: string; refri
 
 /** Refrigerant mix by machinery age: older units R-134a and R-404A, newer ones the lower-GWP fluids. */
 export function refrigerantMix(ageYears: number): (readonly [RefrigerantCode, number])[] {
-  if (ageYears >= 9) return [['R-134a', 78], ['R-404A', 22]];
-  if (ageYears >= 5) return [['R-134a', 75], ['R-404A', 10], ['R-513A', 7], ['R-452A', 8]];
-  return [['R-134a', 55], ['R-513A', 17], ['R-452A', 12], ['R-1234yf', 9], ['R-744', 7]];
+  if (ageYears >= 9)
+    return [
+      ['R-134a', 78],
+      ['R-404A', 22],
+    ];
+  if (ageYears >= 5)
+    return [
+      ['R-134a', 75],
+      ['R-404A', 10],
+      ['R-513A', 7],
+      ['R-452A', 8],
+    ];
+  return [
+    ['R-134a', 55],
+    ['R-513A', 17],
+    ['R-452A', 12],
+    ['R-1234yf', 9],
+    ['R-744', 7],
+  ];
 }
 
 /** Where leaks start, by weight (brazed joints and service valves most often). */
@@ -155,7 +274,10 @@ export const LEAK_LOCATION_WEIGHTS: (readonly [LeakLocationId, number])[] = [
  * How each location is repaired: the action, how often it is chosen, the chance the repair holds, and whether the
  * circuit must be recovered, evacuated and recharged for it. Invented for the demo.
  */
-export const REPAIRS: Record<LeakLocationId, { action: RepairActionId; weight: number; holds: number; opensCircuit: boolean }[]> = {
+export const REPAIRS: Record<
+  LeakLocationId,
+  { action: RepairActionId; weight: number; holds: number; opensCircuit: boolean }[]
+> = {
   service_valve: [
     { action: 'valve_core_replaced', weight: 7, holds: 0.86, opensCircuit: false },
     { action: 'tightened', weight: 3, holds: 0.5, opensCircuit: false },
@@ -199,7 +321,14 @@ export const METHOD_SENSITIVITY = {
   vacuum_test: 0.8,
 } as const;
 
-export const COMPONENTS = ['Evaporator fan motor', 'Condenser fan motor', 'Controller display', 'Defrost heater', 'Return air sensor', 'Power plug and cable'];
+export const COMPONENTS = [
+  'Evaporator fan motor',
+  'Condenser fan motor',
+  'Controller display',
+  'Defrost heater',
+  'Return air sensor',
+  'Power plug and cable',
+];
 
 /** Purchase cost of a new unit by build year: invented demo figures. */
 export function inventedPurchaseCost(buildYear: number, r: number): number {

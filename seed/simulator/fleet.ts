@@ -42,10 +42,26 @@ export type Fleet = {
 
 /** The demo's story units: their indices in every fleet (the first units generated). */
 export const STORY_UNITS: { index: number; story: StoryId; title: string }[] = [
-  { index: 0, story: 'chronic_leaker', title: 'chronic leaker: a brazed joint that keeps leaking, repairs that do not last' },
-  { index: 1, story: 'repair_held', title: 'a repair that held: condenser coil replaced three years ago, no top-up since' },
-  { index: 2, story: 'repair_failed', title: 'a repair that did not hold: evaporator coil rebrazed, leaking again within weeks' },
-  { index: 3, story: 'decision_due', title: 'due for a decision: 14 years old, leaking at the compressor and coil, topped up every few weeks' },
+  {
+    index: 0,
+    story: 'chronic_leaker',
+    title: 'chronic leaker: a brazed joint that keeps leaking, repairs that do not last',
+  },
+  {
+    index: 1,
+    story: 'repair_held',
+    title: 'a repair that held: condenser coil replaced three years ago, no top-up since',
+  },
+  {
+    index: 2,
+    story: 'repair_failed',
+    title: 'a repair that did not hold: evaporator coil rebrazed, leaking again within weeks',
+  },
+  {
+    index: 3,
+    story: 'decision_due',
+    title: 'due for a decision: 14 years old, leaking at the compressor and coil, topped up every few weeks',
+  },
 ];
 
 export function createFleet(opts: FleetOptions): Fleet {

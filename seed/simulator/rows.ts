@@ -1,7 +1,12 @@
 // From a simulated unit to the rows the server itself would have written: units, visits, events (void markers
 // included) and the unit's statistics row, computed in memory with the server's own functions.
 import type { events, sites, units, users, visitMadeUp, visits } from '../../server/db/schema';
-import { engineUnit, statsRowsFrom, toEngineEvent, type UnitStatsRows } from '../../server/features/history/stats.service';
+import {
+  engineUnit,
+  statsRowsFrom,
+  toEngineEvent,
+  type UnitStatsRows,
+} from '../../server/features/history/stats.service';
 import { computeUnitStats } from '../../shared/domain';
 import type { Settings } from '../../shared/schemas/settings';
 import type { Fleet } from './fleet';
@@ -35,7 +40,14 @@ export type UnitRows = {
 
 export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
   const at = new Date((fleet.ctx.todayDay - Math.round(fleet.ctx.historyYears * 365.25) - 60) * 86_400_000);
-  return fleet.sites.map((s, i) => ({ id: firstId + i, code: s.code, name: s.name, kind: s.kind, country: s.country, createdAt: at }));
+  return fleet.sites.map((s, i) => ({
+    id: firstId + i,
+    code: s.code,
+    name: s.name,
+    kind: s.kind,
+    country: s.country,
+    createdAt: at,
+  }));
 }
 
 export function userRows(fleet: Fleet, demoPasswordHash: string | null): UserRow[] {
@@ -208,7 +220,12 @@ export function rowsForUnit(
 
   // Exactly what recomputeUnitStats does after a write, on the same events in the same order.
   const result = computeUnitStats(
-    engineUnit({ refrigerant: u.refrigerant, nominalChargeKg: u.nominalChargeKg, commissionedOn: u.commissionedOn, createdAt }),
+    engineUnit({
+      refrigerant: u.refrigerant,
+      nominalChargeKg: u.nominalChargeKg,
+      commissionedOn: u.commissionedOn,
+      createdAt,
+    }),
     engineEvents,
     now.toISOString(),
     settings,
@@ -231,5 +248,14 @@ export function rowsForUnit(
       createdAt: now,
     });
   }
-  return { unit, visits: visitRows, events: eventRows, stats, statsDetail, madeUp, engineEvents, visitStats: result.visits };
+  return {
+    unit,
+    visits: visitRows,
+    events: eventRows,
+    stats,
+    statsDetail,
+    madeUp,
+    engineEvents,
+    visitStats: result.visits,
+  };
 }

@@ -8,7 +8,14 @@ export function columnsOf(table: Table): ColumnList {
   return Object.entries(getTableColumns(table)).map(([key, col]) => ({ key, name: col.name }));
 }
 
-const ESCAPES: Record<string, string> = { '\0': '\\0', '\n': '\\n', '\r': '\\r', '\x1a': '\\Z', "'": "\\'", '\\': '\\\\' };
+const ESCAPES: Record<string, string> = {
+  '\0': '\\0',
+  '\n': '\\n',
+  '\r': '\\r',
+  '\x1a': '\\Z',
+  "'": "\\'",
+  '\\': '\\\\',
+};
 
 export function quote(s: string): string {
   // eslint-disable-next-line no-control-regex -- NUL and Ctrl-Z must be escaped inside MySQL string literals

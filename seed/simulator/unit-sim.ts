@@ -68,7 +68,8 @@ export type SimEvent = {
   note?: string;
 };
 
-export type VisitKind = 'commissioning' | 'scheduled' | 'alarm' | 'recheck' | 'follow_up' | 'engineer_note' | 'correction';
+export type VisitKind =
+  'commissioning' | 'scheduled' | 'alarm' | 'recheck' | 'follow_up' | 'engineer_note' | 'correction';
 
 /** One submission: everything done at the unit in one go (shares one occurred and one entered time). */
 export type SimVisit = {
@@ -214,8 +215,7 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
   const x = rng.next();
   const cls: LeakClass = p.leakClass ?? (x < pChronic ? 'chronic' : x < pChronic + pSlow ? 'slow' : 'tight');
 
-  const homeSite =
-    p.homeSite ?? rng.weighted(fleet.depots.map((s, k) => [s, 1 / Math.sqrt(k + 1)] as const));
+  const homeSite = p.homeSite ?? rng.weighted(fleet.depots.map((s, k) => [s, 1 / Math.sqrt(k + 1)] as const));
   const tripMeanDays = p.daily ? 1 : clamp(rng.normal(96, 13), 60, 140);
   // Hidden per-unit constants: when the sight glass shows bubbles, when the unit can no longer hold its set point,
   // its condensing approach and evaporator temperature difference at full charge, and its slow permeation.
@@ -232,15 +232,23 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
   const leaks: Leak[] = [];
   const makeLeak = (onDay: number, location?: LeakLocationId, ratePctPerYear?: number): Leak => {
     const loc = location ?? (cls === 'chronic' && rng.chance(0.55) ? weakSpot : rng.weighted(LEAK_LOCATION_WEIGHTS));
-    const frac = ratePctPerYear !== undefined ? ratePctPerYear / 100 : clamp(rng.logNormal(CLASS_RATE_MEDIAN[cls], 0.55), 0.03, 2);
-    return { location: loc, rate: (frac * full) / 365, onDay, fixed: false, otherText: loc === 'other' ? rng.pick(OTHER_LOCATION_TEXT) : undefined };
+    const frac =
+      ratePctPerYear !== undefined ? ratePctPerYear / 100 : clamp(rng.logNormal(CLASS_RATE_MEDIAN[cls], 0.55), 0.03, 2);
+    return {
+      location: loc,
+      rate: (frac * full) / 365,
+      onDay,
+      fixed: false,
+      otherText: loc === 'other' ? rng.pick(OTHER_LOCATION_TEXT) : undefined,
+    };
   };
   if (p.initialLeaks) {
-    for (const l of p.initialLeaks) leaks.push(makeLeak(recordStartDay - l.daysBeforeStart, l.location, l.ratePctPerYear));
+    for (const l of p.initialLeaks)
+      leaks.push(makeLeak(recordStartDay - l.daysBeforeStart, l.location, l.ratePctPerYear));
   } else if (cls === 'chronic' || (cls === 'slow' && rng.chance(0.6))) {
     leaks.push(makeLeak(newInRecord ? recordStartDay + rng.int(30, 700) : recordStartDay - rng.int(0, 300)));
   }
-  for (let t = recordStartDay; ; ) {
+  for (let t = recordStartDay; ;) {
     const age = (t - commissionDay) / 365.25;
     t += rng.exponential(365 / (hazard * (1 + age / 15)));
     if (t >= fleet.todayDay) break;
@@ -297,7 +305,8 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
   const enteredAfter = (ms: number) => {
     const x = rng.next();
     // Mostly entered on the spot; some queued offline and replayed hours or days later.
-    const delay = x < 0.9 ? rng.uniform(2, 90) * 60_000 : x < 0.98 ? rng.uniform(2, 20) * 3_600_000 : rng.uniform(1, 4) * DAY_MS;
+    const delay =
+      x < 0.9 ? rng.uniform(2, 90) * 60_000 : x < 0.98 ? rng.uniform(2, 20) * 3_600_000 : rng.uniform(1, 4) * DAY_MS;
     return Math.min(Math.round(ms + delay), fleet.nowMs - 60_000);
   };
   const ambientAt = (site: number, ms: number) => {
@@ -350,7 +359,13 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
       suctionKPaG = Math.round(suctionKPaG);
       dischargeKPaG = Math.round(dischargeKPaG);
     }
-    const sightGlass = rng.chance(0.07) ? 'not_checked' : frac < sightGlassAt ? 'full' : frac < 0.45 ? 'bubbles' : 'empty';
+    const sightGlass = rng.chance(0.07)
+      ? 'not_checked'
+      : frac < sightGlassAt
+        ? 'full'
+        : frac < 0.45
+          ? 'bubbles'
+          : 'empty';
     const supplyAirC = r1(setPointC + Math.max(0, frac - 0.22) * 25 + rng.normal(0.3, 0.3));
     return {
       kind: 'pressure',
@@ -403,7 +418,13 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     const amount = deficit - after;
     if (amount < 0.05) return false;
     const m = massEntry(amount);
-    const e: SimEvent = { kind: 'top_up', kg: m.kg, cylinder: cylinder(site, day), reusedRecovered: false, details: m.details };
+    const e: SimEvent = {
+      kind: 'top_up',
+      kg: m.kg,
+      cylinder: cylinder(site, day),
+      reusedRecovered: false,
+      details: m.details,
+    };
     events.push(e);
     deficit = Math.max(0, deficit - m.kg);
     madeUpDays.push(day);
@@ -417,7 +438,16 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     }
     return true;
   };
-  const pendingCorrections: { target: SimEvent; site: number; by: number; voidMs: number; occurredMs: number; correct: number; cylinder: string; wrong: number }[] = [];
+  const pendingCorrections: {
+    target: SimEvent;
+    site: number;
+    by: number;
+    voidMs: number;
+    occurredMs: number;
+    correct: number;
+    cylinder: string;
+    wrong: number;
+  }[] = [];
 
   const chooseRepair = (l: Leak) => {
     const options = REPAIRS[l.location];
@@ -425,7 +455,14 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     return forced ?? rng.weighted(options.map((o) => [o, o.weight] as const));
   };
   /** Applies the repair's outcome to the hidden leak: fixed for good, or leaking again some weeks later. */
-  const settle = (l: Leak, day: number, holds: number, action: RepairActionId, verified: boolean, also: Leak[] = []) => {
+  const settle = (
+    l: Leak,
+    day: number,
+    holds: number,
+    action: RepairActionId,
+    verified: boolean,
+    also: Leak[] = [],
+  ) => {
     const held = p.repairOutcome ? p.repairOutcome === 'hold' : rng.chance(holds * holdMultiplier);
     const reopenDay = day + 7 + Math.round(p.reopen?.afterDays ?? rng.exponential(75));
     for (const leak of [l, ...also]) {
@@ -456,9 +493,20 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
         events.push(repairEvent(leak, plan.action, tested));
         settle(leak, day, plan.holds, plan.action, tested, also);
       }
-      if (tested) events.push({ kind: 'leak_check', method: rng.chance(0.8) ? 'nitrogen_pressure_test' : 'vacuum_test', leakFound: false });
+      if (tested)
+        events.push({
+          kind: 'leak_check',
+          method: rng.chance(0.8) ? 'nitrogen_pressure_test' : 'vacuum_test',
+          leakFound: false,
+        });
       const reused = rng.chance(0.3);
-      events.push({ kind: 'recharge', kg: full, cylinder: cylinder(site, day), reusedRecovered: reused, excludedFromLeakRate: false });
+      events.push({
+        kind: 'recharge',
+        kg: full,
+        cylinder: cylinder(site, day),
+        reusedRecovered: reused,
+        excludedFromLeakRate: false,
+      });
       madeUpDays.push(day);
       deficit = 0;
       events.push(reading(site, ms, pickSetPoint()));
@@ -481,7 +529,10 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     verified,
     details:
       l.location === 'other' || action === 'other'
-        ? { locationOther: l.location === 'other' ? l.otherText : undefined, actionOther: action === 'other' ? rng.pick(OTHER_ACTION_TEXT) : undefined }
+        ? {
+            locationOther: l.location === 'other' ? l.otherText : undefined,
+            actionOther: action === 'other' ? rng.pick(OTHER_ACTION_TEXT) : undefined,
+          }
         : undefined,
   });
   const pickSetPoint = () => rng.weighted(SET_POINTS);
@@ -498,14 +549,25 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     const ms = timeOfDay(recordStartDay);
     const by = techAt(site);
     push('commissioning', site, ms, by, [
-      { kind: 'recharge', kg: full, cylinder: cylinder(site, recordStartDay), excludedFromLeakRate: true, reusedRecovered: false, note: 'First fill at commissioning.' },
+      {
+        kind: 'recharge',
+        kg: full,
+        cylinder: cylinder(site, recordStartDay),
+        excludedFromLeakRate: true,
+        reusedRecovered: false,
+        note: 'First fill at commissioning.',
+      },
       reading(site, ms, pickSetPoint()),
       { kind: 'pti', passed: true },
     ]);
   }
 
   let day = recordStartDay;
-  let nextScheduled = day + (newInRecord ? Math.round(clamp(rng.normal(tripMeanDays, tripMeanDays * 0.3), 1, 200)) : rng.int(1, Math.round(tripMeanDays)));
+  let nextScheduled =
+    day +
+    (newInRecord
+      ? Math.round(clamp(rng.normal(tripMeanDays, tripMeanDays * 0.3), 1, 200))
+      : rng.int(1, Math.round(tripMeanDays)));
   let guard = 0;
   while (status !== 'retired' && guard++ < 20_000) {
     let target = nextScheduled;
@@ -526,13 +588,18 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
     if (target >= fleet.todayDay) break;
     deficit = Math.min(maxDeficit, deficit + lostBetween(day, target));
     day = target;
-    if (kind === 'scheduled') nextScheduled = day + Math.max(1, Math.round(p.daily ? 1 : clamp(rng.normal(tripMeanDays, tripMeanDays * 0.3), 20, 200)));
+    if (kind === 'scheduled')
+      nextScheduled =
+        day + Math.max(1, Math.round(p.daily ? 1 : clamp(rng.normal(tripMeanDays, tripMeanDays * 0.3), 20, 200)));
     else if (kind !== 'alarm') pending.shift();
     const madeUpBefore = madeUpDays.length;
 
     if (kind === 'alarm') {
       // At sea or at the terminal: the unit cannot hold its set point. Top up; repairs wait for a depot.
-      const site = rng.chance(0.6) && fleet.vessels.length ? rng.pick(fleet.vessels) : rng.pick(fleet.terminals.length ? fleet.terminals : fleet.depots);
+      const site =
+        rng.chance(0.6) && fleet.vessels.length
+          ? rng.pick(fleet.vessels)
+          : rng.pick(fleet.terminals.length ? fleet.terminals : fleet.depots);
       const ms = timeOfDay(day);
       const by = techAt(site);
       const events: SimEvent[] = [];
@@ -543,14 +610,22 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
         found = detect(day, 'electronic_detector');
         events.push(...leakCheckEvents('electronic_detector', found));
       }
-      const quick = found.find((l) => !REPAIRS[l.location].some((o) => o.opensCircuit) && rng.chance(p.repairChance ? p.repairChance(day) * 0.3 : 0.3));
+      const quick = found.find(
+        (l) =>
+          !REPAIRS[l.location].some((o) => o.opensCircuit) &&
+          rng.chance(p.repairChance ? p.repairChance(day) * 0.3 : 0.3),
+      );
       if (quick) {
         const plan = chooseRepair(quick);
         events.push(repairEvent(quick, plan.action, false));
         settle(quick, day, plan.holds, plan.action, false);
-          }
+      }
       topUp(site, day, events, ms, by);
-      if (rng.chance(0.5)) events.push({ kind: 'note', note: `Alarm: box at ${r1(setPoint + rng.uniform(4, 9))} °C against a set point of ${setPoint} °C; could not pull down.` });
+      if (rng.chance(0.5))
+        events.push({
+          kind: 'note',
+          note: `Alarm: box at ${r1(setPoint + rng.uniform(4, 9))} °C against a set point of ${setPoint} °C; could not pull down.`,
+        });
       if (rng.chance(0.4)) events.push(reading(site, ms + 1, setPoint));
       push('alarm', site, ms, by, events);
     } else if (kind === 'recheck') {
@@ -576,7 +651,11 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
       const x = rng.next();
       const forced = p.forceRepairFrom !== undefined && !forcedRepairDone && day >= p.forceRepairFrom;
       const site =
-        p.daily || forced || x < 0.7 ? homeSite : x < 0.85 || !fleet.terminals.length ? rng.pick(fleet.depots) : rng.pick(fleet.terminals);
+        p.daily || forced || x < 0.7
+          ? homeSite
+          : x < 0.85 || !fleet.terminals.length
+            ? rng.pick(fleet.depots)
+            : rng.pick(fleet.terminals);
       const kindOfSite = fleet.sites[site].kind;
       const ms = timeOfDay(day);
       const by = techAt(site);
@@ -623,7 +702,11 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
       const age = (day - commissionDay) / 365.25;
       const recent = madeUpDays.filter((d) => d > day - 365).length;
       if (!p.noRetire && !p.story && cls === 'chronic' && age >= 13 && recent >= 3 && rng.chance(0.25)) {
-        events.push({ kind: 'status_change', details: { status: 'retired' }, note: 'Retired: machinery beyond economic repair.' });
+        events.push({
+          kind: 'status_change',
+          details: { status: 'retired' },
+          note: 'Retired: machinery beyond economic repair.',
+        });
         status = 'retired';
         updatedMs = ms;
       }
@@ -643,7 +726,10 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
         if (noteDay < fleet.todayDay) {
           const ms = noteDay * DAY_MS + rng.int(8 * 60, 16 * 60) * 60_000;
           push('engineer_note', null, ms, rng.pick(fleet.engineers), [
-            { kind: 'note', note: `Top-up number ${recent} in twelve months. Review at the next depot call: repair properly or keep topping up?` },
+            {
+              kind: 'note',
+              note: `Top-up number ${recent} in twelve months. Review at the next depot call: repair properly or keep topping up?`,
+            },
           ]);
         }
       }
@@ -651,19 +737,39 @@ export function simulateUnit(fleet: FleetContext, index: number, profile: Profil
   }
 
   for (const c of pendingCorrections) {
-    voids.push({ target: c.target, site: c.site, atMs: Math.min(c.voidMs, fleet.nowMs - 30_000), by: c.by, reason: `Typed ${c.wrong} kg instead of ${c.correct} kg.` });
+    voids.push({
+      target: c.target,
+      site: c.site,
+      atMs: Math.min(c.voidMs, fleet.nowMs - 30_000),
+      by: c.by,
+      reason: `Typed ${c.wrong} kg instead of ${c.correct} kg.`,
+    });
     visits.push({
       kind: 'correction',
       occurredMs: c.occurredMs,
       enteredMs: Math.min(c.voidMs + 60_000, fleet.nowMs - 20_000),
       site: c.site,
       by: c.by,
-      events: [{ kind: 'top_up', kg: c.correct, cylinder: c.cylinder, reusedRecovered: false, note: 'Entered again with the right amount.' }],
+      events: [
+        {
+          kind: 'top_up',
+          kg: c.correct,
+          cylinder: c.cylinder,
+          reusedRecovered: false,
+          note: 'Entered again with the right amount.',
+        },
+      ],
     });
   }
   visits.sort((a, b) => a.occurredMs - b.occurredMs || a.enteredMs - b.enteredMs);
 
-  for (const l of leaks) truth.leaks.push({ location: l.location, ratePctPerYear: r1((l.rate * 365 * 100) / full), onDay: l.onDay, fixed: l.fixed });
+  for (const l of leaks)
+    truth.leaks.push({
+      location: l.location,
+      ratePctPerYear: r1((l.rate * 365 * 100) / full),
+      onDay: l.onDay,
+      fixed: l.fixed,
+    });
 
   const createdMs = newInRecord ? recordStartDay * DAY_MS : (recordStartDay - rng.int(1, 30)) * DAY_MS;
   const unit: SimUnit = {

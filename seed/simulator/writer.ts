@@ -19,10 +19,31 @@ export const STATEMENT_BYTES = 4 * 1024 * 1024;
 
 export type WriteCounts = { units: number; visits: number; events: number; stats: number };
 
-const EVENT_COMMON = ['id', 'unitId', 'visitId', 'siteId', 'recordedBy', 'kind', 'occurredAt', 'enteredAt', 'details', 'note', 'createdAt'];
+const EVENT_COMMON = [
+  'id',
+  'unitId',
+  'visitId',
+  'siteId',
+  'recordedBy',
+  'kind',
+  'occurredAt',
+  'enteredAt',
+  'details',
+  'note',
+  'createdAt',
+];
 /** Event rows go in by kind, each with only its own columns: the rest are NULL anyway, and the statements shrink. */
 const EVENT_GROUPS: Record<string, string[]> = {
-  pressure: [...EVENT_COMMON, 'suctionKPaG', 'dischargeKPaG', 'ambientC', 'setPointC', 'supplyAirC', 'returnAirC', 'sightGlass'],
+  pressure: [
+    ...EVENT_COMMON,
+    'suctionKPaG',
+    'dischargeKPaG',
+    'ambientC',
+    'setPointC',
+    'supplyAirC',
+    'returnAirC',
+    'sightGlass',
+  ],
   movement: [...EVENT_COMMON, 'kg', 'cylinder', 'reusedRecovered', 'excludedFromLeakRate'],
   check: [...EVENT_COMMON, 'method', 'leakFound', 'location', 'action', 'verified', 'passed'],
   plain: EVENT_COMMON,
@@ -44,7 +65,10 @@ export class FleetWriter {
   private readonly buffers: { level: number; buf: InsertBuffer }[];
   private readonly eventBuffers = new Map<string, number>();
   /** fleet_monthly, summed in memory over the whole load (a few thousand cells). */
-  private readonly monthly = new Map<string, { month: string; siteId: number; refrigerant: string; kg: number; visits: number }>();
+  private readonly monthly = new Map<
+    string,
+    { month: string; siteId: number; refrigerant: string; kg: number; visits: number }
+  >();
   private pending: Promise<void>[] = [];
   readonly counts: WriteCounts = { units: 0, visits: 0, events: 0, stats: 0 };
 
@@ -82,7 +106,14 @@ export class FleetWriter {
       if (cell) {
         cell.kg += m.madeUpKg;
         cell.visits++;
-      } else this.monthly.set(key, { month: m.month, siteId: m.siteId, refrigerant: m.refrigerant, kg: m.madeUpKg, visits: 1 });
+      } else
+        this.monthly.set(key, {
+          month: m.month,
+          siteId: m.siteId,
+          refrigerant: m.refrigerant,
+          kg: m.madeUpKg,
+          visits: 1,
+        });
     }
     this.counts.units++;
     this.counts.visits += rows.visits.length;
@@ -135,7 +166,12 @@ export class FleetWriter {
   }
 }
 
-export async function writeSitesAndPeople(exec: Exec, fleet: Fleet, firstSiteId: number, demoPasswordHash: string | null) {
+export async function writeSitesAndPeople(
+  exec: Exec,
+  fleet: Fleet,
+  firstSiteId: number,
+  demoPasswordHash: string | null,
+) {
   const siteBuf = new InsertBuffer(sites, (sql) => void pendingList.push(quiet(exec(sql))));
   const userBuf = new InsertBuffer(users, (sql) => void pendingList.push(quiet(exec(sql))));
   const pendingList: Promise<void>[] = [];
@@ -152,7 +188,14 @@ export async function writeSitesAndPeople(exec: Exec, fleet: Fleet, firstSiteId:
  * Simulates units [from, to) and hands each one's rows to `onUnit`; the simulation and the statistics are pure, so
  * this is also what the determinism test runs.
  */
-export function* fleetRows(fleet: Fleet, siteIds: readonly number[], ids: IdCursor, settings: Settings, from = 0, to = unitCount(fleet)) {
+export function* fleetRows(
+  fleet: Fleet,
+  siteIds: readonly number[],
+  ids: IdCursor,
+  settings: Settings,
+  from = 0,
+  to = unitCount(fleet),
+) {
   for (let i = from; i < to; i++) {
     const sim: UnitSim = simulateFleetUnit(fleet, i);
     yield { sim, rows: rowsForUnit(fleet, sim, siteIds, ids, settings) };

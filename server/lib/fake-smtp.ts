@@ -153,15 +153,14 @@ function leaves(part: Part): Part[] {
   const boundary = /boundary="?([^";]+)"?/i.exec(type)?.[1];
   if (!/^multipart\//i.test(type) || !boundary) return [part];
   const pieces = part.body.split(`--${boundary}`).slice(1);
-  return pieces
-    .filter((p) => !p.startsWith('--'))
-    .flatMap((p) => leaves(splitHead(p.replace(/^\r?\n/, ''))));
+  return pieces.filter((p) => !p.startsWith('--')).flatMap((p) => leaves(splitHead(p.replace(/^\r?\n/, ''))));
 }
 
 export function parseMessage(raw: string) {
   const top = splitHead(raw);
   const parts = leaves(top);
-  const find = (mime: string) => parts.find((p) => (p.headers['content-type'] ?? 'text/plain').toLowerCase().startsWith(mime));
+  const find = (mime: string) =>
+    parts.find((p) => (p.headers['content-type'] ?? 'text/plain').toLowerCase().startsWith(mime));
   const text = find('text/plain');
   const html = find('text/html');
   return {

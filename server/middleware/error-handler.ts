@@ -38,7 +38,11 @@ export function errorHandler(logger: Logger) {
     // Each service checks what a write refers to; a parent removed between that check and the commit is a race the
     // person can resolve by reloading, not a server fault.
     if (isMissingParentError(err)) {
-      return send(409, 'conflict', 'Something this refers to (a site, a unit) was removed meanwhile. Reload and try again.');
+      return send(
+        409,
+        'conflict',
+        'Something this refers to (a site, a unit) was removed meanwhile. Reload and try again.',
+      );
     }
     if (isDatabaseUnavailable(err)) {
       logger.error({ err, requestId: req.requestId }, 'database unavailable');

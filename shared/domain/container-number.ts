@@ -14,11 +14,14 @@ export const CONTAINER_LETTER_VALUES: Readonly<Record<string, number>> = (() => 
 })();
 
 /** Equipment category letters of ISO 6346: U freight container, J detachable equipment, Z trailer or chassis. */
-export const EQUIPMENT_CATEGORIES = { U: 'freight container', J: 'detachable equipment', Z: 'trailer or chassis' } as const;
+export const EQUIPMENT_CATEGORIES = {
+  U: 'freight container',
+  J: 'detachable equipment',
+  Z: 'trailer or chassis',
+} as const;
 
 export type ContainerNumberResult =
-  | { ok: true; value: string }
-  | { ok: false; error: string; expectedCheckDigit?: number };
+  { ok: true; value: string } | { ok: false; error: string; expectedCheckDigit?: number };
 
 /** Upper case with spaces and hyphens removed: "csqu 305438-3" → "CSQU3054383". */
 export function normalizeContainerNumber(input: string): string {
@@ -40,7 +43,10 @@ function first10Problem(s: string): string | null {
 /** ISO 6346 check digit: Σ value(cᵢ) × 2ⁱ over the first 10 characters, mod 11, a remainder of 10 becomes 0. */
 export function containerCheckDigit(first10: string): number {
   const s = normalizeContainerNumber(first10);
-  const problem = s.length === 10 ? first10Problem(s) : 'The check digit is computed from exactly 10 characters: 4 letters and 6 digits.';
+  const problem =
+    s.length === 10
+      ? first10Problem(s)
+      : 'The check digit is computed from exactly 10 characters: 4 letters and 6 digits.';
   if (problem) throw new DomainError(problem, 'containerNumber');
   let sum = 0;
   for (let i = 0; i < 10; i++) {
@@ -68,7 +74,11 @@ export function parseContainerNumber(input: string): ContainerNumberResult {
   const expected = containerCheckDigit(s.slice(0, 10));
   const given = s.charAt(10);
   if (!/[0-9]/.test(given)) {
-    return { ok: false, error: `The last character is the check digit and must be a digit; here it should be ${expected}.`, expectedCheckDigit: expected };
+    return {
+      ok: false,
+      error: `The last character is the check digit and must be a digit; here it should be ${expected}.`,
+      expectedCheckDigit: expected,
+    };
   }
   if (Number(given) !== expected) {
     return {

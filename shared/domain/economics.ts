@@ -10,7 +10,8 @@ function requireRate(r: number): void {
   if (!isFiniteNumber(r) || r <= -1) throw new DomainError('The discount rate must be a number above −100 %.', 'rate');
 }
 function requireYears(n: number): void {
-  if (!Number.isInteger(n) || n < 1) throw new DomainError('The horizon must be a whole number of years, at least 1.', 'years');
+  if (!Number.isInteger(n) || n < 1)
+    throw new DomainError('The horizon must be a whole number of years, at least 1.', 'years');
 }
 
 /** P/A(r, n) = ((1+r)^n − 1) / (r(1+r)^n); n when r = 0 (standard compound-interest formula, Newnan). */
@@ -123,16 +124,21 @@ export interface RepairOptionsResult {
  * Prices the four options of DOMAIN.md §9 over the remaining design life (at least 1 year) and marks the one with the
  * lowest equivalent annual cost. Retiring compares a new unit over a full design life, so EAC, not NPV, decides.
  */
-export function compareRepairOptions(input: RepairOptionsInput, settings: Settings = DEFAULT_SETTINGS): RepairOptionsResult {
+export function compareRepairOptions(
+  input: RepairOptionsInput,
+  settings: Settings = DEFAULT_SETTINGS,
+): RepairOptionsResult {
   const e = settings.economics;
   const code = getRefrigerant(input.refrigerant).code;
-  if (!isFiniteNumber(input.ageYears) || input.ageYears < 0) throw new DomainError('The unit age must be 0 years or more.', 'ageYears');
+  if (!isFiniteNumber(input.ageYears) || input.ageYears < 0)
+    throw new DomainError('The unit age must be 0 years or more.', 'ageYears');
   const interval = input.topUpIntervalDays;
   const kg = input.madeUpKgPerVisit;
   if (interval !== null && (!isFiniteNumber(interval) || interval <= 0)) {
     throw new DomainError('The days between top-ups must be more than 0.', 'topUpIntervalDays');
   }
-  if (kg !== null && (!isFiniteNumber(kg) || kg < 0)) throw new DomainError('The kg per top-up must be 0 or more.', 'madeUpKgPerVisit');
+  if (kg !== null && (!isFiniteNumber(kg) || kg < 0))
+    throw new DomainError('The kg per top-up must be 0 or more.', 'madeUpKgPerVisit');
 
   const r = e.discountRatePct / 100;
   const remaining = Math.max(1, Math.round(e.designLifeYears - input.ageYears));
@@ -173,7 +179,14 @@ export function compareRepairOptions(input: RepairOptionsInput, settings: Settin
   };
   const where = termLabel(LEAK_LOCATIONS, location).toLowerCase();
   const options = [
-    make('keep_topping_up', 'Keep topping up', 0, keepYearly, remaining, `${roundTo(visitsPerYear, 2)} top-ups a year at the current leak rate.`),
+    make(
+      'keep_topping_up',
+      'Keep topping up',
+      0,
+      keepYearly,
+      remaining,
+      `${roundTo(visitsPerYear, 2)} top-ups a year at the current leak rate.`,
+    ),
     make(
       'repair',
       'Repair the leak',
@@ -182,7 +195,14 @@ export function compareRepairOptions(input: RepairOptionsInput, settings: Settin
       remaining,
       `Repair at the ${where}; ${Math.round(recurrence * 100)} % chance it leaks again.`,
     ),
-    make('new_machinery', 'Fit new machinery', e.machineryCost, 0, remaining, 'New refrigeration machinery on the same box, assumed tight.'),
+    make(
+      'new_machinery',
+      'Fit new machinery',
+      e.machineryCost,
+      0,
+      remaining,
+      'New refrigeration machinery on the same box, assumed tight.',
+    ),
     make(
       'retire_and_sell',
       'Retire and sell',

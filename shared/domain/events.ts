@@ -140,11 +140,14 @@ function checkEvent(e: UnitEvent, i: number): boolean {
       return true;
     case 'leak_check':
       if (typeof e.leakFound !== 'boolean') fail(e, i, 'say whether a leak was found.', '.leakFound');
-      if (e.location != null && !isLeakLocation(e.location)) fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
+      if (e.location != null && !isLeakLocation(e.location))
+        fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
       return true;
     case 'repair':
-      if (e.location != null && !isLeakLocation(e.location)) fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
-      if (e.action != null && !isRepairAction(e.action)) fail(e, i, `"${String(e.action)}" is not a known repair action.`, '.action');
+      if (e.location != null && !isLeakLocation(e.location))
+        fail(e, i, `"${String(e.location)}" is not a known leak location.`, '.location');
+      if (e.action != null && !isRepairAction(e.action))
+        fail(e, i, `"${String(e.action)}" is not a known repair action.`, '.action');
       return true;
     case 'pressure': {
       const { suctionKPaG: suction, dischargeKPaG: discharge, ambientC: ambient } = e;
@@ -155,10 +158,17 @@ function checkEvent(e: UnitEvent, i: number): boolean {
         fail(e, i, `a suction reading of ${suction} kPa(g) is below a perfect vacuum (−101.3 kPa(g)).`, '.suctionKPaG');
       }
       if (discharge != null && discharge < VACUUM_KPAG - 1e-9) {
-        fail(e, i, `a discharge reading of ${discharge} kPa(g) is below a perfect vacuum (−101.3 kPa(g)).`, '.dischargeKPaG');
+        fail(
+          e,
+          i,
+          `a discharge reading of ${discharge} kPa(g) is below a perfect vacuum (−101.3 kPa(g)).`,
+          '.dischargeKPaG',
+        );
       }
-      if (ambient != null && ambient < ABSOLUTE_ZERO_C) fail(e, i, 'the ambient temperature is below absolute zero.', '.ambientC');
-      if (e.sightGlass != null && !isSightGlassState(e.sightGlass)) fail(e, i, `"${String(e.sightGlass)}" is not a sight-glass state.`, '.sightGlass');
+      if (ambient != null && ambient < ABSOLUTE_ZERO_C)
+        fail(e, i, 'the ambient temperature is below absolute zero.', '.ambientC');
+      if (e.sightGlass != null && !isSightGlassState(e.sightGlass))
+        fail(e, i, `"${String(e.sightGlass)}" is not a sight-glass state.`, '.sightGlass');
       return true;
     }
     case 'pti':
@@ -168,7 +178,6 @@ function checkEvent(e: UnitEvent, i: number): boolean {
       return false;
   }
 }
-
 
 /**
  * Sorts input indices (given in input order) by time, ties in input order. When every time is a whole second, as
@@ -202,7 +211,10 @@ function sortByTime(order: Uint32Array, msByInput: Float64Array): void {
  * Checks and orders a unit's events (the caller's order is not trusted) and groups them into visits: same visit id,
  * or failing that the same UTC calendar day. O(n) when already in time order, else one O(n log n) sort.
  */
-export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Number.POSITIVE_INFINITY): PreparedHistory {
+export function prepareHistory(
+  events: readonly UnitEvent[],
+  asOfMs: number = Number.POSITIVE_INFINITY,
+): PreparedHistory {
   if (!Array.isArray(events)) throw new DomainError('The service history must be a list of events.', 'events');
   const n = events.length;
   const msByInput = new Float64Array(n);
@@ -277,7 +289,8 @@ export function prepareHistory(events: readonly UnitEvent[], asOfMs: number = Nu
       case 'leak_check':
         if (e.leakFound) {
           v.leakFound = true;
-          if (e.location != null && !v.leakLocations.includes(e.location)) v.leakLocations = [...v.leakLocations, e.location];
+          if (e.location != null && !v.leakLocations.includes(e.location))
+            v.leakLocations = [...v.leakLocations, e.location];
         }
         break;
       case 'repair':

@@ -41,14 +41,22 @@ export interface RepairEffectiveness {
  * had made-up refrigerant or a found leak. Linear in the events of each unit (a backward scan finds the next
  * recurrence of every visit).
  */
-export function repairEffectiveness(histories: readonly UnitHistory[], asOf: string, settings: Settings = DEFAULT_SETTINGS): RepairEffectiveness {
+export function repairEffectiveness(
+  histories: readonly UnitHistory[],
+  asOf: string,
+  settings: Settings = DEFAULT_SETTINGS,
+): RepairEffectiveness {
   const asOfMs = parseAsOf(asOf);
   const asOfDay = dayOf(asOfMs);
   const hold = settings.windows.repairHoldDays;
   const min = settings.economics.minRepairsForRate;
   const cells = new Map<string, RepairEffectivenessRow>();
   const locations = new Map<string, RepairEffectivenessRow>();
-  const cell = (map: Map<string, RepairEffectivenessRow>, location: LeakLocationId | null, action: RepairActionId | null) => {
+  const cell = (
+    map: Map<string, RepairEffectivenessRow>,
+    location: LeakLocationId | null,
+    action: RepairActionId | null,
+  ) => {
     const key = `${location ?? ''}|${action ?? ''}`;
     let row = map.get(key);
     if (!row) {
@@ -74,7 +82,10 @@ export function repairEffectiveness(histories: readonly UnitHistory[], asOf: str
       const v = visits[vi];
       const recurred = nextRecurrence[vi] - v.day <= hold;
       const judged = recurred || asOfDay - v.day >= hold;
-      for (const row of [cell(cells, e.location ?? null, e.action ?? null), cell(locations, e.location ?? null, null)]) {
+      for (const row of [
+        cell(cells, e.location ?? null, e.action ?? null),
+        cell(locations, e.location ?? null, null),
+      ]) {
         if (!judged) row.pending++;
         else {
           row.repairs++;
@@ -87,12 +98,20 @@ export function repairEffectiveness(histories: readonly UnitHistory[], asOf: str
   const finish = (map: Map<string, RepairEffectivenessRow>) =>
     [...map.values()]
       .map((row) => ({ ...row, holdRatePct: row.repairs >= min ? roundTo((row.held / row.repairs) * 100, 1) : null }))
-      .sort((a, b) => b.repairs - a.repairs || String(a.location).localeCompare(String(b.location)) || String(a.action).localeCompare(String(b.action)));
+      .sort(
+        (a, b) =>
+          b.repairs - a.repairs ||
+          String(a.location).localeCompare(String(b.location)) ||
+          String(a.action).localeCompare(String(b.action)),
+      );
   return { rows: finish(cells), byLocation: finish(locations), holdDays: hold, minRepairs: min };
 }
 
 /** The fleet's repair record at one location, in the shape compareRepairOptions takes. */
-export function fleetRepairsAt(result: RepairEffectiveness, location: LeakLocationId | null): { repairs: number; recurred: number } {
+export function fleetRepairsAt(
+  result: RepairEffectiveness,
+  location: LeakLocationId | null,
+): { repairs: number; recurred: number } {
   const row = result.byLocation.find((r) => r.location === location);
   return { repairs: row?.repairs ?? 0, recurred: row?.recurred ?? 0 };
 }
@@ -117,7 +136,10 @@ export function emissionsByMonth(
   const basis = opts.basis ?? 'AR4';
   const fromDay = opts.from ? dayOf(parseAsOf(opts.from)) : Number.NEGATIVE_INFINITY;
   const toMs = opts.to ? parseAsOf(opts.to) : Number.POSITIVE_INFINITY;
-  const rows = new Map<string, { month: string; site: string | number | null; refrigerant: RefrigerantCode; kg: number; gwp: number }>();
+  const rows = new Map<
+    string,
+    { month: string; site: string | number | null; refrigerant: RefrigerantCode; kg: number; gwp: number }
+  >();
   for (const h of histories) {
     const r = getRefrigerant(h.refrigerant);
     const g = basis === 'AR4' ? r.gwpAR4 : r.gwpAR5;
@@ -132,6 +154,17 @@ export function emissionsByMonth(
     }
   }
   return [...rows.values()]
-    .map((x) => ({ month: x.month, site: x.site, refrigerant: x.refrigerant, madeUpKg: roundTo(x.kg, 3), co2eTonnes: roundTo((x.kg * x.gwp) / 1000, 4) }))
-    .sort((a, b) => a.month.localeCompare(b.month) || String(a.site).localeCompare(String(b.site)) || a.refrigerant.localeCompare(b.refrigerant));
+    .map((x) => ({
+      month: x.month,
+      site: x.site,
+      refrigerant: x.refrigerant,
+      madeUpKg: roundTo(x.kg, 3),
+      co2eTonnes: roundTo((x.kg * x.gwp) / 1000, 4),
+    }))
+    .sort(
+      (a, b) =>
+        a.month.localeCompare(b.month) ||
+        String(a.site).localeCompare(String(b.site)) ||
+        a.refrigerant.localeCompare(b.refrigerant),
+    );
 }

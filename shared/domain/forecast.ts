@@ -49,7 +49,11 @@ const MAX_INTERVALS = 3;
  * commissioning or record start (`startDay`). λ = Σ kg / Σ days over the last ≤ 3 intervals; a = median kg;
  * forecast = last addition + a/λ days; range from the fastest and slowest interval rate.
  */
-export function forecastFromVisits(visits: readonly ForecastVisit[], startDay: number, asOfDay: number): ForecastResult {
+export function forecastFromVisits(
+  visits: readonly ForecastVisit[],
+  startDay: number,
+  asOfDay: number,
+): ForecastResult {
   let lastRepair = -1;
   let anyAddition = false;
   let end = 0;
@@ -67,7 +71,10 @@ export function forecastFromVisits(visits: readonly ForecastVisit[], startDay: n
     }
   }
   if (countAfterRepair === 0) {
-    return { forecast: null, reason: lastRepair >= 0 && anyAddition ? 'repaired_since_last_addition' : 'no_leak_evidence' };
+    return {
+      forecast: null,
+      reason: lastRepair >= 0 && anyAddition ? 'repaired_since_last_addition' : 'no_leak_evidence',
+    };
   }
   picked.reverse();
 
@@ -135,14 +142,22 @@ export interface ForecastInputVisit {
 }
 
 /** Forecast from visits given with ISO dates; `startAt` is commissioning or the start of the record. */
-export function forecastNextTopUp(visits: readonly ForecastInputVisit[], startAt: string, asOf: string): ForecastResult {
+export function forecastNextTopUp(
+  visits: readonly ForecastInputVisit[],
+  startAt: string,
+  asOf: string,
+): ForecastResult {
   const startDay = dayOf(parseIso(startAt, 'startAt', 'The start date'));
   const asOfDay = dayOf(parseAsOf(asOf));
   const days = visits.map((v, i) => {
     if (!isFiniteNumber(v.madeUpKg) || v.madeUpKg < 0) {
       throw new DomainError(`Visit ${i + 1}: made-up refrigerant must be 0 kg or more.`, `visits[${i}].madeUpKg`);
     }
-    return { day: dayOf(parseIso(v.at, `visits[${i}].at`, `Visit ${i + 1} date`)), madeUpKg: v.madeUpKg, verifiedRepair: v.verifiedRepair === true };
+    return {
+      day: dayOf(parseIso(v.at, `visits[${i}].at`, `Visit ${i + 1} date`)),
+      madeUpKg: v.madeUpKg,
+      verifiedRepair: v.verifiedRepair === true,
+    };
   });
   days.sort((x, y) => x.day - y.day);
   return forecastFromVisits(days, startDay, asOfDay);

@@ -15,7 +15,11 @@ function requireFullCharge(fullChargeKg: number): void {
  * Annualized leak rate (%) = (made-up kg / full charge) × 365 / min(days since the previous addition, 365) × 100,
  * with at least 1 day (40 CFR 82.152 definition, EPA method).
  */
-export function annualizedLeakRatePct(madeUpKg: number, fullChargeKg: number, daysSincePreviousAddition: number): number {
+export function annualizedLeakRatePct(
+  madeUpKg: number,
+  fullChargeKg: number,
+  daysSincePreviousAddition: number,
+): number {
   requireFullCharge(fullChargeKg);
   if (!isFiniteNumber(madeUpKg) || madeUpKg < 0) {
     throw new DomainError(`Made-up refrigerant must be 0 kg or more, not ${String(madeUpKg)}.`, 'madeUpKg');
@@ -76,7 +80,12 @@ export function firstVisitInWindow(visits: readonly { day: number }[], day: numb
 }
 
 /** Rolling rate (%) as of `asOf` from visits in time order (see rollingSeries). */
-export function rollingLeakRatePct(visits: readonly RateVisit[], asOf: string, fullChargeKg: number, windowDays = 365): number {
+export function rollingLeakRatePct(
+  visits: readonly RateVisit[],
+  asOf: string,
+  fullChargeKg: number,
+  windowDays = 365,
+): number {
   requireFullCharge(fullChargeKg);
   const asOfDay = dayOf(parseAsOf(asOf));
   let end = visits.length;
@@ -90,7 +99,11 @@ export function rollingLeakRatePct(visits: readonly RateVisit[], asOf: string, f
 }
 
 /** Calendar-year share (%) = Σ made-up in the calendar year / full charge × 100; ≥ 125 % is chronic (40 CFR 82.157(m)). */
-export function calendarYearSharePct(visits: readonly Pick<Visit, 'day' | 'madeUpKg'>[], year: number, fullChargeKg: number): number {
+export function calendarYearSharePct(
+  visits: readonly Pick<Visit, 'day' | 'madeUpKg'>[],
+  year: number,
+  fullChargeKg: number,
+): number {
   requireFullCharge(fullChargeKg);
   let kg = 0;
   for (const v of visits) if (yearOfDay(v.day) === year) kg += v.madeUpKg;

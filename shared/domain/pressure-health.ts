@@ -120,7 +120,16 @@ export function pressureHealthFromReadings(
   }
 
   if (n === 0) {
-    return { snapshots, health: { latest: null, baselineApproachK: null, driftK: null, flag: 'unknown', explanation: 'No pressure readings yet.' } };
+    return {
+      snapshots,
+      health: {
+        latest: null,
+        baselineApproachK: null,
+        driftK: null,
+        flag: 'unknown',
+        explanation: 'No pressure readings yet.',
+      },
+    };
   }
   const latest = snapshots[n - 1];
   const latestMs = readingMs[n - 1];

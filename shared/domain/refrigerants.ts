@@ -52,7 +52,13 @@ interface CatalogueEntry {
 
 // Mass % and safety classes from ASHRAE Standard 34. From memory.
 const CATALOGUE: CatalogueEntry[] = [
-  { code: 'R-134a', composition: [{ code: 'R-134a', massPct: 100 }], safetyClass: 'A1', highPressure: false, note: 'Most reefer units.' },
+  {
+    code: 'R-134a',
+    composition: [{ code: 'R-134a', massPct: 100 }],
+    safetyClass: 'A1',
+    highPressure: false,
+    note: 'Most reefer units.',
+  },
   {
     code: 'R-404A',
     composition: [
@@ -85,7 +91,13 @@ const CATALOGUE: CatalogueEntry[] = [
     highPressure: false,
     note: 'R-134a replacement.',
   },
-  { code: 'R-1234yf', composition: [{ code: 'R-1234yf', massPct: 100 }], safetyClass: 'A2L', highPressure: false, note: 'Mildly flammable.' },
+  {
+    code: 'R-1234yf',
+    composition: [{ code: 'R-1234yf', massPct: 100 }],
+    safetyClass: 'A2L',
+    highPressure: false,
+    note: 'Mildly flammable.',
+  },
   {
     code: 'R-744',
     composition: [{ code: 'R-744', massPct: 100 }],
@@ -125,7 +137,10 @@ export function findRefrigerant(code: string): Refrigerant | undefined {
 export function getRefrigerant(code: string, field = 'refrigerant'): Refrigerant {
   const r = findRefrigerant(code);
   if (!r) {
-    throw new DomainError(`Unknown refrigerant "${String(code)}". Tightloop knows ${REFRIGERANT_CODES.join(', ')}.`, field);
+    throw new DomainError(
+      `Unknown refrigerant "${String(code)}". Tightloop knows ${REFRIGERANT_CODES.join(', ')}.`,
+      field,
+    );
   }
   return r;
 }

@@ -40,7 +40,15 @@ function curve(
   endsAtCritical: boolean,
 ): Curve {
   const k: Coefficients = { form, trK, lnPr: Math.log(prKPa), n1: n[0], n2: n[1], n3: n[2], n4: n[3] };
-  return { ...k, prKPa, minK, maxK, endsAtCritical, minKPa: Math.exp(lnPressure(k, minK)), maxKPa: Math.exp(lnPressure(k, maxK)) };
+  return {
+    ...k,
+    prKPa,
+    minK,
+    maxK,
+    endsAtCritical,
+    minKPa: Math.exp(lnPressure(k, minK)),
+    maxKPa: Math.exp(lnPressure(k, maxK)),
+  };
 }
 
 const FIT_MIN_K = 223.15; // −50 °C: the fitted range, no extrapolation
@@ -122,13 +130,20 @@ export interface SaturationRange {
 /** The temperature and pressure range over which a refrigerant's saturation curve is defined. */
 export function saturationRange(refrigerant: string, side?: SaturationSide): SaturationRange {
   const { curve: c } = curveFor(refrigerant, side);
-  return { minC: roundTo(c.minK + ABSOLUTE_ZERO_C, 6), maxC: roundTo(c.maxK + ABSOLUTE_ZERO_C, 6), minKPaAbs: c.minKPa, maxKPaAbs: c.maxKPa, endsAtCritical: c.endsAtCritical };
+  return {
+    minC: roundTo(c.minK + ABSOLUTE_ZERO_C, 6),
+    maxC: roundTo(c.maxK + ABSOLUTE_ZERO_C, 6),
+    minKPaAbs: c.minKPa,
+    maxKPaAbs: c.maxKPa,
+    endsAtCritical: c.endsAtCritical,
+  };
 }
 
 /** Saturation pressure (kPa absolute) at a temperature; side defaults to dew. Outside the curve's range is an error. */
 export function saturationPressureKPa(refrigerant: string, tempC: number, side?: SaturationSide): number {
   const { code, curve: c, label } = curveFor(refrigerant, side);
-  if (typeof tempC !== 'number' || !Number.isFinite(tempC)) throw new DomainError('The temperature must be a number.', 'tempC');
+  if (typeof tempC !== 'number' || !Number.isFinite(tempC))
+    throw new DomainError('The temperature must be a number.', 'tempC');
   const tK = tempC - ABSOLUTE_ZERO_C;
   if (tK > c.maxK + EDGE_SLACK_K && c.endsAtCritical) {
     throw new DomainError(
@@ -271,6 +286,7 @@ export function saturationTemperatureC(refrigerant: string, pressureKPaAbs: numb
 
 /** Saturation temperature (°C) from a gauge reading in kPa(g); dew by default, as for manifold gauges. */
 export function saturationTemperatureFromGaugeC(refrigerant: string, kPaG: number, side?: SaturationSide): number {
-  if (typeof kPaG !== 'number' || !Number.isFinite(kPaG)) throw new DomainError('The pressure must be a number.', 'kPaG');
+  if (typeof kPaG !== 'number' || !Number.isFinite(kPaG))
+    throw new DomainError('The pressure must be a number.', 'kPaG');
   return saturationTemperatureC(refrigerant, gaugeToAbsoluteKPa(kPaG), side);
 }

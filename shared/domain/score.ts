@@ -56,7 +56,8 @@ function plural(n: number, one: string, many: string): string {
  */
 export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAULT_SETTINGS): RepeatLeakScore {
   const { rollingLeakRatePct: rate, visitsWithMadeUp, daysFromRepairToRecurrence: gap, sameSpot } = inputs;
-  if (!isFiniteNumber(rate) || rate < 0) throw new DomainError('The rolling leak rate must be 0 % or more.', 'rollingLeakRatePct');
+  if (!isFiniteNumber(rate) || rate < 0)
+    throw new DomainError('The rolling leak rate must be 0 % or more.', 'rollingLeakRatePct');
   if (!Number.isInteger(visitsWithMadeUp) || visitsWithMadeUp < 0) {
     throw new DomainError('The number of visits must be a whole number, 0 or more.', 'visitsWithMadeUp');
   }
@@ -72,7 +73,9 @@ export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAUL
   const fAfter = gap === null ? 0 : gap <= afterRepairDays ? 1 : gap <= rollingDays ? 0.5 : 0;
   const fSame = sameSpot !== null && sameSpot.visits >= 2 ? 1 : 0;
 
-  const since = inputs.rollingSince ? ` since the verified repair on ${inputs.rollingSince}` : ` over ${rollingDays} days`;
+  const since = inputs.rollingSince
+    ? ` since the verified repair on ${inputs.rollingSince}`
+    : ` over ${rollingDays} days`;
   const factor = (value: number, weight: number, explanation: string): ScoreFactor => ({
     value: roundTo(value, 4),
     weight,
@@ -80,7 +83,11 @@ export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAUL
     explanation,
   });
   const factors: Record<ScoreFactorName, ScoreFactor> = {
-    rate: factor(fRate, w.rate, `Rolling leak rate ${roundTo(rate, 1)} % of full charge${since}; ${cap} % or more counts in full.`),
+    rate: factor(
+      fRate,
+      w.rate,
+      `Rolling leak rate ${roundTo(rate, 1)} % of full charge${since}; ${cap} % or more counts in full.`,
+    ),
     count: factor(
       fCount,
       w.count,

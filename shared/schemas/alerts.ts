@@ -6,8 +6,14 @@ export type AlertKind = (typeof ALERT_KINDS)[number];
 
 export const ALERT_KIND_LABELS: Record<AlertKind, { title: string; description: string }> = {
   chronic: { title: 'Chronic leakers', description: 'A unit’s repeat-leak score enters the chronic band.' },
-  leak_rate: { title: 'Leak rate over the threshold', description: 'A unit’s rolling leak rate reaches the policy threshold.' },
-  open_leak: { title: 'Leaks left unrepaired', description: 'A leak was found and is still not repaired after the allowed days.' },
+  leak_rate: {
+    title: 'Leak rate over the threshold',
+    description: 'A unit’s rolling leak rate reaches the policy threshold.',
+  },
+  open_leak: {
+    title: 'Leaks left unrepaired',
+    description: 'A leak was found and is still not repaired after the allowed days.',
+  },
   digest: { title: 'Daily digest', description: 'Leak checks due, forecast top-ups and PTIs running out, once a day.' },
 };
 

@@ -37,7 +37,11 @@ export const recordDecisionSchema = z.object({
   economics: economicsSchema,
   inputs: decisionInputsSchema,
   note: z.string().trim().max(2000).optional(),
-  idempotencyKey: z.string().min(8).max(64).regex(/^[\w-]+$/, 'Bad idempotency key'),
+  idempotencyKey: z
+    .string()
+    .min(8)
+    .max(64)
+    .regex(/^[\w-]+$/, 'Bad idempotency key'),
 });
 export type RecordDecisionInput = z.infer<typeof recordDecisionSchema>;
 export type RecordDecisionBody = z.input<typeof recordDecisionSchema>;
@@ -68,7 +72,10 @@ export type UnitDecisionDto = {
   economics: EconomicsSettings;
   result: RepairOptionsResult;
   /** Where the default leak location and the recurrence came from. */
-  sources: { leakLocation: 'open_leak' | 'last_leak_found' | 'last_repair' | 'none'; interval: 'forecast' | 'no_leak_evidence' };
+  sources: {
+    leakLocation: 'open_leak' | 'last_leak_found' | 'last_repair' | 'none';
+    interval: 'forecast' | 'no_leak_evidence';
+  };
   decisions: DecisionRecordDto[];
 };
 

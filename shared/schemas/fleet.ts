@@ -30,7 +30,12 @@ export const refrigerantCodeSchema = z.string().transform((v, ctx) => {
   return r.code;
 });
 
-const positiveId = (what: string) => z.coerce.number({ message: `Not a valid ${what}` }).int().positive().max(2_147_483_647);
+const positiveId = (what: string) =>
+  z.coerce
+    .number({ message: `Not a valid ${what}` })
+    .int()
+    .positive()
+    .max(2_147_483_647);
 
 export const fleetFiltersSchema = z.object({
   siteId: positiveId('site').optional(),
@@ -50,7 +55,12 @@ export const fleetFiltersSchema = z.object({
     .string()
     .max(20, 'Type at most 11 characters')
     .transform(normalizeContainerNumber)
-    .pipe(z.string().max(11, 'Type at most 11 characters').regex(/^[A-Z0-9]*$/, 'Letters and digits only'))
+    .pipe(
+      z
+        .string()
+        .max(11, 'Type at most 11 characters')
+        .regex(/^[A-Z0-9]*$/, 'Letters and digits only'),
+    )
     .optional(),
 });
 export type FleetFilters = z.output<typeof fleetFiltersSchema>;
@@ -58,11 +68,18 @@ export type FleetFilters = z.output<typeof fleetFiltersSchema>;
 export const fleetQuerySchema = fleetFiltersSchema.extend({
   sort: z.enum(FLEET_SORTS, { message: `Sort by one of ${FLEET_SORTS.join(', ')}` }).default('score'),
   dir: z.enum(['asc', 'desc']).default('desc'),
-  page: z.coerce.number().int().min(1).max(FLEET_MAX_PAGE, `Pages go up to ${FLEET_MAX_PAGE}; narrow the filters`).default(1),
+  page: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(FLEET_MAX_PAGE, `Pages go up to ${FLEET_MAX_PAGE}; narrow the filters`)
+    .default(1),
   pageSize: z.coerce
     .number()
     .int()
-    .refine((n) => (FLEET_PAGE_SIZES as readonly number[]).includes(n), { message: `Use a page size of ${FLEET_PAGE_SIZES.join(', ')}` })
+    .refine((n) => (FLEET_PAGE_SIZES as readonly number[]).includes(n), {
+      message: `Use a page size of ${FLEET_PAGE_SIZES.join(', ')}`,
+    })
     .default(FLEET_DEFAULT_PAGE_SIZE),
   /** Also count the matches (the client asks only when the filters change). */
   count: flag,
@@ -148,7 +165,15 @@ export type FleetOverviewDto = {
     computedAt: string | null;
     holdDays: number;
     minRepairs: number;
-    rows: { location: string; action: string | null; repairs: number; held: number; recurred: number; pending: number; holdRatePct: number | null }[];
+    rows: {
+      location: string;
+      action: string | null;
+      repairs: number;
+      held: number;
+      recurred: number;
+      pending: number;
+      holdRatePct: number | null;
+    }[];
   };
   leakChecksDue: {
     days: number;
@@ -200,7 +225,11 @@ export const traceQuerySchema = z
       ctx.addIssue({ code: 'custom', message: 'Search by cylinder or lot, or by site and dates', path: ['cylinder'] });
     }
     if (q.siteId && !q.cylinder && (!q.from || !q.to)) {
-      ctx.addIssue({ code: 'custom', message: 'Give the first and last day for a search by site', path: [q.from ? 'to' : 'from'] });
+      ctx.addIssue({
+        code: 'custom',
+        message: 'Give the first and last day for a search by site',
+        path: [q.from ? 'to' : 'from'],
+      });
     }
     if (q.from && q.to) {
       if (q.to < q.from) ctx.addIssue({ code: 'custom', message: 'The last day is before the first', path: ['to'] });
@@ -243,7 +272,11 @@ export const markForInspectionSchema = z.object({
   }),
   reason: z.string().trim().min(3, 'Say why these units are marked').max(500),
   /** Chosen by the client: a retried request marks nothing twice. */
-  idempotencyKey: z.string().min(8).max(40).regex(/^[\w-]+$/, 'Bad idempotency key'),
+  idempotencyKey: z
+    .string()
+    .min(8)
+    .max(40)
+    .regex(/^[\w-]+$/, 'Bad idempotency key'),
 });
 export type MarkForInspectionInput = z.infer<typeof markForInspectionSchema>;
 

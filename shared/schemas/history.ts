@@ -31,7 +31,12 @@ const kg = z
   .max(1000, 'That mass is not plausible for a reefer unit');
 const cylinder = z.string().trim().min(1, 'Enter the cylinder or lot number').max(MAX_CYLINDER_LENGTH);
 const massEntered = z.object({ value: z.number(), unit: z.enum(MASS_UNITS) }).optional();
-const celsius = (label: string) => z.number({ message: `Enter the ${label} in °C` }).min(-80).max(90).optional();
+const celsius = (label: string) =>
+  z
+    .number({ message: `Enter the ${label} in °C` })
+    .min(-80)
+    .max(90)
+    .optional();
 const kPaG = (label: string) =>
   z
     .number({ message: `Enter the ${label} pressure` })
@@ -50,7 +55,10 @@ const leakCheckEvent = z
     note: optionalNote,
   })
   .refine((e) => !e.leakFound || e.location, { message: 'Say where the leak is', path: ['location'] })
-  .refine((e) => e.location !== 'other' || e.locationOther, { message: 'Describe the location', path: ['locationOther'] });
+  .refine((e) => e.location !== 'other' || e.locationOther, {
+    message: 'Describe the location',
+    path: ['locationOther'],
+  });
 const repairEvent = z
   .object({
     kind: z.literal('repair'),
@@ -61,14 +69,21 @@ const repairEvent = z
     verified: z.boolean(),
     note: optionalNote,
   })
-  .refine((e) => e.location !== 'other' || e.locationOther, { message: 'Describe the location', path: ['locationOther'] })
+  .refine((e) => e.location !== 'other' || e.locationOther, {
+    message: 'Describe the location',
+    path: ['locationOther'],
+  })
   .refine((e) => e.action !== 'other' || e.actionOther, { message: 'Describe what was done', path: ['actionOther'] });
 const componentEvent = z.object({
   kind: z.literal('component_replacement'),
   component: z.string().trim().min(1, 'Name the component').max(120),
   note: optionalNote,
 });
-const statusEvent = z.object({ kind: z.literal('status_change'), status: z.enum(UNIT_STATUS_VALUES), note: optionalNote });
+const statusEvent = z.object({
+  kind: z.literal('status_change'),
+  status: z.enum(UNIT_STATUS_VALUES),
+  note: optionalNote,
+});
 const noteEvent = z.object({ kind: z.literal('note'), note: note.min(1, 'Write the note') });
 const topUpEvent = z.object({
   kind: z.literal('top_up'),
@@ -101,7 +116,11 @@ const pressureEvent = z
     suctionKPaG: kPaG('suction'),
     dischargeKPaG: kPaG('discharge'),
     ambientC: celsius('ambient temperature'),
-    setPointC: z.number().min(-40, 'Set points run from −40 to +30 °C').max(30, 'Set points run from −40 to +30 °C').optional(),
+    setPointC: z
+      .number()
+      .min(-40, 'Set points run from −40 to +30 °C')
+      .max(30, 'Set points run from −40 to +30 °C')
+      .optional(),
     supplyAirC: celsius('supply air temperature'),
     returnAirC: celsius('return air temperature'),
     sightGlass: z.enum(SIGHT_GLASS_STATE_IDS).optional(),
@@ -131,7 +150,11 @@ export type VisitEventInput = z.infer<typeof visitEventSchema>;
 export type VisitEventKind = VisitEventInput['kind'];
 
 export const recordVisitSchema = z.object({
-  idempotencyKey: z.string().min(8).max(64).regex(/^[\w-]+$/, 'Bad idempotency key'),
+  idempotencyKey: z
+    .string()
+    .min(8)
+    .max(64)
+    .regex(/^[\w-]+$/, 'Bad idempotency key'),
   unitId: z.number().int().positive(),
   siteId: z.number().int().positive().nullable().optional(),
   occurredAt: momentSchema({ format: 'Enter when the work was done' }),
@@ -230,7 +253,19 @@ export type UnitHistoryDto = { events: EventDto[]; nextBefore: number | null };
 
 export type TimelineEventDto = Pick<
   EventDto,
-  'id' | 'visitId' | 'kind' | 'occurredAt' | 'kg' | 'leakFound' | 'location' | 'verified' | 'passed' | 'suctionKPaG' | 'dischargeKPaG' | 'ambientC' | 'sightGlass'
+  | 'id'
+  | 'visitId'
+  | 'kind'
+  | 'occurredAt'
+  | 'kg'
+  | 'leakFound'
+  | 'location'
+  | 'verified'
+  | 'passed'
+  | 'suctionKPaG'
+  | 'dischargeKPaG'
+  | 'ambientC'
+  | 'sightGlass'
 > & { voided: boolean };
 
 /** The timeline's events, and the pressure snapshots with saturation temperatures the engine derives from them. */

@@ -72,7 +72,12 @@ export type SettingsDto = {
 };
 
 export type SettingsHistoryDto = {
-  versions: { version: number; updatedAt: string; updatedBy: { id: string; name: string }; sections: SettingsSection[] }[];
+  versions: {
+    version: number;
+    updatedAt: string;
+    updatedBy: { id: string; name: string };
+    sections: SettingsSection[];
+  }[];
 };
 
 /** Which sections differ between two settings objects. */

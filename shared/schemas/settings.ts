@@ -50,7 +50,10 @@ const scoreSchema = z
     watchFrom: z.number().min(0).max(100).default(30),
     chronicFrom: z.number().min(0).max(100).default(60),
   })
-  .refine((s) => s.watchFrom < s.chronicFrom, { message: 'The "watch" band must start below the "chronic" band.', path: ['chronicFrom'] });
+  .refine((s) => s.watchFrom < s.chronicFrom, {
+    message: 'The "watch" band must start below the "chronic" band.',
+    path: ['chronicFrom'],
+  });
 
 const windowsSchema = z
   .object({

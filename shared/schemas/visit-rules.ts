@@ -47,7 +47,8 @@ export function visitPlausibilityIssues(
       for (const key of ['suctionKPaG', 'dischargeKPaG'] as const) {
         const v = e[key];
         if (v !== undefined && v > maxKPaG) {
-          fields[at(key)] = `${Math.round(v)} kPa is above what an ${unit.refrigerant} unit shows; check the gauge and the unit`;
+          fields[at(key)] =
+            `${Math.round(v)} kPa is above what an ${unit.refrigerant} unit shows; check the gauge and the unit`;
         }
       }
       if (e.suctionKPaG !== undefined && e.dischargeKPaG !== undefined && e.suctionKPaG > e.dischargeKPaG) {

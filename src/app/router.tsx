@@ -30,7 +30,12 @@ export function createAppRouter(queryClient: QueryClient) {
       { path: paths.passwordReset.path, module: () => import('./routes/auth/reset-password') },
       { path: paths.forgotPassword.path, module: () => import('./routes/auth/forgot-password') },
       { path: paths.unsubscribe.path, module: () => import('./routes/auth/unsubscribe') },
-    ].map(({ path, module }) => ({ path, ...lazyPage(module, queryClient), errorElement: <FullPageRouteError />, hydrateFallbackElement: <AppSplash /> })),
+    ].map(({ path, module }) => ({
+      path,
+      ...lazyPage(module, queryClient),
+      errorElement: <FullPageRouteError />,
+      hydrateFallbackElement: <AppSplash />,
+    })),
     {
       path: paths.home.path,
       ...page(protectedLayout, queryClient),
@@ -41,29 +46,81 @@ export function createAppRouter(queryClient: QueryClient) {
           errorElement: <RouteError />,
           children: [
             { index: true, ...lazyPage(() => import('./routes/app/home'), queryClient) },
-            { path: paths.units.path, ...lazyPage(() => import('./routes/units/units'), queryClient, paths.units.permission) },
-            { path: paths.newUnit.path, ...lazyPage(() => import('./routes/units/new-unit'), queryClient, paths.newUnit.permission) },
-            { path: paths.unitImport.path, ...lazyPage(() => import('./routes/units/import'), queryClient, paths.unitImport.permission) },
+            {
+              path: paths.units.path,
+              ...lazyPage(() => import('./routes/units/units'), queryClient, paths.units.permission),
+            },
+            {
+              path: paths.newUnit.path,
+              ...lazyPage(() => import('./routes/units/new-unit'), queryClient, paths.newUnit.permission),
+            },
+            {
+              path: paths.unitImport.path,
+              ...lazyPage(() => import('./routes/units/import'), queryClient, paths.unitImport.permission),
+            },
             { path: paths.unit.path, ...page(unitRoute, queryClient, paths.unit.permission) },
-            { path: paths.editUnit.path, ...lazyPage(() => import('./routes/units/edit-unit'), queryClient, paths.editUnit.permission) },
-            { path: paths.sites.path, ...lazyPage(() => import('./routes/units/sites'), queryClient, paths.sites.permission) },
+            {
+              path: paths.editUnit.path,
+              ...lazyPage(() => import('./routes/units/edit-unit'), queryClient, paths.editUnit.permission),
+            },
+            {
+              path: paths.sites.path,
+              ...lazyPage(() => import('./routes/units/sites'), queryClient, paths.sites.permission),
+            },
             { path: paths.labelLink.path, ...page(labelLinkRoute, queryClient, paths.labelLink.permission) },
-            { path: paths.scan.path, ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission) },
+            {
+              path: paths.scan.path,
+              ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission),
+            },
             {
               path: paths.unitVisit.path,
               ...lazyPage(() => import('./routes/units/record-visit'), queryClient, paths.unitVisit.permission),
             },
-            { path: paths.people.path, ...lazyPage(() => import('./routes/people/people'), queryClient, paths.people.permission) },
-            { path: paths.alertSettings.path, ...lazyPage(() => import('./routes/settings/alerts'), queryClient, paths.alertSettings.permission) },
-            { path: paths.mailbox.path, ...lazyPage(() => import('./routes/admin/mailbox'), queryClient, paths.mailbox.permission) },
-            { path: paths.fleet.path, ...lazyPage(() => import('./routes/fleet/fleet'), queryClient, paths.fleet.permission) },
-            { path: paths.fleetOverview.path, ...lazyPage(() => import('./routes/fleet/overview'), queryClient, paths.fleetOverview.permission) },
-            { path: paths.fleetTrace.path, ...lazyPage(() => import('./routes/fleet/trace'), queryClient, paths.fleetTrace.permission) },
-            { path: paths.refrigerantLog.path, ...lazyPage(() => import('./routes/refrigerant-log/refrigerant-log'), queryClient, paths.refrigerantLog.permission) },
-            { path: paths.decisions.path, ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission) },
-            { path: paths.unitDecision.path, ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission) },
+            {
+              path: paths.people.path,
+              ...lazyPage(() => import('./routes/people/people'), queryClient, paths.people.permission),
+            },
+            {
+              path: paths.alertSettings.path,
+              ...lazyPage(() => import('./routes/settings/alerts'), queryClient, paths.alertSettings.permission),
+            },
+            {
+              path: paths.mailbox.path,
+              ...lazyPage(() => import('./routes/admin/mailbox'), queryClient, paths.mailbox.permission),
+            },
+            {
+              path: paths.fleet.path,
+              ...lazyPage(() => import('./routes/fleet/fleet'), queryClient, paths.fleet.permission),
+            },
+            {
+              path: paths.fleetOverview.path,
+              ...lazyPage(() => import('./routes/fleet/overview'), queryClient, paths.fleetOverview.permission),
+            },
+            {
+              path: paths.fleetTrace.path,
+              ...lazyPage(() => import('./routes/fleet/trace'), queryClient, paths.fleetTrace.permission),
+            },
+            {
+              path: paths.refrigerantLog.path,
+              ...lazyPage(
+                () => import('./routes/refrigerant-log/refrigerant-log'),
+                queryClient,
+                paths.refrigerantLog.permission,
+              ),
+            },
+            {
+              path: paths.decisions.path,
+              ...lazyPage(() => import('./routes/decisions/candidates'), queryClient, paths.decisions.permission),
+            },
+            {
+              path: paths.unitDecision.path,
+              ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission),
+            },
             { path: paths.account.path, ...lazyPage(() => import('./routes/account/account'), queryClient) },
-            { path: paths.settings.path, ...lazyPage(() => import('./routes/settings/settings'), queryClient, paths.settings.permission) },
+            {
+              path: paths.settings.path,
+              ...lazyPage(() => import('./routes/settings/settings'), queryClient, paths.settings.permission),
+            },
             { path: '*', ...page(notFoundRoute, queryClient) },
           ],
         },

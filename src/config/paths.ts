@@ -26,7 +26,9 @@ export const paths = {
     path: '/sign-in',
     getHref: (next?: string | null) => {
       const target = safeNext(next);
-      return target === '/' || target.startsWith('/sign-in') ? '/sign-in' : `/sign-in?next=${encodeURIComponent(target)}`;
+      return target === '/' || target.startsWith('/sign-in')
+        ? '/sign-in'
+        : `/sign-in?next=${encodeURIComponent(target)}`;
     },
   },
   units: {
@@ -149,7 +151,19 @@ export const paths = {
   },
 } as const satisfies Record<string, PathEntry>;
 
-export type NavIcon = 'home' | 'units' | 'people' | 'alerts' | 'mail' | 'scan' | 'import' | 'fleet' | 'log' | 'decisions' | 'settings' | 'account';
+export type NavIcon =
+  | 'home'
+  | 'units'
+  | 'people'
+  | 'alerts'
+  | 'mail'
+  | 'scan'
+  | 'import'
+  | 'fleet'
+  | 'log'
+  | 'decisions'
+  | 'settings'
+  | 'account';
 
 export type NavEntry = {
   label: string;
@@ -175,6 +189,12 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'Log', href: paths.refrigerantLog.getHref(), icon: 'log', permission: paths.refrigerantLog.permission },
   { label: 'Decisions', href: paths.decisions.getHref(), icon: 'decisions', permission: paths.decisions.permission },
   { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: paths.settings.permission },
-  { label: 'Mailbox', href: paths.mailbox.getHref(), icon: 'mail', permission: paths.mailbox.permission, devOnly: true },
+  {
+    label: 'Mailbox',
+    href: paths.mailbox.getHref(),
+    icon: 'mail',
+    permission: paths.mailbox.permission,
+    devOnly: true,
+  },
   { label: 'Account', href: paths.account.getHref(), icon: 'account' },
 ];

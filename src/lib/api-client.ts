@@ -65,7 +65,13 @@ async function toApiError(response: Response): Promise<ApiError> {
   const message =
     FALLBACK_MESSAGES[response.status] ??
     (response.status >= 500 ? 'The server had a problem. Try again in a moment.' : 'The request failed.');
-  return new ApiError(response.status, response.status >= 500 ? 'server_error' : 'http_error', message, undefined, retryAfter);
+  return new ApiError(
+    response.status,
+    response.status >= 500 ? 'server_error' : 'http_error',
+    message,
+    undefined,
+    retryAfter,
+  );
 }
 
 async function request<T>(method: string, url: string, body?: unknown, signal?: AbortSignal): Promise<T> {
@@ -91,7 +97,8 @@ async function request<T>(method: string, url: string, body?: unknown, signal?: 
 
 export const apiClient = {
   get: <T>(url: string, options?: { signal?: AbortSignal }) => request<T>('GET', url, undefined, options?.signal),
-  post: <T>(url: string, body?: unknown, options?: { signal?: AbortSignal }) => request<T>('POST', url, body, options?.signal),
+  post: <T>(url: string, body?: unknown, options?: { signal?: AbortSignal }) =>
+    request<T>('POST', url, body, options?.signal),
   patch: <T>(url: string, body: unknown) => request<T>('PATCH', url, body),
   put: <T>(url: string, body: unknown) => request<T>('PUT', url, body),
   delete: <T>(url: string) => request<T>('DELETE', url),

@@ -32,7 +32,10 @@ const NEW_PASSWORD = 'a-brand-new-passphrase';
 
 async function invite(email: string) {
   const { agent } = await signInAs(app, db, 'admin');
-  const res = await agent.post('/api/users').set('Origin', TEST_ORIGIN).send({ email, name: 'Mara Quell', role: 'technician' });
+  const res = await agent
+    .post('/api/users')
+    .set('Origin', TEST_ORIGIN)
+    .send({ email, name: 'Mara Quell', role: 'technician' });
   expect(res.status).toBe(201);
   await worker.drain();
   const mail = smtp.messages.find((m) => m.envelopeTo.includes(email));
@@ -55,7 +58,10 @@ describe('invitations', () => {
     expect(hours).toBeLessThanOrEqual(72);
 
     const agent = request.agent(app);
-    const accepted = await agent.post(`/api/invitations/${token}`).set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+    const accepted = await agent
+      .post(`/api/invitations/${token}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: NEW_PASSWORD });
     expect(accepted.status).toBe(200);
     expect(accepted.body.user.email).toBe('mara.quell@halyard.example');
     expect((await agent.get('/api/auth/me')).status).toBe(200);
@@ -66,7 +72,10 @@ describe('invitations', () => {
       .send({ email: 'mara.quell@halyard.example', password: NEW_PASSWORD });
     expect(signIn.status).toBe(200);
 
-    const again = await request(app).post(`/api/invitations/${token}`).set('Origin', TEST_ORIGIN).send({ password: 'another-passphrase' });
+    const again = await request(app)
+      .post(`/api/invitations/${token}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: 'another-passphrase' });
     expect(again.status).toBe(410);
     expect(again.body.error).toMatchObject({ code: 'link_used', message: expect.stringMatching(/already been used/) });
   });
@@ -83,21 +92,34 @@ describe('invitations', () => {
 
   it('sends no invitation when the admin sets the password', async () => {
     const { agent } = await signInAs(app, db, 'admin');
-    const res = await agent
-      .post('/api/users')
-      .set('Origin', TEST_ORIGIN)
-      .send({ email: 'has.password@halyard.example', name: 'Has Password', role: 'owner', password: 'set-by-the-admin' });
+    const res = await agent.post('/api/users').set('Origin', TEST_ORIGIN).send({
+      email: 'has.password@halyard.example',
+      name: 'Has Password',
+      role: 'owner',
+      password: 'set-by-the-admin',
+    });
     expect(res.status).toBe(201);
-    expect(await db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, 'has.password@halyard.example'))).toHaveLength(0);
+    expect(
+      await db.select().from(mailOutbox).where(eq(mailOutbox.toAddress, 'has.password@halyard.example')),
+    ).toHaveLength(0);
   });
 
   it('fails an expired invitation with a clear message', async () => {
     const { user, url } = await invite('late.comer@halyard.example');
-    await db.update(accountLinks).set({ expiresAt: new Date(clock.now().getTime() - 1000) }).where(eq(accountLinks.userId, user.id));
+    await db
+      .update(accountLinks)
+      .set({ expiresAt: new Date(clock.now().getTime() - 1000) })
+      .where(eq(accountLinks.userId, user.id));
     const shown = await request(app).get(`/api/invitations/${tokenOf(url)}`);
     expect(shown.status).toBe(410);
-    expect(shown.body.error).toEqual({ code: 'link_expired', message: 'This invitation has expired. Ask an administrator to send you a new one.' });
-    const accept = await request(app).post(`/api/invitations/${tokenOf(url)}`).set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+    expect(shown.body.error).toEqual({
+      code: 'link_expired',
+      message: 'This invitation has expired. Ask an administrator to send you a new one.',
+    });
+    const accept = await request(app)
+      .post(`/api/invitations/${tokenOf(url)}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: NEW_PASSWORD });
     expect(accept.status).toBe(410);
     const [row] = await db.select().from(users).where(eq(users.id, user.id));
     expect(row.passwordHash).toBeNull();
@@ -113,19 +135,28 @@ describe('invitations', () => {
     const second = linkIn(smtp.messages[0].text, `${PUBLIC_URL}/invite/`);
     expect(second).not.toBe(first);
     expect((await request(app).get(`/api/invitations/${tokenOf(first)}`)).body.error.code).toBe('link_expired');
-    const ok = await request(app).post(`/api/invitations/${tokenOf(second)}`).set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+    const ok = await request(app)
+      .post(`/api/invitations/${tokenOf(second)}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: NEW_PASSWORD });
     expect(ok.status).toBe(200);
   });
 
   it('answers re-send with 404 for an unknown user, 409 once a password is set, 403 for non-admins, 401 signed out', async () => {
     const { agent: admin } = await signInAs(app, db, 'admin');
-    expect((await admin.post('/api/users/no-such-user/invitation').set('Origin', TEST_ORIGIN).send({})).status).toBe(404);
+    expect((await admin.post('/api/users/no-such-user/invitation').set('Origin', TEST_ORIGIN).send({})).status).toBe(
+      404,
+    );
     const withPassword = await createTestUser(db);
     const conflict = await admin.post(`/api/users/${withPassword.id}/invitation`).set('Origin', TEST_ORIGIN).send({});
     expect(conflict.status).toBe(409);
     const { agent: engineer } = await signInAs(app, db, 'engineer');
-    expect((await engineer.post(`/api/users/${withPassword.id}/invitation`).set('Origin', TEST_ORIGIN).send({})).status).toBe(403);
-    expect((await request(app).post(`/api/users/${withPassword.id}/invitation`).set('Origin', TEST_ORIGIN).send({})).status).toBe(401);
+    expect(
+      (await engineer.post(`/api/users/${withPassword.id}/invitation`).set('Origin', TEST_ORIGIN).send({})).status,
+    ).toBe(403);
+    expect(
+      (await request(app).post(`/api/users/${withPassword.id}/invitation`).set('Origin', TEST_ORIGIN).send({})).status,
+    ).toBe(401);
   });
 
   it('answers 404 for an unknown link and 400 for a short password', async () => {
@@ -133,7 +164,10 @@ describe('invitations', () => {
     expect(unknown.status).toBe(404);
     expect(unknown.body.error.code).toBe('link_invalid');
     const { url } = await invite('short.pw@halyard.example');
-    const short = await request(app).post(`/api/invitations/${tokenOf(url)}`).set('Origin', TEST_ORIGIN).send({ password: 'short' });
+    const short = await request(app)
+      .post(`/api/invitations/${tokenOf(url)}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: 'short' });
     expect(short.status).toBe(400);
     expect(short.body.error.fields.password).toBeTruthy();
   });
@@ -165,17 +199,29 @@ describe('password reset', () => {
 
     expect((await request(app).get(`/api/password-reset/${token}`)).body.email).toBe(user.email);
     const here = request.agent(app);
-    const done = await here.post(`/api/password-reset/${token}`).set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+    const done = await here
+      .post(`/api/password-reset/${token}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: NEW_PASSWORD });
     expect(done.status).toBe(200);
     expect((await here.get('/api/auth/me')).status).toBe(200);
     expect((await elsewhere.get('/api/auth/me')).status).toBe(401);
 
-    const oldPw = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: TEST_PASSWORD });
+    const oldPw = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(oldPw.status).toBe(401);
-    const newPw = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: NEW_PASSWORD });
+    const newPw = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: NEW_PASSWORD });
     expect(newPw.status).toBe(200);
 
-    const twice = await request(app).post(`/api/password-reset/${token}`).set('Origin', TEST_ORIGIN).send({ password: 'yet-another-passphrase' });
+    const twice = await request(app)
+      .post(`/api/password-reset/${token}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: 'yet-another-passphrase' });
     expect(twice.status).toBe(410);
     expect(twice.body.error.code).toBe('link_used');
   });
@@ -187,7 +233,10 @@ describe('password reset', () => {
     const token = tokenOf(linkIn(smtp.messages[0].text, `${PUBLIC_URL}/reset/`));
     clock.advance(61 * 60_000);
     try {
-      const res = await request(app).post(`/api/password-reset/${token}`).set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+      const res = await request(app)
+        .post(`/api/password-reset/${token}`)
+        .set('Origin', TEST_ORIGIN)
+        .send({ password: NEW_PASSWORD });
       expect(res.status).toBe(410);
       expect(res.body.error).toEqual({
         code: 'link_expired',
@@ -209,7 +258,10 @@ describe('password reset', () => {
     const bad = await requestReset('not-an-address');
     expect(bad.status).toBe(400);
     expect(bad.body.error.fields.email).toBeTruthy();
-    const unknown = await request(app).post('/api/password-reset/nope').set('Origin', TEST_ORIGIN).send({ password: NEW_PASSWORD });
+    const unknown = await request(app)
+      .post('/api/password-reset/nope')
+      .set('Origin', TEST_ORIGIN)
+      .send({ password: NEW_PASSWORD });
     expect(unknown.status).toBe(404);
     expect(unknown.body.error.code).toBe('link_invalid');
   });
@@ -218,8 +270,13 @@ describe('password reset', () => {
     // The counters live in MariaDB and every app on this database shares them: start from none.
     await db.delete(rateLimits);
     const limited = createApp({ db, mailer, clock, rateLimits: { resetPerEmail: 2, resetPerIp: 4 } }).app;
-    const send = (email: string) => request(limited).post('/api/password-reset').set('Origin', TEST_ORIGIN).send({ email });
-    const sameAddress = [await send('same@halyard.example'), await send('SAME@halyard.example'), await send('same@halyard.example')];
+    const send = (email: string) =>
+      request(limited).post('/api/password-reset').set('Origin', TEST_ORIGIN).send({ email });
+    const sameAddress = [
+      await send('same@halyard.example'),
+      await send('SAME@halyard.example'),
+      await send('same@halyard.example'),
+    ];
     expect(sameAddress.map((r) => r.status)).toEqual([202, 202, 429]);
     expect(sameAddress[2].body.error.code).toBe('rate_limited');
     const others = [await send('a@halyard.example'), await send('b@halyard.example')];

@@ -28,7 +28,10 @@ let unitCounter = 0;
 
 async function createSite(name: string) {
   siteCounter += 1;
-  const [r] = await db.insert(sites).values({ code: `HLY${siteCounter}`, name, kind: 'depot' }).$returningId();
+  const [r] = await db
+    .insert(sites)
+    .values({ code: `HLY${siteCounter}`, name, kind: 'depot' })
+    .$returningId();
   return r.id;
 }
 
@@ -46,7 +49,10 @@ async function createUnit(siteId: number) {
 /** Writes the unit's statistics row and returns it as it now stands in the database. */
 async function setStats(unitId: number, values: Partial<UnitStatsRow>, on: DbOrTx = db): Promise<UnitStatsRow> {
   const row = { unitId, computedAt: clock.now(), ...values };
-  await on.insert(unitStats).values(row).onDuplicateKeyUpdate({ set: { ...values, computedAt: row.computedAt } });
+  await on
+    .insert(unitStats)
+    .values(row)
+    .onDuplicateKeyUpdate({ set: { ...values, computedAt: row.computedAt } });
   const [stored] = await on.select().from(unitStats).where(eq(unitStats.unitId, unitId));
   return stored;
 }
@@ -58,11 +64,20 @@ async function subscribe(agent: TestAgent, subscriptions: { siteId: number; kind
 }
 
 /** Recomputes "the history" the way the service history does: new stats inside a transaction, then alerts. */
-async function statsChange(unit: { id: number; containerNumber: string; siteId: number }, values: Partial<UnitStatsRow>) {
+async function statsChange(
+  unit: { id: number; containerNumber: string; siteId: number },
+  values: Partial<UnitStatsRow>,
+) {
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(unitStats).where(eq(unitStats.unitId, unit.id)).for('update');
     const after = await setStats(unit.id, values, tx);
-    return queueAlertsForStatsChange(tx, ctx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before: before ?? null, after });
+    return queueAlertsForStatsChange(tx, ctx, {
+      unitId: unit.id,
+      siteId: unit.siteId,
+      containerNumber: unit.containerNumber,
+      before: before ?? null,
+      after,
+    });
   });
 }
 
@@ -93,7 +108,9 @@ describe('alerts on a statistics change', () => {
     expect(smtp.messages).toHaveLength(1);
     const mail = smtp.messages[0];
     expect(mail.envelopeTo).toEqual([user.email]);
-    expect(mail.subject).toBe(`HLXU ${unit.containerNumber.slice(4, 10)} ${unit.containerNumber[10]} is now a repeat leaker (score 66 of 100)`);
+    expect(mail.subject).toBe(
+      `HLXU ${unit.containerNumber.slice(4, 10)} ${unit.containerNumber[10]} is now a repeat leaker (score 66 of 100)`,
+    );
     expect(mail.text).toContain(`${PUBLIC_URL}/units/${unit.id}`);
     expect(mail.html).toContain(`${PUBLIC_URL}/units/${unit.id}`);
     expect(mail.text).toContain('Harbour Row Depot');
@@ -162,7 +179,13 @@ describe('alerts on a statistics change', () => {
     await subscribe(agent, [{ siteId, kind: 'chronic' }]);
     await db.update(users).set({ role: 'technician' }).where(eq(users.id, user.id));
     expect(await statsChange(other, { scoreBand: 'chronic', score: 90 })).toBe(0);
-    const noSite = await queueAlertsForStatsChange(db, ctx, { unitId: other.id, siteId: null, containerNumber: other.containerNumber, before: null, after: null });
+    const noSite = await queueAlertsForStatsChange(db, ctx, {
+      unitId: other.id,
+      siteId: null,
+      containerNumber: other.containerNumber,
+      before: null,
+      after: null,
+    });
     expect(noSite).toBe(0);
   });
 });
@@ -182,7 +205,10 @@ describe('unsubscribing', () => {
     const body = Object.fromEntries(link.searchParams);
     expect(body).toMatchObject({ user: user.id, kind: 'chronic' });
 
-    const forged = await request(app).post('/api/alerts/unsubscribe').set('Origin', TEST_ORIGIN).send({ ...body, kind: 'digest' });
+    const forged = await request(app)
+      .post('/api/alerts/unsubscribe')
+      .set('Origin', TEST_ORIGIN)
+      .send({ ...body, kind: 'digest' });
     expect(forged.status).toBe(404);
     expect(forged.body.error.code).toBe('link_invalid');
 
@@ -194,7 +220,10 @@ describe('unsubscribing', () => {
   });
 
   it('answers 400 for a malformed unsubscribe request', async () => {
-    const res = await request(app).post('/api/alerts/unsubscribe').set('Origin', TEST_ORIGIN).send({ user: 'x', kind: 'everything' });
+    const res = await request(app)
+      .post('/api/alerts/unsubscribe')
+      .set('Origin', TEST_ORIGIN)
+      .send({ user: 'x', kind: 'everything' });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['kind', 'sig']));
   });
@@ -208,7 +237,9 @@ describe('alert settings', () => {
     const empty = await agent.get('/api/alerts/subscriptions');
     expect(empty.status).toBe(200);
     expect(empty.body.subscriptions).toEqual([]);
-    expect(empty.body.sites.map((s: { name: string }) => s.name)).toEqual(expect.arrayContaining(['Alder Wharf', 'Birch Pier']));
+    expect(empty.body.sites.map((s: { name: string }) => s.name)).toEqual(
+      expect.arrayContaining(['Alder Wharf', 'Birch Pier']),
+    );
     await subscribe(agent, [
       { siteId: a, kind: 'digest' },
       { siteId: b, kind: 'chronic' },
@@ -241,10 +272,16 @@ describe('alert settings', () => {
 
   it('answers 400 for an unknown site or kind, 403 for a technician, 401 signed out', async () => {
     const { agent } = await signInAs(app, db, 'engineer');
-    const unknownSite = await agent.put('/api/alerts/subscriptions').set('Origin', TEST_ORIGIN).send({ subscriptions: [{ siteId: 999999, kind: 'digest' }] });
+    const unknownSite = await agent
+      .put('/api/alerts/subscriptions')
+      .set('Origin', TEST_ORIGIN)
+      .send({ subscriptions: [{ siteId: 999999, kind: 'digest' }] });
     expect(unknownSite.status).toBe(400);
     expect(unknownSite.body.error.fields).toEqual({ 'subscriptions.0.siteId': 'No such site' });
-    const badKind = await agent.put('/api/alerts/subscriptions').set('Origin', TEST_ORIGIN).send({ subscriptions: [{ siteId: 1, kind: 'gossip' }] });
+    const badKind = await agent
+      .put('/api/alerts/subscriptions')
+      .set('Origin', TEST_ORIGIN)
+      .send({ subscriptions: [{ siteId: 1, kind: 'gossip' }] });
     expect(badKind.status).toBe(400);
     const { agent: tech } = await signInAs(app, db, 'technician');
     expect((await tech.get('/api/alerts/subscriptions')).status).toBe(403);

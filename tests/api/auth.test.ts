@@ -32,7 +32,10 @@ describe('sign-in', () => {
   it('marks the cookie Secure with the __Host- prefix when PUBLIC_URL is https', async () => {
     const secure = createApp({ db, publicUrl: 'https://tightloop.example' }).app;
     const user = await createTestUser(db);
-    const res = await request(secure).post('/api/auth/sign-in').set('Origin', 'https://tightloop.example').send({ email: user.email, password: TEST_PASSWORD });
+    const res = await request(secure)
+      .post('/api/auth/sign-in')
+      .set('Origin', 'https://tightloop.example')
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(res.status).toBe(200);
     const cookie = String(res.headers['set-cookie']);
     expect(cookie).toMatch(/__Host-tl_session=[^;]+;.*Path=\/;.*Secure/);
@@ -41,7 +44,10 @@ describe('sign-in', () => {
 
   it('gives the same answer for an unknown e-mail and a wrong password', async () => {
     const user = await createTestUser(db);
-    const wrong = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: 'nope-nope-nope' });
+    const wrong = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: 'nope-nope-nope' });
     const unknown = await request(app)
       .post('/api/auth/sign-in')
       .set('Origin', TEST_ORIGIN)
@@ -54,13 +60,19 @@ describe('sign-in', () => {
 
   it('refuses a deactivated account with the same answer as a wrong password', async () => {
     const user = await createTestUser(db, { active: false });
-    const res = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: TEST_PASSWORD });
+    const res = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: TEST_PASSWORD });
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('invalid_credentials');
   });
 
   it('answers 400 with field errors for wrong types, and never a 500', async () => {
-    const res = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: 42, password: ['x'] });
+    const res = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: 42, password: ['x'] });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('invalid_input');
     expect(Object.keys(res.body.error.fields)).toEqual(expect.arrayContaining(['email', 'password']));
@@ -82,7 +94,10 @@ describe('sign-in', () => {
     const limited = createApp({ db, rateLimits: { signInPerIp: 3 } }).app;
     const codes: number[] = [];
     for (let i = 0; i < 4; i++) {
-      const res = await request(limited).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: `x${i}@test.example`, password: 'whatever-x' });
+      const res = await request(limited)
+        .post('/api/auth/sign-in')
+        .set('Origin', TEST_ORIGIN)
+        .send({ email: `x${i}@test.example`, password: 'whatever-x' });
       codes.push(res.status);
     }
     expect(codes).toEqual([401, 401, 401, 429]);
@@ -94,7 +109,10 @@ describe('sign-in', () => {
     const limited = createApp({ db, rateLimits: { signInPerIp: 2 } }).app;
     for (let i = 0; i < 4; i++) {
       const user = await createTestUser(db);
-      const res = await request(limited).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: TEST_PASSWORD });
+      const res = await request(limited)
+        .post('/api/auth/sign-in')
+        .set('Origin', TEST_ORIGIN)
+        .send({ email: user.email, password: TEST_PASSWORD });
       expect(res.status).toBe(200);
     }
   });
@@ -120,7 +138,10 @@ describe('sessions', () => {
 
   it('refuses an expired session', async () => {
     const { agent, user } = await signInAs(app, db, 'technician');
-    await db.update(sessions).set({ expiresAt: new Date(Date.now() - 60_000) }).where(eq(sessions.userId, user.id));
+    await db
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() - 60_000) })
+      .where(eq(sessions.userId, user.id));
     const res = await agent.get('/api/auth/me');
     expect(res.status).toBe(401);
   });
@@ -128,7 +149,10 @@ describe('sessions', () => {
   it('moves the idle deadline on when the session is used', async () => {
     const { agent, user } = await signInAs(app, db, 'engineer');
     const hourAgo = new Date(Date.now() - 3600_000);
-    await db.update(sessions).set({ lastSeenAt: hourAgo, expiresAt: new Date(hourAgo.getTime() + 12 * 3600_000) }).where(eq(sessions.userId, user.id));
+    await db
+      .update(sessions)
+      .set({ lastSeenAt: hourAgo, expiresAt: new Date(hourAgo.getTime() + 12 * 3600_000) })
+      .where(eq(sessions.userId, user.id));
     expect((await agent.get('/api/auth/me')).status).toBe(200);
     const [row] = await db.select().from(sessions).where(eq(sessions.userId, user.id));
     expect(row.lastSeenAt.getTime()).toBeGreaterThan(hourAgo.getTime() + 30 * 60_000);
@@ -139,7 +163,10 @@ describe('sessions', () => {
     const { agent, user } = await signInAs(app, db, 'engineer');
     await db.execute(sql`UPDATE users SET active = false WHERE id = ${user.id}`);
     expect((await agent.get('/api/auth/me')).status).toBe(401);
-    const [left] = await db.select({ n: sql<number>`count(*)` }).from(sessions).where(eq(sessions.userId, user.id));
+    const [left] = await db
+      .select({ n: sql<number>`count(*)` })
+      .from(sessions)
+      .where(eq(sessions.userId, user.id));
     expect(Number(left.n)).toBe(0);
   });
 });

@@ -39,7 +39,10 @@ afterAll(async () => {
 async function writer(role: Role): Promise<{ agent: TestAgent; userId: string }> {
   const user = await createTestUser(db, { role });
   const agent = request.agent(base);
-  const res = await agent.post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: TEST_PASSWORD });
+  const res = await agent
+    .post('/api/auth/sign-in')
+    .set('Origin', TEST_ORIGIN)
+    .send({ email: user.email, password: TEST_PASSWORD });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
   return { agent, userId: user.id };
 }
@@ -51,12 +54,17 @@ function count(t: Tally, what: string, res: { status: number; body: unknown }) {
   t.byStatus.set(res.status, (t.byStatus.get(res.status) ?? 0) + 1);
   if (res.status >= 500) t.serverErrors.push(`${what}: ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`);
 }
-const summary = (t: Tally) => [...t.byStatus].sort(([a], [b]) => a - b).map(([s, n]) => `${s}×${n}`).join(' ');
+const summary = (t: Tally) =>
+  [...t.byStatus]
+    .sort(([a], [b]) => a - b)
+    .map(([s, n]) => `${s}×${n}`)
+    .join(' ');
 
 const pick = <T>(list: readonly T[]) => list[Math.floor(Math.random() * list.length)];
 const between = (lo: number, hi: number) => Math.round((lo + Math.random() * (hi - lo)) * 100) / 100;
 /** A moment in the two years before NOW, so the events fall in several months and in and out of the 365-day window. */
-const someTimeBefore = () => new Date(NOW.getTime() - Math.floor(Math.random() * 700 * 86_400_000) - 60_000).toISOString();
+const someTimeBefore = () =>
+  new Date(NOW.getTime() - Math.floor(Math.random() * 700 * 86_400_000) - 60_000).toISOString();
 
 function randomVisitEvents(): Record<string, unknown>[] {
   switch (Math.floor(Math.random() * 4)) {
@@ -72,18 +80,31 @@ function randomVisitEvents(): Record<string, unknown>[] {
     case 2:
       return [
         { kind: 'top_up', kg: between(0.2, 1), cylinder: 'CYL-A2' },
-        { kind: 'pressure', suctionKPaG: between(60, 140), dischargeKPaG: between(700, 1000), ambientC: between(10, 35), sightGlass: pick(['full', 'bubbles']) },
+        {
+          kind: 'pressure',
+          suctionKPaG: between(60, 140),
+          dischargeKPaG: between(700, 1000),
+          ambientC: between(10, 35),
+          sightGlass: pick(['full', 'bubbles']),
+        },
       ];
     default:
       return [
-        { kind: 'pressure', suctionKPaG: between(60, 140), dischargeKPaG: between(700, 1000), ambientC: between(10, 35) },
+        {
+          kind: 'pressure',
+          suctionKPaG: between(60, 140),
+          dischargeKPaG: between(700, 1000),
+          ambientC: between(10, 35),
+        },
         { kind: 'pti', passed: Math.random() < 0.7 },
       ];
   }
 }
 
 /** The stored figures of each unit against a fresh computation from its events, field by field. */
-async function staleUnits(unitIds: number[]): Promise<{ unitId: number; field: string; stored: unknown; fresh: unknown }[]> {
+async function staleUnits(
+  unitIds: number[],
+): Promise<{ unitId: number; field: string; stored: unknown; fresh: unknown }[]> {
   const settings = await getSettings(db);
   const out: { unitId: number; field: string; stored: unknown; fresh: unknown }[] = [];
   for (const unitId of unitIds) {
@@ -92,7 +113,12 @@ async function staleUnits(unitIds: number[]): Promise<{ unitId: number; field: s
     const [stored] = await db.select().from(unitStats).where(eq(unitStats.unitId, unitId));
     const [storedDetail] = await db.select().from(unitStatsDetail).where(eq(unitStatsDetail.unitId, unitId));
     const last = history.length ? new Date(history[history.length - 1].at) : null;
-    const fresh = statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, NOW.toISOString(), settings), NOW, last);
+    const fresh = statsRowsFrom(
+      unitId,
+      computeUnitStats(engineUnit(unit), history, NOW.toISOString(), settings),
+      NOW,
+      last,
+    );
     for (const [field, value] of Object.entries(fresh.stats)) {
       const s = (stored as Record<string, unknown> | undefined)?.[field];
       const norm = (v: unknown) => (v instanceof Date ? v.toISOString() : typeof v === 'boolean' ? Number(v) : v);
@@ -109,7 +135,13 @@ async function staleUnits(unitIds: number[]): Promise<{ unitId: number; field: s
 async function monthlyMismatches(): Promise<string[]> {
   const problems: string[] = [];
   const rows = await db
-    .select({ visitId: events.visitId, kind: events.kind, kg: events.kg, excluded: events.excludedFromLeakRate, at: events.occurredAt })
+    .select({
+      visitId: events.visitId,
+      kind: events.kind,
+      kg: events.kg,
+      excluded: events.excludedFromLeakRate,
+      at: events.occurredAt,
+    })
     .from(events)
     .where(
       and(
@@ -121,7 +153,13 @@ async function monthlyMismatches(): Promise<string[]> {
   const byVisit = new Map<number, UnitEvent[]>();
   for (const r of rows) {
     const list = byVisit.get(r.visitId!) ?? [];
-    list.push({ kind: r.kind as 'top_up', at: r.at.toISOString(), visitId: 'v', kg: r.kg ?? 0, excluded: Boolean(r.excluded) });
+    list.push({
+      kind: r.kind as 'top_up',
+      at: r.at.toISOString(),
+      visitId: 'v',
+      kg: r.kg ?? 0,
+      excluded: Boolean(r.excluded),
+    });
     byVisit.set(r.visitId!, list);
   }
   const shares = new Map((await db.select().from(visitMadeUp)).map((r) => [r.visitId, r]));
@@ -143,7 +181,9 @@ async function monthlyMismatches(): Promise<string[]> {
     const k = `${m.month}|${m.siteId}|${m.refrigerant}`;
     const want = sums.get(k) ?? { kg: 0, visits: 0 };
     if (Math.abs(want.kg - m.madeUpKg) > 1e-6 || want.visits !== m.visits) {
-      problems.push(`month ${k}: kept ${m.madeUpKg} kg / ${m.visits} visits, visits say ${want.kg} kg / ${want.visits}`);
+      problems.push(
+        `month ${k}: kept ${m.madeUpKg} kg / ${m.visits} visits, visits say ${want.kg} kg / ${want.visits}`,
+      );
     }
     sums.delete(k);
   }
@@ -162,7 +202,9 @@ const report = (line: string) => process.stdout.write(`  [concurrency] ${line}\n
 
 describe('writers side by side', () => {
   it('answers 20 technicians recording top-ups on the same few units at once without a server error', async () => {
-    const unitList = await Promise.all([0, 1, 2].map(() => createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2020-01-01' })));
+    const unitList = await Promise.all(
+      [0, 1, 2].map(() => createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2020-01-01' })),
+    );
     const techs = await Promise.all(Array.from({ length: 20 }, () => writer('technician')));
     const t = tally();
     const until = Date.now() + 4_000;
@@ -191,7 +233,9 @@ describe('writers side by side', () => {
 
   it('keeps every figure, void and monthly total right under 16 mixed writers and two settings changes for 10 seconds', async () => {
     const unitList = await Promise.all(
-      [0, 1, 2, 3, 4, 5].map(() => createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2020-01-01', refrigerant: 'R-134a' })),
+      [0, 1, 2, 3, 4, 5].map(() =>
+        createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2020-01-01', refrigerant: 'R-134a' }),
+      ),
     );
     const roles: Role[] = ['technician', 'engineer'];
     const writers = await Promise.all(Array.from({ length: 16 }, (_, i) => writer(roles[i % 2])));
@@ -208,7 +252,10 @@ describe('writers side by side', () => {
         const res = await admin.agent
           .put('/api/settings')
           .set('Origin', TEST_ORIGIN)
-          .send({ settings: { ...current.body.settings, ptiValidityDays: days }, baseVersion: current.body.version || null });
+          .send({
+            settings: { ...current.body.settings, ptiValidityDays: days },
+            baseVersion: current.body.version || null,
+          });
         count(t, 'settings', res);
       }
     })();
@@ -222,16 +269,27 @@ describe('writers side by side', () => {
             const res = await agent
               .post('/api/visits')
               .set('Origin', TEST_ORIGIN)
-              .send({ idempotencyKey: randomUUID(), unitId: pick(unitList).id, occurredAt: someTimeBefore(), events: randomVisitEvents() });
+              .send({
+                idempotencyKey: randomUUID(),
+                unitId: pick(unitList).id,
+                occurredAt: someTimeBefore(),
+                events: randomVisitEvents(),
+              });
             count(t, 'visit', res);
-            if (res.status === 201) for (const e of res.body.events as { id: number }[]) recent.push({ id: e.id, by: userId });
+            if (res.status === 201)
+              for (const e of res.body.events as { id: number }[]) recent.push({ id: e.id, by: userId });
           } else if (roll < 0.85) {
             const mine = engineer ? recent.slice(-6) : recent.filter((e) => e.by === userId).slice(-3);
             if (!mine.length) continue;
             const target = pick(mine);
             // The same entry from several writers at once: a burst of three.
             const burst = await Promise.all(
-              [0, 1, 2].map(() => agent.post(`/api/events/${target.id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Entered on the wrong unit' })),
+              [0, 1, 2].map(() =>
+                agent
+                  .post(`/api/events/${target.id}/void`)
+                  .set('Origin', TEST_ORIGIN)
+                  .send({ reason: 'Entered on the wrong unit' }),
+              ),
             );
             for (const res of burst) count(t, 'void', res);
           } else if (engineer) {
@@ -256,7 +314,9 @@ describe('writers side by side', () => {
     const stale = await staleUnits(unitList.map((u) => u.id));
     const monthly = await monthlyMismatches();
     const duplicates = await duplicateVoids();
-    report(`mixed: ${t.total} requests, ${summary(t)}; stale figures ${stale.length}, monthly mismatches ${monthly.length}, doubly voided entries ${duplicates}`);
+    report(
+      `mixed: ${t.total} requests, ${summary(t)}; stale figures ${stale.length}, monthly mismatches ${monthly.length}, doubly voided entries ${duplicates}`,
+    );
     expect(t.serverErrors).toEqual([]);
     expect(t.total).toBeGreaterThan(100);
     // Only refusals a person can act on: a second void of the same entry (409).

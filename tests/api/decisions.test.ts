@@ -26,8 +26,20 @@ beforeAll(async () => {
   await resetDb(db);
   const tech = await signInAs(app, db, 'technician');
   owner = (await signInAs(app, db, 'owner')).agent;
-  leaker = (await createTestUnit(db, { containerNumber: halyardNumber(610001), nominalChargeKg: 5, commissionedOn: '2014-06-01' })).id;
-  tight = (await createTestUnit(db, { containerNumber: halyardNumber(610002), nominalChargeKg: 5, commissionedOn: '2023-06-01' })).id;
+  leaker = (
+    await createTestUnit(db, {
+      containerNumber: halyardNumber(610001),
+      nominalChargeKg: 5,
+      commissionedOn: '2014-06-01',
+    })
+  ).id;
+  tight = (
+    await createTestUnit(db, {
+      containerNumber: halyardNumber(610002),
+      nominalChargeKg: 5,
+      commissionedOn: '2023-06-01',
+    })
+  ).id;
   await recordVisits(tech.agent, leaker, chronicLeaker());
   await recordVisits(tech.agent, tight, tightUnit());
 });
@@ -42,9 +54,18 @@ describe('GET /api/decisions/units/:id', () => {
     expect(res.status).toBe(200);
     const d = res.body as UnitDecisionDto;
     expect(d.unit).toMatchObject({ id: leaker, refrigerant: 'R-134a', nominalChargeKg: 5 });
-    expect(d.result.options.map((o) => o.id)).toEqual(['keep_topping_up', 'repair', 'new_machinery', 'retire_and_sell']);
+    expect(d.result.options.map((o) => o.id)).toEqual([
+      'keep_topping_up',
+      'repair',
+      'new_machinery',
+      'retire_and_sell',
+    ]);
     expect(d.result.options.filter((o) => o.cheapest)).toHaveLength(1);
-    expect(d.engineInput).toMatchObject({ leakLocation: 'service_valve', topUpIntervalDays: expect.any(Number), madeUpKgPerVisit: expect.any(Number) });
+    expect(d.engineInput).toMatchObject({
+      leakLocation: 'service_valve',
+      topUpIntervalDays: expect.any(Number),
+      madeUpKgPerVisit: expect.any(Number),
+    });
     // The leak found on 2026-03-01 was not repaired: it is the open one.
     expect(d.sources).toEqual({ leakLocation: 'open_leak', interval: 'forecast' });
     expect(d.economics).toEqual(JSON.parse(JSON.stringify(DEFAULT_SETTINGS.economics)));
@@ -74,7 +95,10 @@ describe('GET /api/decisions/units/:id', () => {
 describe('POST /api/decisions/units/:id', () => {
   it('records the decision as a unit event with the figures and the edited assumptions, once per key', async () => {
     const d = (await owner.get(`/api/decisions/units/${leaker}`)).body as UnitDecisionDto;
-    const economics = { ...d.economics, refrigerantPricePerKg: { ...d.economics.refrigerantPricePerKg, 'R-134a': 250 } };
+    const economics = {
+      ...d.economics,
+      refrigerantPricePerKg: { ...d.economics.refrigerantPricePerKg, 'R-134a': 250 },
+    };
     const body = {
       choice: 'repair',
       economics,
@@ -84,14 +108,29 @@ describe('POST /api/decisions/units/:id', () => {
     };
     const res = await owner.post(`/api/decisions/units/${leaker}`).set('Origin', TEST_ORIGIN).send(body);
     expect(res.status).toBe(201);
-    expect(res.body.decision).toMatchObject({ choice: 'repair', note: 'Repair before the peak season', by: { name: expect.any(String) } });
-    const [ev] = await db.select().from(events).where(and(eq(events.unitId, leaker), eq(events.kind, 'decision')));
-    const details = ev.details as { choice: string; options: { id: string; npv: number }[]; assumptions: { refrigerantPricePerKg: number; visitsPerYear: number }; inputs: { topUpIntervalDays: number } };
+    expect(res.body.decision).toMatchObject({
+      choice: 'repair',
+      note: 'Repair before the peak season',
+      by: { name: expect.any(String) },
+    });
+    const [ev] = await db
+      .select()
+      .from(events)
+      .where(and(eq(events.unitId, leaker), eq(events.kind, 'decision')));
+    const details = ev.details as {
+      choice: string;
+      options: { id: string; npv: number }[];
+      assumptions: { refrigerantPricePerKg: number; visitsPerYear: number };
+      inputs: { topUpIntervalDays: number };
+    };
     expect(details.choice).toBe('repair');
     expect(details.assumptions.refrigerantPricePerKg).toBe(250);
     expect(details.inputs.topUpIntervalDays).toBe(60);
     // The stored figures are the engine's for exactly these assumptions.
-    const expected = compareRepairOptions({ ...d.engineInput, ...body.inputs, leakLocation: 'service_valve' }, { ...DEFAULT_SETTINGS, economics });
+    const expected = compareRepairOptions(
+      { ...d.engineInput, ...body.inputs, leakLocation: 'service_valve' },
+      { ...DEFAULT_SETTINGS, economics },
+    );
     expect(details.options).toEqual(JSON.parse(JSON.stringify(expected.options)));
 
     const again = await owner.post(`/api/decisions/units/${leaker}`).set('Origin', TEST_ORIGIN).send(body);
@@ -103,8 +142,14 @@ describe('POST /api/decisions/units/:id', () => {
 
   it('answers 400 for a bad choice or assumptions, 404 for an unknown unit, 403 for an engineer', async () => {
     const d = (await owner.get(`/api/decisions/units/${leaker}`)).body as UnitDecisionDto;
-    const good = { choice: 'retire', economics: d.economics, inputs: { topUpIntervalDays: null, madeUpKgPerVisit: null, leakLocation: 'other' }, idempotencyKey: randomUUID() };
-    const post = (agent: Agent, id: number, b: object) => agent.post(`/api/decisions/units/${id}`).set('Origin', TEST_ORIGIN).send(b);
+    const good = {
+      choice: 'retire',
+      economics: d.economics,
+      inputs: { topUpIntervalDays: null, madeUpKgPerVisit: null, leakLocation: 'other' },
+      idempotencyKey: randomUUID(),
+    };
+    const post = (agent: Agent, id: number, b: object) =>
+      agent.post(`/api/decisions/units/${id}`).set('Origin', TEST_ORIGIN).send(b);
     expect((await post(owner, leaker, { ...good, choice: 'sell' })).status).toBe(400);
     const negative = await post(owner, leaker, { ...good, economics: { ...d.economics, discountRatePct: -5 } });
     expect(negative.status).toBe(400);
@@ -124,9 +169,19 @@ describe('POST /api/decisions/units/:id', () => {
     const visit = await tech
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: visitKey, unitId: leaker, occurredAt: '2026-05-20T10:00:00Z', events: [{ kind: 'pti', passed: true }] });
+      .send({
+        idempotencyKey: visitKey,
+        unitId: leaker,
+        occurredAt: '2026-05-20T10:00:00Z',
+        events: [{ kind: 'pti', passed: true }],
+      });
     expect(visit.status).toBe(201);
-    const body = { choice: 'keep', economics: d.economics, inputs: { topUpIntervalDays: 90, madeUpKgPerVisit: 0.8, leakLocation: 'service_valve' }, idempotencyKey: visitKey };
+    const body = {
+      choice: 'keep',
+      economics: d.economics,
+      inputs: { topUpIntervalDays: 90, madeUpKgPerVisit: 0.8, leakLocation: 'service_valve' },
+      idempotencyKey: visitKey,
+    };
     const onVisitKey = await post(leaker, body);
     expect(onVisitKey.status).toBe(409);
     expect(onVisitKey.body.error.fields.idempotencyKey).toBeTruthy();
@@ -137,11 +192,17 @@ describe('POST /api/decisions/units/:id', () => {
     expect((await post(leaker, { ...decision, choice: 'retire' })).status).toBe(409);
     expect((await post(tight, decision)).status).toBe(409);
 
-    const voided = await owner.post(`/api/events/${first.body.decision.eventId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Decided twice' });
+    const voided = await owner
+      .post(`/api/events/${first.body.decision.eventId}/void`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ reason: 'Decided twice' });
     expect(voided.status).toBe(201);
     const replayed = await post(leaker, decision);
     expect(replayed.status).toBe(200);
-    expect(replayed.body).toMatchObject({ replayed: true, decision: { eventId: first.body.decision.eventId, choice: 'keep' } });
+    expect(replayed.body).toMatchObject({
+      replayed: true,
+      decision: { eventId: first.body.decision.eventId, choice: 'keep' },
+    });
   });
 });
 

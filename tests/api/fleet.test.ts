@@ -29,7 +29,9 @@ beforeAll(async () => {
   siteA = await createTestSite(db, { name: 'Harbour depot' });
   siteB = await createTestSite(db, { name: 'River terminal' });
   const make = async (name: string, serial: number, over: Record<string, unknown>) =>
-    (ids[name] = (await createTestUnit(db, { containerNumber: halyardNumber(serial), commissionedOn: '2022-01-01', ...over })).id);
+    (ids[name] = (
+      await createTestUnit(db, { containerNumber: halyardNumber(serial), commissionedOn: '2022-01-01', ...over })
+    ).id);
   await make('leakerA', 100001, { siteId: siteA.id, nominalChargeKg: 5 });
   await make('leakerB', 100002, { siteId: siteB.id, nominalChargeKg: 4, refrigerant: 'R-404A' });
   await make('tightA', 100003, { siteId: siteA.id, nominalChargeKg: 5 });
@@ -66,7 +68,11 @@ describe('GET /api/fleet', () => {
     expect(page.count).toEqual({ total: 5, capped: false });
     expect(page.rows[0].score).toBeGreaterThanOrEqual(page.rows[1].score);
     expect([ids.leakerA, ids.leakerB]).toContain(page.rows[0].unitId);
-    expect(page.rows.find((r) => r.unitId === ids.fresh)).toMatchObject({ score: 0, scoreBand: 'tight', forecastDate: null });
+    expect(page.rows.find((r) => r.unitId === ids.fresh)).toMatchObject({
+      score: 0,
+      scoreBand: 'tight',
+      forecastDate: null,
+    });
     expect(page.asOf).toBe('2026-06-01');
     expect(page.rows[0].site).toMatchObject({ id: expect.any(Number), name: expect.any(String) });
   });
@@ -80,7 +86,9 @@ describe('GET /api/fleet', () => {
     // the same units in the same order as the whole list filtered here.
     const all = await list('sort=score&dir=desc');
     const searched = await list('q=hrlu10&sort=score&dir=desc');
-    expect(searched.rows.map((r) => r.unitId)).toEqual(all.rows.filter((r) => r.containerNumber.startsWith('HRLU10')).map((r) => r.unitId));
+    expect(searched.rows.map((r) => r.unitId)).toEqual(
+      all.rows.filter((r) => r.containerNumber.startsWith('HRLU10')).map((r) => r.unitId),
+    );
     expect(searched.rows.length).toBeGreaterThan(0);
     expect((await list('sort=score&dir=desc&page=2')).rows).toEqual([]);
   });
@@ -99,7 +107,9 @@ describe('GET /api/fleet', () => {
   });
 
   it('filters by site, refrigerant, status, band, leak rate and container-number prefix', async () => {
-    expect(new Set((await list(`siteId=${siteA.id}`)).rows.map((r) => r.unitId))).toEqual(new Set([ids.leakerA, ids.tightA]));
+    expect(new Set((await list(`siteId=${siteA.id}`)).rows.map((r) => r.unitId))).toEqual(
+      new Set([ids.leakerA, ids.tightA]),
+    );
     expect((await list('refrigerant=r-404a')).rows.map((r) => r.unitId)).toEqual([ids.leakerB]);
     expect((await list('status=retired')).rows).toHaveLength(0);
     const chronic = await list('band=chronic');
@@ -140,7 +150,17 @@ describe('GET /api/fleet', () => {
   });
 
   it('answers 400 for a bad filter, sort or page size', async () => {
-    for (const q of ['sort=price', 'pageSize=7', 'page=0', 'band=leaky', 'refrigerant=R-22', 'rateAbove=x', 'q=%25%25', 'ptiExpired=maybe', 'siteId=-1']) {
+    for (const q of [
+      'sort=price',
+      'pageSize=7',
+      'page=0',
+      'band=leaky',
+      'refrigerant=R-22',
+      'rateAbove=x',
+      'q=%25%25',
+      'ptiExpired=maybe',
+      'siteId=-1',
+    ]) {
       const res = await engineer.get(`/api/fleet?${q}`);
       expect(res.status, q).toBe(400);
       expect(res.body.error.code).toBe('invalid_input');
@@ -150,7 +170,9 @@ describe('GET /api/fleet', () => {
 
 describe('GET /api/fleet/export.csv', () => {
   it('streams the current view as CSV with the same filters', async () => {
-    const res = await engineer.get(`/api/fleet/export.csv?siteId=${siteA.id}&sort=containerNumber&dir=asc`).buffer(true);
+    const res = await engineer
+      .get(`/api/fleet/export.csv?siteId=${siteA.id}&sort=containerNumber&dir=asc`)
+      .buffer(true);
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toMatch(/text\/csv/);
     expect(res.headers['content-disposition']).toMatch(/attachment; filename="fleet-2026-06-01\.csv"/);
@@ -184,38 +206,65 @@ describe('GET /api/fleet/overview', () => {
 
     // Made-up per visit (DOMAIN.md §4): 1.0, 1.1, max(0, 4.5 − 2.0) = 2.5, 0.9, 0.8 kg per leaker.
     const kg = (month: string, refrigerant: string) =>
-      o.emissions.byRefrigerant.filter((r: { month: string; refrigerant: string }) => r.month === month && r.refrigerant === refrigerant).reduce((s: number, r: { madeUpKg: number }) => s + r.madeUpKg, 0);
+      o.emissions.byRefrigerant
+        .filter((r: { month: string; refrigerant: string }) => r.month === month && r.refrigerant === refrigerant)
+        .reduce((s: number, r: { madeUpKg: number }) => s + r.madeUpKg, 0);
     expect(kg('2025-12', 'R-134a')).toBeCloseTo(2.5, 6);
     expect(kg('2025-07', 'R-134a')).toBeCloseTo(1.0, 6);
     expect(kg('2026-05', 'R-404A')).toBeCloseTo(0.8, 6);
-    const dec404 = o.emissions.byRefrigerant.find((r: { month: string; refrigerant: string }) => r.month === '2025-12' && r.refrigerant === 'R-404A');
+    const dec404 = o.emissions.byRefrigerant.find(
+      (r: { month: string; refrigerant: string }) => r.month === '2025-12' && r.refrigerant === 'R-404A',
+    );
     expect(dec404.co2eTonnes).toBeCloseTo(co2eTonnes('R-404A', 2.5), 4);
     // Per site, the CO2e is summed over the site's refrigerants: site B has only the R-404A leaker.
-    const decB = o.emissions.bySite.find((r: { month: string; site: { id: number } | null }) => r.month === '2025-12' && r.site?.id === siteB.id);
+    const decB = o.emissions.bySite.find(
+      (r: { month: string; site: { id: number } | null }) => r.month === '2025-12' && r.site?.id === siteB.id,
+    );
     expect(decB).toMatchObject({ site: { id: siteB.id, name: 'River terminal' }, madeUpKg: 2.5 });
     expect(decB.co2eTonnes).toBeCloseTo(co2eTonnes('R-404A', 2.5), 4);
     const sum = (rows: { madeUpKg: number }[]) => rows.reduce((s, r) => s + r.madeUpKg, 0);
     expect(sum(o.emissions.bySite)).toBeCloseTo(sum(o.emissions.byRefrigerant), 6);
 
     expect(o.chronicLeakers.map((c: { unitId: number }) => c.unitId).sort()).toEqual([ids.leakerA, ids.leakerB].sort());
-    expect(o.chronicLeakers[0].factors[0]).toMatchObject({ name: expect.any(String), points: expect.any(Number), explanation: expect.any(String) });
+    expect(o.chronicLeakers[0].factors[0]).toMatchObject({
+      name: expect.any(String),
+      points: expect.any(Number),
+      explanation: expect.any(String),
+    });
 
     // Two service-valve repairs, both leaked again within 180 days → fewer than 5: no rate.
-    const valve = o.repairEffectiveness.rows.find((r: { location: string; action: string | null }) => r.location === 'service_valve' && r.action === 'valve_core_replaced');
+    const valve = o.repairEffectiveness.rows.find(
+      (r: { location: string; action: string | null }) =>
+        r.location === 'service_valve' && r.action === 'valve_core_replaced',
+    );
     expect(valve).toMatchObject({ repairs: 2, recurred: 2, holdRatePct: null });
     expect(o.repairEffectiveness).toMatchObject({ holdDays: 180, minRepairs: 5, computedAt: expect.any(String) });
     expect(o.leakChecksDue).toMatchObject({ days: 30, count: expect.any(Number), overdue: expect.any(Number) });
   });
 
   it('keeps fleet_monthly equal to the visits after a void', async () => {
-    const unit = await createTestUnit(db, { containerNumber: halyardNumber(300001), siteId: siteA.id, nominalChargeKg: 5 });
-    const [[topUp]] = await recordVisits(engineer, unit.id, [{ at: '2026-04-10T10:00:00Z', events: [{ kind: 'top_up', kg: 0.7, cylinder: 'CYL-Z' }] }]);
+    const unit = await createTestUnit(db, {
+      containerNumber: halyardNumber(300001),
+      siteId: siteA.id,
+      nominalChargeKg: 5,
+    });
+    const [[topUp]] = await recordVisits(engineer, unit.id, [
+      { at: '2026-04-10T10:00:00Z', events: [{ kind: 'top_up', kg: 0.7, cylinder: 'CYL-Z' }] },
+    ]);
     const sumApril = async () =>
       Number(
-        (await db.select({ kg: sql<number>`COALESCE(SUM(${fleetMonthly.madeUpKg}), 0)` }).from(fleetMonthly).where(sql`${fleetMonthly.month} = '2026-04' AND ${fleetMonthly.siteId} = ${siteA.id}`))[0].kg,
+        (
+          await db
+            .select({ kg: sql<number>`COALESCE(SUM(${fleetMonthly.madeUpKg}), 0)` })
+            .from(fleetMonthly)
+            .where(sql`${fleetMonthly.month} = '2026-04' AND ${fleetMonthly.siteId} = ${siteA.id}`)
+        )[0].kg,
       );
     const before = await sumApril();
-    const v = await engineer.post(`/api/events/${topUp}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Entered on the wrong unit' });
+    const v = await engineer
+      .post(`/api/events/${topUp}/void`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ reason: 'Entered on the wrong unit' });
     expect(v.status).toBe(201);
     expect(await sumApril()).toBeCloseTo(before - 0.7, 9);
   });
@@ -223,7 +272,9 @@ describe('GET /api/fleet/overview', () => {
   it('filters by site and refrigerant, refuses technicians, and answers 400 for bad input', async () => {
     const res = await engineer.get(`/api/fleet/overview?siteId=${siteB.id}&refrigerant=R-404A`);
     expect(res.status).toBe(200);
-    expect(res.body.emissions.byRefrigerant.every((r: { refrigerant: string }) => r.refrigerant === 'R-404A')).toBe(true);
+    expect(res.body.emissions.byRefrigerant.every((r: { refrigerant: string }) => r.refrigerant === 'R-404A')).toBe(
+      true,
+    );
     expect(res.body.emissions.bySite.every((r: { site: { id: number } | null }) => r.site?.id === siteB.id)).toBe(true);
     expect(res.body.units).toBe(1);
     const { agent } = await signInAs(app, db, 'technician');
@@ -242,15 +293,24 @@ describe('GET /api/fleet/overview', () => {
     const madeUpMay = (o: { emissions: { bySite: { month: string; madeUpKg: number }[] } }) =>
       o.emissions.bySite.filter((r) => r.month === '2026-05').reduce((s, r) => s + r.madeUpKg, 0);
     const first = (await engineer.get(query)).body;
-    const unit = await createTestUnit(db, { containerNumber: halyardNumber(300002), siteId: siteA.id, nominalChargeKg: 5 });
-    const [[topUp]] = await recordVisits(engineer, unit.id, [{ at: '2026-05-12T10:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-Y' }] }]);
+    const unit = await createTestUnit(db, {
+      containerNumber: halyardNumber(300002),
+      siteId: siteA.id,
+      nominalChargeKg: 5,
+    });
+    const [[topUp]] = await recordVisits(engineer, unit.id, [
+      { at: '2026-05-12T10:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-Y' }] },
+    ]);
     const second = (await engineer.get(query)).body;
     // The unit's new statistics row is not in the distribution yet: the figures are the ones read a moment ago.
     expect(second.figuresAt).toBe(first.figuresAt);
     expect(second.units).toBe(first.units);
     // The monthly totals are kept too, but only until a write changes them: the top-up and then its void show at once.
     expect(madeUpMay(second)).toBeCloseTo(madeUpMay(first) + 0.3, 9);
-    expect((await engineer.post(`/api/events/${topUp}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status).toBe(201);
+    expect(
+      (await engineer.post(`/api/events/${topUp}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' }))
+        .status,
+    ).toBe(201);
     const third = (await engineer.get(query)).body;
     expect(madeUpMay(third)).toBeCloseTo(madeUpMay(first), 9);
   });

@@ -23,7 +23,8 @@ beforeAll(() => resetDb(db));
 afterAll(() => pool.end());
 
 const key = () => randomUUID();
-const eventsOf = async (unitId: number) => Number((await db.select({ n: count() }).from(events).where(eq(events.unitId, unitId)))[0].n);
+const eventsOf = async (unitId: number) =>
+  Number((await db.select({ n: count() }).from(events).where(eq(events.unitId, unitId)))[0].n);
 
 describe('recording a visit', () => {
   it('saves a leak check, repair, recovery, recharge and pressure snapshot as one visit and updates the figures', async () => {
@@ -100,16 +101,29 @@ describe('recording a visit', () => {
     const res = await agent
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-06-02T12:00:00Z', events: [{ kind: 'top_up', kg: 9, cylinder: 'C' }] });
+      .send({
+        idempotencyKey: key(),
+        unitId: unit.id,
+        occurredAt: '2026-06-02T12:00:00Z',
+        events: [{ kind: 'top_up', kg: 9, cylinder: 'C' }],
+      });
     expect(res.status).toBe(400);
-    expect(res.body.error.fields).toMatchObject({ occurredAt: expect.any(String), 'events.0.kg': expect.stringMatching(/twice/) });
+    expect(res.body.error.fields).toMatchObject({
+      occurredAt: expect.any(String),
+      'events.0.kg': expect.stringMatching(/twice/),
+    });
     expect(await eventsOf(unit.id)).toBe(0);
   });
 
   it('returns the first result for a retried submission, never a second copy', async () => {
     const { agent } = await signInAs(app, db, 'technician');
     const unit = await createTestUnit(db);
-    const body = { idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'top_up', kg: 0.5, cylinder: 'C-9' }] };
+    const body = {
+      idempotencyKey: key(),
+      unitId: unit.id,
+      occurredAt: '2026-05-30T08:00:00Z',
+      events: [{ kind: 'top_up', kg: 0.5, cylinder: 'C-9' }],
+    };
     const first = await agent.post('/api/visits').set('Origin', TEST_ORIGIN).send(body);
     const [second, third] = await Promise.all([
       agent.post('/api/visits').set('Origin', TEST_ORIGIN).send(body),
@@ -130,9 +144,17 @@ describe('recording a visit', () => {
     const missing = await agent
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: key(), unitId: 99999999, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'note', note: 'x' }] });
+      .send({
+        idempotencyKey: key(),
+        unitId: 99999999,
+        occurredAt: '2026-05-30T08:00:00Z',
+        events: [{ kind: 'note', note: 'x' }],
+      });
     expect(missing.status).toBe(404);
-    const empty = await agent.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: 1, occurredAt: '2026-05-30T08:00:00Z', events: [] });
+    const empty = await agent
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({ idempotencyKey: key(), unitId: 1, occurredAt: '2026-05-30T08:00:00Z', events: [] });
     expect(empty.status).toBe(400);
     expect(empty.body.error.fields.events).toBeTruthy();
   });
@@ -140,7 +162,15 @@ describe('recording a visit', () => {
   it('refuses an owner recording a visit with 403', async () => {
     const { agent } = await signInAs(app, db, 'owner');
     const unit = await createTestUnit(db);
-    const res = await agent.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'note', note: 'x' }] });
+    const res = await agent
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({
+        idempotencyKey: key(),
+        unitId: unit.id,
+        occurredAt: '2026-05-30T08:00:00Z',
+        events: [{ kind: 'note', note: 'x' }],
+      });
     expect(res.status).toBe(403);
   });
 });
@@ -150,7 +180,12 @@ describe('voiding', () => {
     const res = await agent
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: key(), unitId, occurredAt: new Date(now.getTime() - 3600_000).toISOString(), events: [{ kind: 'top_up', kg, cylinder: 'CYL-5' }] });
+      .send({
+        idempotencyKey: key(),
+        unitId,
+        occurredAt: new Date(now.getTime() - 3600_000).toISOString(),
+        events: [{ kind: 'top_up', kg, cylinder: 'CYL-5' }],
+      });
     expect(res.status).toBe(201);
     return res.body.events[0].id as number;
   }
@@ -161,7 +196,10 @@ describe('voiding', () => {
     const id = await topUp(agent, unit.id, 1.2);
     const before = await db.select().from(unitStats).where(eq(unitStats.unitId, unit.id));
     expect(before[0].madeUpKg365).toBeCloseTo(1.2);
-    const res = await agent.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Typed on the wrong unit' });
+    const res = await agent
+      .post(`/api/events/${id}/void`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ reason: 'Typed on the wrong unit' });
     expect(res.status).toBe(201);
     expect(res.body.event.voided).toMatchObject({ reason: 'Typed on the wrong unit' });
     expect(res.body.stats.detail.totalMadeUpKg365).toBe(0);
@@ -174,7 +212,9 @@ describe('voiding', () => {
     const { agent: b } = await signInAs(app, db, 'technician');
     const unit = await createTestUnit(db);
     const id = await topUp(a, unit.id);
-    expect((await b.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'not mine' })).status).toBe(403);
+    expect(
+      (await b.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'not mine' })).status,
+    ).toBe(403);
     now = new Date(now.getTime() + 25 * 3600_000);
     const late = await a.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'too late now' });
     expect(late.status).toBe(403);
@@ -187,9 +227,16 @@ describe('voiding', () => {
     const unit = await createTestUnit(db);
     const id = await topUp(tech, unit.id);
     expect((await eng.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: '' })).status).toBe(400);
-    expect((await eng.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Duplicate entry' })).status).toBe(201);
-    expect((await eng.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Again' })).status).toBe(409);
-    expect((await eng.post('/api/events/987654321/void').set('Origin', TEST_ORIGIN).send({ reason: 'Nothing there' })).status).toBe(404);
+    expect(
+      (await eng.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Duplicate entry' })).status,
+    ).toBe(201);
+    expect((await eng.post(`/api/events/${id}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Again' })).status).toBe(
+      409,
+    );
+    expect(
+      (await eng.post('/api/events/987654321/void').set('Origin', TEST_ORIGIN).send({ reason: 'Nothing there' }))
+        .status,
+    ).toBe(404);
   });
 });
 
@@ -202,13 +249,23 @@ describe('photos and documents', () => {
     const res = await agent
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'note', note: 'Photo of the valve' }] });
+      .send({
+        idempotencyKey: key(),
+        unitId: unit.id,
+        occurredAt: '2026-05-30T08:00:00Z',
+        events: [{ kind: 'note', note: 'Photo of the valve' }],
+      });
     eventId = res.body.events[0].id;
   });
 
   it('stores a photo checked by its content, with a thumbnail, served only to signed-in users', async () => {
-    const png = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#2a6' } }).png().toBuffer();
-    const res = await agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN).attach('files', png, 'valve.jpg');
+    const png = await sharp({ create: { width: 800, height: 600, channels: 3, background: '#2a6' } })
+      .png()
+      .toBuffer();
+    const res = await agent
+      .post(`/api/events/${eventId}/attachments`)
+      .set('Origin', TEST_ORIGIN)
+      .attach('files', png, 'valve.jpg');
     expect(res.status).toBe(201);
     expect(res.body.attachments[0]).toMatchObject({ mimeType: 'image/png', originalName: 'valve.jpg' });
     const file = await agent.get(res.body.attachments[0].url);
@@ -223,13 +280,19 @@ describe('photos and documents', () => {
   });
 
   it('refuses a file that is not an image or PDF, whatever its name', async () => {
-    const res = await agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN).attach('files', Buffer.from('just text'), 'photo.png');
+    const res = await agent
+      .post(`/api/events/${eventId}/attachments`)
+      .set('Origin', TEST_ORIGIN)
+      .attach('files', Buffer.from('just text'), 'photo.png');
     expect(res.status).toBe(415);
   });
 
   it('refuses a file over 10 MB', async () => {
     const big = Buffer.concat([Buffer.from('%PDF-1.4\n'), Buffer.alloc(10 * 1024 * 1024 + 1)]);
-    const res = await agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN).attach('files', big, 'big.pdf');
+    const res = await agent
+      .post(`/api/events/${eventId}/attachments`)
+      .set('Origin', TEST_ORIGIN)
+      .attach('files', big, 'big.pdf');
     expect(res.status).toBe(413);
   });
 
@@ -243,7 +306,10 @@ describe('photos and documents', () => {
     let seven = agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN);
     for (let i = 0; i < 7; i++) seven = seven.attach('files', pdf, `doc${i}.pdf`);
     expect((await seven).status).toBe(201);
-    const one = await agent.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN).attach('files', pdf, 'one.pdf');
+    const one = await agent
+      .post(`/api/events/${eventId}/attachments`)
+      .set('Origin', TEST_ORIGIN)
+      .attach('files', pdf, 'one.pdf');
     expect(one.status).toBe(400);
   });
 });
@@ -255,26 +321,40 @@ describe('the statistics row', () => {
     const unit = await createTestUnit(db, { nominalChargeKg: 5, commissionedOn: '2024-01-10' });
     const script = [
       { at: '2025-08-05T10:00:00Z', events: [{ kind: 'top_up', kg: 1.0, cylinder: 'A1' }] },
-      { at: '2025-11-03T10:00:00Z', events: [
-        { kind: 'leak_check', method: 'bubble_solution', leakFound: true, location: 'brazed_joint' },
-        { kind: 'repair', location: 'brazed_joint', action: 'rebrazed', verified: true },
-        { kind: 'top_up', kg: 1.2, cylinder: 'A2' },
-      ] },
-      { at: '2026-02-20T10:00:00Z', events: [{ kind: 'pressure', suctionKPaG: 90, dischargeKPaG: 860, ambientC: 21, sightGlass: 'bubbles' }] },
-      { at: '2026-04-22T10:00:00Z', events: [
-        { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'brazed_joint' },
-        { kind: 'top_up', kg: 0.8, cylinder: 'A3' },
-      ] },
+      {
+        at: '2025-11-03T10:00:00Z',
+        events: [
+          { kind: 'leak_check', method: 'bubble_solution', leakFound: true, location: 'brazed_joint' },
+          { kind: 'repair', location: 'brazed_joint', action: 'rebrazed', verified: true },
+          { kind: 'top_up', kg: 1.2, cylinder: 'A2' },
+        ],
+      },
+      {
+        at: '2026-02-20T10:00:00Z',
+        events: [{ kind: 'pressure', suctionKPaG: 90, dischargeKPaG: 860, ambientC: 21, sightGlass: 'bubbles' }],
+      },
+      {
+        at: '2026-04-22T10:00:00Z',
+        events: [
+          { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'brazed_joint' },
+          { kind: 'top_up', kg: 0.8, cylinder: 'A3' },
+        ],
+      },
       { at: '2026-05-01T10:00:00Z', events: [{ kind: 'top_up', kg: 3.0, cylinder: 'A4' }] },
     ];
     let lastId = 0;
     for (const v of script) {
-      const res = await agent.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: v.at, events: v.events });
+      const res = await agent
+        .post('/api/visits')
+        .set('Origin', TEST_ORIGIN)
+        .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: v.at, events: v.events });
       expect(res.status).toBe(201);
       lastId = res.body.events[0].id;
     }
     // The last top-up was a typing error.
-    expect((await agent.post(`/api/events/${lastId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status).toBe(201);
+    expect(
+      (await agent.post(`/api/events/${lastId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status,
+    ).toBe(201);
 
     const expected = computeUnitStats(
       { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: '2024-01-10' },
@@ -306,7 +386,15 @@ describe('reading a unit', () => {
       await agent
         .post('/api/visits')
         .set('Origin', TEST_ORIGIN)
-        .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: `2026-0${i + 1}-10T10:00:00Z`, events: [{ kind: 'pti', passed: true }, { kind: 'note', note: `n${i}` }] });
+        .send({
+          idempotencyKey: key(),
+          unitId: unit.id,
+          occurredAt: `2026-0${i + 1}-10T10:00:00Z`,
+          events: [
+            { kind: 'pti', passed: true },
+            { kind: 'note', note: `n${i}` },
+          ],
+        });
     }
     const page1 = await agent.get(`/api/units/${unit.id}/history?limit=4`);
     expect(page1.status).toBe(200);
@@ -328,29 +416,44 @@ describe('alerts from the write path', () => {
   it('queues one chronic-band alert for subscribed engineers when visits push a unit over, not one per later visit', async () => {
     const { mailOutbox, sites } = await import('../../server/db/schema');
     now = new Date('2026-06-01T12:00:00Z');
-    const [site] = await db.insert(sites).values({ code: 'ALR1', name: 'Alert Test Depot', kind: 'depot' }).$returningId();
+    const [site] = await db
+      .insert(sites)
+      .values({ code: 'ALR1', name: 'Alert Test Depot', kind: 'depot' })
+      .$returningId();
     const { agent: eng, user: engineer } = await signInAs(app, db, 'engineer');
-    const sub = await eng.put('/api/alerts/subscriptions').set('Origin', TEST_ORIGIN).send({ subscriptions: [{ siteId: site.id, kind: 'chronic' }] });
+    const sub = await eng
+      .put('/api/alerts/subscriptions')
+      .set('Origin', TEST_ORIGIN)
+      .send({ subscriptions: [{ siteId: site.id, kind: 'chronic' }] });
     expect(sub.status).toBe(200);
     const { agent: tech } = await signInAs(app, db, 'technician');
     const unit = await createTestUnit(db, { nominalChargeKg: 5, siteId: site.id, commissionedOn: '2023-01-01' });
     // The worked example of DOMAIN.md §6: score 64, "chronic", reached on the third visit.
     const visitsToRecord = [
       { at: '2025-08-05T10:00:00Z', events: [{ kind: 'top_up', kg: 1.0, cylinder: 'A1' }] },
-      { at: '2026-01-02T10:00:00Z', events: [
-        { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
-        { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true },
-        { kind: 'top_up', kg: 1.2, cylinder: 'A2' },
-      ] },
-      { at: '2026-04-22T10:00:00Z', events: [
-        { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
-        { kind: 'top_up', kg: 0.8, cylinder: 'A3' },
-      ] },
+      {
+        at: '2026-01-02T10:00:00Z',
+        events: [
+          { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
+          { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true },
+          { kind: 'top_up', kg: 1.2, cylinder: 'A2' },
+        ],
+      },
+      {
+        at: '2026-04-22T10:00:00Z',
+        events: [
+          { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
+          { kind: 'top_up', kg: 0.8, cylinder: 'A3' },
+        ],
+      },
       { at: '2026-05-20T10:00:00Z', events: [{ kind: 'top_up', kg: 0.4, cylinder: 'A4' }] },
     ];
     const bands: string[] = [];
     for (const v of visitsToRecord) {
-      const res = await tech.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: v.at, events: v.events });
+      const res = await tech
+        .post('/api/visits')
+        .set('Origin', TEST_ORIGIN)
+        .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: v.at, events: v.events });
       expect(res.status).toBe(201);
       bands.push(res.body.stats.scoreBand);
     }
@@ -370,11 +473,24 @@ describe('voiding by role', () => {
     const res = await tech
       .post('/api/visits')
       .set('Origin', TEST_ORIGIN)
-      .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: '2026-05-30T08:00:00Z', events: [{ kind: 'top_up', kg: 0.6, cylinder: 'C-1' }, { kind: 'note', note: 'kept' }] });
+      .send({
+        idempotencyKey: key(),
+        unitId: unit.id,
+        occurredAt: '2026-05-30T08:00:00Z',
+        events: [
+          { kind: 'top_up', kg: 0.6, cylinder: 'C-1' },
+          { kind: 'note', note: 'kept' },
+        ],
+      });
     const topUpId = res.body.events.find((e: { kind: string }) => e.kind === 'top_up').id;
-    expect((await owner.post(`/api/events/${topUpId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })).status).toBe(201);
+    expect(
+      (await owner.post(`/api/events/${topUpId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' }))
+        .status,
+    ).toBe(201);
     const timeline = await owner.get(`/api/units/${unit.id}/timeline`);
-    const byKind = Object.fromEntries(timeline.body.events.map((e: { kind: string; voided: boolean }) => [e.kind, e.voided]));
+    const byKind = Object.fromEntries(
+      timeline.body.events.map((e: { kind: string; voided: boolean }) => [e.kind, e.voided]),
+    );
     expect(byKind).toEqual({ top_up: true, note: false });
   });
 });
@@ -384,7 +500,10 @@ describe('history paging with late entries', () => {
     const { agent } = await signInAs(app, db, 'technician');
     const unit = await createTestUnit(db);
     const record = (at: string, note: string) =>
-      agent.post('/api/visits').set('Origin', TEST_ORIGIN).send({ idempotencyKey: key(), unitId: unit.id, occurredAt: at, events: [{ kind: 'note', note }] });
+      agent
+        .post('/api/visits')
+        .set('Origin', TEST_ORIGIN)
+        .send({ idempotencyKey: key(), unitId: unit.id, occurredAt: at, events: [{ kind: 'note', note }] });
     await record('2026-03-01T10:00:00Z', 'march');
     await record('2026-04-01T10:00:00Z', 'april');
     await record('2026-05-01T10:00:00Z', 'may');

@@ -27,7 +27,11 @@ function message(overrides: Partial<OutboxMessage> = {}): OutboxMessage {
     kind: 'alert',
     to: `reader${n}@halyard.example`,
     subject: `Test message ${n}`,
-    ...renderMail({ heading: `Test message ${n}`, paragraphs: ['Ünïcode, “quotes” & <angle brackets>.'], action: { label: 'Open', url: 'http://localhost:3000/units/7' } }),
+    ...renderMail({
+      heading: `Test message ${n}`,
+      paragraphs: ['Ünïcode, “quotes” & <angle brackets>.'],
+      action: { label: 'Open', url: 'http://localhost:3000/units/7' },
+    }),
     ...overrides,
   };
 }
@@ -85,7 +89,10 @@ describe('outbox', () => {
     const down = await startFakeSmtp({ port: 0 });
     const port = down.port;
     await down.stop();
-    const w = createOutboxWorker({ ...ctx, mailer: createSmtpMailer({ host: '127.0.0.1', port, from: TEST_MAIL_FROM }) });
+    const w = createOutboxWorker({
+      ...ctx,
+      mailer: createSmtpMailer({ host: '127.0.0.1', port, from: TEST_MAIL_FROM }),
+    });
     const m = message();
     await enqueueMail(db, m, clock.now());
 
@@ -149,7 +156,10 @@ describe('development mailbox', () => {
   it('lists what the fake SMTP server received, newest first, to an administrator', async () => {
     const recorder = await startFakeSmtp({ port: 0, onMessage: (m) => storeReceivedMail(db, m) });
     try {
-      const w = createOutboxWorker({ ...ctx, mailer: createSmtpMailer({ host: '127.0.0.1', port: recorder.port, from: TEST_MAIL_FROM }) });
+      const w = createOutboxWorker({
+        ...ctx,
+        mailer: createSmtpMailer({ host: '127.0.0.1', port: recorder.port, from: TEST_MAIL_FROM }),
+      });
       const first = message();
       const second = message();
       await enqueueMail(db, first, clock.now());
@@ -163,7 +173,11 @@ describe('development mailbox', () => {
     const res = await agent.get('/api/dev/mailbox?limit=2');
     expect(res.status).toBe(200);
     expect(res.body.messages).toHaveLength(2);
-    expect(res.body.messages[0]).toMatchObject({ subject: `Test message ${n}`, to: `reader${n}@halyard.example`, from: TEST_MAIL_FROM });
+    expect(res.body.messages[0]).toMatchObject({
+      subject: `Test message ${n}`,
+      to: `reader${n}@halyard.example`,
+      from: TEST_MAIL_FROM,
+    });
     expect(res.body.messages[0].text).toContain('Ünïcode');
     expect(res.body.messages[0].html).toContain('<!doctype html>');
     expect((await agent.get('/api/dev/mailbox?limit=0')).status).toBe(400);
@@ -186,7 +200,10 @@ describe('development mailbox', () => {
 
 describe('request guards for mail routes', () => {
   it('refuses a password-reset request from a foreign origin', async () => {
-    const res = await request(app).post('/api/password-reset').set('Origin', 'https://elsewhere.example').send({ email: 'x@halyard.example' });
+    const res = await request(app)
+      .post('/api/password-reset')
+      .set('Origin', 'https://elsewhere.example')
+      .send({ email: 'x@halyard.example' });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe('bad_origin');
   });

@@ -54,14 +54,20 @@ describe('0005: the wide statistics columns move to unit_stats_detail', () => {
 
       const moved = await db.select().from(unitStatsDetail).orderBy(unitStatsDetail.unitId);
       expect(moved).toEqual([
-        { unitId: 1, scoreFactors: { interval: { points: 30 } }, detail: { totalMadeUpKg365: 3.1, forecast: { intervalDays: 60 } } },
+        {
+          unitId: 1,
+          scoreFactors: { interval: { points: 30 } },
+          detail: { totalMadeUpKg365: 3.1, forecast: { intervalDays: 60 } },
+        },
         { unitId: 2, scoreFactors: null, detail: null },
       ]);
       const [columns] = (await db.execute(
         sql`SELECT column_name AS c FROM information_schema.columns WHERE table_schema = DATABASE() AND table_name = 'unit_stats' AND column_name IN ('detail', 'score_factors')`,
       )) as unknown as [{ c: string }[]];
       expect(columns).toEqual([]);
-      const [[kept]] = (await db.execute(sql`SELECT score FROM unit_stats WHERE unit_id = 1`)) as unknown as [{ score: number }[]];
+      const [[kept]] = (await db.execute(sql`SELECT score FROM unit_stats WHERE unit_id = 1`)) as unknown as [
+        { score: number }[],
+      ];
       expect(kept.score).toBe(72);
     } finally {
       await pool.end();

@@ -17,7 +17,8 @@ beforeAll(async () => {
 });
 afterAll(() => pool.end());
 
-const concrete = (path: string) => path.replace(/:(\w+)/g, (_m, name: string) => (/id$/i.test(name) ? '999999' : 'zz-unknown'));
+const concrete = (path: string) =>
+  path.replace(/:(\w+)/g, (_m, name: string) => (/id$/i.test(name) ? '999999' : 'zz-unknown'));
 
 function send(agent: TestAgent | ReturnType<typeof request>, method: string, path: string) {
   const m = method as 'get' | 'post' | 'patch' | 'put' | 'delete';

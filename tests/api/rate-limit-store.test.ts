@@ -16,10 +16,16 @@ describe('rate-limit counters', () => {
     const results = await Promise.allSettled(
       Array.from({ length: rounds }, (_, i) =>
         // Like a sign-in: the address and the account counted side by side.
-        Promise.all([perAddress.add(`10.0.0.${i % 4}`), perAccount.add(`person${i}@example.test`), perAccount.add('shared@example.test')]),
+        Promise.all([
+          perAddress.add(`10.0.0.${i % 4}`),
+          perAccount.add(`person${i}@example.test`),
+          perAccount.add('shared@example.test'),
+        ]),
       ),
     );
-    expect(results.filter((r) => r.status === 'rejected').map((r) => String((r as PromiseRejectedResult).reason))).toEqual([]);
+    expect(
+      results.filter((r) => r.status === 'rejected').map((r) => String((r as PromiseRejectedResult).reason)),
+    ).toEqual([]);
     const shared = await perAccount.add('shared@example.test');
     expect(shared.count).toBe(rounds + 1);
   });

@@ -29,8 +29,17 @@ beforeAll(async () => {
   site = await createTestSite(db, { name: 'North quay' });
   otherSite = await createTestSite(db, { name: 'South quay' });
   const a = await createTestUnit(db, { containerNumber: halyardNumber(410001), siteId: site.id, nominalChargeKg: 5 });
-  const b = await createTestUnit(db, { containerNumber: halyardNumber(410002), siteId: site.id, nominalChargeKg: 4, refrigerant: 'R-404A' });
-  const c = await createTestUnit(db, { containerNumber: halyardNumber(410003), siteId: otherSite.id, nominalChargeKg: 5 });
+  const b = await createTestUnit(db, {
+    containerNumber: halyardNumber(410002),
+    siteId: site.id,
+    nominalChargeKg: 4,
+    refrigerant: 'R-404A',
+  });
+  const c = await createTestUnit(db, {
+    containerNumber: halyardNumber(410003),
+    siteId: otherSite.id,
+    nominalChargeKg: 5,
+  });
   await recordVisits(tech.agent, a.id, [
     { at: '2026-01-15T09:00:00Z', events: [{ kind: 'top_up', kg: 0.75, cylinder: 'CYL-1', reusedRecovered: true }] },
     {
@@ -42,15 +51,32 @@ beforeAll(async () => {
         { kind: 'recharge', kg: 5, cylinder: 'CYL-2' },
       ],
     },
-    { at: '2026-03-05T09:00:00Z', events: [{ kind: 'leak_check', method: 'electronic_detector', leakFound: false }, { kind: 'pti', passed: true }] },
+    {
+      at: '2026-03-05T09:00:00Z',
+      events: [
+        { kind: 'leak_check', method: 'electronic_detector', leakFound: false },
+        { kind: 'pti', passed: true },
+      ],
+    },
   ]);
-  await recordVisits(tech.agent, b.id, [{ at: '2026-02-01T09:00:00Z', events: [{ kind: 'top_up', kg: 1.25, cylinder: 'CYL-40' }] }]);
-  const [[wrong]] = await recordVisits(tech.agent, b.id, [{ at: '2026-02-02T09:00:00Z', events: [{ kind: 'top_up', kg: 9.5 / 3, cylinder: 'CYL-40' }] }]);
+  await recordVisits(tech.agent, b.id, [
+    { at: '2026-02-01T09:00:00Z', events: [{ kind: 'top_up', kg: 1.25, cylinder: 'CYL-40' }] },
+  ]);
+  const [[wrong]] = await recordVisits(tech.agent, b.id, [
+    { at: '2026-02-02T09:00:00Z', events: [{ kind: 'top_up', kg: 9.5 / 3, cylinder: 'CYL-40' }] },
+  ]);
   voidedTopUp = wrong;
-  expect((await engineer.post(`/api/events/${wrong}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Typed twice' })).status).toBe(201);
+  expect(
+    (await engineer.post(`/api/events/${wrong}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Typed twice' }))
+      .status,
+  ).toBe(201);
   // Another site, and outside the period.
-  await recordVisits(tech.agent, c.id, [{ at: '2026-02-10T09:00:00Z', events: [{ kind: 'top_up', kg: 0.5, cylinder: 'CYL-7' }] }]);
-  await recordVisits(tech.agent, a.id, [{ at: '2025-12-31T23:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-1' }] }]);
+  await recordVisits(tech.agent, c.id, [
+    { at: '2026-02-10T09:00:00Z', events: [{ kind: 'top_up', kg: 0.5, cylinder: 'CYL-7' }] },
+  ]);
+  await recordVisits(tech.agent, a.id, [
+    { at: '2025-12-31T23:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-1' }] },
+  ]);
 });
 afterAll(() => pool.end());
 
@@ -68,7 +94,12 @@ describe('GET /api/refrigerant-log', () => {
     const kinds = l.entries.map((e) => e.kind).sort();
     expect(kinds).toEqual(['leak_check', 'leak_check', 'recharge', 'recovery', 'top_up', 'top_up']);
     const first = l.entries.find((e) => e.kind === 'top_up' && e.refrigerant === 'R-134a')!;
-    expect(first).toMatchObject({ kg: 0.75, cylinder: 'CYL-1', reusedRecovered: true, technician: { certificateNumber: 'F-GAS-NL-0042' } });
+    expect(first).toMatchObject({
+      kg: 0.75,
+      cylinder: 'CYL-1',
+      reusedRecovered: true,
+      technician: { certificateNumber: 'F-GAS-NL-0042' },
+    });
     expect(first.co2eTonnes).toBeCloseTo(co2eTonnes('R-134a', 0.75), 4);
     const check = l.entries.find((e) => e.kind === 'leak_check' && e.leakFound)!;
     expect(check).toMatchObject({ method: 'uv_dye', location: 'brazed_joint', kg: null });
@@ -86,14 +117,29 @@ describe('GET /api/refrigerant-log', () => {
     const sum = (r: string, pred: (e: RefrigerantLogEntryDto) => boolean) =>
       l.entries.filter((e) => e.refrigerant === r && pred(e)).reduce((s, e) => s + (e.kg ?? 0), 0);
     for (const t of l.totals) {
-      expect(t.addedKg).toBeCloseTo(sum(t.refrigerant, (e) => e.kind === 'top_up' || e.kind === 'recharge'), 6);
-      expect(t.recoveredKg).toBeCloseTo(sum(t.refrigerant, (e) => e.kind === 'recovery'), 6);
+      expect(t.addedKg).toBeCloseTo(
+        sum(t.refrigerant, (e) => e.kind === 'top_up' || e.kind === 'recharge'),
+        6,
+      );
+      expect(t.recoveredKg).toBeCloseTo(
+        sum(t.refrigerant, (e) => e.kind === 'recovery'),
+        6,
+      );
       expect(t.addedCo2eTonnes).toBeCloseTo(co2eTonnes(t.refrigerant, t.addedKg), 4);
-      expect(t.leakChecks).toBe(l.entries.filter((e) => e.refrigerant === t.refrigerant && e.kind === 'leak_check').length);
+      expect(t.leakChecks).toBe(
+        l.entries.filter((e) => e.refrigerant === t.refrigerant && e.kind === 'leak_check').length,
+      );
     }
     const r134 = l.totals.find((t) => t.refrigerant === 'R-134a')!;
     // 0.75 + 5 (site 1) + 0.5 (site 2) added; 2.1 recovered; the 2025 top-up is outside the period.
-    expect(r134).toMatchObject({ addedKg: 6.25, recoveredKg: 2.1, additions: 3, recoveries: 1, leakChecks: 2, leaksFound: 1 });
+    expect(r134).toMatchObject({
+      addedKg: 6.25,
+      recoveredKg: 2.1,
+      additions: 3,
+      recoveries: 1,
+      leakChecks: 2,
+      leaksFound: 1,
+    });
     expect(l.totals.find((t) => t.refrigerant === 'R-404A')).toMatchObject({ addedKg: 1.25, additions: 1 });
   });
 
@@ -101,11 +147,20 @@ describe('GET /api/refrigerant-log', () => {
     const l = await log('from=2025-12-31&to=2025-12-31&refrigerant=R-134a');
     expect(l.entries).toHaveLength(1);
     expect(l.entries[0].kg).toBe(0.3);
-    expect((await log('from=2026-01-01&to=2026-12-31&refrigerant=R-404A')).entries.every((e) => e.refrigerant === 'R-404A')).toBe(true);
+    expect(
+      (await log('from=2026-01-01&to=2026-12-31&refrigerant=R-404A')).entries.every((e) => e.refrigerant === 'R-404A'),
+    ).toBe(true);
   });
 
   it('pages with a marker and returns 400 for a bad period or marker', async () => {
-    for (const q of ['from=2026-01-01', 'from=2026-03-01&to=2026-01-01', 'from=2025-01-01&to=2026-06-01', 'from=x&to=y', 'from=2026-01-01&to=2026-02-01&before=42', 'from=2026-01-01&to=2026-02-01&refrigerant=R-12']) {
+    for (const q of [
+      'from=2026-01-01',
+      'from=2026-03-01&to=2026-01-01',
+      'from=2025-01-01&to=2026-06-01',
+      'from=x&to=y',
+      'from=2026-01-01&to=2026-02-01&before=42',
+      'from=2026-01-01&to=2026-02-01&refrigerant=R-12',
+    ]) {
       const res = await engineer.get(`/api/refrigerant-log?${q}`);
       expect(res.status, q).toBe(400);
     }
@@ -124,9 +179,13 @@ describe('GET /api/refrigerant-log', () => {
 
 describe('GET /api/refrigerant-log/export.csv', () => {
   it('exports the same entries with totals that match, and says voided entries are excluded', async () => {
-    const res = await engineer.get(`/api/refrigerant-log/export.csv?from=2026-01-01&to=2026-03-31&siteId=${site.id}`).buffer(true);
+    const res = await engineer
+      .get(`/api/refrigerant-log/export.csv?from=2026-01-01&to=2026-03-31&siteId=${site.id}`)
+      .buffer(true);
     expect(res.status).toBe(200);
-    expect(res.headers['content-disposition']).toContain(`refrigerant-log-2026-01-01-to-2026-03-31-site-${site.id}.csv`);
+    expect(res.headers['content-disposition']).toContain(
+      `refrigerant-log-2026-01-01-to-2026-03-31-site-${site.id}.csv`,
+    );
     const rows = parse(res.text.replace(/^\uFEFF/, ''), { relax_column_count: true }) as string[][];
     const [header, ...rest] = rows;
     expect(header.slice(0, 3)).toEqual(['Date (UTC)', 'Entry', 'Container number']);

@@ -21,7 +21,8 @@ afterAll(async () => {
   await pool.end();
 });
 
-const put = (agent: Awaited<ReturnType<typeof signInAs>>['agent'], body: object) => agent.put('/api/settings').set('Origin', TEST_ORIGIN).send(body);
+const put = (agent: Awaited<ReturnType<typeof signInAs>>['agent'], body: object) =>
+  agent.put('/api/settings').set('Origin', TEST_ORIGIN).send(body);
 const clone = (s: Settings): Settings => JSON.parse(JSON.stringify(s)) as Settings;
 
 describe('reading the settings', () => {
@@ -34,7 +35,13 @@ describe('reading the settings', () => {
       const { agent } = await signInAs(app, db, role);
       const res = await agent.get('/api/settings');
       expect(res.status).toBe(200);
-      expect(res.body).toMatchObject({ version: 0, updatedAt: null, updatedBy: null, recompute: null, hiddenSections: [] });
+      expect(res.body).toMatchObject({
+        version: 0,
+        updatedAt: null,
+        updatedBy: null,
+        recompute: null,
+        hiddenSections: [],
+      });
       expect(res.body.settings).toEqual(JSON.parse(JSON.stringify(DEFAULT_SETTINGS)));
     }
   });
@@ -49,7 +56,7 @@ describe('reading the settings', () => {
     expect(res.body.settings).toEqual(rest);
   });
 
-  it('refuses technicians with 403 (cost settings are the owners\' and admins\', ASVS 4.0 4.1.3)', async () => {
+  it("refuses technicians with 403 (cost settings are the owners' and admins', ASVS 4.0 4.1.3)", async () => {
     const { agent } = await signInAs(app, db, 'technician');
     for (const path of ['/api/settings', '/api/settings/history', '/api/jobs/1']) {
       const res = await agent.get(path);
@@ -75,7 +82,11 @@ describe('changing the settings', () => {
     prices.economics.refrigerantPricePerKg['R-134a'] = 42;
     const ok = await put(agent, { settings: prices, baseVersion: null });
     expect(ok.status).toBe(200);
-    expect(ok.body).toMatchObject({ version: expect.any(Number), changedSections: ['economics'], updatedBy: { id: user.id } });
+    expect(ok.body).toMatchObject({
+      version: expect.any(Number),
+      changedSections: ['economics'],
+      updatedBy: { id: user.id },
+    });
     expect(ok.body.settings.economics.refrigerantPricePerKg['R-134a']).toBe(42);
     // Prices do not change any unit's statistics: no recompute.
     expect(ok.body.recompute).toBeNull();
@@ -145,7 +156,12 @@ describe('a change that moves the statistics', () => {
     for (const u of [a, b, c]) {
       const [unit] = await db.select().from(units).where(eq(units.id, u.id));
       const [row] = await db.select().from(unitStats).where(eq(unitStats.unitId, u.id));
-      const expected = computeUnitStats(engineUnit(unit), await loadEngineHistory(db, u.id), row.computedAt.toISOString(), settings);
+      const expected = computeUnitStats(
+        engineUnit(unit),
+        await loadEngineHistory(db, u.id),
+        row.computedAt.toISOString(),
+        settings,
+      );
       expect(row.score).toBe(expected.score.value);
       expect(row.scoreBand).toBe(expected.score.band);
       expect(row.ptiValidUntil).toBe(expected.ptiValidUntil);
@@ -158,7 +174,10 @@ describe('a change that moves the statistics', () => {
     expect(rowA.ptiValidUntil).toBe('2026-06-01');
 
     const after = (await admin.get('/api/settings')).body;
-    expect(after).toMatchObject({ version: res.body.version, recompute: { id: res.body.recompute.id, status: 'done' } });
+    expect(after).toMatchObject({
+      version: res.body.version,
+      recompute: { id: res.body.recompute.id, status: 'done' },
+    });
     // A visit after the change is computed with the new settings too.
     await recordVisits(tech, c.id, [{ at: '2026-05-20T08:00:00Z', events: [{ kind: 'pti', passed: true }] }]);
     const [rowC] = await db.select().from(unitStats).where(eq(unitStats.unitId, c.id));

@@ -27,15 +27,44 @@ beforeAll(async () => {
   engineer = (await signInAs(app, db, 'engineer')).agent;
   site = await createTestSite(db, { name: 'East depot' });
   const other = await createTestSite(db, { name: 'West depot' });
-  for (let i = 0; i < 4; i++) unitIds.push((await createTestUnit(db, { containerNumber: halyardNumber(510001 + i), siteId: i < 3 ? site.id : other.id, nominalChargeKg: 5 })).id);
-  await recordVisits(tech.agent, unitIds[0], [{ at: '2026-03-01T08:00:00Z', siteId: site.id, events: [{ kind: 'top_up', kg: 0.6, cylinder: 'LOT77-0001' }] }]);
-  await recordVisits(tech.agent, unitIds[1], [
-    { at: '2026-03-02T08:00:00Z', siteId: site.id, events: [{ kind: 'recovery', kg: 2, cylinder: 'REC-1' }, { kind: 'recharge', kg: 5, cylinder: 'LOT77-0002' }] },
+  for (let i = 0; i < 4; i++)
+    unitIds.push(
+      (
+        await createTestUnit(db, {
+          containerNumber: halyardNumber(510001 + i),
+          siteId: i < 3 ? site.id : other.id,
+          nominalChargeKg: 5,
+        })
+      ).id,
+    );
+  await recordVisits(tech.agent, unitIds[0], [
+    { at: '2026-03-01T08:00:00Z', siteId: site.id, events: [{ kind: 'top_up', kg: 0.6, cylinder: 'LOT77-0001' }] },
   ]);
-  await recordVisits(tech.agent, unitIds[2], [{ at: '2026-04-15T08:00:00Z', siteId: site.id, events: [{ kind: 'top_up', kg: 0.4, cylinder: 'CYL-9' }] }]);
-  const [[wrong]] = await recordVisits(tech.agent, unitIds[3], [{ at: '2026-03-03T08:00:00Z', siteId: other.id, events: [{ kind: 'top_up', kg: 0.2, cylinder: 'LOT77-0003' }] }]);
+  await recordVisits(tech.agent, unitIds[1], [
+    {
+      at: '2026-03-02T08:00:00Z',
+      siteId: site.id,
+      events: [
+        { kind: 'recovery', kg: 2, cylinder: 'REC-1' },
+        { kind: 'recharge', kg: 5, cylinder: 'LOT77-0002' },
+      ],
+    },
+  ]);
+  await recordVisits(tech.agent, unitIds[2], [
+    { at: '2026-04-15T08:00:00Z', siteId: site.id, events: [{ kind: 'top_up', kg: 0.4, cylinder: 'CYL-9' }] },
+  ]);
+  const [[wrong]] = await recordVisits(tech.agent, unitIds[3], [
+    { at: '2026-03-03T08:00:00Z', siteId: other.id, events: [{ kind: 'top_up', kg: 0.2, cylinder: 'LOT77-0003' }] },
+  ]);
   voided = wrong;
-  expect((await engineer.post(`/api/events/${wrong}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong cylinder number' })).status).toBe(201);
+  expect(
+    (
+      await engineer
+        .post(`/api/events/${wrong}/void`)
+        .set('Origin', TEST_ORIGIN)
+        .send({ reason: 'Wrong cylinder number' })
+    ).status,
+  ).toBe(201);
 });
 afterAll(() => pool.end());
 
@@ -54,17 +83,29 @@ describe('GET /api/traceability', () => {
     expect(t.totalCharges).toBe(2);
     expect(t.voidedExcluded).toBe(1);
     expect(t.charges.map((c) => c.eventId)).not.toContain(voided);
-    expect(t.charges[0]).toMatchObject({ containerNumber: expect.any(String), technician: { name: expect.any(String) }, site: { id: site.id } });
+    expect(t.charges[0]).toMatchObject({
+      containerNumber: expect.any(String),
+      technician: { name: expect.any(String) },
+      site: { id: site.id },
+    });
   });
 
   it('finds the units charged at a site in a date range', async () => {
     const t = await trace(`siteId=${site.id}&from=2026-03-01&to=2026-03-31`);
     expect(t.units.map((u) => u.unitId).sort()).toEqual([unitIds[0], unitIds[1]].sort());
-    expect((await trace(`siteId=${site.id}&from=2026-04-01&to=2026-04-30`)).units.map((u) => u.unitId)).toEqual([unitIds[2]]);
+    expect((await trace(`siteId=${site.id}&from=2026-04-01&to=2026-04-30`)).units.map((u) => u.unitId)).toEqual([
+      unitIds[2],
+    ]);
   });
 
   it('answers 400 for a search without cylinder or site, a site without dates, or a reversed range', async () => {
-    for (const q of ['', 'cylinder=x', `siteId=${site.id}`, `siteId=${site.id}&from=2026-03-01&to=2026-01-01`, 'cylinder=LOT&from=bad']) {
+    for (const q of [
+      '',
+      'cylinder=x',
+      `siteId=${site.id}`,
+      `siteId=${site.id}&from=2026-03-01&to=2026-01-01`,
+      'cylinder=LOT&from=bad',
+    ]) {
       expect((await engineer.get(`/api/traceability?${q}`)).status, q).toBe(400);
     }
   });
@@ -87,31 +128,48 @@ describe('GET /api/traceability/export.csv', () => {
 });
 
 describe('POST /api/traceability/mark-for-inspection', () => {
-  const body = (key = randomUUID()) => ({ query: { cylinder: 'LOT77' }, reason: 'Supplier recalled lot 77', idempotencyKey: key });
+  const body = (key = randomUUID()) => ({
+    query: { cylinder: 'LOT77' },
+    reason: 'Supplier recalled lot 77',
+    idempotencyKey: key,
+  });
 
   it('records a note on every unit found, in one go, and a retry marks nothing twice', async () => {
     const key = randomUUID();
     const res = await engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body(key));
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ marked: 2, replayed: false });
-    const notes = await db.select().from(events).where(and(eq(events.kind, 'note'), eq(events.unitId, unitIds[0])));
+    const notes = await db
+      .select()
+      .from(events)
+      .where(and(eq(events.kind, 'note'), eq(events.unitId, unitIds[0])));
     expect(notes).toHaveLength(1);
-    expect(notes[0].note).toMatch(/Marked for inspection: charged from cylinder or lot LOT77 .*Supplier recalled lot 77/);
+    expect(notes[0].note).toMatch(
+      /Marked for inspection: charged from cylinder or lot LOT77 .*Supplier recalled lot 77/,
+    );
     expect(notes[0].details).toMatchObject({ inspection: { cylinder: 'LOT77' } });
     expect(notes[0].visitId).toEqual(expect.any(Number));
 
-    const again = await engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body(key));
+    const again = await engineer
+      .post('/api/traceability/mark-for-inspection')
+      .set('Origin', TEST_ORIGIN)
+      .send(body(key));
     expect(again.status).toBe(200);
     expect(again.body).toMatchObject({ marked: 2, replayed: true, eventIds: res.body.eventIds });
     // The search now shows when each unit was marked; the unit's history shows the note.
     const t = await trace('cylinder=LOT77');
     expect(t.units.every((u) => u.markedAt === now.toISOString())).toBe(true);
     const history = await engineer.get(`/api/units/${unitIds[0]}/history`);
-    expect(history.body.events.some((e: { kind: string; note: string }) => e.kind === 'note' && /Marked for inspection/.test(e.note))).toBe(true);
+    expect(
+      history.body.events.some(
+        (e: { kind: string; note: string }) => e.kind === 'note' && /Marked for inspection/.test(e.note),
+      ),
+    ).toBe(true);
   });
 
   it('answers 400 without a reason, for a search that finds nothing, or a bad search', async () => {
-    const post = (b: object) => engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(b);
+    const post = (b: object) =>
+      engineer.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(b);
     expect((await post({ ...body(), reason: '' })).status).toBe(400);
     expect((await post({ ...body(), query: { cylinder: 'NO-SUCH-LOT' } })).status).toBe(400);
     expect((await post({ ...body(), query: {} })).status).toBe(400);
@@ -121,8 +179,12 @@ describe('POST /api/traceability/mark-for-inspection', () => {
   it('is for engineers and administrators: owners and technicians get 403', async () => {
     for (const role of ['owner', 'technician'] as const) {
       const { agent } = await signInAs(app, db, role);
-      expect((await agent.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body())).status).toBe(403);
+      expect(
+        (await agent.post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body())).status,
+      ).toBe(403);
     }
-    expect((await request(app).post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body())).status).toBe(401);
+    expect(
+      (await request(app).post('/api/traceability/mark-for-inspection').set('Origin', TEST_ORIGIN).send(body())).status,
+    ).toBe(401);
   });
 });

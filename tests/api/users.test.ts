@@ -13,12 +13,20 @@ afterAll(() => pool.end());
 describe('people (admin)', () => {
   it('lists, creates and updates users', async () => {
     const { agent } = await signInAs(app, db, 'admin');
-    const created = await agent
-      .post('/api/users')
-      .set('Origin', TEST_ORIGIN)
-      .send({ email: 'New.Tech@Test.example', name: 'New Tech', role: 'technician', certificateNumber: 'C-1', password: 'a-long-password' });
+    const created = await agent.post('/api/users').set('Origin', TEST_ORIGIN).send({
+      email: 'New.Tech@Test.example',
+      name: 'New Tech',
+      role: 'technician',
+      certificateNumber: 'C-1',
+      password: 'a-long-password',
+    });
     expect(created.status).toBe(201);
-    expect(created.body.user).toMatchObject({ email: 'new.tech@test.example', role: 'technician', certificateNumber: 'C-1', active: true });
+    expect(created.body.user).toMatchObject({
+      email: 'new.tech@test.example',
+      role: 'technician',
+      certificateNumber: 'C-1',
+      active: true,
+    });
     const list = await agent.get('/api/users');
     expect(list.status).toBe(200);
     expect(list.body.users.map((u: { email: string }) => u.email)).toContain('new.tech@test.example');
@@ -30,7 +38,10 @@ describe('people (admin)', () => {
 
   it('answers 409 for an e-mail already in use', async () => {
     const { agent, user } = await signInAs(app, db, 'admin');
-    const res = await agent.post('/api/users').set('Origin', TEST_ORIGIN).send({ email: user.email, name: 'Dup', role: 'owner' });
+    const res = await agent
+      .post('/api/users')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, name: 'Dup', role: 'owner' });
     expect(res.status).toBe(409);
     expect(res.body.error.fields.email).toBeTruthy();
   });
@@ -84,7 +95,10 @@ describe('people (admin)', () => {
     const res = await admin.patch(`/api/users/${user.id}`).set('Origin', TEST_ORIGIN).send({ active: false });
     expect(res.status).toBe(200);
     expect((await tech.get('/api/auth/me')).status).toBe(401);
-    const again = await request(app).post('/api/auth/sign-in').set('Origin', TEST_ORIGIN).send({ email: user.email, password: 'correct-horse-battery' });
+    const again = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: 'correct-horse-battery' });
     expect(again.status).toBe(401);
   });
 });

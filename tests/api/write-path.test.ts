@@ -45,7 +45,10 @@ describe('unit edits through the write path', () => {
     const unit = await createTestUnit(db, { nominalChargeKg: 5, refrigerant: 'R-134a', commissionedOn: '2020-01-01' });
     expect((await topUp(unit.id, '2026-03-01T10:00:00Z', 1.0)).status).toBe(201);
     expect((await topUp(unit.id, '2026-05-01T10:00:00Z', 1.2)).status).toBe(201);
-    const edit = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ nominalChargeKg: 15.6, refrigerant: 'R-404A' });
+    const edit = await engineer
+      .patch(`/api/units/${unit.id}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ nominalChargeKg: 15.6, refrigerant: 'R-404A' });
     expect(edit.status).toBe(200);
     const overview = await engineer.get(`/api/units/${unit.id}/overview`);
     const fresh = await freshFigures(unit.id);
@@ -56,7 +59,9 @@ describe('unit edits through the write path', () => {
     // Source: Reg. (EU) 2024/573 — 50 to < 500 t CO2e: a leak check every 6 months.
     expect(overview.body.stats.leakCheckIntervalMonths).toBe(6);
     const changes = await engineer.get(`/api/units/${unit.id}/changes`);
-    expect(changes.body.changes.map((c: { field: string; before: string; after: string }) => [c.field, c.before, c.after])).toEqual(
+    expect(
+      changes.body.changes.map((c: { field: string; before: string; after: string }) => [c.field, c.before, c.after]),
+    ).toEqual(
       expect.arrayContaining([
         ['nominalChargeKg', '5', '15.6'],
         ['refrigerant', 'R-134a', 'R-404A'],
@@ -67,10 +72,16 @@ describe('unit edits through the write path', () => {
   it('refuses a commissioning date more than a year after the first entry of the history (400 on the field)', async () => {
     const unit = await createTestUnit(db, { commissionedOn: '2020-01-01' });
     expect((await topUp(unit.id, '2021-03-01T10:00:00Z', 0.5)).status).toBe(201);
-    const late = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2023-05-01' });
+    const late = await engineer
+      .patch(`/api/units/${unit.id}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ commissionedOn: '2023-05-01' });
     expect(late.status).toBe(400);
     expect(late.body.error.fields.commissionedOn).toMatch(/1 Mar 2021/);
-    const fine = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2021-06-01' });
+    const fine = await engineer
+      .patch(`/api/units/${unit.id}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ commissionedOn: '2021-06-01' });
     expect(fine.status).toBe(200);
   });
 
@@ -78,18 +89,30 @@ describe('unit edits through the write path', () => {
     const res = await engineer
       .post('/api/units')
       .set('Origin', TEST_ORIGIN)
-      .send({ containerNumber: halyardNumber(710_001), refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: '2024-02-01' });
+      .send({
+        containerNumber: halyardNumber(710_001),
+        refrigerant: 'R-134a',
+        nominalChargeKg: 5,
+        commissionedOn: '2024-02-01',
+      });
     expect(res.status).toBe(201);
     const [row] = await db.select().from(unitStats).where(eq(unitStats.unitId, res.body.unit.id));
     // Source: DOMAIN.md §3 — 5 kg × 1430 (HFC-134a, AR4) / 1000 = 7.15 t CO2e.
     expect(row.co2eTonnes).toBeCloseTo(7.15, 9);
-    const [change] = await db.select().from(unitChanges).where(and(eq(unitChanges.unitId, res.body.unit.id), eq(unitChanges.field, 'registered')));
+    const [change] = await db
+      .select()
+      .from(unitChanges)
+      .where(and(eq(unitChanges.unitId, res.body.unit.id), eq(unitChanges.field, 'registered')));
     expect(change).toBeDefined();
   });
 
   it('gives every imported unit its figures and a change record in the import transaction', async () => {
     const numbers = [halyardNumber(720_001), halyardNumber(720_002)];
-    const csv = ['container_number,refrigerant,nominal_charge_kg', `${numbers[0]},R-134a,5`, `${numbers[1]},R-513A,4.5`].join('\n');
+    const csv = [
+      'container_number,refrigerant,nominal_charge_kg',
+      `${numbers[0]},R-134a,5`,
+      `${numbers[1]},R-513A,4.5`,
+    ].join('\n');
     const res = await engineer
       .post('/api/unit-imports')
       .set('Origin', TEST_ORIGIN)
@@ -99,7 +122,10 @@ describe('unit edits through the write path', () => {
     for (const n of numbers) {
       const [u] = await db.select({ id: units.id }).from(units).where(eq(units.containerNumber, n));
       expect(await db.select().from(unitStats).where(eq(unitStats.unitId, u.id))).toHaveLength(1);
-      const changes = await db.select().from(unitChanges).where(and(eq(unitChanges.unitId, u.id), eq(unitChanges.field, 'registered')));
+      const changes = await db
+        .select()
+        .from(unitChanges)
+        .where(and(eq(unitChanges.unitId, u.id), eq(unitChanges.field, 'registered')));
       expect(changes[0].after).toContain('two.csv');
     }
   });
@@ -124,13 +150,15 @@ describe('submission keys and voids', () => {
     const res = await topUp(unit.id, '2026-05-12T10:00:00Z', 0.5);
     const eventId = res.body.events[0].id as number;
     const voids = await Promise.all(
-      [0, 1, 2, 3].map(() => engineer.post(`/api/events/${eventId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' })),
+      [0, 1, 2, 3].map(() =>
+        engineer.post(`/api/events/${eventId}/void`).set('Origin', TEST_ORIGIN).send({ reason: 'Wrong unit' }),
+      ),
     );
     expect(voids.map((v) => v.status).sort()).toEqual([201, 409, 409, 409]);
     const [first] = await db.select().from(events).where(eq(events.voidsEventId, eventId));
-    await expect(
-      db.insert(events).values({ ...first, id: undefined, createdAt: undefined }),
-    ).rejects.toMatchObject({ cause: { code: 'ER_DUP_ENTRY' } });
+    await expect(db.insert(events).values({ ...first, id: undefined, createdAt: undefined })).rejects.toMatchObject({
+      cause: { code: 'ER_DUP_ENTRY' },
+    });
   });
 });
 
@@ -143,7 +171,9 @@ describe('a record the engine cannot compute', () => {
     expect(res.body.stats.computeError).toEqual(expect.any(String));
     const overview = await engineer.get(`/api/units/${unit.id}/overview`);
     expect(overview.status).toBe(200);
-    expect(overview.body.stats.computeError).toBe('the commissioning date (1 Jan 1850) is outside 1 Jan 1960 to today.');
+    expect(overview.body.stats.computeError).toBe(
+      'the commissioning date (1 Jan 1850) is outside 1 Jan 1960 to today.',
+    );
     expect(overview.body.stats.detail).toBeNull();
     // Fixing the record through the write path brings the figures back.
     const timeline = await engineer.get(`/api/units/${unit.id}/timeline`);
@@ -152,7 +182,10 @@ describe('a record the engine cannot compute', () => {
     const decision = await owner.get(`/api/decisions/units/${unit.id}`);
     expect(decision.status).toBe(409);
     expect(decision.body.error.code).toBe('cannot_compute');
-    const fix = await engineer.patch(`/api/units/${unit.id}`).set('Origin', TEST_ORIGIN).send({ commissionedOn: '2019-01-01' });
+    const fix = await engineer
+      .patch(`/api/units/${unit.id}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ commissionedOn: '2019-01-01' });
     expect(fix.status).toBe(200);
     const after = await engineer.get(`/api/units/${unit.id}/overview`);
     expect(after.body.stats.computeError).toBeNull();

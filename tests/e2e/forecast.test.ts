@@ -60,7 +60,10 @@ describe('the learned next top-up forecast', () => {
         page.request,
         baseUrl,
         waiting.id,
-        [530, 430, 330, 230].map((d) => ({ at: at(d), events: [{ kind: 'top_up' as const, kg: 0.7, cylinder: 'CYL-E2E-F' }] })),
+        [530, 430, 330, 230].map((d) => ({
+          at: at(d),
+          events: [{ kind: 'top_up' as const, kg: 0.7, cylinder: 'CYL-E2E-F' }],
+        })),
       );
 
       // Learn from the fleet, then wait for every forecast to be recomputed from it.
@@ -68,15 +71,23 @@ describe('the learned next top-up forecast', () => {
       expect(start.status()).toBe(202);
       const learned = await finished(page.request, baseUrl, ((await start.json()) as { job: { id: number } }).job.id);
       expect(learned.status).toBe('done');
-      const settings = (await (await page.request.get(`${baseUrl}/api/settings`)).json()) as { recompute: { id: number } };
+      const settings = (await (await page.request.get(`${baseUrl}/api/settings`)).json()) as {
+        recompute: { id: number };
+      };
       expect((await finished(page.request, baseUrl, settings.recompute.id)).status).toBe('done');
 
       await page.goto(`/units/${unit.id}`);
       const card = page.getByTestId('forecast-card');
       await card.waitFor();
-      expect(await page.getByTestId('forecast-situation').textContent()).toMatch(/^Three or more intervals between top-ups; the last on /);
-      expect(await page.getByTestId('forecast-range').textContent()).toMatch(/^Range \(80 %\): \d+ \w+ \d{4} – \d+ \w+ \d{4}\.$/);
-      expect(await page.getByTestId('forecast-coverage').textContent()).toMatch(/^On this fleet, ranges like this held the next top-up \d+ % of the time\.$/);
+      expect(await page.getByTestId('forecast-situation').textContent()).toMatch(
+        /^Three or more intervals between top-ups; the last on /,
+      );
+      expect(await page.getByTestId('forecast-range').textContent()).toMatch(
+        /^Range \(80 %\): \d+ \w+ \d{4} – \d+ \w+ \d{4}\.$/,
+      );
+      expect(await page.getByTestId('forecast-coverage').textContent()).toMatch(
+        /^On this fleet, ranges like this held the next top-up \d+ % of the time\.$/,
+      );
       expect(await page.getByTestId('forecast-basis').textContent()).toMatch(/most similar past cases of the fleet/);
       await shoot(page, 'unit-card-390');
       await page.setViewportSize(DESKTOP);
@@ -86,8 +97,12 @@ describe('the learned next top-up forecast', () => {
       await page.setViewportSize(PHONE);
       await page.goto(`/units/${waiting.id}`);
       await page.getByTestId('forecast-card').waitFor();
-      expect(await page.getByTestId('forecast-value').textContent()).toMatch(/^Likely within (a day|\d+ days)by \d+ \w+ \d{4}$/);
-      expect(await page.getByTestId('forecast-card').textContent()).toMatch(/It has gone 230 days without a top-up, longer than its usual 100/);
+      expect(await page.getByTestId('forecast-value').textContent()).toMatch(
+        /^Likely within (a day|\d+ days)by \d+ \w+ \d{4}$/,
+      );
+      expect(await page.getByTestId('forecast-card').textContent()).toMatch(
+        /It has gone 230 days without a top-up, longer than its usual 100/,
+      );
       await shoot(page, 'unit-waiting-390');
 
       await page.setViewportSize(DESKTOP);

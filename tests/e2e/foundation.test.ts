@@ -66,7 +66,9 @@ describe('unknown pages', () => {
       await signInThroughForm(b.page, account('owner').email, DEMO_PASSWORD);
       await b.page.getByRole('navigation', { name: 'Main' }).waitFor();
       await b.page.goto('/no/such/page');
-      await expect.poll(() => b.page.getByRole('heading').first().textContent(), { timeout: 15_000 }).toMatch(/no page|not found/i);
+      await expect
+        .poll(() => b.page.getByRole('heading').first().textContent(), { timeout: 15_000 })
+        .toMatch(/no page|not found/i);
     } finally {
       await b.close();
     }

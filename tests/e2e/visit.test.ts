@@ -52,8 +52,13 @@ describe('recording a visit on a phone', () => {
       await page.getByRole('button', { name: /Save visit/ }).click();
       await page.getByText('Visit saved').waitFor();
 
-      const photo = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#3a6ea5' } }).png().toBuffer();
-      await page.locator('input[type="file"]').first().setInputFiles({ name: 'leak.png', mimeType: 'image/png', buffer: photo });
+      const photo = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#3a6ea5' } })
+        .png()
+        .toBuffer();
+      await page
+        .locator('input[type="file"]')
+        .first()
+        .setInputFiles({ name: 'leak.png', mimeType: 'image/png', buffer: photo });
       await page.getByText('1 file attached').waitFor();
 
       await page.getByRole('link', { name: /^Back to/ }).click();
@@ -62,7 +67,10 @@ describe('recording a visit on a phone', () => {
       await expect.poll(() => score.textContent()).not.toBe(before.score);
       await expect.poll(() => forecast.textContent()).not.toBe(before.forecast);
       // Two intervals now: the forecast has a range.
-      await page.getByTestId('forecast-card').getByText(/^Range /).waitFor();
+      await page
+        .getByTestId('forecast-card')
+        .getByText(/^Range /)
+        .waitFor();
       await page.getByRole('img', { name: 'Photo: leak.png' }).waitFor();
       expect(await page.evaluate(() => (window as unknown as { sameDocument?: boolean }).sameDocument)).toBe(true);
 
@@ -89,7 +97,9 @@ describe('recording a visit on a phone', () => {
 
       await context.setOffline(true);
       await page.getByRole('button', { name: 'Add Note' }).click();
-      await page.getByRole('textbox', { name: 'Note', exact: true }).fill('Door gasket torn at the lower hinge; reported to the depot.');
+      await page
+        .getByRole('textbox', { name: 'Note', exact: true })
+        .fill('Door gasket torn at the lower hinge; reported to the depot.');
       await page.getByRole('button', { name: /Save visit/ }).click();
       await page.getByText('Kept on this phone: no connection right now').waitFor();
       await page.getByText('1 visit waiting to send').waitFor();
@@ -123,10 +133,20 @@ describe('recording a visit on a phone', () => {
       await signInThroughForm(page, technician.email, DEMO_PASSWORD);
       await page.getByRole('navigation', { name: 'Main' }).waitFor();
       const reading = (suctionKPaG: number, dischargeKPaG: number) =>
-        ({ kind: 'pressure', suctionKPaG, dischargeKPaG, ambientC: 24, sightGlass: 'full', enteredAs: { pressureUnit: 'kPa', temperatureUnit: 'C' } }) as const;
+        ({
+          kind: 'pressure',
+          suctionKPaG,
+          dischargeKPaG,
+          ambientC: 24,
+          sightGlass: 'full',
+          enteredAs: { pressureUnit: 'kPa', temperatureUnit: 'C' },
+        }) as const;
       await recordVisits(page.request, inject('baseUrl'), unit.id, [
         { at: at(40 * DAY), events: [reading(150, 900)] },
-        { at: at(10 * DAY), events: [reading(60, 780), { kind: 'top_up', kg: 0.4, cylinder: 'CYL-E2E-3' }, reading(150, 905)] },
+        {
+          at: at(10 * DAY),
+          events: [reading(60, 780), { kind: 'top_up', kg: 0.4, cylinder: 'CYL-E2E-3' }, reading(150, 905)],
+        },
       ]);
       await page.goto(`/units/${unit.id}`);
       await page.getByRole('img', { name: /^Saturation temperatures of 3 pressure readings/ }).waitFor();

@@ -45,10 +45,7 @@ export async function signInAs(app: Express, db: Db, role: Role) {
 let unitCounter = 0;
 
 /** A unit row straight into the database (the registry API has its own tests), with a valid HRLU container number. */
-export async function createTestUnit(
-  db: Db,
-  overrides: Partial<typeof units.$inferInsert> = {},
-) {
+export async function createTestUnit(db: Db, overrides: Partial<typeof units.$inferInsert> = {}) {
   unitCounter += 1;
   const row = {
     containerNumber: halyardNumber(900_000 + unitCounter),

@@ -3,7 +3,13 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
-import { createDatabaseAndUser, freePort, newPassword, startMariaDb, type LocalMariaDb } from '../../scripts/lib/mariadb';
+import {
+  createDatabaseAndUser,
+  freePort,
+  newPassword,
+  startMariaDb,
+  type LocalMariaDb,
+} from '../../scripts/lib/mariadb';
 import { createDb, migrateDb } from '../../server/db/client';
 
 type Shared = { server: LocalMariaDb; dir: string; urls: Record<string, string>; users: number };
@@ -14,7 +20,13 @@ async function start(): Promise<Shared> {
     throw new Error('npm test uses its own throwaway MariaDB; unset DATABASE_URL.');
   }
   const dir = mkdtempSync(path.join(os.tmpdir(), 'tightloop-testdb-'));
-  const server = await startMariaDb({ dataDir: dir, port: await freePort(), detached: false, durable: false, bufferPool: '256M' });
+  const server = await startMariaDb({
+    dataDir: dir,
+    port: await freePort(),
+    detached: false,
+    durable: false,
+    bufferPool: '256M',
+  });
   const password = newPassword();
   const urls: Record<string, string> = {};
   for (const name of ['api', 'e2e']) {

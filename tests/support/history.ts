@@ -47,7 +47,12 @@ const daysAgo = (now: Date, days: number, hour = 9) => {
   return d.toISOString();
 };
 
-const pressure = (suctionKPaG: number, dischargeKPaG: number, ambientC: number, sightGlass: 'full' | 'bubbles' = 'full') =>
+const pressure = (
+  suctionKPaG: number,
+  dischargeKPaG: number,
+  ambientC: number,
+  sightGlass: 'full' | 'bubbles' = 'full',
+) =>
   ({
     kind: 'pressure',
     suctionKPaG,
@@ -80,7 +85,13 @@ export function realisticHistory(now = new Date()): VisitSpec[] {
       events: [
         { kind: 'leak_check', method: 'bubble_solution', leakFound: true, location: 'service_valve' },
         { kind: 'top_up', kg: 0.8, cylinder: 'CYL-2231' },
-        { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true, note: 'Suction service valve core replaced; nitrogen test held 30 min.' },
+        {
+          kind: 'repair',
+          location: 'service_valve',
+          action: 'valve_core_replaced',
+          verified: true,
+          note: 'Suction service valve core replaced; nitrogen test held 30 min.',
+        },
         pressure(100, 945, 26),
       ],
     },
@@ -93,12 +104,21 @@ export function realisticHistory(now = new Date()): VisitSpec[] {
         pressure(80, 880, 27),
       ],
     },
-    { at: daysAgo(now, 455), events: [{ kind: 'top_up', kg: 0.9, cylinder: 'CYL-3310' }, pressure(62, 840, 25, 'bubbles')] },
+    {
+      at: daysAgo(now, 455),
+      events: [{ kind: 'top_up', kg: 0.9, cylinder: 'CYL-3310' }, pressure(62, 840, 25, 'bubbles')],
+    },
     {
       at: daysAgo(now, 320),
       events: [
         { kind: 'recovery', kg: 2.9, cylinder: 'REC-07' },
-        { kind: 'repair', location: 'brazed_joint', action: 'rebrazed', verified: true, note: 'Discharge line joint at the condenser inlet rebrazed under nitrogen.' },
+        {
+          kind: 'repair',
+          location: 'brazed_joint',
+          action: 'rebrazed',
+          verified: true,
+          note: 'Discharge line joint at the condenser inlet rebrazed under nitrogen.',
+        },
         { kind: 'recharge', kg: 4.5, cylinder: 'CYL-4102' },
         pressure(102, 950, 24),
       ],

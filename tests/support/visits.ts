@@ -41,7 +41,13 @@ export function chronicLeaker(year = 2026): VisitScript {
         { kind: 'top_up', kg: 0.9, cylinder: 'CYL-B201' },
       ],
     },
-    { at: `${year}-05-02T10:00:00Z`, events: [{ kind: 'top_up', kg: 0.8, cylinder: 'CYL-B202' }, { kind: 'pti', passed: true }] },
+    {
+      at: `${year}-05-02T10:00:00Z`,
+      events: [
+        { kind: 'top_up', kg: 0.8, cylinder: 'CYL-B202' },
+        { kind: 'pti', passed: true },
+      ],
+    },
   ];
 }
 
@@ -64,7 +70,8 @@ export async function waitForJob(agent: TestAgent, jobId: number, timeoutMs = 20
   for (;;) {
     const res = await agent.get(`/api/jobs/${jobId}`);
     expect(res.status).toBe(200);
-    if (res.body.job.status !== 'running') return res.body.job as { status: string; processed: number; total: number; message: string | null };
+    if (res.body.job.status !== 'running')
+      return res.body.job as { status: string; processed: number; total: number; message: string | null };
     if (Date.now() > until) throw new Error(`job ${jobId} still running: ${JSON.stringify(res.body.job)}`);
     await new Promise((r) => setTimeout(r, 100));
   }

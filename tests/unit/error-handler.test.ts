@@ -24,13 +24,16 @@ function answer(err: unknown) {
 }
 
 // drizzle wraps the driver's error in `cause`.
-const fromDriver = (code: string) => Object.assign(new Error('Failed query'), { cause: Object.assign(new Error(code), { code }) });
+const fromDriver = (code: string) =>
+  Object.assign(new Error('Failed query'), { cause: Object.assign(new Error(code), { code }) });
 
 describe('error handler', () => {
   it('answers 409 when a write names a site or unit that a concurrent request removed before it committed', () => {
     const out = answer(fromDriver('ER_NO_REFERENCED_ROW_2'));
     expect(out.status).toBe(409);
-    expect(out.body).toMatchObject({ error: { code: 'conflict', message: expect.stringMatching(/removed meanwhile/) } });
+    expect(out.body).toMatchObject({
+      error: { code: 'conflict', message: expect.stringMatching(/removed meanwhile/) },
+    });
   });
 
   it('answers 500 with a reference and no detail for anything unforeseen', () => {

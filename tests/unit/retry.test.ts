@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { MAX_WRITE_ATTEMPTS, retryTransaction } from '../../server/lib/retry';
 
 // drizzle wraps the driver's error in `cause`; MariaDB names deadlocks and lock-wait timeouts by these codes.
-const wrapped = (code: string) => Object.assign(new Error('Failed query'), { cause: Object.assign(new Error(code), { code }) });
+const wrapped = (code: string) =>
+  Object.assign(new Error('Failed query'), { cause: Object.assign(new Error(code), { code }) });
 
 describe('retryTransaction', () => {
   it('runs a write again after a deadlock and a lock-wait timeout, then returns its result', async () => {

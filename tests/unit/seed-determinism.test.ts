@@ -6,11 +6,24 @@ import { columnsOf, tuple } from '../../seed/simulator/sql';
 import type { UnitSim } from '../../seed/simulator/unit-sim';
 import { fleetRows } from '../../seed/simulator/writer';
 import { events, sites, units, unitStats, unitStatsDetail, users, visits } from '../../server/db/schema';
-import { parseContainerNumber, saturationRange, saturationTemperatureC, STANDARD_ATMOSPHERE_KPA } from '../../shared/domain';
+import {
+  parseContainerNumber,
+  saturationRange,
+  saturationTemperatureC,
+  STANDARD_ATMOSPHERE_KPA,
+} from '../../shared/domain';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 
 const NOW = new Date('2026-06-15T10:00:00Z');
-const COLS = { sites: columnsOf(sites), users: columnsOf(users), units: columnsOf(units), visits: columnsOf(visits), events: columnsOf(events), stats: columnsOf(unitStats), statsDetail: columnsOf(unitStatsDetail) };
+const COLS = {
+  sites: columnsOf(sites),
+  users: columnsOf(users),
+  units: columnsOf(units),
+  visits: columnsOf(visits),
+  events: columnsOf(events),
+  stats: columnsOf(unitStats),
+  statsDetail: columnsOf(unitStatsDetail),
+};
 
 function generate(seed: number, n: number, now = NOW): { sims: UnitSim[]; rows: UnitRows[]; hash: string } {
   const fleet = createFleet({ seed, units: n, now });
@@ -21,7 +34,12 @@ function generate(seed: number, n: number, now = NOW): { sims: UnitSim[]; rows: 
   const sims: UnitSim[] = [];
   const rows: UnitRows[] = [];
   const ids = { unit: 1, visit: 1, event: 1 };
-  for (const { sim, rows: r } of fleetRows(fleet, siteList.map((s) => s.id!), ids, DEFAULT_SETTINGS)) {
+  for (const { sim, rows: r } of fleetRows(
+    fleet,
+    siteList.map((s) => s.id!),
+    ids,
+    DEFAULT_SETTINGS,
+  )) {
     // The SQL text that would be inserted, row by row: identical text means identical data.
     h.update(tuple(COLS.units, r.unit));
     for (const v of r.visits) h.update(tuple(COLS.visits, v));
@@ -136,7 +154,14 @@ describe('demo fleet simulator', () => {
   it('can add a busy unit with exactly the asked-for number of events', () => {
     const fleet = createFleet({ units: 2, now: NOW, busyUnitEvents: 5000 });
     const ids = { unit: 1, visit: 1, event: 1 };
-    const list = [...fleetRows(fleet, fleet.sites.map((_, i) => i + 1), ids, DEFAULT_SETTINGS)];
+    const list = [
+      ...fleetRows(
+        fleet,
+        fleet.sites.map((_, i) => i + 1),
+        ids,
+        DEFAULT_SETTINGS,
+      ),
+    ];
     expect(list).toHaveLength(3);
     expect(list[2].rows.events).toHaveLength(5000);
   });

@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_UNIT_PREFS } from '../../src/features/history/utils/unit-prefs';
-import { emptyEntry, parseTyped, toVisitEvent, visitFormSchema } from '../../src/features/history/utils/visit-form-model';
+import {
+  emptyEntry,
+  parseTyped,
+  toVisitEvent,
+  visitFormSchema,
+} from '../../src/features/history/utils/visit-form-model';
 
 const entry = (kind: Parameters<typeof emptyEntry>[0], fields: Partial<ReturnType<typeof emptyEntry>> = {}) => ({
   ...emptyEntry(kind, DEFAULT_UNIT_PREFS),
@@ -23,10 +28,23 @@ describe('the visit form model', () => {
 
   it('sends pressures in psi as kPa gauge and temperatures in °F as °C', () => {
     const e = toVisitEvent(
-      entry('pressure', { pressureUnit: 'psi', temperatureUnit: 'F', dischargeKPaG: '125', suctionKPaG: '18', ambientC: '77', setPointC: '-13' }),
+      entry('pressure', {
+        pressureUnit: 'psi',
+        temperatureUnit: 'F',
+        dischargeKPaG: '125',
+        suctionKPaG: '18',
+        ambientC: '77',
+        setPointC: '-13',
+      }),
     );
     // 125 psi = 861.8447 kPa with the NIST SP 811 factor (DOMAIN.md §1: 861.85), kept to 0.01 kPa; 77 °F = 25 °C.
-    expect(e).toMatchObject({ kind: 'pressure', dischargeKPaG: 861.84, ambientC: 25, setPointC: -25, enteredAs: { pressureUnit: 'psi', temperatureUnit: 'F' } });
+    expect(e).toMatchObject({
+      kind: 'pressure',
+      dischargeKPaG: 861.84,
+      ambientC: 25,
+      setPointC: -25,
+      enteredAs: { pressureUnit: 'psi', temperatureUnit: 'F' },
+    });
   });
 
   it('puts the shared schema’s errors on the fields that were typed into', () => {
@@ -42,12 +60,18 @@ describe('the visit form model', () => {
   it('turns a complete form into the API input for the unit', () => {
     const r = visitFormSchema(7).safeParse({
       occurredAt: '2026-05-01T09:30',
-      events: [entry('pti', { passed: 'pass' }), entry('repair', { location: 'other', locationOther: 'Drain line', action: 'tightened', verified: true })],
+      events: [
+        entry('pti', { passed: 'pass' }),
+        entry('repair', { location: 'other', locationOther: 'Drain line', action: 'tightened', verified: true }),
+      ],
     });
     expect(r.success).toBe(true);
     expect(r.data).toMatchObject({
       unitId: 7,
-      events: [{ kind: 'pti', passed: true }, { kind: 'repair', location: 'other', locationOther: 'Drain line', action: 'tightened', verified: true }],
+      events: [
+        { kind: 'pti', passed: true },
+        { kind: 'repair', location: 'other', locationOther: 'Drain line', action: 'tightened', verified: true },
+      ],
     });
     expect(r.data!.occurredAt).toMatch(/^2026-05-01T\d\d:30:00\.000Z$/);
   });

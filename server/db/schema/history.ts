@@ -51,7 +51,9 @@ export const visits = mysqlTable(
     idempotencyKey: varchar('idempotency_key', { length: 64 }).notNull().unique(),
     // SHA-256 of what was submitted under the key: the same key with other content is refused, not replayed.
     contentHash: varchar('content_hash', { length: 64 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('visits_unit_idx').on(t.unitId, t.occurredAt)],
 );
@@ -96,7 +98,9 @@ export const events = mysqlTable(
     details: json('details').$type<Record<string, unknown>>(),
     note: varchar('note', { length: 2000 }),
     voidsEventId: bigint('voids_event_id', { mode: 'number', unsigned: true }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [
     index('events_unit_time_idx').on(t.unitId, t.occurredAt),
@@ -128,7 +132,9 @@ export const attachments = mysqlTable(
     uploadedBy: varchar('uploaded_by', { length: 32 })
       .notNull()
       .references(() => users.id),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('attachments_event_idx').on(t.eventId)],
 );

@@ -38,7 +38,9 @@ export const mailOutbox = mysqlTable(
     lockedUntil: datetime('locked_until', { mode: 'date', fsp: 3 }),
     sentAt: datetime('sent_at', { mode: 'date', fsp: 3 }),
     lastError: varchar('last_error', { length: 1000 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('mail_outbox_due_idx').on(t.sentAt, t.nextAttemptAt)],
 );
@@ -57,7 +59,9 @@ export const accountLinks = mysqlTable(
     tokenHash: char('token_hash', { length: 64 }).notNull().unique(),
     expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
     usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('account_links_user_idx').on(t.userId, t.purpose)],
 );
@@ -73,7 +77,9 @@ export const alertSubscriptions = mysqlTable(
       .notNull()
       .references(() => sites.id),
     kind: mysqlEnum('kind', ALERT_KINDS).notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [
     uniqueIndex('alert_subscriptions_user_site_kind_uq').on(t.userId, t.siteId, t.kind),
@@ -85,7 +91,9 @@ export const alertSubscriptions = mysqlTable(
 export const mailKeys = mysqlTable('mail_keys', {
   id: varchar('id', { length: 32 }).primaryKey(),
   secret: char('secret', { length: 64 }).notNull(),
-  createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
 });
 
 /** What the local fake SMTP server received (development only), for the admin mailbox page. */
@@ -99,7 +107,9 @@ export const devMailbox = mysqlTable(
     subject: varchar('subject', { length: 400 }).notNull(),
     textBody: mediumtext('text_body').notNull(),
     htmlBody: mediumtext('html_body'),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('dev_mailbox_received_idx').on(t.receivedAt)],
 );

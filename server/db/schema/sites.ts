@@ -10,5 +10,7 @@ export const sites = mysqlTable('sites', {
   name: varchar('name', { length: 120 }).notNull(),
   kind: mysqlEnum('kind', SITE_KINDS).notNull(),
   country: varchar('country', { length: 2 }),
-  createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
 });

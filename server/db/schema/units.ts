@@ -39,9 +39,15 @@ export const units = mysqlTable(
     purchaseCost: decimal('purchase_cost', { precision: 12, scale: 2, mode: 'number' }),
     residualValue: decimal('residual_value', { precision: 12, scale: 2, mode: 'number' }),
     notes: text('notes'),
-    qrIssuedAt: datetime('qr_issued_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
-    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    qrIssuedAt: datetime('qr_issued_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [
     index('units_site_idx').on(t.siteId),
@@ -68,7 +74,9 @@ export const unitChanges = mysqlTable(
     field: varchar('field', { length: 40 }).notNull(),
     before: text('before'),
     after: text('after'),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('unit_changes_unit_at_idx').on(t.unitId, t.at)],
 );
@@ -89,7 +97,9 @@ export const unitImports = mysqlTable(
     processedRows: int('processed_rows').notNull().default(0),
     insertedRows: int('inserted_rows').notNull().default(0),
     message: varchar('message', { length: 500 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
     finishedAt: datetime('finished_at', { mode: 'date', fsp: 3 }),
   },
   (t) => [index('unit_imports_user_idx').on(t.userId)],

@@ -11,7 +11,9 @@ export const users = mysqlTable('users', {
   passwordHash: varchar('password_hash', { length: 255 }),
   certificateNumber: varchar('certificate_number', { length: 64 }),
   active: boolean('active').notNull().default(true),
-  createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+    .notNull()
+    .default(sql`CURRENT_TIMESTAMP(3)`),
 });
 
 export const sessions = mysqlTable(
@@ -24,8 +26,12 @@ export const sessions = mysqlTable(
       .references(() => users.id),
     // The earlier of the idle deadline and the absolute one (created_at + the absolute lifetime).
     expiresAt: datetime('expires_at', { mode: 'date' }).notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
-    lastSeenAt: datetime('last_seen_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    lastSeenAt: datetime('last_seen_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
     // Shown on the "Signed-in devices" list so a person can tell their sessions apart.
     userAgent: varchar('user_agent', { length: 255 }),
     ipAddress: varchar('ip_address', { length: 45 }),
@@ -44,8 +50,12 @@ export const knownDevices = mysqlTable(
     userId: varchar('user_id', { length: 32 })
       .notNull()
       .references(() => users.id),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
-    lastUsedAt: datetime('last_used_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+    lastUsedAt: datetime('last_used_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
     expiresAt: datetime('expires_at', { mode: 'date' }).notNull(),
   },
   (t) => [index('known_devices_user_idx').on(t.userId)],

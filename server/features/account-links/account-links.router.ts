@@ -1,6 +1,10 @@
 import type { NextFunction, Request, Response } from 'express';
 import { idParamSchema } from '../../../shared/schemas/common';
-import { linkTokenParamSchema, requestPasswordResetSchema, setPasswordSchema } from '../../../shared/schemas/account-links';
+import {
+  linkTokenParamSchema,
+  requestPasswordResetSchema,
+  setPasswordSchema,
+} from '../../../shared/schemas/account-links';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
 import { HttpError } from '../../lib/http-error';
@@ -20,13 +24,18 @@ export function accountLinkRoutes(ctx: AppContext) {
       perAddress.add(addressBucket(clientAddress(req))),
       perEmail.add(typeof email === 'string' ? email.trim().toLowerCase().slice(0, 254) : ''),
     ]);
-    const over = [a.count > ctx.rateLimits.resetPerIp && a, e.count > ctx.rateLimits.resetPerEmail && e].filter((x) => x !== false);
+    const over = [a.count > ctx.rateLimits.resetPerIp && a, e.count > ctx.rateLimits.resetPerEmail && e].filter(
+      (x) => x !== false,
+    );
     if (over.length) {
       const msLeft = Math.max(...over.map((x) => x.msLeft));
       return next(
-        Object.assign(new HttpError(429, 'rate_limited', 'Too many password-reset requests. Wait 15 minutes and try again.'), {
-          retryAfterSeconds: Math.max(1, Math.ceil(msLeft / 1000)),
-        }),
+        Object.assign(
+          new HttpError(429, 'rate_limited', 'Too many password-reset requests. Wait 15 minutes and try again.'),
+          {
+            retryAfterSeconds: Math.max(1, Math.ceil(msLeft / 1000)),
+          },
+        ),
       );
     }
     next();
@@ -45,7 +54,10 @@ export function accountLinkRoutes(ctx: AppContext) {
     route('post', '/api/invitations/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
-      const user = await completeLink(ctx.db, ctx, 'invitation', token, password, { address: clientAddress(req), browser: req.get('user-agent') ?? null });
+      const user = await completeLink(ctx.db, ctx, 'invitation', token, password, {
+        address: clientAddress(req),
+        browser: req.get('user-agent') ?? null,
+      });
       await ctx.sessions.start(req, res, user);
       await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });
@@ -69,7 +81,10 @@ export function accountLinkRoutes(ctx: AppContext) {
       const { token } = linkTokenParamSchema.parse(req.params);
       const { password } = setPasswordSchema.parse(req.body);
       // A reset link signs in even while the account's ceiling of failed sign-ins is reached (decision record 007).
-      const user = await completeLink(ctx.db, ctx, 'password_reset', token, password, { address: clientAddress(req), browser: req.get('user-agent') ?? null });
+      const user = await completeLink(ctx.db, ctx, 'password_reset', token, password, {
+        address: clientAddress(req),
+        browser: req.get('user-agent') ?? null,
+      });
       await ctx.sessions.start(req, res, user);
       await ctx.signInGuard.remember(req, res, user.id);
       res.json({ user: toUserDto(user) });

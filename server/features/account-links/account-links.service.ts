@@ -47,7 +47,14 @@ async function issueLink(tx: DbOrTx, ctx: LinkContext, userId: string, purpose: 
   await tx
     .update(accountLinks)
     .set({ expiresAt: now })
-    .where(and(eq(accountLinks.userId, userId), eq(accountLinks.purpose, purpose), isNull(accountLinks.usedAt), gt(accountLinks.expiresAt, now)));
+    .where(
+      and(
+        eq(accountLinks.userId, userId),
+        eq(accountLinks.purpose, purpose),
+        isNull(accountLinks.usedAt),
+        gt(accountLinks.expiresAt, now),
+      ),
+    );
   const token = newToken();
   const expiresAt = new Date(now.getTime() + LINK[purpose].hours * HOUR_MS);
   const [result] = await tx.insert(accountLinks).values({ userId, purpose, tokenHash: hashToken(token), expiresAt });
@@ -83,7 +90,8 @@ export async function resendInvitation(db: Db, ctx: LinkContext, userId: string)
   await db.transaction(async (tx) => {
     const [user] = await tx.select().from(users).where(eq(users.id, userId)).for('update');
     if (!user) throw notFound('No such user.');
-    if (user.passwordHash) throw conflict('This person has already set a password; they can reset it from the sign-in page.');
+    if (user.passwordHash)
+      throw conflict('This person has already set a password; they can reset it from the sign-in page.');
     if (!user.active) throw conflict('This account is deactivated. Activate it before sending an invitation.');
     await queueInvitation(tx, ctx, user);
   });
@@ -129,7 +137,8 @@ async function usableLink(tx: DbOrTx, ctx: LinkContext, purpose: Purpose, token:
   const { link, user } = row;
   const usedInvitation = purpose === 'invitation' && user.passwordHash != null;
   if (link.usedAt || usedInvitation) throw new HttpError(410, 'link_used', LINK[purpose].used);
-  if (link.expiresAt.getTime() <= ctx.clock.now().getTime()) throw new HttpError(410, 'link_expired', LINK[purpose].expired);
+  if (link.expiresAt.getTime() <= ctx.clock.now().getTime())
+    throw new HttpError(410, 'link_expired', LINK[purpose].expired);
   if (!user.active) throw new HttpError(410, 'account_inactive', 'This account is deactivated. Ask an administrator.');
   return { link, user };
 }

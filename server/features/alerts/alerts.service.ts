@@ -47,7 +47,13 @@ export async function subscribersOf(tx: DbOrTx, siteId: number, kind: AlertKind)
 }
 
 /** The footer every alert and digest carries: why the mail came, one link to stop this kind, one to the settings. */
-export async function subscriptionFooter(tx: DbOrTx, ctx: AlertContext, userId: string, kind: AlertKind, where: string) {
+export async function subscriptionFooter(
+  tx: DbOrTx,
+  ctx: AlertContext,
+  userId: string,
+  kind: AlertKind,
+  where: string,
+) {
   const title = ALERT_KIND_LABELS[kind].title;
   const stopUrl = await unsubscribeUrl(tx, ctx.publicUrl, userId, kind);
   return {
@@ -55,7 +61,11 @@ export async function subscriptionFooter(tx: DbOrTx, ctx: AlertContext, userId: 
     footer: [
       { text: `You receive this because you follow “${title}” for ${where}.` },
       { text: `Stop “${title}” mails:`, url: stopUrl, linkLabel: 'unsubscribe' },
-      { text: 'Choose sites and alerts:', url: `${ctx.publicUrl}${MAIL_PAGE_PATHS.alertSettings}`, linkLabel: 'alert settings' },
+      {
+        text: 'Choose sites and alerts:',
+        url: `${ctx.publicUrl}${MAIL_PAGE_PATHS.alertSettings}`,
+        linkLabel: 'alert settings',
+      },
     ],
   };
 }
@@ -105,7 +115,13 @@ export function openLeakDays(foundAt: Date, now: Date): number {
 }
 
 /** One mail per found leak that stays unrepaired past the allowed days (from a stats change or the daily run). */
-export function queueOpenLeakAlert(tx: DbOrTx, ctx: AlertContext, unit: AlertUnit, foundAt: Date, now = ctx.clock.now()) {
+export function queueOpenLeakAlert(
+  tx: DbOrTx,
+  ctx: AlertContext,
+  unit: AlertUnit,
+  foundAt: Date,
+  now = ctx.clock.now(),
+) {
   const days = openLeakDays(foundAt, now);
   if (days < OPEN_LEAK_ALERT_DAYS) return Promise.resolve(0);
   const shown = formatContainerNumber(unit.containerNumber);
@@ -171,7 +187,11 @@ export async function getSubscriptions(db: DbOrTx, userId: string): Promise<Subs
 }
 
 /** Replaces the person's whole set of subscriptions with the given one. */
-export async function putSubscriptions(db: Db, userId: string, input: PutSubscriptionsInput): Promise<SubscriptionsDto> {
+export async function putSubscriptions(
+  db: Db,
+  userId: string,
+  input: PutSubscriptionsInput,
+): Promise<SubscriptionsDto> {
   const wanted = [...new Map(input.subscriptions.map((s) => [`${s.siteId}:${s.kind}`, s])).values()];
   await retryTransaction(() =>
     db.transaction(async (tx) => {
@@ -199,7 +219,11 @@ export async function putSubscriptions(db: Db, userId: string, input: PutSubscri
 export async function unsubscribe(db: Db, input: UnsubscribeInput): Promise<{ kind: AlertKind; removed: number }> {
   return db.transaction(async (tx) => {
     if (!(await verifyUnsubscribe(tx, input.user, input.kind, input.sig))) {
-      throw new HttpError(404, 'link_invalid', 'This unsubscribe link is not valid. Check that you opened the whole link from the e-mail.');
+      throw new HttpError(
+        404,
+        'link_invalid',
+        'This unsubscribe link is not valid. Check that you opened the whole link from the e-mail.',
+      );
     }
     // After the person's own saves, like every change of their list (see putSubscriptions).
     await tx.select({ id: users.id }).from(users).where(eq(users.id, input.user)).for('update');

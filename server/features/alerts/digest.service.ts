@@ -96,7 +96,13 @@ async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf
 export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
   const today = dayPlus(asOf, 0);
   const subs = await db
-    .select({ userId: users.id, email: users.email, role: users.role, siteId: alertSubscriptions.siteId, siteName: sites.name })
+    .select({
+      userId: users.id,
+      email: users.email,
+      role: users.role,
+      siteId: alertSubscriptions.siteId,
+      siteName: sites.name,
+    })
     .from(alertSubscriptions)
     .innerJoin(users, eq(users.id, alertSubscriptions.userId))
     .innerJoin(sites, eq(sites.id, alertSubscriptions.siteId))
@@ -139,7 +145,14 @@ export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): P
       });
       const inserted = await enqueueMail(
         tx,
-        { dedupeKey: keyOf(userId), kind: 'digest', to: p.email, subject, ...mail, headers: { 'List-Unsubscribe': `<${stopUrl}>` } },
+        {
+          dedupeKey: keyOf(userId),
+          kind: 'digest',
+          to: p.email,
+          subject,
+          ...mail,
+          headers: { 'List-Unsubscribe': `<${stopUrl}>` },
+        },
         asOf,
       );
       if (inserted) queued++;
@@ -155,7 +168,12 @@ export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Da
     .from(alertSubscriptions)
     .where(eq(alertSubscriptions.kind, 'open_leak'));
   const rows = await db
-    .select({ id: units.id, containerNumber: units.containerNumber, siteId: units.siteId, foundAt: unitStats.openLeakFoundAt })
+    .select({
+      id: units.id,
+      containerNumber: units.containerNumber,
+      siteId: units.siteId,
+      foundAt: unitStats.openLeakFoundAt,
+    })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .where(
@@ -169,7 +187,13 @@ export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Da
   let queued = 0;
   for (const r of rows) {
     queued += await db.transaction((tx) =>
-      queueOpenLeakAlert(tx, ctx, { id: r.id, containerNumber: r.containerNumber, siteId: r.siteId! }, r.foundAt!, asOf),
+      queueOpenLeakAlert(
+        tx,
+        ctx,
+        { id: r.id, containerNumber: r.containerNumber, siteId: r.siteId! },
+        r.foundAt!,
+        asOf,
+      ),
     );
   }
   return queued;

@@ -5,10 +5,25 @@ import { isDuplicateKeyError } from '../../lib/db-errors';
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
-import { events, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
+import {
+  events,
+  repairEffectivenessRows,
+  sites,
+  units,
+  unitStats,
+  unitStatsDetail,
+  users,
+  visits,
+} from '../../db/schema';
 import { conflict, HttpError, notFound } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
-import { compareRepairOptions, isLeakLocation, unitAgeYears, type LeakLocationId, type RepairOptionsInput } from '../../../shared/domain';
+import {
+  compareRepairOptions,
+  isLeakLocation,
+  unitAgeYears,
+  type LeakLocationId,
+  type RepairOptionsInput,
+} from '../../../shared/domain';
 import {
   DECISION_OPTION,
   type DecisionChoice,
@@ -58,7 +73,14 @@ async function leakLocationsOf(db: DbOrTx, unitIds: number[], openLeaks: Map<num
     for (const id of rest.slice(i, i + 500)) {
       const found = lastFound.get(id);
       const repaired = lastRepair.get(id);
-      out.set(id, found ? { location: found, source: 'last_leak_found' } : repaired ? { location: repaired, source: 'last_repair' } : { location: 'other', source: 'none' });
+      out.set(
+        id,
+        found
+          ? { location: found, source: 'last_leak_found' }
+          : repaired
+            ? { location: repaired, source: 'last_repair' }
+            : { location: 'other', source: 'none' },
+      );
     }
   }
   return out;
@@ -66,13 +88,20 @@ async function leakLocationsOf(db: DbOrTx, unitIds: number[], openLeaks: Map<num
 
 async function fleetRepairsByLocation(db: DbOrTx): Promise<Map<string, { repairs: number; recurred: number }>> {
   const rows = await db
-    .select({ location: repairEffectivenessRows.location, repairs: repairEffectivenessRows.repairs, recurred: repairEffectivenessRows.recurred })
+    .select({
+      location: repairEffectivenessRows.location,
+      repairs: repairEffectivenessRows.repairs,
+      recurred: repairEffectivenessRows.recurred,
+    })
     .from(repairEffectivenessRows)
     .where(eq(repairEffectivenessRows.action, ''));
   return new Map(rows.map((r) => [r.location, { repairs: r.repairs, recurred: r.recurred }]));
 }
 
-type Detail = { forecast?: { intervalDays?: number; expectedKg?: number } | null; openLeak?: { location?: string | null } | null };
+type Detail = {
+  forecast?: { intervalDays?: number; expectedKg?: number } | null;
+  openLeak?: { location?: string | null } | null;
+};
 
 function ageOf(u: { commissionedOn: string | null; createdAt: Date }, asOf: Date): number {
   // Without a commissioning date the record's start stands in for it (DOMAIN.md §4).
@@ -81,9 +110,23 @@ function ageOf(u: { commissionedOn: string | null; createdAt: Date }, asOf: Date
 
 const withEconomics = (settings: Settings, economics: Settings['economics']): Settings => ({ ...settings, economics });
 
-const decisionFields = { id: events.id, at: events.occurredAt, details: events.details, note: events.note, userId: users.id, userName: users.name };
+const decisionFields = {
+  id: events.id,
+  at: events.occurredAt,
+  details: events.details,
+  note: events.note,
+  userId: users.id,
+  userName: users.name,
+};
 
-function toDecisionRecord(r: { id: number; at: Date; details: unknown; note: string | null; userId: string; userName: string }): DecisionRecordDto {
+function toDecisionRecord(r: {
+  id: number;
+  at: Date;
+  details: unknown;
+  note: string | null;
+  userId: string;
+  userName: string;
+}): DecisionRecordDto {
   const d = (r.details ?? {}) as { choice?: DecisionChoice; cheapestId?: DecisionRecordDto['cheapestId'] };
   return {
     eventId: r.id,
@@ -108,14 +151,20 @@ async function decisionsOf(db: DbOrTx, unitId: number): Promise<DecisionRecordDt
 
 /** One decision, voided or not and however old (a replay answers with what was recorded). */
 async function decisionRecord(db: DbOrTx, eventId: number): Promise<DecisionRecordDto> {
-  const [row] = await db.select(decisionFields).from(events).innerJoin(users, eq(users.id, events.recordedBy)).where(eq(events.id, eventId));
+  const [row] = await db
+    .select(decisionFields)
+    .from(events)
+    .innerJoin(users, eq(users.id, events.recordedBy))
+    .where(eq(events.id, eventId));
   return toDecisionRecord(row);
 }
 
 /** SHA-256 of what a submission says (everything but its key): a key sent again must come with the same decision. */
 function submissionHash(unitId: number, body: RecordDecisionInput): string {
   const { idempotencyKey: _key, ...content } = body;
-  return createHash('sha256').update(JSON.stringify({ unitId, ...content })).digest('hex');
+  return createHash('sha256')
+    .update(JSON.stringify({ unitId, ...content }))
+    .digest('hex');
 }
 
 async function loadUnit(db: DbOrTx, unitId: number) {
@@ -145,7 +194,13 @@ async function engineInputOf(db: DbOrTx, row: Awaited<ReturnType<typeof loadUnit
     leakLocation: loc.location,
     fleetRepairs: fleet,
   };
-  return { input, sources: { leakLocation: loc.source, interval: forecast ? 'forecast' : 'no_leak_evidence' } as UnitDecisionDto['sources'] };
+  return {
+    input,
+    sources: {
+      leakLocation: loc.source,
+      interval: forecast ? 'forecast' : 'no_leak_evidence',
+    } as UnitDecisionDto['sources'],
+  };
 }
 
 /** The engine's throw on a record it cannot price (a date it cannot place) as a 409 saying why, never a 500. */
@@ -155,7 +210,11 @@ async function pricing<T>(work: () => Promise<T> | T): Promise<T> {
   } catch (err) {
     if (err instanceof HttpError) throw err;
     const reason = err instanceof Error && err.message ? err.message : 'the record breaks a rule of the computation';
-    throw new HttpError(409, 'cannot_compute', `Cannot compute the options for this unit: ${reason} Correct the unit's details first.`);
+    throw new HttpError(
+      409,
+      'cannot_compute',
+      `Cannot compute the options for this unit: ${reason} Correct the unit's details first.`,
+    );
   }
 }
 
@@ -176,7 +235,12 @@ export async function getUnitDecision(db: Db, unitId: number, now: Date): Promis
       site: row.u.siteId != null ? { id: row.u.siteId, name: row.siteName ?? '' } : null,
     },
     stats: row.stats
-      ? { score: row.stats.score, scoreBand: row.stats.scoreBand, rollingLeakRatePct: row.stats.rollingLeakRatePct, forecastDate: row.stats.forecastDate }
+      ? {
+          score: row.stats.score,
+          scoreBand: row.stats.scoreBand,
+          rollingLeakRatePct: row.stats.rollingLeakRatePct,
+          forecastDate: row.stats.forecastDate,
+        }
       : null,
     engineInput: input,
     economics: settings.economics,
@@ -198,18 +262,27 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
       .from(visits)
       .where(eq(visits.idempotencyKey, body.idempotencyKey));
     if (!v) return null;
-    const [e] = await db.select({ id: events.id, details: events.details }).from(events).where(and(eq(events.visitId, v.id), eq(events.kind, 'decision')));
+    const [e] = await db
+      .select({ id: events.id, details: events.details })
+      .from(events)
+      .where(and(eq(events.visitId, v.id), eq(events.kind, 'decision')));
     if (!e || v.unitId !== unitId || v.recordedBy !== user.id) {
-      throw conflict('This submission key was already used for something else; nothing was recorded. Send the decision as a new submission.', {
-        idempotencyKey: 'Already used',
-      });
+      throw conflict(
+        'This submission key was already used for something else; nothing was recorded. Send the decision as a new submission.',
+        {
+          idempotencyKey: 'Already used',
+        },
+      );
     }
     // Decisions recorded before the content was kept have no hash: the key alone identifies them.
     const recorded = (e.details as { submission?: string } | null)?.submission;
     if (recorded && recorded !== submission) {
-      throw conflict('This submission key was already used for a different decision; nothing was recorded. Send the decision as a new submission.', {
-        idempotencyKey: 'Already used for another decision',
-      });
+      throw conflict(
+        'This submission key was already used for a different decision; nothing was recorded. Send the decision as a new submission.',
+        {
+          idempotencyKey: 'Already used for another decision',
+        },
+      );
     }
     return { decision: await decisionRecord(db, e.id), replayed: true };
   };
@@ -225,7 +298,14 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
       const result = await pricing(() => compareRepairOptions(input, withEconomics(settings, body.economics)));
       const [visit] = await tx
         .insert(visits)
-        .values({ unitId, siteId: row.u.siteId, recordedBy: user.id, occurredAt: now, enteredAt: now, idempotencyKey: body.idempotencyKey })
+        .values({
+          unitId,
+          siteId: row.u.siteId,
+          recordedBy: user.id,
+          occurredAt: now,
+          enteredAt: now,
+          idempotencyKey: body.idempotencyKey,
+        })
         .$returningId();
       const [ev] = await tx
         .insert(events)
@@ -265,7 +345,11 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
   }
 }
 
-export async function retirementCandidates(db: Db, opts: { siteId?: number; limit: number }, now: Date): Promise<RetirementCandidatesDto> {
+export async function retirementCandidates(
+  db: Db,
+  opts: { siteId?: number; limit: number },
+  now: Date,
+): Promise<RetirementCandidatesDto> {
   const { settings } = await getSettingsVersion(db);
   const where = [ne(units.status, 'retired'), sql`${unitStats.score} >= ${settings.score.watchFrom}`];
   if (opts.siteId) where.push(eq(units.siteId, opts.siteId));
@@ -292,7 +376,11 @@ export async function retirementCandidates(db: Db, opts: { siteId?: number; limi
     .where(and(...where))
     .orderBy(desc(unitStats.score), desc(unitStats.unitId))
     .limit(CANDIDATE_POOL);
-  const locations = await leakLocationsOf(db, pool.map((p) => p.unitId), new Map(pool.map((p) => [p.unitId, p.openLeak])));
+  const locations = await leakLocationsOf(
+    db,
+    pool.map((p) => p.unitId),
+    new Map(pool.map((p) => [p.unitId, p.openLeak])),
+  );
   const fleet = await fleetRepairsByLocation(db);
   const candidates: RetirementCandidatesDto['candidates'] = [];
   for (const p of pool) {
@@ -304,7 +392,14 @@ export async function retirementCandidates(db: Db, opts: { siteId?: number; limi
     try {
       ageYears = ageOf({ commissionedOn: p.commissionedOn, createdAt: p.createdAt }, now);
       r = compareRepairOptions(
-        { refrigerant: p.refrigerant, ageYears, topUpIntervalDays: interval && interval > 0 ? interval : null, madeUpKgPerVisit: kg, leakLocation: location, fleetRepairs: fleet.get(location) ?? null },
+        {
+          refrigerant: p.refrigerant,
+          ageYears,
+          topUpIntervalDays: interval && interval > 0 ? interval : null,
+          madeUpKgPerVisit: kg,
+          leakLocation: location,
+          fleetRepairs: fleet.get(location) ?? null,
+        },
         settings,
       );
     } catch {
@@ -333,5 +428,10 @@ export async function retirementCandidates(db: Db, opts: { siteId?: number; limi
     });
   }
   candidates.sort((a, b) => b.yearlySaving - a.yearlySaving || b.score - a.score);
-  return { asOf: now.toISOString().slice(0, 10), currency: settings.economics.currency, considered: pool.length, candidates: candidates.slice(0, opts.limit) };
+  return {
+    asOf: now.toISOString().slice(0, 10),
+    currency: settings.economics.currency,
+    considered: pool.length,
+    candidates: candidates.slice(0, opts.limit),
+  };
 }

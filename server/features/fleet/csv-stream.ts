@@ -14,14 +14,21 @@ type Compiled = { toSQL(): { sql: string; params: unknown[] } };
 export function streamRows(db: Db, query: Compiled): AsyncIterable<unknown[]> {
   const { pool } = db.$client as unknown as { pool: CorePool };
   const { sql, params } = query.toSQL();
-  return pool.query({ sql, values: params, rowsAsArray: true }).stream({ highWaterMark: 256 }) as unknown as AsyncIterable<unknown[]>;
+  return pool
+    .query({ sql, values: params, rowsAsArray: true })
+    .stream({ highWaterMark: 256 }) as unknown as AsyncIterable<unknown[]>;
 }
 
 /**
  * Sends `records` as a CSV attachment (UTF-8 with a byte-order mark, so spreadsheet programs read accents right).
  * Cells follow the CSV injection rule of server/lib/csv.ts: formula-leading text escaped, numbers as numbers.
  */
-export async function sendCsv(res: Response, fileName: string, columns: string[], records: AsyncIterable<unknown[]>): Promise<void> {
+export async function sendCsv(
+  res: Response,
+  fileName: string,
+  columns: string[],
+  records: AsyncIterable<unknown[]>,
+): Promise<void> {
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
   res.setHeader('Cache-Control', 'no-store');
@@ -31,4 +38,5 @@ export async function sendCsv(res: Response, fileName: string, columns: string[]
 }
 
 /** Date-only text of a DATE column read raw (a Date at UTC midnight) or already text. */
-export const dayText = (v: unknown): string => (v == null ? '' : v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10));
+export const dayText = (v: unknown): string =>
+  v == null ? '' : v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10);

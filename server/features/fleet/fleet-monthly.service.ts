@@ -8,20 +8,24 @@ import { groupVisits, type UnitEvent } from '../../../shared/domain';
 const MOVEMENTS = ['top_up', 'recovery', 'recharge'] as const;
 const notVoided = sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
 
-type MovementRow = { visitId: number | null; kind: string; kg: number | null; excludedFromLeakRate: boolean | null; occurredAt: Date };
+type MovementRow = {
+  visitId: number | null;
+  kind: string;
+  kg: number | null;
+  excludedFromLeakRate: boolean | null;
+  occurredAt: Date;
+};
 
 /** Made-up kg of one visit by the domain rule (top-ups + max(0, recharged − recovered), DOMAIN.md §4). */
 function madeUpOf(rows: readonly MovementRow[]): number {
   if (!rows.length) return 0;
-  const evs = rows.map(
-    (r): UnitEvent => ({
-      kind: r.kind as (typeof MOVEMENTS)[number],
-      at: r.occurredAt.toISOString(),
-      visitId: 'v',
-      kg: r.kg ?? 0,
-      excluded: Boolean(r.excludedFromLeakRate),
-    }),
-  );
+  const evs = rows.map((r): UnitEvent => ({
+    kind: r.kind as (typeof MOVEMENTS)[number],
+    at: r.occurredAt.toISOString(),
+    visitId: 'v',
+    kg: r.kg ?? 0,
+    excluded: Boolean(r.excludedFromLeakRate),
+  }));
   return groupVisits(evs).reduce((s, v) => s + v.madeUpKg, 0);
 }
 
@@ -36,7 +40,12 @@ export function fleetMonthlyChanged() {
 /** YYYY-MM of a moment, UTC (the domain's month of a visit). */
 const monthOf = (d: Date) => d.toISOString().slice(0, 7);
 
-async function addToMonth(tx: DbOrTx, key: { month: string; siteId: number; refrigerant: string }, kg: number, visitCount: number) {
+async function addToMonth(
+  tx: DbOrTx,
+  key: { month: string; siteId: number; refrigerant: string },
+  kg: number,
+  visitCount: number,
+) {
   if (kg === 0 && visitCount === 0) return;
   await tx
     .insert(fleetMonthly)
@@ -58,7 +67,13 @@ async function addToMonth(tx: DbOrTx, key: { month: string; siteId: number; refr
 export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[]): Promise<void> {
   for (const visitId of [...new Set(visitIds)].sort((a, b) => a - b)) {
     const [visit] = await tx
-      .select({ id: visits.id, siteId: visits.siteId, occurredAt: visits.occurredAt, refrigerant: units.refrigerant, unitId: visits.unitId })
+      .select({
+        id: visits.id,
+        siteId: visits.siteId,
+        occurredAt: visits.occurredAt,
+        refrigerant: units.refrigerant,
+        unitId: visits.unitId,
+      })
       .from(visits)
       .innerJoin(units, eq(units.id, visits.unitId))
       .where(eq(visits.id, visitId));
@@ -66,7 +81,13 @@ export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[
     // No lock of its own: the caller holds the unit's row, and only writes to that unit touch its visits' shares.
     const [prev] = await tx.select().from(visitMadeUp).where(eq(visitMadeUp.visitId, visitId));
     const rows = await tx
-      .select({ visitId: events.visitId, kind: events.kind, kg: events.kg, excludedFromLeakRate: events.excludedFromLeakRate, occurredAt: events.occurredAt })
+      .select({
+        visitId: events.visitId,
+        kind: events.kind,
+        kg: events.kg,
+        excludedFromLeakRate: events.excludedFromLeakRate,
+        occurredAt: events.occurredAt,
+      })
       .from(events)
       .where(and(eq(events.visitId, visitId), inArray(events.kind, [...MOVEMENTS]), notVoided));
     const kg = madeUpOf(rows);
@@ -86,7 +107,10 @@ export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[
  * Rebuilds visit_made_up and fleet_monthly from the whole history (after a bulk load that bypassed the API, such as
  * the demo fleet simulator). Reads the refrigerant movements in visit-id batches; safe to run again.
  */
-export async function rebuildFleetMonthly(db: Db, opts: { batchVisits?: number; onProgress?: (visitId: number) => void } = {}) {
+export async function rebuildFleetMonthly(
+  db: Db,
+  opts: { batchVisits?: number; onProgress?: (visitId: number) => void } = {},
+) {
   const batch = opts.batchVisits ?? 5000;
   await db.delete(visitMadeUp);
   await db.delete(fleetMonthly);
@@ -115,12 +139,25 @@ export async function rebuildFleetMonthly(db: Db, opts: { batchVisits?: number; 
     const ids = [...byVisit.keys()];
     if (ids.length) {
       const info = await db
-        .select({ id: visits.id, unitId: visits.unitId, siteId: visits.siteId, occurredAt: visits.occurredAt, refrigerant: units.refrigerant })
+        .select({
+          id: visits.id,
+          unitId: visits.unitId,
+          siteId: visits.siteId,
+          occurredAt: visits.occurredAt,
+          refrigerant: units.refrigerant,
+        })
         .from(visits)
         .innerJoin(units, eq(units.id, visits.unitId))
         .where(inArray(visits.id, ids));
       const values = info
-        .map((v) => ({ visitId: v.id, unitId: v.unitId, month: monthOf(v.occurredAt), siteId: v.siteId ?? 0, refrigerant: v.refrigerant, madeUpKg: madeUpOf(byVisit.get(v.id)!) }))
+        .map((v) => ({
+          visitId: v.id,
+          unitId: v.unitId,
+          month: monthOf(v.occurredAt),
+          siteId: v.siteId ?? 0,
+          refrigerant: v.refrigerant,
+          madeUpKg: madeUpOf(byVisit.get(v.id)!),
+        }))
         .filter((v) => v.madeUpKg > 0);
       if (values.length) await db.insert(visitMadeUp).values(values);
     }

@@ -7,9 +7,23 @@ import {
   markForInspectionSchema,
   traceQuerySchema,
 } from '../../../shared/schemas/fleet';
-import { ensureStatsRows, refreshForecastIfStale, refreshRepairEffectivenessIfStale, startForecastCases, startRepairEffectiveness } from '../jobs/jobs.service';
+import {
+  ensureStatsRows,
+  refreshForecastIfStale,
+  refreshRepairEffectivenessIfStale,
+  startForecastCases,
+  startRepairEffectiveness,
+} from '../jobs/jobs.service';
 import { dayText, sendCsv, streamRows } from './csv-stream';
-import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, shouldForceSortIndex, todayOf, toFleetRow } from './fleet.service';
+import {
+  countFleet,
+  fleetSelect,
+  listFleet,
+  ROW_FIELD_NAMES,
+  shouldForceSortIndex,
+  todayOf,
+  toFleetRow,
+} from './fleet.service';
 import { createOverviewCache, fleetOverview } from './overview.service';
 import { markForInspection, traceCharges, traceChargesQuery } from './traceability.service';
 
@@ -34,7 +48,17 @@ const FLEET_CSV_COLUMNS = [
   'Figures',
 ];
 
-const TRACE_CSV_COLUMNS = ['Date', 'Container number', 'Refrigerant', 'Entry', 'kg', 'Cylinder or lot', 'Site', 'Recorded by', 'Event id'];
+const TRACE_CSV_COLUMNS = [
+  'Date',
+  'Container number',
+  'Refrigerant',
+  'Entry',
+  'kg',
+  'Cylinder or lot',
+  'Site',
+  'Recorded by',
+  'Event id',
+];
 
 // The repair-effectiveness table's age is looked at on overview reads, at most this often.
 const REPAIR_AGE_CHECK_MS = 60_000;
@@ -59,11 +83,16 @@ export function fleetRoutes(ctx: AppContext) {
       const today = todayOf(ctx.clock.now());
       const nullable = ['forecast', 'leakCheck', 'pti'].includes(q.sort) && q.dir === 'asc';
       const force = await shouldForceSortIndex(ctx.db, q);
-      const parts = nullable ? [fleetSelect(ctx.db, q, today, 'none', force), fleetSelect(ctx.db, q, today, 'only')] : [fleetSelect(ctx.db, q, today, undefined, force)];
+      const parts = nullable
+        ? [fleetSelect(ctx.db, q, today, 'none', force), fleetSelect(ctx.db, q, today, 'only')]
+        : [fleetSelect(ctx.db, q, today, undefined, force)];
       async function* records() {
         for (const part of parts) {
           for await (const raw of streamRows(ctx.db, part)) {
-            const r = toFleetRow(Object.fromEntries(ROW_FIELD_NAMES.map((k, i) => [k, raw[i]])) as Parameters<typeof toFleetRow>[0], today);
+            const r = toFleetRow(
+              Object.fromEntries(ROW_FIELD_NAMES.map((k, i) => [k, raw[i]])) as Parameters<typeof toFleetRow>[0],
+              today,
+            );
             yield [
               r.containerNumber,
               r.site?.name ?? '',
@@ -94,12 +123,15 @@ export function fleetRoutes(ctx: AppContext) {
       // Rebuilt in the background when old; this answer shows the figures as they are.
       if (Date.now() - repairAgeCheckedAt > REPAIR_AGE_CHECK_MS) {
         repairAgeCheckedAt = Date.now();
-        void refreshRepairEffectivenessIfStale(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'repair effectiveness refresh'));
+        void refreshRepairEffectivenessIfStale(ctx).catch((err: unknown) =>
+          ctx.logger.warn({ err }, 'repair effectiveness refresh'),
+        );
         // The forecast's case base, should no process have run its nightly refresh (DOMAIN.md §7b); the first one is
         // the start-up check's or the refresh button's to build.
-        void refreshForecastIfStale(ctx, { firstBuild: false, message: 'Older than a day when the overview was read.' }).catch((err: unknown) =>
-          ctx.logger.warn({ err }, 'forecast case base refresh'),
-        );
+        void refreshForecastIfStale(ctx, {
+          firstBuild: false,
+          message: 'Older than a day when the overview was read.',
+        }).catch((err: unknown) => ctx.logger.warn({ err }, 'forecast case base refresh'));
       }
       res.json(await fleetOverview(ctx.db, q, ctx.clock.now(), overviewCache));
     }),
@@ -108,7 +140,9 @@ export function fleetRoutes(ctx: AppContext) {
     }),
     // Learns the forecast's case base again from the whole fleet, measures it, then recomputes every forecast.
     route('post', '/api/fleet/forecast/refresh', 'view:fleet', async (req, res) => {
-      res.status(202).json({ job: await startForecastCases(ctx, { userId: req.user!.id, message: 'Asked for on the overview.' }) });
+      res
+        .status(202)
+        .json({ job: await startForecastCases(ctx, { userId: req.user!.id, message: 'Asked for on the overview.' }) });
     }),
     route('get', '/api/traceability', 'view:fleet', async (req, res) => {
       const q = traceQuerySchema.parse(req.query);
@@ -119,7 +153,20 @@ export function fleetRoutes(ctx: AppContext) {
       async function* records() {
         for await (const raw of streamRows(ctx.db, traceChargesQuery(ctx.db, q))) {
           // Order of traceChargeFields.
-          const [eventId, , containerNumber, refrigerant, kind, kg, cylinder, occurredAt, , siteName, , technicianName] = raw;
+          const [
+            eventId,
+            ,
+            containerNumber,
+            refrigerant,
+            kind,
+            kg,
+            cylinder,
+            occurredAt,
+            ,
+            siteName,
+            ,
+            technicianName,
+          ] = raw;
           yield [
             occurredAt instanceof Date ? occurredAt.toISOString() : String(occurredAt),
             containerNumber,
@@ -133,7 +180,9 @@ export function fleetRoutes(ctx: AppContext) {
           ];
         }
       }
-      const name = q.cylinder ? `cylinder-${q.cylinder.replace(/[^\w-]+/g, '_')}` : `site-${q.siteId}-${dayText(q.from)}-${dayText(q.to)}`;
+      const name = q.cylinder
+        ? `cylinder-${q.cylinder.replace(/[^\w-]+/g, '_')}`
+        : `site-${q.siteId}-${dayText(q.from)}-${dayText(q.to)}`;
       await sendCsv(res, `traceability-${name}.csv`, TRACE_CSV_COLUMNS, records());
     }),
     route('post', '/api/traceability/mark-for-inspection', 'manage:units', async (req, res) => {

@@ -33,7 +33,12 @@ export function monthsBack(today: string, months: number): string[] {
 type UnitFigures = Awaited<ReturnType<typeof readUnitFigures>>;
 type FiguresContext = { db: Db; q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>; today: string };
 type Emissions = Omit<FleetOverviewDto['emissions'], 'months'>;
-type EmissionsContext = { db: Db; q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>; fromMonth: string; basis: GwpBasis };
+type EmissionsContext = {
+  db: Db;
+  q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>;
+  fromMonth: string;
+  basis: GwpBasis;
+};
 
 /**
  * The parts read from every unit's statistics row (distribution, chronic leakers, leak checks due) cost a scan of
@@ -48,12 +53,16 @@ export function createOverviewCache(ttlMs = 15_000) {
     figures: new LRUCache<string, UnitFigures & { at: Date }, FiguresContext>({
       max: 500,
       ttl: ttlMs,
-      fetchMethod: async (_key, _stale, { context }) => ({ ...(await readUnitFigures(context.db, context.q, context.today)), at: new Date() }),
+      fetchMethod: async (_key, _stale, { context }) => ({
+        ...(await readUnitFigures(context.db, context.q, context.today)),
+        at: new Date(),
+      }),
     }),
     emissions: new LRUCache<string, Emissions, EmissionsContext>({
       max: 500,
       ttl: 4 * ttlMs,
-      fetchMethod: async (_key, _stale, { context }) => readEmissions(context.db, context.q, context.fromMonth, context.basis),
+      fetchMethod: async (_key, _stale, { context }) =>
+        readEmissions(context.db, context.q, context.fromMonth, context.basis),
     }),
   };
 }
@@ -98,23 +107,43 @@ async function readUnitFigures(db: Db, q: FiguresContext['q'], today: string) {
     .limit(CHRONIC_LIST);
 
   const dueUntil = dayPlus(today, LEAK_CHECK_DUE_DAYS);
-  const dueWhere = and(gte(unitStats.nextLeakCheckDue, today), lte(unitStats.nextLeakCheckDue, dueUntil), sql`${units.status} <> 'retired'`, ...unitWhere);
+  const dueWhere = and(
+    gte(unitStats.nextLeakCheckDue, today),
+    lte(unitStats.nextLeakCheckDue, dueUntil),
+    sql`${units.status} <> 'retired'`,
+    ...unitWhere,
+  );
   const dueListQuery = db
-    .select({ unitId: units.id, containerNumber: units.containerNumber, siteName: sites.name, due: unitStats.nextLeakCheckDue })
+    .select({
+      unitId: units.id,
+      containerNumber: units.containerNumber,
+      siteName: sites.name,
+      due: unitStats.nextLeakCheckDue,
+    })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .leftJoin(sites, eq(sites.id, units.siteId))
     .where(dueWhere)
     .orderBy(asc(unitStats.nextLeakCheckDue), asc(unitStats.unitId))
     .limit(DUE_LIST);
-  const dueCountQuery = db.select({ n: count() }).from(unitStats).innerJoin(units, eq(units.id, unitStats.unitId)).where(dueWhere);
+  const dueCountQuery = db
+    .select({ n: count() })
+    .from(unitStats)
+    .innerJoin(units, eq(units.id, unitStats.unitId))
+    .where(dueWhere);
   const overdueQuery = db
     .select({ n: count() })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .where(and(lt(unitStats.nextLeakCheckDue, today), sql`${units.status} <> 'retired'`, ...unitWhere));
 
-  const [histogram, chronic, dueList, [dueCount], [overdue]] = await Promise.all([histogramQuery, chronicQuery, dueListQuery, dueCountQuery, overdueQuery]);
+  const [histogram, chronic, dueList, [dueCount], [overdue]] = await Promise.all([
+    histogramQuery,
+    chronicQuery,
+    dueListQuery,
+    dueCountQuery,
+    overdueQuery,
+  ]);
   return { histogram, chronic, dueList, dueCount: Number(dueCount.n), overdue: Number(overdue.n) };
 }
 
@@ -124,24 +153,43 @@ async function readEmissions(db: Db, q: EmissionsContext['q'], fromMonth: string
   if (q.siteId) monthWhere.push(eq(fleetMonthly.siteId, q.siteId));
   if (q.refrigerant) monthWhere.push(eq(fleetMonthly.refrigerant, q.refrigerant));
   const rows = await db
-    .select({ month: fleetMonthly.month, siteId: fleetMonthly.siteId, siteName: sites.name, refrigerant: fleetMonthly.refrigerant, kg: fleetMonthly.madeUpKg })
+    .select({
+      month: fleetMonthly.month,
+      siteId: fleetMonthly.siteId,
+      siteName: sites.name,
+      refrigerant: fleetMonthly.refrigerant,
+      kg: fleetMonthly.madeUpKg,
+    })
     .from(fleetMonthly)
     .leftJoin(sites, eq(sites.id, fleetMonthly.siteId))
     .where(and(...monthWhere))
     .orderBy(asc(fleetMonthly.month));
   // The chart stacks either by site or by refrigerant; both sums are made here so the page gets two short series.
   // A site that has gone keeps its months under its id (the name is unknown).
-  const bySite = new Map<string, { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }>();
+  const bySite = new Map<
+    string,
+    { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }
+  >();
   const byRefrigerant = new Map<string, { month: string; refrigerant: string; madeUpKg: number; co2eTonnes: number }>();
   for (const { kg, ...r } of rows) {
     const t = co2eTonnes(r.refrigerant, Math.max(0, kg), basis);
     const siteKey = `${r.month}|${r.siteId}`;
-    const perSite = bySite.get(siteKey) ?? { month: r.month, site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null, madeUpKg: 0, co2eTonnes: 0 };
+    const perSite = bySite.get(siteKey) ?? {
+      month: r.month,
+      site: r.siteId ? { id: r.siteId, name: r.siteName ?? `Site ${r.siteId}` } : null,
+      madeUpKg: 0,
+      co2eTonnes: 0,
+    };
     perSite.madeUpKg += kg;
     perSite.co2eTonnes += t;
     bySite.set(siteKey, perSite);
     const gasKey = `${r.month}|${r.refrigerant}`;
-    const perGas = byRefrigerant.get(gasKey) ?? { month: r.month, refrigerant: r.refrigerant, madeUpKg: 0, co2eTonnes: 0 };
+    const perGas = byRefrigerant.get(gasKey) ?? {
+      month: r.month,
+      refrigerant: r.refrigerant,
+      madeUpKg: 0,
+      co2eTonnes: 0,
+    };
     perGas.madeUpKg += kg;
     perGas.co2eTonnes += t;
     byRefrigerant.set(gasKey, perGas);
@@ -152,28 +200,47 @@ async function readEmissions(db: Db, q: EmissionsContext['q'], fromMonth: string
   return { gwpBasis: basis, bySite: rounded(bySite.values()), byRefrigerant: rounded(byRefrigerant.values()) };
 }
 
-export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, cache?: OverviewCache): Promise<FleetOverviewDto> {
+export async function fleetOverview(
+  db: Db,
+  q: FleetOverviewQuery,
+  now: Date,
+  cache?: OverviewCache,
+): Promise<FleetOverviewDto> {
   const today = todayOf(now);
   const settings = await getSettings(db);
   const months = monthsBack(today, q.months);
   const figuresQ = { siteId: q.siteId, refrigerant: q.refrigerant };
   const context: FiguresContext = { db, q: figuresQ, today };
   const figures = cache
-    ? await cache.figures.fetch(JSON.stringify([today, figuresQ.siteId ?? null, figuresQ.refrigerant ?? null]), { context })
+    ? await cache.figures.fetch(JSON.stringify([today, figuresQ.siteId ?? null, figuresQ.refrigerant ?? null]), {
+        context,
+      })
     : { ...(await readUnitFigures(db, figuresQ, today)), at: new Date() };
   const { histogram, chronic, dueList, dueCount, overdue } = figures!;
   const basis = settings.gwpBasis;
   const emissionsContext: EmissionsContext = { db, q: figuresQ, fromMonth: months[0], basis };
-  const emissionsKey = JSON.stringify([fleetMonthlyGeneration(), months[0], figuresQ.siteId ?? null, figuresQ.refrigerant ?? null, basis]);
+  const emissionsKey = JSON.stringify([
+    fleetMonthlyGeneration(),
+    months[0],
+    figuresQ.siteId ?? null,
+    figuresQ.refrigerant ?? null,
+    basis,
+  ]);
   const [emissions, repairs, forecast] = await Promise.all([
-    cache ? cache.emissions.fetch(emissionsKey, { context: emissionsContext }) : readEmissions(db, figuresQ, months[0], basis),
+    cache
+      ? cache.emissions.fetch(emissionsKey, { context: emissionsContext })
+      : readEmissions(db, figuresQ, months[0], basis),
     db.select().from(repairEffectivenessRows).orderBy(desc(repairEffectivenessRows.repairs)),
     latestForecastAccuracy(db),
   ]);
 
   let zero = 0;
   let total = 0;
-  const bins = Array.from({ length: TOP_BIN + 1 }, (_, i) => ({ fromPct: i * BIN_PCT, toPct: i === TOP_BIN ? null : (i + 1) * BIN_PCT, units: 0 }));
+  const bins = Array.from({ length: TOP_BIN + 1 }, (_, i) => ({
+    fromPct: i * BIN_PCT,
+    toPct: i === TOP_BIN ? null : (i + 1) * BIN_PCT,
+    units: 0,
+  }));
   for (const h of histogram) {
     const n = Number(h.n);
     total += n;
@@ -182,7 +249,9 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
     else bins[Math.min(TOP_BIN, b)].units += n;
   }
 
-  const computedAt = repairs.length ? repairs.reduce((a, r) => (r.computedAt > a ? r.computedAt : a), repairs[0].computedAt) : null;
+  const computedAt = repairs.length
+    ? repairs.reduce((a, r) => (r.computedAt > a ? r.computedAt : a), repairs[0].computedAt)
+    : null;
 
   return {
     asOf: today,
@@ -220,7 +289,12 @@ export async function fleetOverview(db: Db, q: FleetOverviewQuery, now: Date, ca
       days: LEAK_CHECK_DUE_DAYS,
       count: dueCount,
       overdue,
-      units: dueList.map((d) => ({ unitId: d.unitId, containerNumber: d.containerNumber, site: d.siteName, due: String(d.due).slice(0, 10) })),
+      units: dueList.map((d) => ({
+        unitId: d.unitId,
+        containerNumber: d.containerNumber,
+        site: d.siteName,
+        due: String(d.due).slice(0, 10),
+      })),
     },
     forecastAccuracy: forecastAccuracyDto(forecast),
   };
@@ -235,7 +309,14 @@ function forecastAccuracyDto(info: ForecastAccuracyInfo | null): FleetOverviewDt
     cases: info.cases,
     units: info.units,
     k: a.k,
-    all: { situation: null, cases: a.cases, open: a.open, maeDays: a.maeDays, coveragePct: a.coveragePct, pinballDays: a.pinballDays },
+    all: {
+      situation: null,
+      cases: a.cases,
+      open: a.open,
+      maeDays: a.maeDays,
+      coveragePct: a.coveragePct,
+      pinballDays: a.pinballDays,
+    },
     bySituation: a.bySituation.map((s) => ({ ...s })),
   };
 }

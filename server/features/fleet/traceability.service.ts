@@ -67,7 +67,13 @@ async function markedAtOf(db: Db, unitIds: number[]): Promise<Map<number, Date>>
     const rows = await db
       .select({ unitId: events.unitId, at: sql<Date>`MAX(${events.occurredAt})` })
       .from(events)
-      .where(and(inArray(events.unitId, unitIds.slice(i, i + 1000)), eq(events.kind, 'note'), sql`JSON_EXTRACT(${events.details}, '$.inspection') IS NOT NULL`))
+      .where(
+        and(
+          inArray(events.unitId, unitIds.slice(i, i + 1000)),
+          eq(events.kind, 'note'),
+          sql`JSON_EXTRACT(${events.details}, '$.inspection') IS NOT NULL`,
+        ),
+      )
       .groupBy(events.unitId);
     for (const r of rows) out.set(r.unitId, new Date(r.at));
   }
@@ -78,10 +84,21 @@ export async function traceCharges(db: Db, q: TraceQuery): Promise<TraceResultDt
   const where = traceWhere(q);
   const [charges, [total], [voidedCount], perUnit] = await Promise.all([
     traceChargesQuery(db, q).limit(MAX_TRACE_ROWS),
-    db.select({ n: count(), kg: sql<number>`COALESCE(SUM(${events.kg}), 0)` }).from(events).where(and(...where, notVoided)),
-    db.select({ n: count() }).from(events).where(and(...where, voided)),
     db
-      .select({ unitId: events.unitId, containerNumber: units.containerNumber, n: count(), kg: sql<number>`SUM(${events.kg})` })
+      .select({ n: count(), kg: sql<number>`COALESCE(SUM(${events.kg}), 0)` })
+      .from(events)
+      .where(and(...where, notVoided)),
+    db
+      .select({ n: count() })
+      .from(events)
+      .where(and(...where, voided)),
+    db
+      .select({
+        unitId: events.unitId,
+        containerNumber: units.containerNumber,
+        n: count(),
+        kg: sql<number>`SUM(${events.kg})`,
+      })
       .from(events)
       .innerJoin(units, eq(units.id, events.unitId))
       .where(and(...where, notVoided))
@@ -89,7 +106,10 @@ export async function traceCharges(db: Db, q: TraceQuery): Promise<TraceResultDt
       .orderBy(asc(units.containerNumber))
       .limit(MAX_MARK_UNITS),
   ]);
-  const marked = await markedAtOf(db, perUnit.map((u) => u.unitId));
+  const marked = await markedAtOf(
+    db,
+    perUnit.map((u) => u.unitId),
+  );
   return {
     charges: charges.map((c) => ({
       eventId: c.eventId,
@@ -130,7 +150,12 @@ function describeSearch(q: TraceQuery, siteName: string | null): string {
  * Records a note event on every unit the search finds, saying why it is marked for inspection. One transaction:
  * all units are marked or none. A retry with the same key returns the first result.
  */
-export async function markForInspection(db: Db, user: SessionUser, input: MarkForInspectionInput, now: Date): Promise<MarkForInspectionResultDto> {
+export async function markForInspection(
+  db: Db,
+  user: SessionUser,
+  input: MarkForInspectionInput,
+  now: Date,
+): Promise<MarkForInspectionResultDto> {
   const q = traceQuerySchema.parse(input.query);
   const keyOf = (unitId: number) => `${input.idempotencyKey}-${unitId}`;
   const replayed = async () => {
@@ -139,7 +164,9 @@ export async function markForInspection(db: Db, user: SessionUser, input: MarkFo
       .from(events)
       .innerJoin(visits, eq(visits.id, events.visitId))
       .where(like(visits.idempotencyKey, `${escapeLike(input.idempotencyKey)}-%`));
-    return rows.length ? { marked: rows.length, replayed: true, eventIds: rows.map((r) => r.id).sort((a, b) => a - b) } : null;
+    return rows.length
+      ? { marked: rows.length, replayed: true, eventIds: rows.map((r) => r.id).sort((a, b) => a - b) }
+      : null;
   };
   const earlier = await replayed();
   if (earlier) return earlier;
@@ -147,60 +174,95 @@ export async function markForInspection(db: Db, user: SessionUser, input: MarkFo
   try {
     // Notes change no figures, so of the unit write path only its locking and retry rule apply (many units at once,
     // locked in id order).
-    return await retryTransaction(() => db.transaction(async (tx) => {
-      const found = await tx
-        .selectDistinct({ unitId: events.unitId })
-        .from(events)
-        .where(and(...traceWhere(q), notVoided))
-        .orderBy(asc(events.unitId))
-        .limit(MAX_MARK_UNITS + 1);
-      if (!found.length) throw badRequest('No unit was charged in this search; nothing to mark.');
-      if (found.length > MAX_MARK_UNITS) throw badRequest(`More than ${MAX_MARK_UNITS} units match; narrow the search first.`);
-      const ids = found.map((f) => f.unitId);
-      // Lock the units in id order, like every write to a unit's history.
-      const locked = await tx.select({ id: units.id, siteId: units.siteId }).from(units).where(inArray(units.id, ids)).orderBy(asc(units.id)).for('update');
-      const perUnit = await tx
-        .select({ unitId: events.unitId, n: count(), kg: sql<number>`SUM(${events.kg})`, last: sql<Date>`MAX(${events.occurredAt})` })
-        .from(events)
-        .where(and(...traceWhere(q), notVoided))
-        .groupBy(events.unitId);
-      const stats = new Map(perUnit.map((p) => [p.unitId, p]));
-      let siteName: string | null = null;
-      if (q.siteId) {
-        const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, q.siteId));
-        siteName = site?.name ?? null;
-      }
-      const what = describeSearch(q, siteName);
+    return await retryTransaction(() =>
+      db.transaction(async (tx) => {
+        const found = await tx
+          .selectDistinct({ unitId: events.unitId })
+          .from(events)
+          .where(and(...traceWhere(q), notVoided))
+          .orderBy(asc(events.unitId))
+          .limit(MAX_MARK_UNITS + 1);
+        if (!found.length) throw badRequest('No unit was charged in this search; nothing to mark.');
+        if (found.length > MAX_MARK_UNITS)
+          throw badRequest(`More than ${MAX_MARK_UNITS} units match; narrow the search first.`);
+        const ids = found.map((f) => f.unitId);
+        // Lock the units in id order, like every write to a unit's history.
+        const locked = await tx
+          .select({ id: units.id, siteId: units.siteId })
+          .from(units)
+          .where(inArray(units.id, ids))
+          .orderBy(asc(units.id))
+          .for('update');
+        const perUnit = await tx
+          .select({
+            unitId: events.unitId,
+            n: count(),
+            kg: sql<number>`SUM(${events.kg})`,
+            last: sql<Date>`MAX(${events.occurredAt})`,
+          })
+          .from(events)
+          .where(and(...traceWhere(q), notVoided))
+          .groupBy(events.unitId);
+        const stats = new Map(perUnit.map((p) => [p.unitId, p]));
+        let siteName: string | null = null;
+        if (q.siteId) {
+          const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, q.siteId));
+          siteName = site?.name ?? null;
+        }
+        const what = describeSearch(q, siteName);
 
-      const visitIds = await tx
-        .insert(visits)
-        .values(locked.map((u) => ({ unitId: u.id, siteId: u.siteId, recordedBy: user.id, occurredAt: now, enteredAt: now, idempotencyKey: keyOf(u.id) })))
-        .$returningId();
-      const rows = locked.map((u, i) => {
-        const s = stats.get(u.id);
-        const kg = Math.round(Number(s?.kg ?? 0) * 1000) / 1000;
-        const last = s ? new Date(s.last).toISOString().slice(0, 10) : '';
-        const note = `Marked for inspection: charged ${what} (${Number(s?.n ?? 0)} charge(s), ${kg} kg, last on ${last}). Reason: ${input.reason}`;
-        return {
-          unitId: u.id,
-          visitId: visitIds[i].id,
-          siteId: u.siteId,
-          recordedBy: user.id,
-          kind: 'note' as const,
-          occurredAt: now,
-          enteredAt: now,
-          note: note.slice(0, MAX_NOTE_LENGTH),
-          details: { inspection: { cylinder: q.cylinder ?? null, siteId: q.siteId ?? null, from: q.from ?? null, to: q.to ?? null, reason: input.reason } },
-        };
-      });
-      await tx.insert(events).values(rows);
-      const inserted = await tx
-        .select({ id: events.id })
-        .from(events)
-        .where(inArray(events.visitId, visitIds.map((v) => v.id)))
-        .orderBy(asc(events.id));
-      return { marked: inserted.length, replayed: false, eventIds: inserted.map((r) => r.id) };
-    }, WRITE_ISOLATION));
+        const visitIds = await tx
+          .insert(visits)
+          .values(
+            locked.map((u) => ({
+              unitId: u.id,
+              siteId: u.siteId,
+              recordedBy: user.id,
+              occurredAt: now,
+              enteredAt: now,
+              idempotencyKey: keyOf(u.id),
+            })),
+          )
+          .$returningId();
+        const rows = locked.map((u, i) => {
+          const s = stats.get(u.id);
+          const kg = Math.round(Number(s?.kg ?? 0) * 1000) / 1000;
+          const last = s ? new Date(s.last).toISOString().slice(0, 10) : '';
+          const note = `Marked for inspection: charged ${what} (${Number(s?.n ?? 0)} charge(s), ${kg} kg, last on ${last}). Reason: ${input.reason}`;
+          return {
+            unitId: u.id,
+            visitId: visitIds[i].id,
+            siteId: u.siteId,
+            recordedBy: user.id,
+            kind: 'note' as const,
+            occurredAt: now,
+            enteredAt: now,
+            note: note.slice(0, MAX_NOTE_LENGTH),
+            details: {
+              inspection: {
+                cylinder: q.cylinder ?? null,
+                siteId: q.siteId ?? null,
+                from: q.from ?? null,
+                to: q.to ?? null,
+                reason: input.reason,
+              },
+            },
+          };
+        });
+        await tx.insert(events).values(rows);
+        const inserted = await tx
+          .select({ id: events.id })
+          .from(events)
+          .where(
+            inArray(
+              events.visitId,
+              visitIds.map((v) => v.id),
+            ),
+          )
+          .orderBy(asc(events.id));
+        return { marked: inserted.length, replayed: false, eventIds: inserted.map((r) => r.id) };
+      }, WRITE_ISOLATION),
+    );
   } catch (err) {
     // A concurrent retry lost the race on the visits' unique keys: the first one's result stands.
     const e = err as { code?: string; cause?: { code?: string } };

@@ -61,9 +61,15 @@ export async function addAttachments(ctx: AppContext, user: SessionUser, eventId
     if (mimeType === 'application/pdf') {
       const active = await activePdfContent(await readFile(f.path));
       if (active) {
-        throw new HttpError(415, 'active_content', `${f.originalname} contains ${active === 'Encrypt' ? 'encryption' : `active content (${active})`}, which Tightloop does not keep.`, {
-          [`files.${i}`]: 'Save or print it as a plain PDF without scripts, attachments or a password, then upload that',
-        });
+        throw new HttpError(
+          415,
+          'active_content',
+          `${f.originalname} contains ${active === 'Encrypt' ? 'encryption' : `active content (${active})`}, which Tightloop does not keep.`,
+          {
+            [`files.${i}`]:
+              'Save or print it as a plain PDF without scripts, attachments or a password, then upload that',
+          },
+        );
       }
     }
     let thumbnail: Buffer | null = null;

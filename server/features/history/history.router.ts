@@ -42,7 +42,10 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       const disposition = f.mimeType.startsWith('image/') ? 'inline' : 'attachment';
       const ascii = f.name.replace(/[^\x20-\x7e]|["\\]/g, '_');
       res.setHeader('Content-Type', f.mimeType);
-      res.setHeader('Content-Disposition', `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(f.name)}`);
+      res.setHeader(
+        'Content-Disposition',
+        `${disposition}; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(f.name)}`,
+      );
       res.setHeader('Content-Security-Policy', "default-src 'none'; sandbox");
       res.setHeader('Cache-Control', 'private, no-store');
       res.send(f.bytes);

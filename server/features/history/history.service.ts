@@ -3,7 +3,17 @@ import { createHash } from 'node:crypto';
 import { and, desc, eq, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db, DbOrTx } from '../../db/client';
-import { attachments, events, sites, unitChanges, units, unitStats, unitStatsDetail, users, visits } from '../../db/schema';
+import {
+  attachments,
+  events,
+  sites,
+  unitChanges,
+  units,
+  unitStats,
+  unitStatsDetail,
+  users,
+  visits,
+} from '../../db/schema';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
 import type { AppContext } from '../../deps';
 import type { SessionUser } from '../../lib/session';
@@ -30,7 +40,9 @@ import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent, toStatsDto } from './s
 type EventInsert = typeof events.$inferInsert;
 
 /** The row for one form entry; `enteredAs`, free text and kind-specific extras go to `details`. */
-function eventRow(e: VisitEventInput): Omit<EventInsert, 'unitId' | 'visitId' | 'siteId' | 'recordedBy' | 'occurredAt' | 'enteredAt'> {
+function eventRow(
+  e: VisitEventInput,
+): Omit<EventInsert, 'unitId' | 'visitId' | 'siteId' | 'recordedBy' | 'occurredAt' | 'enteredAt'> {
   const base = { kind: e.kind, note: e.note ?? null };
   switch (e.kind) {
     case 'pti':
@@ -49,7 +61,8 @@ function eventRow(e: VisitEventInput): Omit<EventInsert, 'unitId' | 'visitId' | 
         location: e.location,
         action: e.action,
         verified: e.verified,
-        details: e.locationOther || e.actionOther ? { locationOther: e.locationOther, actionOther: e.actionOther } : null,
+        details:
+          e.locationOther || e.actionOther ? { locationOther: e.locationOther, actionOther: e.actionOther } : null,
       };
     case 'component_replacement':
       return { ...base, details: { component: e.component } };
@@ -97,9 +110,12 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
   }
   // Visits recorded before the content was kept have no hash: the key alone identifies them.
   if (visit.contentHash && visit.contentHash !== submissionHash(input)) {
-    throw conflict('This submission key was already used for a visit with other entries; nothing was recorded. Send the visit as a new submission.', {
-      idempotencyKey: 'Already used for other entries',
-    });
+    throw conflict(
+      'This submission key was already used for a visit with other entries; nothing was recorded. Send the visit as a new submission.',
+      {
+        idempotencyKey: 'Already used for other entries',
+      },
+    );
   }
   const evs = await eventDtos(db, await reads(db).visitEvents.execute({ visitId: visit.id }));
   const [found] = await reads(db).unitWithStats.execute({ unitId: visit.unitId });
@@ -137,13 +153,29 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
         })
         .$returningId();
       await tx.insert(events).values(
-        input.events.map((e) => ({ ...eventRow(e), unitId: unit.id, visitId: inserted.id, siteId, recordedBy: user.id, occurredAt, enteredAt: now })),
+        input.events.map((e) => ({
+          ...eventRow(e),
+          unitId: unit.id,
+          visitId: inserted.id,
+          siteId,
+          recordedBy: user.id,
+          occurredAt,
+          enteredAt: now,
+        })),
       );
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
-      const newStatus = statusChange?.kind === 'status_change' && statusChange.status !== unit.status ? statusChange.status : null;
+      const newStatus =
+        statusChange?.kind === 'status_change' && statusChange.status !== unit.status ? statusChange.status : null;
       if (newStatus) {
         await tx.update(units).set({ status: newStatus, updatedAt: now }).where(eq(units.id, unit.id));
-        await tx.insert(unitChanges).values({ unitId: unit.id, userId: user.id, at: now, field: 'status', before: unit.status, after: newStatus });
+        await tx.insert(unitChanges).values({
+          unitId: unit.id,
+          userId: user.id,
+          at: now,
+          field: 'status',
+          before: unit.status,
+          after: newStatus,
+        });
       }
       return {
         result: inserted.id,
@@ -154,7 +186,12 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
     });
     // A visit just recorded has no attachments yet: they are uploaded per event once its id is known.
     const evs = await eventDtos(ctx.db, await reads(ctx.db).visitEvents.execute({ visitId: written.result }), false);
-    return { visitId: written.result, replayed: false, events: evs, stats: toStatsDto(written.stats, written.detail.detail) } satisfies RecordVisitResultDto;
+    return {
+      visitId: written.result,
+      replayed: false,
+      events: evs,
+      stats: toStatsDto(written.stats, written.detail.detail),
+    } satisfies RecordVisitResultDto;
   } catch (err) {
     // A concurrent retry with the same key lost the race on the unique index: hand back the first result.
     if (isDuplicateKeyError(err)) {
@@ -178,7 +215,9 @@ export async function voidEvent(ctx: AppContext, user: SessionUser, eventId: num
         if (!can(user, 'void:event:own')) throw forbidden('Your role cannot void entries.');
         if (target.recordedBy !== user.id) throw forbidden('You can void only entries you recorded.');
         if (now.getTime() - target.enteredAt.getTime() > VOID_WINDOW_HOURS * 3600 * 1000) {
-          throw forbidden(`Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`);
+          throw forbidden(
+            `Entries can be voided by their author within ${VOID_WINDOW_HOURS} hours; ask a fleet engineer.`,
+          );
         }
       }
       const [already] = await tx.select({ id: events.id }).from(events).where(eq(events.voidsEventId, eventId));
@@ -253,7 +292,11 @@ function prepareReads(db: Db) {
       .limit(ph('limit'))
       .prepare(),
     visitEvents: eventQuery(db, eq(events.visitId, ph('visitId'))).prepare(),
-    visitByKey: db.select().from(visits).where(eq(visits.idempotencyKey, ph('key'))).prepare(),
+    visitByKey: db
+      .select()
+      .from(visits)
+      .where(eq(visits.idempotencyKey, ph('key')))
+      .prepare(),
   };
 }
 const preparedReads = new WeakMap<Db, ReturnType<typeof prepareReads>>();
@@ -304,7 +347,12 @@ async function eventDtos(db: DbOrTx, rows: EventRow[], withAttachments = true): 
     voidsEventId: e.voidsEventId,
     voided:
       voidId != null && voidAt && voidBy
-        ? { by: { id: voidBy, name: voidByName ?? '' }, at: voidAt.toISOString(), reason: voidReason ?? '', eventId: voidId }
+        ? {
+            by: { id: voidBy, name: voidByName ?? '' },
+            at: voidAt.toISOString(),
+            reason: voidReason ?? '',
+            eventId: voidId,
+          }
         : null,
     attachments: byEvent.get(e.id) ?? [],
   }));
@@ -326,7 +374,12 @@ async function requireUnit(db: DbOrTx, unitId: number) {
   if (!unit) throw notFound('No such unit.');
 }
 
-export async function getUnitHistory(db: Db, unitId: number, before?: number, limit = HISTORY_PAGE_SIZE): Promise<UnitHistoryDto> {
+export async function getUnitHistory(
+  db: Db,
+  unitId: number,
+  before?: number,
+  limit = HISTORY_PAGE_SIZE,
+): Promise<UnitHistoryDto> {
   await requireUnit(db, unitId);
   return historyPage(db, unitId, before, limit);
 }
@@ -338,10 +391,16 @@ async function historyPage(db: Db, unitId: number, before: number | undefined, l
   } else {
     // The list runs newest first by when the work happened; the cursor is the last event shown, so entries recorded
     // late for an earlier date are neither skipped nor repeated.
-    const [cursor] = await db.select({ at: events.occurredAt }).from(events).where(and(eq(events.id, before), eq(events.unitId, unitId)));
-    if (!cursor) throw badRequest('That page of the history no longer exists; reload the list.', { before: 'Unknown entry' });
+    const [cursor] = await db
+      .select({ at: events.occurredAt })
+      .from(events)
+      .where(and(eq(events.id, before), eq(events.unitId, unitId)));
+    if (!cursor)
+      throw badRequest('That page of the history no longer exists; reload the list.', { before: 'Unknown entry' });
     const after = or(lt(events.occurredAt, cursor.at), and(eq(events.occurredAt, cursor.at), lt(events.id, before)));
-    rows = await eventQuery(db, and(eq(events.unitId, unitId), notVoidMarker, after)!, UNIT_TIME_INDEX).limit(limit + 1);
+    rows = await eventQuery(db, and(eq(events.unitId, unitId), notVoidMarker, after)!, UNIT_TIME_INDEX).limit(
+      limit + 1,
+    );
   }
   const list = await eventDtos(db, rows);
   const more = list.length > limit;
@@ -360,7 +419,12 @@ export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverv
 /** Every event of the unit, oldest first, compact; and the pressure snapshots the engine derives from them now. */
 export async function getUnitTimeline(db: Db, unitId: number, now: Date): Promise<UnitTimelineDto> {
   const [unit] = await db
-    .select({ refrigerant: units.refrigerant, nominalChargeKg: units.nominalChargeKg, commissionedOn: units.commissionedOn, createdAt: units.createdAt })
+    .select({
+      refrigerant: units.refrigerant,
+      nominalChargeKg: units.nominalChargeKg,
+      commissionedOn: units.commissionedOn,
+      createdAt: units.createdAt,
+    })
     .from(units)
     .where(eq(units.id, unitId));
   if (!unit) throw notFound('No such unit.');

@@ -43,7 +43,13 @@ export function toEngineEvent(e: {
     case 'recharge':
       return { kind: e.kind, at, visitId, kg: e.kg ?? 0, excluded: Boolean(e.excludedFromLeakRate) } as EngineEvent;
     case 'leak_check':
-      return { kind: 'leak_check', at, visitId, leakFound: Boolean(e.leakFound), location: e.location ?? undefined } as EngineEvent;
+      return {
+        kind: 'leak_check',
+        at,
+        visitId,
+        leakFound: Boolean(e.leakFound),
+        location: e.location ?? undefined,
+      } as EngineEvent;
     case 'repair':
       return {
         kind: 'repair',
@@ -109,9 +115,18 @@ export async function loadEngineHistory(db: DbOrTx, unitId: number): Promise<Eng
   return out;
 }
 
-export function engineUnit(u: { refrigerant: string; nominalChargeKg: number; commissionedOn: string | null; createdAt: Date }): EngineUnit {
+export function engineUnit(u: {
+  refrigerant: string;
+  nominalChargeKg: number;
+  commissionedOn: string | null;
+  createdAt: Date;
+}): EngineUnit {
   // Without a commissioning date the record's start stands in for it (DOMAIN.md §4).
-  return { refrigerant: u.refrigerant, nominalChargeKg: u.nominalChargeKg, commissionedOn: u.commissionedOn ?? iso(u.createdAt).slice(0, 10) } as EngineUnit;
+  return {
+    refrigerant: u.refrigerant,
+    nominalChargeKg: u.nominalChargeKg,
+    commissionedOn: u.commissionedOn ?? iso(u.createdAt).slice(0, 10),
+  } as EngineUnit;
 }
 
 type EngineResult = ReturnType<typeof computeUnitStats>;
@@ -122,7 +137,12 @@ export function statsSummary(r: EngineResult): UnitStatsSummary {
   return summary;
 }
 
-export function statsRowsFrom(unitId: number, r: EngineResult, computedAt: Date, lastEventAt: Date | null): UnitStatsRows {
+export function statsRowsFrom(
+  unitId: number,
+  r: EngineResult,
+  computedAt: Date,
+  lastEventAt: Date | null,
+): UnitStatsRows {
   const stats: UnitStatsRow = {
     unitId,
     computedAt,
@@ -208,14 +228,21 @@ export function computeStatsRows(
 ): UnitStatsRows {
   const last = history.length ? new Date(history[history.length - 1].at) : null;
   try {
-    return statsRowsFrom(unitId, computeUnitStats(engineUnit(unit), history, iso(asOf), settings, caseBase), asOf, last);
+    return statsRowsFrom(
+      unitId,
+      computeUnitStats(engineUnit(unit), history, iso(asOf), settings, caseBase),
+      asOf,
+      last,
+    );
   } catch (err) {
     // The engine is pure: a throw means this record breaks one of its rules (a date it cannot place, a charge of 0).
     // The unit keeps a row that says so, and every fleet-wide read goes on. A commissioning date outside the date rule
     // (an old row) is said in the rule's words rather than the engine's.
     const day = unit.commissionedOn?.slice(0, 10);
     const outside = day && (day < EARLIEST_RECORD_DAY || day > iso(asOf).slice(0, 10));
-    const reason = outside ? new Error(`the commissioning date (${dayWords(day)}) is outside ${dayWords(EARLIEST_RECORD_DAY)} to today.`) : err;
+    const reason = outside
+      ? new Error(`the commissioning date (${dayWords(day)}) is outside ${dayWords(EARLIEST_RECORD_DAY)} to today.`)
+      : err;
     return uncomputableRows(unitId, asOf, last, history.length, reason);
   }
 }
@@ -223,12 +250,24 @@ export function computeStatsRows(
 /** Upserts statistics rows (narrow part, then wide part: the fixed order every writer uses). */
 export async function storeStatsRows(tx: DbOrTx, rows: readonly UnitStatsRows[]): Promise<void> {
   if (!rows.length) return;
-  await tx.insert(unitStats).values(rows.map((r) => r.stats)).onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
-  await tx.insert(unitStatsDetail).values(rows.map((r) => r.detail)).onDuplicateKeyUpdate({ set: DETAIL_UPSERT_SET });
+  await tx
+    .insert(unitStats)
+    .values(rows.map((r) => r.stats))
+    .onDuplicateKeyUpdate({ set: STATS_UPSERT_SET });
+  await tx
+    .insert(unitStatsDetail)
+    .values(rows.map((r) => r.detail))
+    .onDuplicateKeyUpdate({ set: DETAIL_UPSERT_SET });
 }
 
 /** The row of a unit the engine cannot compute: neutral figures that sort last, and the reason in words. */
-export function uncomputableRows(unitId: number, computedAt: Date, lastEventAt: Date | null, events: number, err: unknown): UnitStatsRows {
+export function uncomputableRows(
+  unitId: number,
+  computedAt: Date,
+  lastEventAt: Date | null,
+  events: number,
+  err: unknown,
+): UnitStatsRows {
   const reason = err instanceof Error && err.message ? err.message : 'the record breaks a rule of the computation';
   return {
     stats: {
@@ -276,7 +315,12 @@ export function toStatsDto(row: UnitStatsRow, detail: UnitStatsDetailRow['detail
     ptiPassed: row.ptiPassed == null ? null : Boolean(row.ptiPassed),
     pressureFlag: row.pressureFlag,
     forecast: row.forecastDate
-      ? { date: row.forecastDate, earliest: row.forecastEarliest, latest: row.forecastLatest, overdue: Boolean(row.forecastOverdue) }
+      ? {
+          date: row.forecastDate,
+          earliest: row.forecastEarliest,
+          latest: row.forecastLatest,
+          overdue: Boolean(row.forecastOverdue),
+        }
       : null,
     detail: row.computeError ? null : ((detail as unknown as UnitStatsSummary | null) ?? null),
     computeError: row.computeError ?? null,

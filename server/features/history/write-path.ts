@@ -18,7 +18,14 @@ import type { Settings } from '../../../shared/schemas/settings';
 import { getSettings } from '../settings/settings.service';
 import { queueAlertsForStatsChange } from '../alerts/alerts.service';
 import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
-import { computeStatsRows, lockUnitForHistory, recomputeUnitStats, storeStatsRows, type UnitStatsRow, type UnitStatsRows } from './stats.service';
+import {
+  computeStatsRows,
+  lockUnitForHistory,
+  recomputeUnitStats,
+  storeStatsRows,
+  type UnitStatsRow,
+  type UnitStatsRows,
+} from './stats.service';
 import { currentCaseBase } from '../forecast/case-base.service';
 import type { ForecastCaseBase } from '../../../shared/domain';
 
@@ -57,7 +64,16 @@ export async function writeUnit<T>(
       const now = ctx.clock.now();
       const done = await change(tx, locked, now);
       const unit = done.unitChanged ? (await tx.select().from(units).where(eq(units.id, unitId)))[0] : locked.unit;
-      const written = await writeEffects(tx, ctx, unit, locked.stats, now, opts.settings ?? (await getSettings(tx)), done.movedVisitIds ?? [], caseBase);
+      const written = await writeEffects(
+        tx,
+        ctx,
+        unit,
+        locked.stats,
+        now,
+        opts.settings ?? (await getSettings(tx)),
+        done.movedVisitIds ?? [],
+        caseBase,
+      );
       return { result: done.result, ...written, monthlyChanged: (done.movedVisitIds ?? []).length > 0 };
     }, WRITE_ISOLATION),
   );
@@ -79,7 +95,13 @@ export async function writeEffects(
 ) {
   const { stats: after, detail } = await recomputeUnitStats(tx, unit, now, settings, caseBase);
   if (movedVisitIds.length) await applyToFleetMonthly(tx, movedVisitIds);
-  await queueAlertsForStatsChange(tx, ctx, { unitId: unit.id, siteId: unit.siteId, containerNumber: unit.containerNumber, before, after });
+  await queueAlertsForStatsChange(tx, ctx, {
+    unitId: unit.id,
+    siteId: unit.siteId,
+    containerNumber: unit.containerNumber,
+    before,
+    after,
+  });
   return { before, stats: after, detail };
 }
 
@@ -91,7 +113,13 @@ const REGISTER_CHUNK = 500;
  * same transaction, so a registered unit is never without figures. A unit with no history moves no refrigerant and
  * crosses no alert threshold, so of writeEffects only the statistics apply.
  */
-export async function registerNewUnits(tx: Tx, actorId: string, unitIds: readonly number[], now: Date, how: string): Promise<void> {
+export async function registerNewUnits(
+  tx: Tx,
+  actorId: string,
+  unitIds: readonly number[],
+  now: Date,
+  how: string,
+): Promise<void> {
   const settings = await getSettings(tx);
   for (let i = 0; i < unitIds.length; i += REGISTER_CHUNK) {
     const chunk = unitIds.slice(i, i + REGISTER_CHUNK);
@@ -100,6 +128,10 @@ export async function registerNewUnits(tx: Tx, actorId: string, unitIds: readonl
       tx,
       rows.map((u) => computeStatsRows(u, u.id, [], now, settings)),
     );
-    await tx.insert(unitChanges).values(rows.map((u) => ({ unitId: u.id, userId: actorId, at: now, field: 'registered', before: null, after: how })));
+    await tx
+      .insert(unitChanges)
+      .values(
+        rows.map((u) => ({ unitId: u.id, userId: actorId, at: now, field: 'registered', before: null, after: how })),
+      );
   }
 }

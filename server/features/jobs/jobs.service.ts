@@ -7,7 +7,12 @@ import { backgroundJobs, events, repairEffectivenessRows, settingsVersions, unit
 import type { Clock } from '../../lib/clock';
 import type { Logger } from '../../lib/logger';
 import { notFound } from '../../lib/http-error';
-import { mergeRepairEffectiveness, repairEffectiveness, type RepairEffectiveness, type UnitHistory } from '../../../shared/domain';
+import {
+  mergeRepairEffectiveness,
+  repairEffectiveness,
+  type RepairEffectiveness,
+  type UnitHistory,
+} from '../../../shared/domain';
 import { settingsSchema, type Settings } from '../../../shared/schemas/settings';
 import type { JobDto } from '../../../shared/schemas/settings-api';
 import { getSettings } from '../settings/settings.service';
@@ -50,7 +55,12 @@ export async function getJob(db: Db, id: number): Promise<JobDto> {
 }
 
 export async function latestJob(db: Db, kind: JobKind): Promise<JobDto | null> {
-  const [j] = await db.select().from(backgroundJobs).where(eq(backgroundJobs.kind, kind)).orderBy(desc(backgroundJobs.id)).limit(1);
+  const [j] = await db
+    .select()
+    .from(backgroundJobs)
+    .where(eq(backgroundJobs.kind, kind))
+    .orderBy(desc(backgroundJobs.id))
+    .limit(1);
   return j ? toJobDto(j) : null;
 }
 
@@ -73,7 +83,11 @@ function launch(ctx: JobContext, job: JobRow) {
       ctx.logger.error({ err, jobId: job.id }, 'background job failed');
       await ctx.db
         .update(backgroundJobs)
-        .set({ status: 'failed', message: String((err as Error)?.message ?? err).slice(0, 500), finishedAt: ctx.clock.now() })
+        .set({
+          status: 'failed',
+          message: String((err as Error)?.message ?? err).slice(0, 500),
+          finishedAt: ctx.clock.now(),
+        })
         .where(eq(backgroundJobs.id, job.id))
         .catch(() => undefined);
     })
@@ -82,14 +96,21 @@ function launch(ctx: JobContext, job: JobRow) {
 }
 
 /** Starts a job of this kind; running ones of the same kind are superseded (a newer settings version wins). */
-async function startJob(ctx: JobContext, kind: JobKind, values: Partial<typeof backgroundJobs.$inferInsert>): Promise<JobDto> {
+async function startJob(
+  ctx: JobContext,
+  kind: JobKind,
+  values: Partial<typeof backgroundJobs.$inferInsert>,
+): Promise<JobDto> {
   const now = ctx.clock.now();
   const job = await ctx.db.transaction(async (tx) => {
     await tx
       .update(backgroundJobs)
       .set({ status: 'superseded', finishedAt: now, message: 'A newer job replaced this one.' })
       .where(and(eq(backgroundJobs.kind, kind), eq(backgroundJobs.status, 'running')));
-    const [{ id }] = await tx.insert(backgroundJobs).values({ kind, startedAt: now, heartbeatAt: now, ...values }).$returningId();
+    const [{ id }] = await tx
+      .insert(backgroundJobs)
+      .values({ kind, startedAt: now, heartbeatAt: now, ...values })
+      .$returningId();
     const [row] = await tx.select().from(backgroundJobs).where(eq(backgroundJobs.id, id));
     return row;
   });
@@ -110,7 +131,9 @@ export async function resumeStaleJobs(ctx: JobContext): Promise<void> {
     const [res] = (await ctx.db
       .update(backgroundJobs)
       .set({ heartbeatAt: ctx.clock.now() })
-      .where(and(eq(backgroundJobs.id, job.id), eq(backgroundJobs.heartbeatAt, job.heartbeatAt)))) as unknown as [{ affectedRows: number }];
+      .where(and(eq(backgroundJobs.id, job.id), eq(backgroundJobs.heartbeatAt, job.heartbeatAt)))) as unknown as [
+      { affectedRows: number },
+    ];
     if (res.affectedRows === 1) launch(ctx, job);
   }
 }
@@ -122,7 +145,10 @@ async function stillRunning(db: Db, id: number): Promise<boolean> {
 
 async function settingsOf(db: Db, settingsId: number | null): Promise<Settings> {
   if (!settingsId) return getSettings(db);
-  const [row] = await db.select({ data: settingsVersions.data }).from(settingsVersions).where(eq(settingsVersions.id, settingsId));
+  const [row] = await db
+    .select({ data: settingsVersions.data })
+    .from(settingsVersions)
+    .where(eq(settingsVersions.id, settingsId));
   const parsed = settingsSchema.safeParse(row?.data);
   return parsed.success ? parsed.data : getSettings(db);
 }
@@ -130,7 +156,10 @@ async function settingsOf(db: Db, settingsId: number | null): Promise<Settings> 
 // --- statistics recompute ------------------------------------------------------------------------------------
 
 /** Recomputes every unit's statistics with the given settings version (after a settings change). */
-export async function startStatsRecompute(ctx: JobContext, opts: { settingsId: number | null; userId?: string | null; fromUnitId?: number; message?: string }) {
+export async function startStatsRecompute(
+  ctx: JobContext,
+  opts: { settingsId: number | null; userId?: string | null; fromUnitId?: number; message?: string },
+) {
   const [{ n }] = await ctx.db
     .select({ n: sql<number>`COUNT(*)` })
     .from(units)
@@ -158,7 +187,14 @@ async function runStatsRecompute(ctx: JobContext, jobId: number): Promise<void> 
   let firstError: string | null = null;
   for (;;) {
     if (!(await stillRunning(ctx.db, jobId))) return;
-    const ids = (await ctx.db.select({ id: units.id }).from(units).where(gt(units.id, cursor)).orderBy(asc(units.id)).limit(CHUNK_UNITS)).map((r) => r.id);
+    const ids = (
+      await ctx.db
+        .select({ id: units.id })
+        .from(units)
+        .where(gt(units.id, cursor))
+        .orderBy(asc(units.id))
+        .limit(CHUNK_UNITS)
+    ).map((r) => r.id);
     if (!ids.length) break;
     for (let i = 0; i < ids.length; i += PARALLEL_UNITS) {
       await Promise.all(
@@ -174,7 +210,11 @@ async function runStatsRecompute(ctx: JobContext, jobId: number): Promise<void> 
     cursor = ids[ids.length - 1];
     await ctx.db
       .update(backgroundJobs)
-      .set({ processed: sql`${backgroundJobs.processed} + ${ids.length}`, cursorUnitId: cursor, heartbeatAt: ctx.clock.now() })
+      .set({
+        processed: sql`${backgroundJobs.processed} + ${ids.length}`,
+        cursorUnitId: cursor,
+        heartbeatAt: ctx.clock.now(),
+      })
       .where(and(eq(backgroundJobs.id, jobId), eq(backgroundJobs.status, 'running')));
   }
   await ctx.db
@@ -208,7 +248,10 @@ async function checkStatsRows(ctx: JobContext): Promise<void> {
   if (statsWatermark === 0) {
     // First look in this process: as many rows as units (each row belongs to a unit) means none is missing, which
     // two index counts tell far sooner than the anti-join over the whole fleet.
-    const [[a], [b]] = await Promise.all([ctx.db.select({ n: count() }).from(units), ctx.db.select({ n: count() }).from(unitStats)]);
+    const [[a], [b]] = await Promise.all([
+      ctx.db.select({ n: count() }).from(units),
+      ctx.db.select({ n: count() }).from(unitStats),
+    ]);
     if (Number(a.n) === Number(b.n)) {
       statsWatermark = top;
       return;
@@ -225,7 +268,11 @@ async function checkStatsRows(ctx: JobContext): Promise<void> {
   if (missing.length > INLINE_BACKFILL_MAX) {
     const running = await latestJob(ctx.db, 'stats_recompute');
     if (running?.status !== 'running') {
-      await startStatsRecompute(ctx, { settingsId: null, fromUnitId: missing[0].id - 1, message: 'Figures for newly registered units.' });
+      await startStatsRecompute(ctx, {
+        settingsId: null,
+        fromUnitId: missing[0].id - 1,
+        message: 'Figures for newly registered units.',
+      });
     }
   } else if (missing.length) {
     const settings = await getSettings(ctx.db);
@@ -248,13 +295,20 @@ export async function startRepairEffectiveness(ctx: JobContext, userId?: string 
 
 /** Starts a rebuild when the table is older than the maximum age and none is running. */
 export async function refreshRepairEffectivenessIfStale(ctx: JobContext): Promise<void> {
-  const [row] = await ctx.db.select({ at: sql<Date | null>`MAX(${repairEffectivenessRows.computedAt})` }).from(repairEffectivenessRows);
+  const [row] = await ctx.db
+    .select({ at: sql<Date | null>`MAX(${repairEffectivenessRows.computedAt})` })
+    .from(repairEffectivenessRows);
   const at = row?.at ? new Date(row.at).getTime() : 0;
   if (ctx.clock.now().getTime() - at < REPAIR_EFFECTIVENESS_MAX_AGE_MS) return;
   const last = await latestJob(ctx.db, 'repair_effectiveness');
   if (last?.status === 'running') return;
   // Nothing to rebuild from yet: no job, and an empty table stays empty.
-  if (last && last.status === 'done' && ctx.clock.now().getTime() - Date.parse(last.startedAt) < REPAIR_EFFECTIVENESS_MAX_AGE_MS) return;
+  if (
+    last &&
+    last.status === 'done' &&
+    ctx.clock.now().getTime() - Date.parse(last.startedAt) < REPAIR_EFFECTIVENESS_MAX_AGE_MS
+  )
+    return;
   await startRepairEffectiveness(ctx);
 }
 
@@ -279,7 +333,13 @@ async function runRepairEffectiveness(ctx: JobContext, jobId: number): Promise<v
       .select({ unitId: events.unitId, refrigerant: units.refrigerant, ...ENGINE_EVENT_COLUMNS })
       .from(events)
       .innerJoin(units, eq(units.id, events.unitId))
-      .where(and(inArray(events.unitId, chunk), inArray(events.kind, ['top_up', 'recovery', 'recharge', 'leak_check', 'repair']), notVoided))
+      .where(
+        and(
+          inArray(events.unitId, chunk),
+          inArray(events.kind, ['top_up', 'recovery', 'recharge', 'leak_check', 'repair']),
+          notVoided,
+        ),
+      )
       .orderBy(asc(events.unitId), asc(events.occurredAt), asc(events.id));
     const histories = new Map<number, UnitHistory & { events: NonNullable<ReturnType<typeof toEngineEvent>>[] }>();
     for (const r of rows) {
@@ -319,7 +379,10 @@ async function runRepairEffectiveness(ctx: JobContext, jobId: number): Promise<v
   });
   // Repairs recorded without a location or action count under "other"; merge rows that meet there.
   const rows = new Map<string, ReturnType<typeof toRow>>();
-  for (const [list, all] of [[merged.rows, false], [merged.byLocation, true]] as const) {
+  for (const [list, all] of [
+    [merged.rows, false],
+    [merged.byLocation, true],
+  ] as const) {
     for (const r of list) {
       const row = toRow(r, all);
       const key = `${row.location}|${row.action}`;
@@ -352,7 +415,10 @@ async function runRepairEffectiveness(ctx: JobContext, jobId: number): Promise<v
 export const FORECAST_CASES_MAX_AGE_MS = 24 * 3600_000;
 
 /** Rebuilds the forecast case base now (a running rebuild is superseded), then every unit's forecast. */
-export async function startForecastCases(ctx: JobContext, opts: { userId?: string | null; message?: string } = {}): Promise<JobDto> {
+export async function startForecastCases(
+  ctx: JobContext,
+  opts: { userId?: string | null; message?: string } = {},
+): Promise<JobDto> {
   return startJob(ctx, 'forecast_cases', { createdBy: opts.userId ?? null, message: opts.message ?? null });
 }
 
@@ -380,11 +446,19 @@ export async function refreshForecastIfStale(
       const builtAt = await latestCaseBaseAt(tx);
       if (builtAt ? now.getTime() - builtAt.getTime() < maxAgeMs : opts.firstBuild === false) return null;
       if (last?.status === 'running') {
-        await tx.update(backgroundJobs).set({ status: 'superseded', finishedAt: now, message: 'Its process stopped; a newer job replaced it.' }).where(eq(backgroundJobs.id, last.id));
+        await tx
+          .update(backgroundJobs)
+          .set({ status: 'superseded', finishedAt: now, message: 'Its process stopped; a newer job replaced it.' })
+          .where(eq(backgroundJobs.id, last.id));
       }
       const [{ id }] = await tx
         .insert(backgroundJobs)
-        .values({ kind: 'forecast_cases', startedAt: now, heartbeatAt: now, message: opts.message ?? 'Nightly refresh.' })
+        .values({
+          kind: 'forecast_cases',
+          startedAt: now,
+          heartbeatAt: now,
+          message: opts.message ?? 'Nightly refresh.',
+        })
         .$returningId();
       const [row] = await tx.select().from(backgroundJobs).where(eq(backgroundJobs.id, id));
       return row;
@@ -407,7 +481,9 @@ const FIRST_CHECK_MS = 30_000;
 export function scheduleForecastRefresh(ctx: JobContext): { stop(): void } {
   let timer: NodeJS.Timeout | null = null;
   const run = (maxAgeMs: number) =>
-    void refreshForecastIfStale(ctx, { maxAgeMs }).catch((err: unknown) => ctx.logger.warn({ err }, 'forecast case base refresh'));
+    void refreshForecastIfStale(ctx, { maxAgeMs }).catch((err: unknown) =>
+      ctx.logger.warn({ err }, 'forecast case base refresh'),
+    );
   const arm = () => {
     const now = Date.now();
     const next = new Date(now);
@@ -437,7 +513,10 @@ async function runForecastCases(ctx: JobContext, jobId: number): Promise<void> {
   const settings = await getSettings(ctx.db);
   const asOf = ctx.clock.now();
   const [{ n }] = await ctx.db.select({ n: count() }).from(units);
-  await ctx.db.update(backgroundJobs).set({ total: Number(n), processed: 0 }).where(eq(backgroundJobs.id, jobId));
+  await ctx.db
+    .update(backgroundJobs)
+    .set({ total: Number(n), processed: 0 })
+    .where(eq(backgroundJobs.id, jobId));
   const beat = async (processed?: number) => {
     if (!(await stillRunning(ctx.db, jobId))) return false;
     await ctx.db
@@ -451,7 +530,11 @@ async function runForecastCases(ctx: JobContext, jobId: number): Promise<void> {
   const learned = await learnFromTable(collected.table, asOf, settings, () => beat());
   if (!learned) return;
   if (!(await stillRunning(ctx.db, jobId))) return;
-  await storeCaseBase(ctx.db, learned.caseBase, { cases: learned.cases, units: collected.units, buildMs: Date.now() - started });
+  await storeCaseBase(ctx.db, learned.caseBase, {
+    cases: learned.cases,
+    units: collected.units,
+    buildMs: Date.now() - started,
+  });
   const acc = learned.caseBase.accuracy;
   await ctx.db
     .update(backgroundJobs)

@@ -30,7 +30,8 @@ export function renderMail(c: MailContent): { text: string; html: string } {
     text.push('');
   }
   text.push('--', 'Tightloop · service history for reefer units');
-  for (const f of c.footer ?? []) text.push(f.url ? `${f.text} ${f.linkLabel ?? ''}: ${f.url}`.replace(/ +:/, ':') : f.text);
+  for (const f of c.footer ?? [])
+    text.push(f.url ? `${f.text} ${f.linkLabel ?? ''}: ${f.url}`.replace(/ +:/, ':') : f.text);
 
   const p = (s: string) => `<p style="margin:0 0 14px;line-height:1.5">${esc(s)}</p>`;
   const link = (label: string, url: string) => `<a href="${esc(url)}" style="color:${ACCENT}">${esc(label)}</a>`;

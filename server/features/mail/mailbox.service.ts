@@ -17,7 +17,11 @@ export async function storeReceivedMail(db: Db, m: ReceivedMail): Promise<void> 
 }
 
 export async function listMailbox(db: Db, limit: number): Promise<MailboxDto> {
-  const rows = await db.select().from(devMailbox).orderBy(desc(devMailbox.receivedAt), desc(devMailbox.id)).limit(limit);
+  const rows = await db
+    .select()
+    .from(devMailbox)
+    .orderBy(desc(devMailbox.receivedAt), desc(devMailbox.id))
+    .limit(limit);
   return {
     messages: rows.map((r) => ({
       id: r.id,

@@ -72,12 +72,22 @@ export function createOutboxWorker(ctx: WorkerContext, options: OutboxWorkerOpti
       const message = err instanceof Error ? err.message : String(err);
       await db
         .update(mailOutbox)
-        .set({ lockedUntil: null, nextAttemptAt: new Date(clock.now().getTime() + wait), lastError: message.slice(0, 1000) })
+        .set({
+          lockedUntil: null,
+          nextAttemptAt: new Date(clock.now().getTime() + wait),
+          lastError: message.slice(0, 1000),
+        })
         .where(eq(mailOutbox.id, id));
-      logger.warn({ outboxId: id, attempts: row.attempts, retryInMs: wait, err: message }, 'mail send failed; will retry');
+      logger.warn(
+        { outboxId: id, attempts: row.attempts, retryInMs: wait, err: message },
+        'mail send failed; will retry',
+      );
       return 'failed';
     }
-    await db.update(mailOutbox).set({ sentAt: clock.now(), lockedUntil: null, lastError: null }).where(eq(mailOutbox.id, id));
+    await db
+      .update(mailOutbox)
+      .set({ sentAt: clock.now(), lockedUntil: null, lastError: null })
+      .where(eq(mailOutbox.id, id));
     return 'sent';
   }
 

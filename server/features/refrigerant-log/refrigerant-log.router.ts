@@ -6,7 +6,12 @@ import { sendCsv, streamRows } from '../fleet/csv-stream';
 import { getSettings } from '../settings/settings.service';
 import { LOG_FIELD_NAMES, logEntriesQuery, logTotals, refrigerantLog, toLogEntry } from './refrigerant-log.service';
 
-const KIND_WORDS = { top_up: 'top-up', recharge: 'recharge after evacuation', recovery: 'recovery', leak_check: 'leak check' } as const;
+const KIND_WORDS = {
+  top_up: 'top-up',
+  recharge: 'recharge after evacuation',
+  recovery: 'recovery',
+  leak_check: 'leak check',
+} as const;
 
 const CSV_COLUMNS = [
   'Date (UTC)',
@@ -39,7 +44,10 @@ export function refrigerantLogRoutes(ctx: AppContext) {
       const totals = await logTotals(ctx.db, q, settings);
       async function* records() {
         for await (const raw of streamRows(ctx.db, logEntriesQuery(ctx.db, q))) {
-          const e = toLogEntry(Object.fromEntries(LOG_FIELD_NAMES.map((k, i) => [k, raw[i]])) as Parameters<typeof toLogEntry>[0], settings);
+          const e = toLogEntry(
+            Object.fromEntries(LOG_FIELD_NAMES.map((k, i) => [k, raw[i]])) as Parameters<typeof toLogEntry>[0],
+            settings,
+          );
           yield [
             e.occurredAt,
             KIND_WORDS[e.kind],
@@ -62,9 +70,60 @@ export function refrigerantLogRoutes(ctx: AppContext) {
         // Totals close the file, in the same columns, so the export is the whole record for the period.
         yield [];
         for (const t of totals) {
-          yield ['Total', 'added', '', t.refrigerant, '', t.addedKg, t.addedCo2eTonnes, '', '', '', '', '', '', '', '', `${t.additions} entries`];
-          yield ['Total', 'recovered', '', t.refrigerant, '', t.recoveredKg, t.recoveredCo2eTonnes, '', '', '', '', '', '', '', '', `${t.recoveries} entries`];
-          yield ['Total', 'leak checks', '', t.refrigerant, '', '', '', '', '', '', '', t.leaksFound ? `${t.leaksFound} found` : 'none found', '', '', '', `${t.leakChecks} entries`];
+          yield [
+            'Total',
+            'added',
+            '',
+            t.refrigerant,
+            '',
+            t.addedKg,
+            t.addedCo2eTonnes,
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            `${t.additions} entries`,
+          ];
+          yield [
+            'Total',
+            'recovered',
+            '',
+            t.refrigerant,
+            '',
+            t.recoveredKg,
+            t.recoveredCo2eTonnes,
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            `${t.recoveries} entries`,
+          ];
+          yield [
+            'Total',
+            'leak checks',
+            '',
+            t.refrigerant,
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            '',
+            t.leaksFound ? `${t.leaksFound} found` : 'none found',
+            '',
+            '',
+            '',
+            `${t.leakChecks} entries`,
+          ];
         }
         yield [`Period ${q.from} to ${q.to}; GWP basis ${settings.gwpBasis}; voided entries are excluded.`];
       }

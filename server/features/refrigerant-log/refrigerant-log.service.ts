@@ -120,7 +120,11 @@ export function toLogEntry(r: LogRow, settings: Settings): RefrigerantLogEntryDt
   };
 }
 
-export async function logTotals(db: Db, q: RefrigerantLogQuery, settings: Settings): Promise<RefrigerantLogTotalsDto[]> {
+export async function logTotals(
+  db: Db,
+  q: RefrigerantLogQuery,
+  settings: Settings,
+): Promise<RefrigerantLogTotalsDto[]> {
   const rows = await db
     .select({
       refrigerant: units.refrigerant,

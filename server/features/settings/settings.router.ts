@@ -2,10 +2,19 @@ import { z } from 'zod';
 import type { AppContext } from '../../deps';
 import { route } from '../../routes';
 import { updateSettingsSchema } from '../../../shared/schemas/settings-api';
-import { getJob, latestJob, resumeStaleJobs, startForecastCases, startRepairEffectiveness, startStatsRecompute } from '../jobs/jobs.service';
+import {
+  getJob,
+  latestJob,
+  resumeStaleJobs,
+  startForecastCases,
+  startRepairEffectiveness,
+  startStatsRecompute,
+} from '../jobs/jobs.service';
 import { getSettings, getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
 
-const jobIdSchema = z.object({ id: z.coerce.number({ message: 'Not a valid job id' }).int().positive().max(2_147_483_647) });
+const jobIdSchema = z.object({
+  id: z.coerce.number({ message: 'Not a valid job id' }).int().positive().max(2_147_483_647),
+});
 
 export function settingsRoutes(ctx: AppContext) {
   return [
@@ -21,15 +30,26 @@ export function settingsRoutes(ctx: AppContext) {
       const neighboursBefore = (await getSettings(ctx.db)).forecast.neighbours;
       const saved = await saveSettings(ctx.db, req.user!, input, ctx.clock.now());
       if (saved.recompute) {
-        await startStatsRecompute(ctx, { settingsId: saved.version, userId: req.user!.id, message: 'Figures with the new settings.' });
+        await startStatsRecompute(ctx, {
+          settingsId: saved.version,
+          userId: req.user!.id,
+          message: 'Figures with the new settings.',
+        });
         // The forecast's case base is measured and calibrated for K: learned again when K changes (every forecast follows).
         if (input.settings.forecast.neighbours !== neighboursBefore) {
-          await startForecastCases(ctx, { userId: req.user!.id, message: 'After the number of similar cases changed.' });
+          await startForecastCases(ctx, {
+            userId: req.user!.id,
+            message: 'After the number of similar cases changed.',
+          });
         }
       }
       // The hold window (thresholds) and the minimum repair count (economics) shape repair effectiveness.
-      if (saved.sections.includes('thresholds') || saved.sections.includes('economics')) await startRepairEffectiveness(ctx, req.user!.id);
-      res.json({ ...(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'), req.user!)), changedSections: saved.sections });
+      if (saved.sections.includes('thresholds') || saved.sections.includes('economics'))
+        await startRepairEffectiveness(ctx, req.user!.id);
+      res.json({
+        ...(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'), req.user!)),
+        changedSections: saved.sections,
+      });
     }),
     route('get', '/api/settings/history', 'view:fleet', async (_req, res) => {
       res.json(await getSettingsHistory(ctx.db));

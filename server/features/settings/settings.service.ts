@@ -62,7 +62,11 @@ export async function getSettingsVersion(db: DbOrTx): Promise<{ settings: Settin
 }
 
 /** The settings in force as `viewer` may read them (sections their role may not read are left out). */
-export async function getSettingsDto(db: Db, recompute: SettingsDto['recompute'], viewer: SessionUser): Promise<SettingsDto> {
+export async function getSettingsDto(
+  db: Db,
+  recompute: SettingsDto['recompute'],
+  viewer: SessionUser,
+): Promise<SettingsDto> {
   const c = await readCurrent(db);
   const hiddenSections = SETTINGS_SECTIONS.filter((s) => {
     const needs = SETTINGS_SECTION_READ_PERMISSION[s];
@@ -75,12 +79,25 @@ export async function getSettingsDto(db: Db, recompute: SettingsDto['recompute']
     const [u] = await db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, c.updatedBy));
     updatedBy = u ?? null;
   }
-  return { settings: settings as SettingsDto['settings'], hiddenSections, version: c.version, updatedAt: c.updatedAt?.toISOString() ?? null, updatedBy, recompute };
+  return {
+    settings: settings as SettingsDto['settings'],
+    hiddenSections,
+    version: c.version,
+    updatedAt: c.updatedAt?.toISOString() ?? null,
+    updatedBy,
+    recompute,
+  };
 }
 
 export async function getSettingsHistory(db: Db, limit = 50): Promise<SettingsHistoryDto> {
   const rows = await db
-    .select({ id: settingsVersions.id, updatedAt: settingsVersions.updatedAt, sections: settingsVersions.changedSections, userId: users.id, userName: users.name })
+    .select({
+      id: settingsVersions.id,
+      updatedAt: settingsVersions.updatedAt,
+      sections: settingsVersions.changedSections,
+      userId: users.id,
+      userName: users.name,
+    })
     .from(settingsVersions)
     .innerJoin(users, eq(users.id, settingsVersions.updatedBy))
     .orderBy(desc(settingsVersions.id))
@@ -111,17 +128,26 @@ export async function saveSettings(
     const base = latest ? parseStored(latest.data) : DEFAULT_SETTINGS;
     const baseVersion = latest?.id ?? 0;
     if ((input.baseVersion ?? 0) !== baseVersion) {
-      throw conflict('Someone else changed the settings since you opened them. Reload to see their change, then apply yours.');
+      throw conflict(
+        'Someone else changed the settings since you opened them. Reload to see their change, then apply yours.',
+      );
     }
     const sections = changedSections(base, input.settings);
     const refused = sections.filter((s) => !can(user, SETTINGS_SECTION_PERMISSION[s]));
     if (refused.length) {
-      throw forbidden(`Your role cannot change ${refused.map((s) => SETTINGS_SECTION_LABELS[s].toLowerCase()).join(' or ')}.`);
+      throw forbidden(
+        `Your role cannot change ${refused.map((s) => SETTINGS_SECTION_LABELS[s].toLowerCase()).join(' or ')}.`,
+      );
     }
     if (!sections.length) return { version: baseVersion, sections, recompute: false };
     const [row] = await tx
       .insert(settingsVersions)
-      .values({ data: input.settings as unknown as Record<string, unknown>, changedSections: sections, updatedBy: user.id, updatedAt: now })
+      .values({
+        data: input.settings as unknown as Record<string, unknown>,
+        changedSections: sections,
+        updatedBy: user.id,
+        updatedAt: now,
+      })
       .$returningId();
     return { version: row.id, sections, recompute: sections.some((s) => RECOMPUTING_SECTIONS.includes(s)) };
   });

@@ -230,33 +230,46 @@ export async function commitImport(
         fields,
       );
     }
-    const inserted = await db.transaction(async (tx) => {
-      const existing = await findExisting(tx, checked.valid);
-      if (existing.length > 0 && !opts.skipExisting) {
-        const fields: Record<string, string> = {};
-        for (const e of existing.slice(0, MAX_ERRORS_IN_FIELDS))
-          fields[`rows.${e.row}.containerNumber`] = 'Already registered';
-        throw conflict(
-          `${existing.length} unit${existing.length === 1 ? ' is' : 's are'} already registered; nothing was imported. Skip them or take them out of the file.`,
-          fields,
-        );
-      }
-      const skip = new Set(existing.map((e) => e.row));
-      const rows = checked.valid.filter((r) => !skip.has(r.row));
-      const at = now();
-      for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
-        const chunk = rows.slice(i, i + INSERT_CHUNK);
-        await tx.insert(units).values(chunk.map(({ data, siteId }) => newUnitRow(data, siteId, at)));
-        // Their first figures and change records in the same transaction (the unit write path's rule for new units).
-        const ids = await tx
-          .select({ id: units.id })
-          .from(units)
-          .where(inArray(units.containerNumber, chunk.map((r) => r.data.containerNumber)));
-        await registerNewUnits(tx, actorId, ids.map((r) => r.id), at, `Imported from ${file.originalname}`.slice(0, 200));
-        await progress({ processedRows: Math.min(total, skip.size + i + chunk.length) });
-      }
-      return rows.length;
-    }).finally(() => unitsAdded(db));
+    const inserted = await db
+      .transaction(async (tx) => {
+        const existing = await findExisting(tx, checked.valid);
+        if (existing.length > 0 && !opts.skipExisting) {
+          const fields: Record<string, string> = {};
+          for (const e of existing.slice(0, MAX_ERRORS_IN_FIELDS))
+            fields[`rows.${e.row}.containerNumber`] = 'Already registered';
+          throw conflict(
+            `${existing.length} unit${existing.length === 1 ? ' is' : 's are'} already registered; nothing was imported. Skip them or take them out of the file.`,
+            fields,
+          );
+        }
+        const skip = new Set(existing.map((e) => e.row));
+        const rows = checked.valid.filter((r) => !skip.has(r.row));
+        const at = now();
+        for (let i = 0; i < rows.length; i += INSERT_CHUNK) {
+          const chunk = rows.slice(i, i + INSERT_CHUNK);
+          await tx.insert(units).values(chunk.map(({ data, siteId }) => newUnitRow(data, siteId, at)));
+          // Their first figures and change records in the same transaction (the unit write path's rule for new units).
+          const ids = await tx
+            .select({ id: units.id })
+            .from(units)
+            .where(
+              inArray(
+                units.containerNumber,
+                chunk.map((r) => r.data.containerNumber),
+              ),
+            );
+          await registerNewUnits(
+            tx,
+            actorId,
+            ids.map((r) => r.id),
+            at,
+            `Imported from ${file.originalname}`.slice(0, 200),
+          );
+          await progress({ processedRows: Math.min(total, skip.size + i + chunk.length) });
+        }
+        return rows.length;
+      })
+      .finally(() => unitsAdded(db));
     await progress({ status: 'committed', processedRows: total, insertedRows: inserted, finishedAt: now() });
   } catch (err) {
     const refused =

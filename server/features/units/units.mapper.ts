@@ -29,7 +29,11 @@ export function toUnitDto(u: UnitRow, site: SiteRow | null): UnitDto {
 }
 
 /** The row of a newly registered unit (the register's form and the CSV import), with a fresh label code. */
-export function newUnitRow(d: Omit<CreateUnitInput, 'siteId'>, siteId: number | null, at: Date): typeof units.$inferInsert {
+export function newUnitRow(
+  d: Omit<CreateUnitInput, 'siteId'>,
+  siteId: number | null,
+  at: Date,
+): typeof units.$inferInsert {
   return {
     containerNumber: d.containerNumber,
     refrigerant: d.refrigerant,

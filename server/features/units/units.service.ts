@@ -95,7 +95,11 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
   try {
     return await retryTransaction(() =>
       ctx.db.transaction(async (tx) => {
-        const [taken] = await tx.select({ id: units.id }).from(units).where(eq(units.containerNumber, input.containerNumber)).limit(1);
+        const [taken] = await tx
+          .select({ id: units.id })
+          .from(units)
+          .where(eq(units.containerNumber, input.containerNumber))
+          .limit(1);
         if (taken) throw numberTaken(input.containerNumber);
         if (input.siteId != null) await requireSite(tx, input.siteId);
         const now = ctx.clock.now();
@@ -123,7 +127,13 @@ async function requireHistoryFits(tx: DbOrTx, unitId: number, commissionedOn: st
   const [{ first }] = await tx
     .select({ first: min(events.occurredAt) })
     .from(events)
-    .where(and(eq(events.unitId, unitId), sql`${events.kind} <> 'void'`, sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`));
+    .where(
+      and(
+        eq(events.unitId, unitId),
+        sql`${events.kind} <> 'void'`,
+        sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`,
+      ),
+    );
   if (!first) return;
   const firstDay = new Date(first).toISOString().slice(0, 10);
   if ((Date.parse(commissionedOn) - Date.parse(firstDay)) / 86_400_000 > BEFORE_COMMISSIONING_MARGIN_DAYS) {
@@ -137,11 +147,20 @@ async function requireHistoryFits(tx: DbOrTx, unitId: number, commissionedOn: st
  * Edits a unit through the unit write path: each changed field leaves a change record (who, when, before → after),
  * and the figures are recomputed in the same transaction (refrigerant, charge and commissioning date feed them).
  */
-export async function updateUnit(ctx: WriteContext, actorId: string, id: number, input: UpdateUnitInput): Promise<UnitDto> {
+export async function updateUnit(
+  ctx: WriteContext,
+  actorId: string,
+  id: number,
+  input: UpdateUnitInput,
+): Promise<UnitDto> {
   try {
     const { result } = await writeUnit(ctx, id, async (tx, { unit: current }, now) => {
       if (input.containerNumber !== undefined && input.containerNumber !== current.containerNumber) {
-        const [taken] = await tx.select({ id: units.id }).from(units).where(eq(units.containerNumber, input.containerNumber)).limit(1);
+        const [taken] = await tx
+          .select({ id: units.id })
+          .from(units)
+          .where(eq(units.containerNumber, input.containerNumber))
+          .limit(1);
         if (taken) throw numberTaken(input.containerNumber);
       }
       if (input.commissionedOn && input.commissionedOn !== current.commissionedOn) {

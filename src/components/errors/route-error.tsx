@@ -44,7 +44,12 @@ export function RouteError() {
       </p>
       {reference && <p className="text-sm text-ink-600">Reference: {reference}</p>}
       <div className="flex flex-wrap gap-3">
-        <Button variant="primary" onClick={retry} pending={revalidator.state === 'loading'} pendingLabel="Trying again…">
+        <Button
+          variant="primary"
+          onClick={retry}
+          pending={revalidator.state === 'loading'}
+          pendingLabel="Trying again…"
+        >
           Try again
         </Button>
         <ButtonLink to={paths.home.getHref()} variant="secondary">

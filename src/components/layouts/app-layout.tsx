@@ -39,10 +39,14 @@ export function AppLayout({ user, status, children }: { user: UserDto; status?: 
   }, [location.pathname]);
 
   const devTools = useDevTools(can(user, 'manage:settings'));
-  const entries = navEntries.filter((entry) => (!entry.permission || can(user, entry.permission)) && (!entry.devOnly || devTools));
+  const entries = navEntries.filter(
+    (entry) => (!entry.permission || can(user, entry.permission)) && (!entry.devOnly || devTools),
+  );
   // The most specific entry is the current one: on /units/import only "Import" lights up, not "Units" too.
   const current = entries
-    .filter((e) => location.pathname === e.href || (!e.end && location.pathname.startsWith(`${e.href.replace(/\/$/, '')}/`)))
+    .filter(
+      (e) => location.pathname === e.href || (!e.end && location.pathname.startsWith(`${e.href.replace(/\/$/, '')}/`)),
+    )
     .sort((a, b) => b.href.length - a.href.length)[0]?.href;
 
   return (
@@ -61,7 +65,12 @@ export function AppLayout({ user, status, children }: { user: UserDto; status?: 
           </Link>
           {status}
           <div className="ml-auto flex min-w-0 items-center gap-3">
-            <Link to={paths.account.getHref()} className="min-w-0 rounded-md text-right leading-tight" data-testid="current-user" title={`${user.name}: your account`}>
+            <Link
+              to={paths.account.getHref()}
+              className="min-w-0 rounded-md text-right leading-tight"
+              data-testid="current-user"
+              title={`${user.name}: your account`}
+            >
               <p className="truncate text-base font-semibold">{user.name}</p>
               <p className="truncate text-sm text-lime-300">{ROLE_LABELS[user.role]}</p>
             </Link>
@@ -78,7 +87,10 @@ export function AppLayout({ user, status, children }: { user: UserDto; status?: 
         </div>
         <div
           aria-hidden="true"
-          className={cx('h-1 origin-left bg-lime-400 transition-transform duration-300', busy ? 'scale-x-75' : 'scale-x-0')}
+          className={cx(
+            'h-1 origin-left bg-lime-400 transition-transform duration-300',
+            busy ? 'scale-x-75' : 'scale-x-0',
+          )}
         />
       </header>
 
@@ -94,7 +106,10 @@ export function AppLayout({ user, status, children }: { user: UserDto; status?: 
             const Icon = navIcons[entry.icon];
             return (
               // On phones the tab bar keeps the first slots; the rest wait under "More".
-              <li key={entry.href} className={cx(entries.length > TAB_BAR_SLOTS + 1 && i >= TAB_BAR_SLOTS && 'max-md:hidden')}>
+              <li
+                key={entry.href}
+                className={cx(entries.length > TAB_BAR_SLOTS + 1 && i >= TAB_BAR_SLOTS && 'max-md:hidden')}
+              >
                 <NavLink
                   to={entry.href}
                   end={entry.end}

@@ -15,7 +15,9 @@ export function AuthLayout({ children }: { children: ReactNode }) {
             Scan the label on the unit or type its container number, and its whole service history is there.
           </p>
         </div>
-        <p className="relative z-10 hidden text-sm text-ink-300 lg:block">Service history for refrigerated containers</p>
+        <p className="relative z-10 hidden text-sm text-ink-300 lg:block">
+          Service history for refrigerated containers
+        </p>
         {/* Decorative: the mark's loop, drawn large and faint behind the text. */}
         <LogoMark className="pointer-events-none absolute -right-16 -bottom-20 size-64 opacity-15 lg:-right-40 lg:-bottom-40 lg:size-[26rem]" />
       </aside>

@@ -33,9 +33,15 @@ export function MoreSheet({ entries }: { entries: readonly NavEntry[] }) {
         aria-haspopup="dialog"
         aria-expanded={open}
         onClick={() => setOpen(true)}
-        className={cx('relative flex min-h-tabbar w-full flex-col items-center justify-center gap-1 px-2 text-sm font-semibold', here ? 'text-lime-400' : 'text-ink-200 hover:text-white')}
+        className={cx(
+          'relative flex min-h-tabbar w-full flex-col items-center justify-center gap-1 px-2 text-sm font-semibold',
+          here ? 'text-lime-400' : 'text-ink-200 hover:text-white',
+        )}
       >
-        <span aria-hidden="true" className={cx('absolute inset-x-5 top-0 h-1 rounded-b-sm bg-lime-400', !here && 'hidden')} />
+        <span
+          aria-hidden="true"
+          className={cx('absolute inset-x-5 top-0 h-1 rounded-b-sm bg-lime-400', !here && 'hidden')}
+        />
         <MoreIcon className="size-7" />
         <span>More</span>
       </button>
@@ -51,7 +57,11 @@ export function MoreSheet({ entries }: { entries: readonly NavEntry[] }) {
       >
         <div className="flex items-center justify-between px-4 pt-3">
           <p className="text-base font-semibold text-lime-300">More</p>
-          <button type="button" onClick={() => setOpen(false)} className="min-h-touch rounded-md px-3 text-base font-semibold text-ink-200 hover:text-white">
+          <button
+            type="button"
+            onClick={() => setOpen(false)}
+            className="min-h-touch rounded-md px-3 text-base font-semibold text-ink-200 hover:text-white"
+          >
             Close
           </button>
         </div>
@@ -65,7 +75,10 @@ export function MoreSheet({ entries }: { entries: readonly NavEntry[] }) {
                   end={entry.end}
                   onClick={() => setOpen(false)}
                   className={({ isActive }) =>
-                    cx('flex min-h-tabbar flex-col items-center justify-center gap-1 rounded-md px-2 text-sm font-semibold', isActive ? 'bg-ink-800 text-lime-400' : 'text-ink-100 hover:bg-ink-900')
+                    cx(
+                      'flex min-h-tabbar flex-col items-center justify-center gap-1 rounded-md px-2 text-sm font-semibold',
+                      isActive ? 'bg-ink-800 text-lime-400' : 'text-ink-100 hover:bg-ink-900',
+                    )
                   }
                 >
                   <Icon className="size-7" />

@@ -57,19 +57,23 @@ type TextFieldProps = Omit<ComponentProps<'input'>, 'id'> & {
   inputClassName?: string;
 };
 
-export function TextField({ label, hint, error, optional, trailing, className, inputClassName, ...props }: TextFieldProps) {
+export function TextField({
+  label,
+  hint,
+  error,
+  optional,
+  trailing,
+  className,
+  inputClassName,
+  ...props
+}: TextFieldProps) {
   const id = useId();
   const input = (
     <input
       id={id}
       aria-invalid={error ? true : undefined}
       aria-describedby={describedBy(hint !== undefined && `${id}-hint`, error && `${id}-error`)}
-      className={cx(
-        controlClasses,
-        error ? 'border-alarm-700' : 'border-ink-400',
-        trailing && 'pr-24',
-        inputClassName,
-      )}
+      className={cx(controlClasses, error ? 'border-alarm-700' : 'border-ink-400', trailing && 'pr-24', inputClassName)}
       {...props}
     />
   );

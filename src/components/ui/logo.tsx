@@ -8,13 +8,7 @@ export function LogoMark({ className }: { className?: string }) {
   return (
     <svg viewBox="0 0 32 32" aria-hidden="true" focusable="false" className={cx('size-9 shrink-0', className)}>
       <rect width="32" height="32" rx="8" fill="#0b161d" />
-      <path
-        d="M22.01 9.99A8.5 8.5 0 1 1 16 7.5"
-        fill="none"
-        stroke="#c8f25a"
-        strokeWidth="4"
-        strokeLinecap="round"
-      />
+      <path d="M22.01 9.99A8.5 8.5 0 1 1 16 7.5" fill="none" stroke="#c8f25a" strokeWidth="4" strokeLinecap="round" />
       <circle cx="16" cy="16" r="2.75" fill="#ffffff" />
     </svg>
   );
@@ -35,7 +29,9 @@ export function Logo({
 }) {
   return (
     <span className={cx('inline-flex items-center gap-2.5', className)}>
-      <LogoMark className={cx(size === 'lg' && 'size-12', tone === 'dark' && 'ring-1 ring-ink-700 rounded-[0.55rem]')} />
+      <LogoMark
+        className={cx(size === 'lg' && 'size-12', tone === 'dark' && 'ring-1 ring-ink-700 rounded-[0.55rem]')}
+      />
       <span
         className={cx(
           'font-bold tracking-tight',

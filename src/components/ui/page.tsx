@@ -21,7 +21,12 @@ export function PageHeader({
   );
 }
 
-export function Panel({ children, className, as: As = 'section', ...rest }: {
+export function Panel({
+  children,
+  className,
+  as: As = 'section',
+  ...rest
+}: {
   children: ReactNode;
   className?: string;
   as?: 'section' | 'div';
@@ -44,7 +49,13 @@ export function EmptyState({ title, children, icon }: { title: ReactNode; childr
   );
 }
 
-export function Badge({ tone = 'neutral', children }: { tone?: 'neutral' | 'okay' | 'muted' | 'fjord'; children: ReactNode }) {
+export function Badge({
+  tone = 'neutral',
+  children,
+}: {
+  tone?: 'neutral' | 'okay' | 'muted' | 'fjord';
+  children: ReactNode;
+}) {
   const tones = {
     neutral: 'bg-ink-100 text-ink-950 border-ink-300',
     okay: 'bg-okay-50 text-okay-700 border-okay-700',
@@ -52,7 +63,9 @@ export function Badge({ tone = 'neutral', children }: { tone?: 'neutral' | 'okay
     fjord: 'bg-fjord-50 text-fjord-900 border-fjord-700',
   } as const;
   return (
-    <span className={cx('inline-flex items-center rounded-full border px-2.5 py-0.5 text-sm font-semibold', tones[tone])}>
+    <span
+      className={cx('inline-flex items-center rounded-full border px-2.5 py-0.5 text-sm font-semibold', tones[tone])}
+    >
       {children}
     </span>
   );

@@ -13,7 +13,17 @@ export function LoadingPanel({ children }: { children: ReactNode }) {
 }
 
 /** The main query failed: say what happened and offer a retry. */
-export function LoadError({ title, error, onRetry, retrying }: { title: string; error: Error; onRetry: () => void; retrying?: boolean }) {
+export function LoadError({
+  title,
+  error,
+  onRetry,
+  retrying,
+}: {
+  title: string;
+  error: Error;
+  onRetry: () => void;
+  retrying?: boolean;
+}) {
   return (
     <Alert tone="alarm" title={title}>
       <p>{error.message}</p>

@@ -21,7 +21,8 @@ describe('ISO 6346 check digit', () => {
 
   it('values letters from A = 10 to Z = 38, skipping 11, 22 and 33', () => {
     // Source: ISO 6346 letter values as publicly described (DOMAIN.md §2 table)
-    const table = 'A10 B12 C13 D14 E15 F16 G17 H18 I19 J20 K21 L23 M24 N25 O26 P27 Q28 R29 S30 T31 U32 V34 W35 X36 Y37 Z38';
+    const table =
+      'A10 B12 C13 D14 E15 F16 G17 H18 I19 J20 K21 L23 M24 N25 O26 P27 Q28 R29 S30 T31 U32 V34 W35 X36 Y37 Z38';
     for (const pair of table.split(' ')) expect(CONTAINER_LETTER_VALUES[pair[0]]).toBe(Number(pair.slice(1)));
   });
 
@@ -68,9 +69,15 @@ describe('parseContainerNumber', () => {
   });
 
   it('explains a wrong length, an empty field and a bad category', () => {
-    expect(parseContainerNumber('')).toMatchObject({ ok: false, error: expect.stringContaining('Enter the container number') });
+    expect(parseContainerNumber('')).toMatchObject({
+      ok: false,
+      error: expect.stringContaining('Enter the container number'),
+    });
     expect(parseContainerNumber('CSQU305')).toMatchObject({ ok: false, error: expect.stringContaining('has 7') });
-    expect(parseContainerNumber('CSQA3054383')).toMatchObject({ ok: false, error: expect.stringContaining('U, J or Z') });
+    expect(parseContainerNumber('CSQA3054383')).toMatchObject({
+      ok: false,
+      error: expect.stringContaining('U, J or Z'),
+    });
   });
 
   it('formats the stored form for display', () => {
@@ -90,7 +97,8 @@ describe('parseContainerNumber', () => {
           const first10 = `${owner.join('')}${cat}${String(serial).padStart(6, '0')}`;
           const digit = containerCheckDigit(first10);
           expect(parseContainerNumber(`${first10}${digit}`)).toEqual({ ok: true, value: `${first10}${digit}` });
-          if (other !== digit) expect(parseContainerNumber(`${first10}${other}`)).toMatchObject({ ok: false, expectedCheckDigit: digit });
+          if (other !== digit)
+            expect(parseContainerNumber(`${first10}${other}`)).toMatchObject({ ok: false, expectedCheckDigit: digit });
         },
       ),
     );

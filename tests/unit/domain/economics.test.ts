@@ -79,7 +79,13 @@ describe('repair or retire', () => {
     expect(r.cheapestId).toBe('repair');
     expect(r.options.filter((o) => o.cheapest)).toHaveLength(1);
     expect(r.currency).toBe('USD');
-    expect(r.assumptions).toMatchObject({ remainingYears: 5, visitsPerYear: 3.65, recurrence: 0.3, recurrenceSource: 'default', repairCost: 180 });
+    expect(r.assumptions).toMatchObject({
+      remainingYears: 5,
+      visitsPerYear: 3.65,
+      recurrence: 0.3,
+      recurrenceSource: 'default',
+      repairCost: 180,
+    });
   });
 
   it('uses the fleet’s recurrence once it has enough repairs at the location', () => {
@@ -89,7 +95,9 @@ describe('repair or retire', () => {
     expect(r.assumptions).toMatchObject({ recurrence: 0.4, recurrenceSource: 'fleet' });
     expect(r.options.find((o) => o.id === 'repair')).toMatchObject({ npv: 1928.81, eac: 483.08 });
     // DOMAIN.md §9: fewer than 5 known repairs → default 0.3
-    expect(compareRepairOptions({ ...base, fleetRepairs: { repairs: 4, recurred: 4 } }).assumptions.recurrence).toBe(0.3);
+    expect(compareRepairOptions({ ...base, fleetRepairs: { repairs: 4, recurred: 4 } }).assumptions.recurrence).toBe(
+      0.3,
+    );
   });
 
   it('keeps topping up when there is no leak evidence', () => {
@@ -105,7 +113,9 @@ describe('repair or retire', () => {
   });
 
   it('follows the cost settings', () => {
-    const settings = settingsSchema.parse({ economics: { currency: 'EUR', discountRatePct: 0, refrigerantPricePerKg: { 'R-134a': 100 } } });
+    const settings = settingsSchema.parse({
+      economics: { currency: 'EUR', discountRatePct: 0, refrigerantPricePerKg: { 'R-134a': 100 } },
+    });
     // Our arithmetic at 0 %: keep = 3.65 × (100 + 120 + 150) = 1350.5 a year, NPV = 5 × 1350.5 = 6752.5
     const r = compareRepairOptions(base, settings);
     expect(r.currency).toBe('EUR');

@@ -52,7 +52,11 @@ describe('EU leak-check interval', () => {
 describe('US reference and custom policies', () => {
   it('knows the 40 CFR 82.157 thresholds and the 15 lb duty line', () => {
     // Source: 40 CFR 82.157(c)(2) thresholds; 89 FR 82682 (2024) for 15 lb; 40 CFR 82.157(m) for 125 %
-    expect(US_LEAK_RATE_THRESHOLDS_PCT).toEqual({ commercial_refrigeration: 20, industrial_process_refrigeration: 30, comfort_cooling_and_other: 10 });
+    expect(US_LEAK_RATE_THRESHOLDS_PCT).toEqual({
+      commercial_refrigeration: 20,
+      industrial_process_refrigeration: 30,
+      comfort_cooling_and_other: 10,
+    });
     expect(US_MIN_FULL_CHARGE_KG).toBeCloseTo(6.8, 2);
     expect(CHRONIC_CALENDAR_YEAR_SHARE_PCT).toBe(125);
   });
@@ -72,7 +76,15 @@ describe('US reference and custom policies', () => {
 
   it('uses the custom bands when the policy is custom', () => {
     // Our definition (DOMAIN.md §5: policy is a setting)
-    const custom = settingsSchema.parse({ policy: 'custom', customLeakCheck: { bands: [{ fromTCO2e: 0, months: 6 }, { fromTCO2e: 5, months: 3 }] } });
+    const custom = settingsSchema.parse({
+      policy: 'custom',
+      customLeakCheck: {
+        bands: [
+          { fromTCO2e: 0, months: 6 },
+          { fromTCO2e: 5, months: 3 },
+        ],
+      },
+    });
     expect(leakCheckIntervalForPolicy({ tCO2e: 1, fullChargeKg: 1, rollingLeakRatePct: 0 }, custom)).toBe(6);
     expect(leakCheckIntervalForPolicy({ tCO2e: 7, fullChargeKg: 5, rollingLeakRatePct: 0 }, custom)).toBe(3);
     const defaults = settingsSchema.parse({ policy: 'custom' });
@@ -82,6 +94,8 @@ describe('US reference and custom policies', () => {
 
   it('uses the EU rules by default', () => {
     const eu = settingsSchema.parse({});
-    expect(leakCheckIntervalForPolicy({ tCO2e: 7.15, fullChargeKg: 5, rollingLeakRatePct: 0, leakDetection: true }, eu)).toBe(24);
+    expect(
+      leakCheckIntervalForPolicy({ tCO2e: 7.15, fullChargeKg: 5, rollingLeakRatePct: 0, leakDetection: true }, eu),
+    ).toBe(24);
   });
 });

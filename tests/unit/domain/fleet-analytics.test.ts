@@ -4,7 +4,13 @@ import { settingsSchema } from '../../../shared/schemas/settings';
 import { D, day } from './helpers';
 
 const repairAt = (k: number, location: 'service_valve' | 'brazed_joint' = 'service_valve') =>
-  ({ kind: 'repair', at: day(k), location, action: location === 'service_valve' ? 'valve_core_replaced' : 'rebrazed', verified: true }) as const;
+  ({
+    kind: 'repair',
+    at: day(k),
+    location,
+    action: location === 'service_valve' ? 'valve_core_replaced' : 'rebrazed',
+    verified: true,
+  }) as const;
 
 describe('repair effectiveness', () => {
   // Our worked example: six units, each with a service-valve repair on D−400.
@@ -33,7 +39,10 @@ describe('repair effectiveness', () => {
   });
 
   it('judges a recent repair as soon as it leaks again', () => {
-    const r = repairEffectiveness([{ refrigerant: 'R-134a', events: [repairAt(-20), { kind: 'top_up', at: day(-5), kg: 0.3 }] }], D);
+    const r = repairEffectiveness(
+      [{ refrigerant: 'R-134a', events: [repairAt(-20), { kind: 'top_up', at: day(-5), kg: 0.3 }] }],
+      D,
+    );
     expect(r.rows[0]).toMatchObject({ repairs: 1, recurred: 1, pending: 0 });
   });
 
@@ -43,7 +52,10 @@ describe('repair effectiveness', () => {
   });
 
   it('groups repairs without a location or action on their own', () => {
-    const r = repairEffectiveness([{ refrigerant: 'R-134a', events: [{ kind: 'repair', at: day(-400), verified: false }] }], D);
+    const r = repairEffectiveness(
+      [{ refrigerant: 'R-134a', events: [{ kind: 'repair', at: day(-400), verified: false }] }],
+      D,
+    );
     expect(r.rows[0]).toMatchObject({ location: null, action: null, repairs: 1, held: 1 });
   });
 });
@@ -76,7 +88,16 @@ describe('emissions per month, site and refrigerant', () => {
   it('keeps to a date range and the AR5 basis when asked', () => {
     // Our arithmetic: only the Feb visit is in range; 1 kg × 1300 (AR5) / 1000 = 1.3 t
     const rows = emissionsByMonth(
-      [{ refrigerant: 'R-134a', events: [{ kind: 'top_up', at: '2025-01-05', kg: 1 }, { kind: 'top_up', at: '2025-02-05', kg: 1 }, { kind: 'top_up', at: '2025-03-05', kg: 1 }] }],
+      [
+        {
+          refrigerant: 'R-134a',
+          events: [
+            { kind: 'top_up', at: '2025-01-05', kg: 1 },
+            { kind: 'top_up', at: '2025-02-05', kg: 1 },
+            { kind: 'top_up', at: '2025-03-05', kg: 1 },
+          ],
+        },
+      ],
       { basis: 'AR5', from: '2025-02-01', to: '2025-02-28' },
     );
     expect(rows).toEqual([{ month: '2025-02', site: null, refrigerant: 'R-134a', madeUpKg: 1, co2eTonnes: 1.3 }]);

@@ -7,8 +7,19 @@ describe('next top-up forecast, DOMAIN.md §7 example', () => {
   it('forecasts D+70 with no range for the §6 unit', () => {
     // Our definition (DOMAIN.md §7): only the D−40 visit counts; interval D−150 → D−40 = 110 days;
     // λ = 0.8/110, a = 0.8 → a/λ = 110 → D−40 + 110 = D+70; one interval → no range
-    const s = computeUnitStats({ refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-2000) }, section6Events, D);
-    expect(s.forecast).toMatchObject({ date: day(70), earliest: null, latest: null, overdue: false, intervalDays: 110, expectedKg: 0.8 });
+    const s = computeUnitStats(
+      { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-2000) },
+      section6Events,
+      D,
+    );
+    expect(s.forecast).toMatchObject({
+      date: day(70),
+      earliest: null,
+      latest: null,
+      overdue: false,
+      intervalDays: 110,
+      expectedKg: 0.8,
+    });
     expect(s.forecast?.basisIntervals).toEqual([{ from: day(-150), to: day(-40), days: 110, madeUpKg: 0.8 }]);
     expect(s.forecastReason).toBeNull();
   });
@@ -30,7 +41,14 @@ describe('next top-up forecast, our worked examples', () => {
     ];
     const { forecast, reason } = forecastNextTopUp(visits, day(-400), D);
     expect(reason).toBeNull();
-    expect(forecast).toMatchObject({ date: day(60), earliest: day(48), latest: day(67), intervalDays: 60, expectedKg: 0.6, lastAdditionDate: day(0) });
+    expect(forecast).toMatchObject({
+      date: day(60),
+      earliest: day(48),
+      latest: day(67),
+      intervalDays: 60,
+      expectedKg: 0.6,
+      lastAdditionDate: day(0),
+    });
     expect(forecast?.basisIntervals.map((i) => i.days)).toEqual([60, 100, 40]);
   });
 
@@ -43,26 +61,52 @@ describe('next top-up forecast, our worked examples', () => {
 
   it('is overdue when the date has passed', () => {
     // Our worked example: additions on D−300 and D−200 (0.5 kg each) → 100-day interval → D−100, before D
-    const { forecast } = forecastNextTopUp([{ at: day(-300), madeUpKg: 0.5 }, { at: day(-200), madeUpKg: 0.5 }], day(-400), D);
+    const { forecast } = forecastNextTopUp(
+      [
+        { at: day(-300), madeUpKg: 0.5 },
+        { at: day(-200), madeUpKg: 0.5 },
+      ],
+      day(-400),
+      D,
+    );
     expect(forecast).toMatchObject({ date: day(-100), overdue: true });
   });
 
   it('gives no forecast without made-up refrigerant', () => {
     // Our definition (DOMAIN.md §7): no leak evidence → no forecast
-    expect(forecastNextTopUp([{ at: day(-10), madeUpKg: 0 }], day(-100), D)).toEqual({ forecast: null, reason: 'no_leak_evidence' });
+    expect(forecastNextTopUp([{ at: day(-10), madeUpKg: 0 }], day(-100), D)).toEqual({
+      forecast: null,
+      reason: 'no_leak_evidence',
+    });
   });
 
   it('clears the forecast after a verified repair, but not after an unverified one', () => {
     // Our definition (DOMAIN.md §7): a verified repair after the last addition clears it
-    const verified = forecastNextTopUp([{ at: day(-100), madeUpKg: 1 }, { at: day(-50), madeUpKg: 0, verifiedRepair: true }], day(-300), D);
+    const verified = forecastNextTopUp(
+      [
+        { at: day(-100), madeUpKg: 1 },
+        { at: day(-50), madeUpKg: 0, verifiedRepair: true },
+      ],
+      day(-300),
+      D,
+    );
     expect(verified).toEqual({ forecast: null, reason: 'repaired_since_last_addition' });
-    const unverified = forecastNextTopUp([{ at: day(-100), madeUpKg: 1 }, { at: day(-50), madeUpKg: 0, verifiedRepair: false }], day(-300), D);
+    const unverified = forecastNextTopUp(
+      [
+        { at: day(-100), madeUpKg: 1 },
+        { at: day(-50), madeUpKg: 0, verifiedRepair: false },
+      ],
+      day(-300),
+      D,
+    );
     expect(unverified.forecast?.date).toBe(day(100));
   });
 
   it('counts the repair visit’s own top-up as the leak before it', () => {
     // Our definition (DOMAIN.md §4, §7): 1 kg added in the verified repair visit itself → nothing after it → cleared
-    expect(forecastNextTopUp([{ at: day(-50), madeUpKg: 1, verifiedRepair: true }], day(-300), D).reason).toBe('repaired_since_last_addition');
+    expect(forecastNextTopUp([{ at: day(-50), madeUpKg: 1, verifiedRepair: true }], day(-300), D).reason).toBe(
+      'repaired_since_last_addition',
+    );
   });
 
   it('refuses negative made-up refrigerant and bad dates', () => {

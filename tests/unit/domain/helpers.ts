@@ -20,7 +20,13 @@ export function nonFinitePaths(value: unknown, path = '$'): string[] {
   return [];
 }
 
-const location = fc.constantFrom('service_valve', 'brazed_joint', 'condenser_coil', 'evaporator_coil', 'other' as const);
+const location = fc.constantFrom(
+  'service_valve',
+  'brazed_joint',
+  'condenser_coil',
+  'evaporator_coil',
+  'other' as const,
+);
 const visitId = fc.option(fc.constantFrom('v1', 'v2', 'v3', 'v4', 'v5'), { nil: undefined });
 /** A timestamp within ~4 years before D: a calendar date or a full ISO time. */
 const at = fc
@@ -31,9 +37,27 @@ const kPaG = fc.option(fc.double({ min: -101.325, max: 12_000, noNaN: true }), {
 
 /** Any valid event for a unit, within realistic bounds. */
 export const eventArb: fc.Arbitrary<UnitEvent> = fc.oneof(
-  fc.record({ kind: fc.constantFrom('top_up', 'recovery', 'recharge' as const), at, kg, visitId, excluded: fc.option(fc.boolean(), { nil: undefined }) }),
-  fc.record({ kind: fc.constant('leak_check' as const), at, leakFound: fc.boolean(), location: fc.option(location, { nil: undefined }), visitId }),
-  fc.record({ kind: fc.constant('repair' as const), at, location: fc.option(location, { nil: undefined }), verified: fc.boolean(), visitId }),
+  fc.record({
+    kind: fc.constantFrom('top_up', 'recovery', 'recharge' as const),
+    at,
+    kg,
+    visitId,
+    excluded: fc.option(fc.boolean(), { nil: undefined }),
+  }),
+  fc.record({
+    kind: fc.constant('leak_check' as const),
+    at,
+    leakFound: fc.boolean(),
+    location: fc.option(location, { nil: undefined }),
+    visitId,
+  }),
+  fc.record({
+    kind: fc.constant('repair' as const),
+    at,
+    location: fc.option(location, { nil: undefined }),
+    verified: fc.boolean(),
+    visitId,
+  }),
   fc.record({
     kind: fc.constant('pressure' as const),
     at,

@@ -108,22 +108,39 @@ describe('rolling rate', () => {
 
   it('counts the whole 365 days without a repair: 3.0 kg of 5 kg is 60 %', () => {
     // Source: 40 CFR 82.152 rolling method; our arithmetic (1.0 + 1.2 + 0.8) / 5 × 100 = 60 %
-    expect(rollingLeakRatePct(visits.map((v) => ({ ...v, verifiedRepair: false })), D, 5)).toBeCloseTo(60, 9);
+    expect(
+      rollingLeakRatePct(
+        visits.map((v) => ({ ...v, verifiedRepair: false })),
+        D,
+        5,
+      ),
+    ).toBeCloseTo(60, 9);
   });
 
   it('leaves out additions older than 365 days and visits after the day', () => {
     // Our arithmetic: as of D+100 the D−300 visit is 400 days old; as of D−200 only D−300 has happened
-    expect(rollingLeakRatePct(visits.map((v) => ({ ...v, verifiedRepair: false })), day(100), 5)).toBeCloseTo(40, 9);
+    expect(
+      rollingLeakRatePct(
+        visits.map((v) => ({ ...v, verifiedRepair: false })),
+        day(100),
+        5,
+      ),
+    ).toBeCloseTo(40, 9);
     expect(rollingLeakRatePct(visits, day(-200), 5)).toBeCloseTo(20, 9);
   });
 
   it('never falls when more refrigerant is added', () => {
     fc.assert(
-      fc.property(fc.array(fc.double({ min: 0, max: 3, noNaN: true }), { minLength: 3, maxLength: 3 }), fc.integer({ min: 0, max: 2 }), fc.double({ min: 0, max: 3, noNaN: true }), (kgs, i, extra) => {
-        const base = visits.map((v, k) => ({ ...v, madeUpKg: kgs[k] }));
-        const more = base.map((v, k) => (k === i ? { ...v, madeUpKg: v.madeUpKg + extra } : v));
-        expect(rollingLeakRatePct(more, D, 5)).toBeGreaterThanOrEqual(rollingLeakRatePct(base, D, 5));
-      }),
+      fc.property(
+        fc.array(fc.double({ min: 0, max: 3, noNaN: true }), { minLength: 3, maxLength: 3 }),
+        fc.integer({ min: 0, max: 2 }),
+        fc.double({ min: 0, max: 3, noNaN: true }),
+        (kgs, i, extra) => {
+          const base = visits.map((v, k) => ({ ...v, madeUpKg: kgs[k] }));
+          const more = base.map((v, k) => (k === i ? { ...v, madeUpKg: v.madeUpKg + extra } : v));
+          expect(rollingLeakRatePct(more, D, 5)).toBeGreaterThanOrEqual(rollingLeakRatePct(base, D, 5));
+        },
+      ),
     );
   });
 });

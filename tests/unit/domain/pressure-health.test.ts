@@ -51,13 +51,19 @@ describe('pressure health', () => {
 
   it('flags bubbles or an empty sight glass whatever the pressures say', () => {
     // Common practice, no published source (DOMAIN.md §8)
-    expect(assessPressureHealth('R-134a', [{ at: day(-1), sightGlass: 'bubbles' }], []).health.flag).toBe('possible_low_charge');
-    expect(assessPressureHealth('R-134a', [{ at: day(-1), sightGlass: 'empty' }], []).health.explanation).toContain('no liquid');
+    expect(assessPressureHealth('R-134a', [{ at: day(-1), sightGlass: 'bubbles' }], []).health.flag).toBe(
+      'possible_low_charge',
+    );
+    expect(assessPressureHealth('R-134a', [{ at: day(-1), sightGlass: 'empty' }], []).health.explanation).toContain(
+      'no liquid',
+    );
   });
 
   it('says ok on a full sight glass without a baseline, and unknown with nothing to go on', () => {
     expect(assessPressureHealth('R-134a', [{ at: day(-1), sightGlass: 'full' }], []).health.flag).toBe('ok');
-    expect(assessPressureHealth('R-134a', [{ at: day(-1), dischargeKPaG: 900, ambientC: 25 }], []).health.flag).toBe('unknown');
+    expect(assessPressureHealth('R-134a', [{ at: day(-1), dischargeKPaG: 900, ambientC: 25 }], []).health.flag).toBe(
+      'unknown',
+    );
     expect(assessPressureHealth('R-134a', [], []).health).toMatchObject({ latest: null, flag: 'unknown' });
   });
 
@@ -68,8 +74,17 @@ describe('pressure health', () => {
 
   it('leaves the condensing temperature out when CO2 is supercritical', () => {
     // Our definition: no saturation above the R-744 critical point (7377 kPa abs), so no approach
-    const { snapshots } = assessPressureHealth('R-744', [{ at: day(-1), dischargeKPaG: 9000, suctionKPaG: 3000, ambientC: 35 }], []);
-    expect(snapshots[0]).toMatchObject({ condensingC: null, approachK: null, dischargeOutOfRange: 'supercritical', suctionOutOfRange: null });
+    const { snapshots } = assessPressureHealth(
+      'R-744',
+      [{ at: day(-1), dischargeKPaG: 9000, suctionKPaG: 3000, ambientC: 35 }],
+      [],
+    );
+    expect(snapshots[0]).toMatchObject({
+      condensingC: null,
+      approachK: null,
+      dischargeOutOfRange: 'supercritical',
+      suctionOutOfRange: null,
+    });
     // From memory (Span & Wagner ancillary): 3101 kPa abs is about −4 °C
     expect(snapshots[0].evaporatingC).toBeCloseTo(-4, 0);
   });
@@ -77,7 +92,11 @@ describe('pressure health', () => {
   it('leaves a reading below the fitted range out rather than extrapolating', () => {
     // Our definition (DOMAIN.md §3): R-404A data starts at −50 °C (81 kPa abs); −60 kPa(g) = 41 kPa abs is below
     const { snapshots } = assessPressureHealth('R-404A', [{ at: day(-1), suctionKPaG: -60, dischargeKPaG: 4000 }], []);
-    expect(snapshots[0]).toMatchObject({ evaporatingC: null, suctionOutOfRange: 'below_range', dischargeOutOfRange: 'above_range' });
+    expect(snapshots[0]).toMatchObject({
+      evaporatingC: null,
+      suctionOutOfRange: 'below_range',
+      dischargeOutOfRange: 'above_range',
+    });
   });
 
   it('follows the drift threshold in settings', () => {
@@ -101,10 +120,14 @@ describe('pressure health', () => {
 
   it('uses commissioning as the first baseline in the unit statistics', () => {
     // Our definition: a new unit is fully charged at commissioning
-    const s = computeUnitStats({ refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-100) }, [
-      { kind: 'pressure', at: day(-95), dischargeKPaG: psi(140), ambientC: 30 },
-      { kind: 'pressure', at: day(-1), dischargeKPaG: psi(125), ambientC: 30, sightGlass: 'full' },
-    ], D);
+    const s = computeUnitStats(
+      { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-100) },
+      [
+        { kind: 'pressure', at: day(-95), dischargeKPaG: psi(140), ambientC: 30 },
+        { kind: 'pressure', at: day(-1), dischargeKPaG: psi(125), ambientC: 30, sightGlass: 'full' },
+      ],
+      D,
+    );
     expect(s.pressureHealth.flag).toBe('possible_low_charge');
     expect(s.snapshots).toHaveLength(2);
     expect(s.snapshots[1].driftK).toBeCloseTo(-3.8, 2);

@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { mergeRepairEffectiveness, repairEffectiveness, type UnitHistory } from '../../../shared/domain';
 import { D, day } from './helpers';
 
-const repairAt = (k: number) => ({ kind: 'repair', at: day(k), location: 'service_valve', action: 'valve_core_replaced', verified: true }) as const;
+const repairAt = (k: number) =>
+  ({ kind: 'repair', at: day(k), location: 'service_valve', action: 'valve_core_replaced', verified: true }) as const;
 
 describe('merging repair effectiveness over chunks of units', () => {
   // Our definition (DOMAIN.md §10): each repair is judged on its own unit's history, so disjoint groups add up.

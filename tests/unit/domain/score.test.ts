@@ -54,13 +54,17 @@ describe('repeat-leak score, our worked examples', () => {
     // after repair: first recurrence 230 days after the repair → 0.5 → 10 points
     // same spot: brazed joint and condenser coil differ → 0
     // → round(40 + 8.33 + 10) = 58, "watch"
-    const s = computeUnitStats({ refrigerant: 'R-134a', nominalChargeKg: 4, commissionedOn: day(-1000) }, [
-      { kind: 'repair', at: day(-330), location: 'brazed_joint', action: 'rebrazed', verified: true },
-      { kind: 'top_up', at: day(-100), kg: 1 },
-      { kind: 'leak_check', at: day(-100), leakFound: true, location: 'brazed_joint' },
-      { kind: 'top_up', at: day(-20), kg: 1 },
-      { kind: 'leak_check', at: day(-20), leakFound: true, location: 'condenser_coil' },
-    ], D).score;
+    const s = computeUnitStats(
+      { refrigerant: 'R-134a', nominalChargeKg: 4, commissionedOn: day(-1000) },
+      [
+        { kind: 'repair', at: day(-330), location: 'brazed_joint', action: 'rebrazed', verified: true },
+        { kind: 'top_up', at: day(-100), kg: 1 },
+        { kind: 'leak_check', at: day(-100), leakFound: true, location: 'brazed_joint' },
+        { kind: 'top_up', at: day(-20), kg: 1 },
+        { kind: 'leak_check', at: day(-20), leakFound: true, location: 'condenser_coil' },
+      ],
+      D,
+    ).score;
     expect(s.factors.rate.value).toBe(1);
     expect(s.factors.count.value).toBeCloseTo(0.3333, 4);
     expect(s.factors.afterRepair.value).toBe(0.5);
@@ -70,29 +74,53 @@ describe('repeat-leak score, our worked examples', () => {
 
   it('does not count two leaks at "other" as the same spot', () => {
     // Our definition: "other" names no place, so it never repeats
-    const s = repeatLeakScore({ rollingLeakRatePct: 0, visitsWithMadeUp: 0, daysFromRepairToRecurrence: null, sameSpot: null });
+    const s = repeatLeakScore({
+      rollingLeakRatePct: 0,
+      visitsWithMadeUp: 0,
+      daysFromRepairToRecurrence: null,
+      sameSpot: null,
+    });
     expect(s.factors.sameSpot.value).toBe(0);
-    const stats = computeUnitStats(unit, [
-      { kind: 'leak_check', at: day(-100), leakFound: true, location: 'other' },
-      { kind: 'leak_check', at: day(-10), leakFound: true, location: 'other' },
-    ], D);
+    const stats = computeUnitStats(
+      unit,
+      [
+        { kind: 'leak_check', at: day(-100), leakFound: true, location: 'other' },
+        { kind: 'leak_check', at: day(-10), leakFound: true, location: 'other' },
+      ],
+      D,
+    );
     expect(stats.score.factors.sameSpot.value).toBe(0);
   });
 
   it('gives no after-repair points for a leak more than a year after the repair', () => {
     // Our definition (DOMAIN.md §6): > 365 days → 0
-    expect(repeatLeakScore({ rollingLeakRatePct: 0, visitsWithMadeUp: 1, daysFromRepairToRecurrence: 400, sameSpot: null }).factors.afterRepair.value).toBe(0);
+    expect(
+      repeatLeakScore({ rollingLeakRatePct: 0, visitsWithMadeUp: 1, daysFromRepairToRecurrence: 400, sameSpot: null })
+        .factors.afterRepair.value,
+    ).toBe(0);
   });
 
   it('puts the band edges at 30 and 60', () => {
     // Our definition (DOMAIN.md §6): 0–29 tight, 30–59 watch, 60–100 chronic
-    expect([0, 29, 30, 59, 60, 100].map((v) => scoreBand(v))).toEqual(['tight', 'tight', 'watch', 'watch', 'chronic', 'chronic']);
+    expect([0, 29, 30, 59, 60, 100].map((v) => scoreBand(v))).toEqual([
+      'tight',
+      'tight',
+      'watch',
+      'watch',
+      'chronic',
+      'chronic',
+    ]);
   });
 
   it('follows the weights and cap in settings', () => {
     // Our arithmetic: rate only, weight 1, cap 20 % → 16/20 = 0.8 → 80, chronic
-    const settings = settingsSchema.parse({ score: { weights: { rate: 1, count: 0, afterRepair: 0, sameSpot: 0 }, rateCapPct: 20 } });
-    const s = repeatLeakScore({ rollingLeakRatePct: 16, visitsWithMadeUp: 3, daysFromRepairToRecurrence: 10, sameSpot: null }, settings);
+    const settings = settingsSchema.parse({
+      score: { weights: { rate: 1, count: 0, afterRepair: 0, sameSpot: 0 }, rateCapPct: 20 },
+    });
+    const s = repeatLeakScore(
+      { rollingLeakRatePct: 16, visitsWithMadeUp: 3, daysFromRepairToRecurrence: 10, sameSpot: null },
+      settings,
+    );
     expect(s).toMatchObject({ value: 80, band: 'chronic' });
   });
 
@@ -107,16 +135,22 @@ describe('repeat-leak score, our worked examples', () => {
 describe('repeat-leak score, properties', () => {
   it('never falls when a top-up is larger', () => {
     fc.assert(
-      fc.property(unitArb, historyArb, fc.nat(), fc.double({ min: 0, max: 5, noNaN: true }), (u, events, pick, extra) => {
-        const movements = events.map((e, i) => [e, i] as const).filter(([e]) => e.kind === 'top_up');
-        if (movements.length === 0) return;
-        const [, i] = movements[pick % movements.length];
-        const more = events.map((e, k) => (k === i && e.kind === 'top_up' ? { ...e, kg: e.kg + extra } : e));
-        const a = computeUnitStats(u, events, D);
-        const b = computeUnitStats(u, more, D);
-        expect(b.score.value).toBeGreaterThanOrEqual(a.score.value);
-        expect(b.rollingLeakRatePct).toBeGreaterThanOrEqual(a.rollingLeakRatePct);
-      }),
+      fc.property(
+        unitArb,
+        historyArb,
+        fc.nat(),
+        fc.double({ min: 0, max: 5, noNaN: true }),
+        (u, events, pick, extra) => {
+          const movements = events.map((e, i) => [e, i] as const).filter(([e]) => e.kind === 'top_up');
+          if (movements.length === 0) return;
+          const [, i] = movements[pick % movements.length];
+          const more = events.map((e, k) => (k === i && e.kind === 'top_up' ? { ...e, kg: e.kg + extra } : e));
+          const a = computeUnitStats(u, events, D);
+          const b = computeUnitStats(u, more, D);
+          expect(b.score.value).toBeGreaterThanOrEqual(a.score.value);
+          expect(b.rollingLeakRatePct).toBeGreaterThanOrEqual(a.rollingLeakRatePct);
+        },
+      ),
       { numRuns: 300 },
     );
   });

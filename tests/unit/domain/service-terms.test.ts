@@ -33,7 +33,13 @@ describe('service vocabularies', () => {
   });
 
   it('includes the leak-check methods technicians use', () => {
-    expect([...LEAK_CHECK_METHOD_IDS]).toEqual(['electronic_detector', 'bubble_solution', 'uv_dye', 'nitrogen_pressure_test', 'vacuum_test']);
+    expect([...LEAK_CHECK_METHOD_IDS]).toEqual([
+      'electronic_detector',
+      'bubble_solution',
+      'uv_dye',
+      'nitrogen_pressure_test',
+      'vacuum_test',
+    ]);
   });
 
   it('finds labels and falls back to the id', () => {

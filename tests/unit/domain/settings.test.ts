@@ -20,7 +20,12 @@ describe('settings defaults', () => {
       watchFrom: 30,
       chronicFrom: 60,
     });
-    expect(DEFAULT_SETTINGS.windows).toEqual({ rollingDays: 365, afterRepairDays: 180, sameSpotDays: 730, repairHoldDays: 180 });
+    expect(DEFAULT_SETTINGS.windows).toEqual({
+      rollingDays: 365,
+      afterRepairDays: 180,
+      sameSpotDays: 730,
+      repairHoldDays: 180,
+    });
   });
 
   it('alert at the 20 % US commercial-refrigeration threshold', () => {
@@ -47,14 +52,24 @@ describe('settings defaults', () => {
       defaultRecurrence: 0.3,
       minRepairsForRate: 5,
     });
-    expect(Object.keys(DEFAULT_SETTINGS.economics.refrigerantPricePerKg)).toEqual(['R-134a', 'R-404A', 'R-452A', 'R-513A', 'R-1234yf', 'R-744']);
+    expect(Object.keys(DEFAULT_SETTINGS.economics.refrigerantPricePerKg)).toEqual([
+      'R-134a',
+      'R-404A',
+      'R-452A',
+      'R-513A',
+      'R-1234yf',
+      'R-744',
+    ]);
     expect(Object.keys(DEFAULT_SETTINGS.economics.repairCostByLocation)).toHaveLength(11);
   });
 });
 
 describe('settings checks', () => {
   it('fills what is not given and keeps what is', () => {
-    const s = settingsSchema.parse({ economics: { refrigerantPricePerKg: { 'R-134a': 99 } }, score: { rateCapPct: 40 } });
+    const s = settingsSchema.parse({
+      economics: { refrigerantPricePerKg: { 'R-134a': 99 } },
+      score: { rateCapPct: 40 },
+    });
     expect(s.economics.refrigerantPricePerKg).toMatchObject({ 'R-134a': 99, 'R-404A': 45 });
     expect(s.score).toMatchObject({ rateCapPct: 40, watchFrom: 30 });
   });
@@ -72,7 +87,16 @@ describe('settings checks', () => {
   });
 
   it('wants custom bands in rising order and band edges in order', () => {
-    expect(settingsSchema.safeParse({ customLeakCheck: { bands: [{ fromTCO2e: 50, months: 6 }, { fromTCO2e: 5, months: 12 }] } }).success).toBe(false);
+    expect(
+      settingsSchema.safeParse({
+        customLeakCheck: {
+          bands: [
+            { fromTCO2e: 50, months: 6 },
+            { fromTCO2e: 5, months: 12 },
+          ],
+        },
+      }).success,
+    ).toBe(false);
     expect(settingsSchema.safeParse({ score: { watchFrom: 70, chronicFrom: 60 } }).success).toBe(false);
     expect(settingsSchema.safeParse({ windows: { afterRepairDays: 400 } }).success).toBe(false);
     expect(settingsSchema.safeParse({ economics: { currency: 'dollars' } }).success).toBe(false);

@@ -31,7 +31,9 @@ export default function MailboxPage() {
             : mailbox.error.message}
         </Alert>
       ) : mailbox.data.length === 0 ? (
-        <EmptyState title="No mail yet">Invite someone from People or ask for a password reset, and the mail appears here.</EmptyState>
+        <EmptyState title="No mail yet">
+          Invite someone from People or ask for a password reset, and the mail appears here.
+        </EmptyState>
       ) : (
         <MailboxView messages={mailbox.data} />
       )}

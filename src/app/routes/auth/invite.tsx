@@ -32,8 +32,8 @@ export default function InvitePage() {
         ) : (
           <>
             <p className="text-ink-700">
-              {link.data.name}, choose a password for <span className="font-semibold">{link.data.email}</span>. You will use
-              it with this e-mail address to sign in. The invitation works once, for {INVITATION_HOURS} hours.
+              {link.data.name}, choose a password for <span className="font-semibold">{link.data.email}</span>. You will
+              use it with this e-mail address to sign in. The invitation works once, for {INVITATION_HOURS} hours.
             </p>
             <SetPasswordForm
               person={{ email: link.data.email, name: link.data.name }}
@@ -41,7 +41,9 @@ export default function InvitePage() {
               pendingLabel="Setting up…"
               pending={complete.isPending}
               error={complete.error}
-              onSubmit={(password) => complete.mutate(password, { onSuccess: () => navigate(paths.home.getHref(), { replace: true }) })}
+              onSubmit={(password) =>
+                complete.mutate(password, { onSuccess: () => navigate(paths.home.getHref(), { replace: true }) })
+              }
             />
           </>
         )}

@@ -31,7 +31,8 @@ export default function ResetPasswordPage() {
         ) : (
           <>
             <p className="text-ink-700">
-              For <span className="font-semibold">{link.data.email}</span>. Saving it signs you out on every other device.
+              For <span className="font-semibold">{link.data.email}</span>. Saving it signs you out on every other
+              device.
             </p>
             <SetPasswordForm
               person={{ email: link.data.email, name: link.data.name }}
@@ -39,7 +40,9 @@ export default function ResetPasswordPage() {
               pendingLabel="Saving…"
               pending={complete.isPending}
               error={complete.error}
-              onSubmit={(password) => complete.mutate(password, { onSuccess: () => navigate(paths.home.getHref(), { replace: true }) })}
+              onSubmit={(password) =>
+                complete.mutate(password, { onSuccess: () => navigate(paths.home.getHref(), { replace: true }) })
+              }
             />
           </>
         )}

@@ -29,7 +29,10 @@ export default function SignInPage() {
         </Alert>
       )}
       <SignInForm onSignedIn={() => navigate(safeNext(next), { replace: true })} />
-      <Link to={paths.forgotPassword.getHref()} className="mt-4 inline-flex min-h-touch items-center font-semibold text-fjord-700 underline underline-offset-4">
+      <Link
+        to={paths.forgotPassword.getHref()}
+        className="mt-4 inline-flex min-h-touch items-center font-semibold text-fjord-700 underline underline-offset-4"
+      >
         Forgot password?
       </Link>
     </AuthLayout>

@@ -28,18 +28,30 @@ export default function UnsubscribePage() {
           </Alert>
         ) : (
           <>
-            <p className="text-ink-700">Stop “{title}” mails for every site you follow? Other kinds of alert stay as they are.</p>
+            <p className="text-ink-700">
+              Stop “{title}” mails for every site you follow? Other kinds of alert stay as they are.
+            </p>
             {unsubscribe.isError && (
               <Alert tone="alarm" title="Nothing was changed">
-                {isApiError(unsubscribe.error) ? unsubscribe.error.message : 'Something unexpected went wrong. Try again.'}
+                {isApiError(unsubscribe.error)
+                  ? unsubscribe.error.message
+                  : 'Something unexpected went wrong. Try again.'}
               </Alert>
             )}
-            <Button size="lg" onClick={() => unsubscribe.mutate(parsed.data)} pending={unsubscribe.isPending} pendingLabel="Stopping…">
+            <Button
+              size="lg"
+              onClick={() => unsubscribe.mutate(parsed.data)}
+              pending={unsubscribe.isPending}
+              pendingLabel="Stopping…"
+            >
               Stop these mails
             </Button>
           </>
         )}
-        <Link to={paths.alertSettings.getHref()} className="min-h-touch self-start py-3 font-semibold text-fjord-700 underline underline-offset-4">
+        <Link
+          to={paths.alertSettings.getHref()}
+          className="min-h-touch self-start py-3 font-semibold text-fjord-700 underline underline-offset-4"
+        >
           Choose sites and alerts in Tightloop
         </Link>
       </div>

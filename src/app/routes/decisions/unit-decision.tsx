@@ -51,18 +51,25 @@ function UnitDecision({ id }: { id: number }) {
   const d = decision.data;
   return (
     <div className="flex flex-col gap-5">
-      <Link to="/decisions" className="self-start text-base font-semibold text-fjord-700 underline-offset-4 hover:underline">
+      <Link
+        to="/decisions"
+        className="self-start text-base font-semibold text-fjord-700 underline-offset-4 hover:underline"
+      >
         ← All candidates
       </Link>
       <PageHeader
         title={<span className="tracking-wide">{fmtContainer(d.unit.containerNumber)}</span>}
         description={
           <>
-            Repair or retire · {d.unit.site?.name ?? 'No site'} · {d.unit.refrigerant}, {d.unit.nominalChargeKg} kg · commissioned {d.unit.commissionedOn ?? 'unknown'}
+            Repair or retire · {d.unit.site?.name ?? 'No site'} · {d.unit.refrigerant}, {d.unit.nominalChargeKg} kg ·
+            commissioned {d.unit.commissionedOn ?? 'unknown'}
           </>
         }
         actions={
-          <Link to={unitHref(d.unit.id)} className="inline-flex min-h-touch items-center font-semibold text-fjord-700 underline-offset-4 hover:underline">
+          <Link
+            to={unitHref(d.unit.id)}
+            className="inline-flex min-h-touch items-center font-semibold text-fjord-700 underline-offset-4 hover:underline"
+          >
             Unit history
           </Link>
         }

@@ -29,9 +29,12 @@ export default function FleetPage() {
   const count = useFleetCount(filters);
   const sites = useSiteOptions();
 
-  const go = (next: Partial<FleetQuery>) => setSearchParams(fleetSearch({ ...q, ...next }), { preventScrollReset: true });
+  const go = (next: Partial<FleetQuery>) =>
+    setSearchParams(fleetSearch({ ...q, ...next }), { preventScrollReset: true });
   const setFilters = (f: FleetFilters) =>
-    setSearchParams(fleetSearch({ ...f, sort: q.sort, dir: q.dir, pageSize: q.pageSize, page: 1 }), { preventScrollReset: true });
+    setSearchParams(fleetSearch({ ...f, sort: q.sort, dir: q.dir, pageSize: q.pageSize, page: 1 }), {
+      preventScrollReset: true,
+    });
 
   return (
     <div className="flex flex-col gap-5">
@@ -62,7 +65,11 @@ export default function FleetPage() {
             ))}
           </select>
         </label>
-        <Button variant="secondary" onClick={() => go({ dir: q.dir === 'asc' ? 'desc' : 'asc', page: 1 })} aria-label={`Order: ${q.dir === 'asc' ? 'ascending' : 'descending'}, change`}>
+        <Button
+          variant="secondary"
+          onClick={() => go({ dir: q.dir === 'asc' ? 'desc' : 'asc', page: 1 })}
+          aria-label={`Order: ${q.dir === 'asc' ? 'ascending' : 'descending'}, change`}
+        >
           <span className="whitespace-nowrap">{q.dir === 'asc' ? '▲ Lowest' : '▼ Highest'}</span>
         </Button>
       </div>
@@ -71,14 +78,30 @@ export default function FleetPage() {
         {fleet.isPending ? (
           <LoadingPanel>Loading the fleet…</LoadingPanel>
         ) : fleet.isError && !fleet.data ? (
-          <LoadError title="The fleet could not be loaded" error={fleet.error} onRetry={() => void fleet.refetch()} retrying={fleet.isFetching} />
+          <LoadError
+            title="The fleet could not be loaded"
+            error={fleet.error}
+            onRetry={() => void fleet.refetch()}
+            retrying={fleet.isFetching}
+          />
         ) : fleet.data.rows.length === 0 ? (
-          <EmptyState icon={<UnitsIcon className="size-10" />} title={Object.keys(filters).length ? 'No unit matches these filters' : 'No units in the fleet yet'}>
-            {Object.keys(filters).length ? 'Loosen a filter or clear them all.' : 'Units appear here once they are registered.'}
+          <EmptyState
+            icon={<UnitsIcon className="size-10" />}
+            title={Object.keys(filters).length ? 'No unit matches these filters' : 'No units in the fleet yet'}
+          >
+            {Object.keys(filters).length
+              ? 'Loosen a filter or clear them all.'
+              : 'Units appear here once they are registered.'}
           </EmptyState>
         ) : (
           <>
-            <FleetTable rows={fleet.data.rows} sort={q.sort} dir={q.dir} busy={fleet.isPlaceholderData} onSort={(sort, dir) => go({ sort, dir, page: 1 })} />
+            <FleetTable
+              rows={fleet.data.rows}
+              sort={q.sort}
+              dir={q.dir}
+              busy={fleet.isPlaceholderData}
+              onSort={(sort, dir) => go({ sort, dir, page: 1 })}
+            />
             <Pager
               page={q.page}
               pageSize={q.pageSize}

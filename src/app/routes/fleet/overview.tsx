@@ -1,7 +1,11 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { LEAK_LOCATIONS, REFRIGERANT_CODES, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
-import { fleetOverviewQuerySchema, type FleetOverviewDto, type FleetOverviewQuery } from '../../../../shared/schemas/fleet';
+import {
+  fleetOverviewQuerySchema,
+  type FleetOverviewDto,
+  type FleetOverviewQuery,
+} from '../../../../shared/schemas/fleet';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetOverviewQuery, useFleetOverview } from '../../../features/fleet/api/get-overview';
@@ -33,7 +37,8 @@ export default function FleetOverviewPage() {
   const q = readQuery(sp);
   const overview = useFleetOverview(q);
   const sites = useSiteOptions();
-  const set = (patch: Partial<FleetOverviewQuery>) => setSp(toSearch({ ...q, ...patch }, { months: 12 }), { preventScrollReset: true });
+  const set = (patch: Partial<FleetOverviewQuery>) =>
+    setSp(toSearch({ ...q, ...patch }, { months: 12 }), { preventScrollReset: true });
 
   return (
     <div className="flex flex-col gap-5">
@@ -52,7 +57,11 @@ export default function FleetOverviewPage() {
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
           Site
-          <select className={select} value={q.siteId ?? ''} onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}>
+          <select
+            className={select}
+            value={q.siteId ?? ''}
+            onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
+          >
             <option value="">All sites</option>
             {(sites.data ?? []).map((s) => (
               <option key={s.id} value={s.id}>
@@ -63,7 +72,11 @@ export default function FleetOverviewPage() {
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
           Refrigerant
-          <select className={select} value={q.refrigerant ?? ''} onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}>
+          <select
+            className={select}
+            value={q.refrigerant ?? ''}
+            onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}
+          >
             <option value="">All refrigerants</option>
             {REFRIGERANT_CODES.map((r) => (
               <option key={r}>{r}</option>
@@ -74,9 +87,15 @@ export default function FleetOverviewPage() {
       {overview.isPending ? (
         <LoadingPanel>Loading the overview…</LoadingPanel>
       ) : overview.isError && !overview.data ? (
-        <LoadError title="The overview could not be loaded" error={overview.error} onRetry={() => void overview.refetch()} />
+        <LoadError
+          title="The overview could not be loaded"
+          error={overview.error}
+          onRetry={() => void overview.refetch()}
+        />
       ) : overview.data.units === 0 ? (
-        <EmptyState title="No units to show">There are no units here yet, or none match the site and refrigerant chosen.</EmptyState>
+        <EmptyState title="No units to show">
+          There are no units here yet, or none match the site and refrigerant chosen.
+        </EmptyState>
       ) : (
         <OverviewBody o={overview.data} busy={overview.isPlaceholderData} />
       )}
@@ -93,8 +112,8 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Leak-rate distribution
           </h2>
           <p className="mt-1 text-base text-ink-700">
-            {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in the last 365 days and are not drawn. Bars at or above the
-            alert threshold are red.
+            {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in
+            the last 365 days and are not drawn. Bars at or above the alert threshold are red.
           </p>
           <p className="mt-1 text-sm text-ink-600">
             The distribution, repeat leakers and checks due are read at most every 15 seconds; these are from{' '}
@@ -109,8 +128,12 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Leak checks due
           </h2>
           <p className="mt-1 text-base text-ink-700">
-            <strong>{o.leakChecksDue.count.toLocaleString('en-GB')}</strong> due in the next {o.leakChecksDue.days} days;{' '}
-            <strong className={o.leakChecksDue.overdue ? 'text-alarm-700' : undefined}>{o.leakChecksDue.overdue.toLocaleString('en-GB')}</strong> overdue.
+            <strong>{o.leakChecksDue.count.toLocaleString('en-GB')}</strong> due in the next {o.leakChecksDue.days}{' '}
+            days;{' '}
+            <strong className={o.leakChecksDue.overdue ? 'text-alarm-700' : undefined}>
+              {o.leakChecksDue.overdue.toLocaleString('en-GB')}
+            </strong>{' '}
+            overdue.
           </p>
           {o.leakChecksDue.units.length === 0 ? (
             <p className="mt-4 text-base text-ink-600">Nothing due in the next {o.leakChecksDue.days} days.</p>
@@ -118,7 +141,10 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             <ul className="mt-3 divide-y divide-ink-100">
               {o.leakChecksDue.units.map((u) => (
                 <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
-                  <Link to={unitHref(u.unitId)} className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline">
+                  <Link
+                    to={unitHref(u.unitId)}
+                    className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
+                  >
                     {fmtContainer(u.containerNumber)}
                   </Link>
                   <span className="min-w-0 flex-1 truncate text-sm text-ink-600">{u.site ?? 'No site'}</span>
@@ -133,7 +159,9 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
         <h2 id="ov-emissions" className="text-xl font-bold">
           Refrigerant made up per month
         </h2>
-        <p className="mt-1 text-base text-ink-700">Top-ups plus recharges beyond what was recovered in the same visit: what leaked out. An estimate of emissions.</p>
+        <p className="mt-1 text-base text-ink-700">
+          Top-ups plus recharges beyond what was recovered in the same visit: what leaked out. An estimate of emissions.
+        </p>
         <div className="mt-3">
           <EmissionsChart data={o.emissions} />
         </div>
@@ -151,7 +179,10 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
               {o.chronicLeakers.map((c) => (
                 <li key={c.unitId} className="rounded-md border-2 border-ink-100 p-3">
                   <div className="flex flex-wrap items-center justify-between gap-2">
-                    <Link to={unitHref(c.unitId)} className="font-bold text-fjord-700 underline-offset-4 hover:underline">
+                    <Link
+                      to={unitHref(c.unitId)}
+                      className="font-bold text-fjord-700 underline-offset-4 hover:underline"
+                    >
                       {fmtContainer(c.containerNumber)}
                     </Link>
                     <ScoreBadge score={c.score} band={c.scoreBand} />
@@ -179,10 +210,13 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Repair effectiveness
           </h2>
           <p className="mt-1 text-base text-ink-700">
-            Share of repairs with no top-up and no leak found for {o.repairEffectiveness.holdDays} days after. Fewer than {o.repairEffectiveness.minRepairs} repairs is too few to give a share.
+            Share of repairs with no top-up and no leak found for {o.repairEffectiveness.holdDays} days after. Fewer
+            than {o.repairEffectiveness.minRepairs} repairs is too few to give a share.
           </p>
           {o.repairEffectiveness.rows.filter((r) => r.action).length === 0 ? (
-            <p className="mt-4 text-base text-ink-600">{o.repairEffectiveness.computedAt ? 'No repair has been judged yet.' : 'Not worked out yet.'}</p>
+            <p className="mt-4 text-base text-ink-600">
+              {o.repairEffectiveness.computedAt ? 'No repair has been judged yet.' : 'Not worked out yet.'}
+            </p>
           ) : (
             <div className="mt-3 overflow-x-auto">
               <table className="w-full text-left text-base">
@@ -199,8 +233,13 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
                     .map((r) => (
                       <tr key={`${r.location}|${r.action}`} className="border-t border-ink-100">
                         <td className="py-2 pr-3">
-                          {termLabel(LEAK_LOCATIONS, r.location)} · <span className="text-ink-700">{termLabel(REPAIR_ACTIONS, r.action ?? '').toLowerCase()}</span>
-                          {r.pending > 0 && <span className="block text-sm text-ink-600">{r.pending} too recent to judge</span>}
+                          {termLabel(LEAK_LOCATIONS, r.location)} ·{' '}
+                          <span className="text-ink-700">
+                            {termLabel(REPAIR_ACTIONS, r.action ?? '').toLowerCase()}
+                          </span>
+                          {r.pending > 0 && (
+                            <span className="block text-sm text-ink-600">{r.pending} too recent to judge</span>
+                          )}
                         </td>
                         <td className="py-2 pr-3 text-right tabular-nums">{r.repairs}</td>
                         <td className="py-2 text-right">

@@ -18,7 +18,10 @@ function readTrace(sp: URLSearchParams): { query: TraceQuery | null; errors: Rec
   if (![...sp.keys()].length) return { query: null, errors: {} };
   const parsed = traceQuerySchema.safeParse(Object.fromEntries(sp.entries()));
   if (parsed.success) return { query: parsed.data, errors: {} };
-  return { query: null, errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'cylinder'), i.message])) };
+  return {
+    query: null,
+    errors: Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'cylinder'), i.message])),
+  };
 }
 
 export default function TracePage() {
@@ -30,12 +33,19 @@ export default function TracePage() {
 
   const submit = (form: FormData) => {
     const v = Object.fromEntries(form.entries()) as Record<string, string>;
-    setSp(mode === 'cylinder' ? toSearch({ cylinder: v.cylinder?.trim() }) : toSearch({ siteId: v.siteId, from: v.from, to: v.to }));
+    setSp(
+      mode === 'cylinder'
+        ? toSearch({ cylinder: v.cylinder?.trim() })
+        : toSearch({ siteId: v.siteId, from: v.from, to: v.to }),
+    );
   };
 
   return (
     <div className="flex flex-col gap-5">
-      <PageHeader title="Cylinder trace" description="Every unit charged from a cylinder or lot, or at a site in a date range — for quarantine when refrigerant is suspect." />
+      <PageHeader
+        title="Cylinder trace"
+        description="Every unit charged from a cylinder or lot, or at a site in a date range — for quarantine when refrigerant is suspect."
+      />
       <FleetTabs />
       <Panel aria-labelledby="trace-search">
         <h2 id="trace-search" className="sr-only">
@@ -44,8 +54,17 @@ export default function TracePage() {
         <fieldset className="mb-4 flex gap-2">
           <legend className="mb-2 text-base font-semibold">Search by</legend>
           {(['cylinder', 'site'] as const).map((m) => (
-            <label key={m} className="flex min-h-touch cursor-pointer items-center gap-2 rounded-md border-2 border-ink-300 px-4 has-checked:border-fjord-700 has-checked:bg-fjord-50">
-              <input type="radio" name="mode" className="size-5 accent-fjord-700" checked={mode === m} onChange={() => setMode(m)} />
+            <label
+              key={m}
+              className="flex min-h-touch cursor-pointer items-center gap-2 rounded-md border-2 border-ink-300 px-4 has-checked:border-fjord-700 has-checked:bg-fjord-50"
+            >
+              <input
+                type="radio"
+                name="mode"
+                className="size-5 accent-fjord-700"
+                checked={mode === m}
+                onChange={() => setMode(m)}
+              />
               {m === 'cylinder' ? 'Cylinder or lot' : 'Site and dates'}
             </label>
           ))}
@@ -78,7 +97,13 @@ export default function TracePage() {
                   </option>
                 ))}
               </SelectField>
-              <TextField name="from" type="date" label="First day" defaultValue={sp.get('from') ?? ''} error={errors.from} />
+              <TextField
+                name="from"
+                type="date"
+                label="First day"
+                defaultValue={sp.get('from') ?? ''}
+                error={errors.from}
+              />
               <TextField name="to" type="date" label="Last day" defaultValue={sp.get('to') ?? ''} error={errors.to} />
             </>
           )}
@@ -89,7 +114,11 @@ export default function TracePage() {
       </Panel>
 
       {query === null ? (
-        Object.keys(errors).length === 0 && <EmptyState title="Search to see the units charged">Results list every top-up and recharge that matches, newest first.</EmptyState>
+        Object.keys(errors).length === 0 && (
+          <EmptyState title="Search to see the units charged">
+            Results list every top-up and recharge that matches, newest first.
+          </EmptyState>
+        )
       ) : trace.isPending ? (
         <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
           <Spinner /> Searching…
@@ -99,7 +128,9 @@ export default function TracePage() {
           {trace.error.message}
         </Alert>
       ) : trace.data.totalCharges === 0 ? (
-        <EmptyState title="No unit was charged in this search">{trace.data.voidedExcluded > 0 && `${trace.data.voidedExcluded} voided charge(s) matched and are left out.`}</EmptyState>
+        <EmptyState title="No unit was charged in this search">
+          {trace.data.voidedExcluded > 0 && `${trace.data.voidedExcluded} voided charge(s) matched and are left out.`}
+        </EmptyState>
       ) : (
         <TraceResults query={query} data={trace.data} />
       )}
@@ -121,7 +152,8 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
             {data.units.length.toLocaleString('en-GB')} unit{data.units.length === 1 ? '' : 's'} charged
           </h2>
           <p className="text-base text-ink-700">
-            {data.totalCharges.toLocaleString('en-GB')} charge(s), {fmtKg(data.totalKg)} in all. Voided charges are left out
+            {data.totalCharges.toLocaleString('en-GB')} charge(s), {fmtKg(data.totalKg)} in all. Voided charges are left
+            out
             {data.voidedExcluded ? ` (${data.voidedExcluded} matched)` : ''}.
           </p>
         </div>
@@ -134,11 +166,14 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
         <Panel as="div" className="border-heed-800">
           {mark.isSuccess ? (
             <Alert tone="okay" title={`${mark.data.marked} unit(s) marked for inspection`}>
-              Each unit's history now has a note saying why. {mark.data.replayed && 'They had already been marked by this request.'}
+              Each unit's history now has a note saying why.{' '}
+              {mark.data.replayed && 'They had already been marked by this request.'}
             </Alert>
           ) : !confirming ? (
             <div className="flex flex-wrap items-center justify-between gap-3">
-              <p className="text-base">Quarantine these units: a note on each says it is marked for inspection, and why.</p>
+              <p className="text-base">
+                Quarantine these units: a note on each says it is marked for inspection, and why.
+              </p>
               <Button variant="danger" onClick={() => setConfirming(true)}>
                 Mark {data.units.length} for inspection
               </Button>
@@ -151,7 +186,16 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
                 mark.mutate({ query, reason, idempotencyKey: key });
               }}
             >
-              <TextField label="Reason" value={reason} onChange={(e) => setReason(e.target.value)} hint="Shown in every unit's history, e.g. 'Supplier recalled lot 77'." error={fields?.reason} required minLength={3} maxLength={500} />
+              <TextField
+                label="Reason"
+                value={reason}
+                onChange={(e) => setReason(e.target.value)}
+                hint="Shown in every unit's history, e.g. 'Supplier recalled lot 77'."
+                error={fields?.reason}
+                required
+                minLength={3}
+                maxLength={500}
+              />
               {mark.isError && !fields?.reason && <Alert tone="alarm">{mark.error.message}</Alert>}
               <div className="flex gap-3">
                 <Button type="submit" variant="danger" pending={mark.isPending} pendingLabel="Marking…">
@@ -173,14 +217,24 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
           </h3>
           <ul className="mt-2 grid gap-x-6 sm:grid-cols-2 lg:grid-cols-3">
             {data.units.map((u) => (
-              <li key={u.unitId} className="flex min-h-touch flex-wrap items-center justify-between gap-2 border-b border-ink-100 py-1">
-                <Link to={unitHref(u.unitId)} className="font-semibold text-fjord-700 underline-offset-4 hover:underline">
+              <li
+                key={u.unitId}
+                className="flex min-h-touch flex-wrap items-center justify-between gap-2 border-b border-ink-100 py-1"
+              >
+                <Link
+                  to={unitHref(u.unitId)}
+                  className="font-semibold text-fjord-700 underline-offset-4 hover:underline"
+                >
                   {fmtContainer(u.containerNumber)}
                 </Link>
                 <span className="text-sm text-ink-700 tabular-nums">
                   {u.charges} × · {fmtKg(u.kg)}
                 </span>
-                {u.markedAt && <span className="w-full text-sm font-semibold text-heed-800">Marked for inspection {fmtDay(u.markedAt)}</span>}
+                {u.markedAt && (
+                  <span className="w-full text-sm font-semibold text-heed-800">
+                    Marked for inspection {fmtDay(u.markedAt)}
+                  </span>
+                )}
               </li>
             ))}
           </ul>

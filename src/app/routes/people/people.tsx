@@ -93,7 +93,12 @@ export default function PeoplePage() {
         ) : users.isError && !users.data ? (
           <Alert tone="alarm" title="The list of people could not be loaded">
             <p>{users.error.message}</p>
-            <Button variant="secondary" className="mt-3" onClick={() => void users.refetch()} pending={users.isFetching}>
+            <Button
+              variant="secondary"
+              className="mt-3"
+              onClick={() => void users.refetch()}
+              pending={users.isFetching}
+            >
               Try again
             </Button>
           </Alert>

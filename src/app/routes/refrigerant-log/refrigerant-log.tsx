@@ -1,6 +1,10 @@
 import { Link, useSearchParams } from 'react-router-dom';
 import { LEAK_CHECK_METHODS, LEAK_LOCATIONS, REFRIGERANT_CODES, termLabel } from '../../../../shared/domain';
-import { refrigerantLogQuerySchema, type RefrigerantLogEntryDto, type RefrigerantLogQuery } from '../../../../shared/schemas/refrigerant-log';
+import {
+  refrigerantLogQuerySchema,
+  type RefrigerantLogEntryDto,
+  type RefrigerantLogQuery,
+} from '../../../../shared/schemas/refrigerant-log';
 import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
@@ -14,11 +18,22 @@ import { PERIOD_LABELS, PERIODS, periodRange, type Period } from '../../../featu
 const KIND_LABELS = { top_up: 'Top-up', recharge: 'Recharge', recovery: 'Recovery', leak_check: 'Leak check' } as const;
 const select = 'min-h-touch w-full rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
 
-function readLog(sp: URLSearchParams): { period: Period; q: Omit<RefrigerantLogQuery, 'before'>; error: string | null } {
-  const period = (PERIODS as readonly string[]).includes(sp.get('period') ?? '') ? (sp.get('period') as Period) : 'this_month';
+function readLog(sp: URLSearchParams): {
+  period: Period;
+  q: Omit<RefrigerantLogQuery, 'before'>;
+  error: string | null;
+} {
+  const period = (PERIODS as readonly string[]).includes(sp.get('period') ?? '')
+    ? (sp.get('period') as Period)
+    : 'this_month';
   const range = period === 'custom' ? { from: sp.get('from') ?? '', to: sp.get('to') ?? '' } : periodRange(period);
-  const parsed = refrigerantLogQuerySchema.safeParse({ ...range, siteId: sp.get('siteId') || undefined, refrigerant: sp.get('refrigerant') || undefined });
-  if (parsed.success) return { period, q: { ...parsed.data, before: undefined } as Omit<RefrigerantLogQuery, 'before'>, error: null };
+  const parsed = refrigerantLogQuerySchema.safeParse({
+    ...range,
+    siteId: sp.get('siteId') || undefined,
+    refrigerant: sp.get('refrigerant') || undefined,
+  });
+  if (parsed.success)
+    return { period, q: { ...parsed.data, before: undefined } as Omit<RefrigerantLogQuery, 'before'>, error: null };
   return { period, q: { ...periodRange('this_month') }, error: parsed.error.issues[0]?.message ?? 'Check the period' };
 }
 
@@ -28,8 +43,17 @@ export default function RefrigerantLogPage() {
   const log = useRefrigerantLog(q);
   const sites = useSiteOptions();
   const set = (patch: Record<string, string | undefined>) => {
-    const next = { period, from: sp.get('from') ?? q.from, to: sp.get('to') ?? q.to, siteId: q.siteId, refrigerant: q.refrigerant, ...patch };
-    setSp(toSearch(next.period === 'custom' ? next : { ...next, from: undefined, to: undefined }), { preventScrollReset: true });
+    const next = {
+      period,
+      from: sp.get('from') ?? q.from,
+      to: sp.get('to') ?? q.to,
+      siteId: q.siteId,
+      refrigerant: q.refrigerant,
+      ...patch,
+    };
+    setSp(toSearch(next.period === 'custom' ? next : { ...next, from: undefined, to: undefined }), {
+      preventScrollReset: true,
+    });
   };
   const first = log.data?.pages[0];
   const entries = log.data?.pages.flatMap((p) => p.entries) ?? [];
@@ -61,17 +85,31 @@ export default function RefrigerantLogPage() {
             <>
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 First day
-                <input type="date" className={select} value={sp.get('from') ?? q.from} onChange={(e) => set({ from: e.target.value })} />
+                <input
+                  type="date"
+                  className={select}
+                  value={sp.get('from') ?? q.from}
+                  onChange={(e) => set({ from: e.target.value })}
+                />
               </label>
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 Last day
-                <input type="date" className={select} value={sp.get('to') ?? q.to} onChange={(e) => set({ to: e.target.value })} />
+                <input
+                  type="date"
+                  className={select}
+                  value={sp.get('to') ?? q.to}
+                  onChange={(e) => set({ to: e.target.value })}
+                />
               </label>
             </>
           )}
           <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
             Site
-            <select className={select} value={q.siteId ?? ''} onChange={(e) => set({ siteId: e.target.value || undefined })}>
+            <select
+              className={select}
+              value={q.siteId ?? ''}
+              onChange={(e) => set({ siteId: e.target.value || undefined })}
+            >
               <option value="">All sites</option>
               {(sites.data ?? []).map((s) => (
                 <option key={s.id} value={s.id}>
@@ -82,7 +120,11 @@ export default function RefrigerantLogPage() {
           </label>
           <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
             Refrigerant
-            <select className={select} value={q.refrigerant ?? ''} onChange={(e) => set({ refrigerant: e.target.value || undefined })}>
+            <select
+              className={select}
+              value={q.refrigerant ?? ''}
+              onChange={(e) => set({ refrigerant: e.target.value || undefined })}
+            >
               <option value="">All refrigerants</option>
               {REFRIGERANT_CODES.map((r) => (
                 <option key={r}>{r}</option>
@@ -91,7 +133,9 @@ export default function RefrigerantLogPage() {
           </label>
         </div>
         <p className="mt-3 text-base text-ink-700">
-          {q.from} to {q.to} (UTC days). Voided entries are left out{first && first.voidedExcluded > 0 ? `: ${first.voidedExcluded} in this period` : ''}. CO2e uses GWP {first?.gwpBasis ?? 'AR4'}.
+          {q.from} to {q.to} (UTC days). Voided entries are left out
+          {first && first.voidedExcluded > 0 ? `: ${first.voidedExcluded} in this period` : ''}. CO2e uses GWP{' '}
+          {first?.gwpBasis ?? 'AR4'}.
         </p>
         {error && (
           <Alert tone="heed" className="mt-3">
@@ -108,7 +152,9 @@ export default function RefrigerantLogPage() {
         <>
           <Totals totals={first?.totals ?? []} />
           {entries.length === 0 ? (
-            <EmptyState title="Nothing recorded in this period">No refrigerant was added or recovered and no leak check was recorded here.</EmptyState>
+            <EmptyState title="Nothing recorded in this period">
+              No refrigerant was added or recovered and no leak check was recorded here.
+            </EmptyState>
           ) : (
             <section aria-label="Entries" className={log.isPlaceholderData ? 'opacity-70' : undefined}>
               <ul className="flex flex-col gap-2 md:hidden">
@@ -120,7 +166,16 @@ export default function RefrigerantLogPage() {
                 <table className="w-full text-left text-sm" aria-label="Refrigerant log entries">
                   <thead className="bg-ink-50 text-sm text-ink-700">
                     <tr>
-                      {['Date', 'Entry', 'Unit', 'kg', 't CO2e', 'Cylinder / result', 'Site', 'Technician · certificate'].map((h) => (
+                      {[
+                        'Date',
+                        'Entry',
+                        'Unit',
+                        'kg',
+                        't CO2e',
+                        'Cylinder / result',
+                        'Site',
+                        'Technician · certificate',
+                      ].map((h) => (
                         <th key={h} className="border-b-2 border-ink-200 px-3 py-2">
                           {h}
                         </th>
@@ -133,7 +188,10 @@ export default function RefrigerantLogPage() {
                         <td className="px-3 py-2 whitespace-nowrap tabular-nums">{e.occurredAt.slice(0, 10)}</td>
                         <td className="px-3 py-2 whitespace-nowrap">{KIND_LABELS[e.kind]}</td>
                         <td className="px-3 py-2 whitespace-nowrap">
-                          <Link to={unitHref(e.unit.id)} className="font-semibold text-fjord-700 underline-offset-4 hover:underline">
+                          <Link
+                            to={unitHref(e.unit.id)}
+                            className="font-semibold text-fjord-700 underline-offset-4 hover:underline"
+                          >
                             {fmtContainer(e.unit.containerNumber)}
                           </Link>
                           <span className="block text-sm text-ink-600">{e.refrigerant}</span>
@@ -144,7 +202,11 @@ export default function RefrigerantLogPage() {
                         <td className="px-3 py-2">{e.site?.name ?? '—'}</td>
                         <td className="px-3 py-2">
                           {e.technician.name}
-                          <span className="block tabular-nums text-ink-600">{e.technician.certificateNumber ?? <span className="text-alarm-700">no certificate on file</span>}</span>
+                          <span className="block tabular-nums text-ink-600">
+                            {e.technician.certificateNumber ?? (
+                              <span className="text-alarm-700">no certificate on file</span>
+                            )}
+                          </span>
                         </td>
                       </tr>
                     ))}
@@ -152,7 +214,12 @@ export default function RefrigerantLogPage() {
                 </table>
               </div>
               {log.hasNextPage && (
-                <Button variant="secondary" className="mt-3" onClick={() => void log.fetchNextPage()} pending={log.isFetchingNextPage}>
+                <Button
+                  variant="secondary"
+                  className="mt-3"
+                  onClick={() => void log.fetchNextPage()}
+                  pending={log.isFetchingNextPage}
+                >
                   Show more
                 </Button>
               )}
@@ -169,7 +236,10 @@ function detailOf(e: RefrigerantLogEntryDto): string {
     const how = e.method ? termLabel(LEAK_CHECK_METHODS, e.method) : '';
     return `${how}: ${e.leakFound ? `leak at ${e.location ? termLabel(LEAK_LOCATIONS, e.location).toLowerCase() : 'unknown location'}` : 'no leak'}`;
   }
-  const extras = [e.reusedRecovered ? 'recycled/reclaimed gas' : null, e.excludedFromLeakRate ? 'first fill or retrofit' : null].filter(Boolean);
+  const extras = [
+    e.reusedRecovered ? 'recycled/reclaimed gas' : null,
+    e.excludedFromLeakRate ? 'first fill or retrofit' : null,
+  ].filter(Boolean);
   return [e.cylinder, ...extras].filter(Boolean).join(' · ');
 }
 
@@ -197,7 +267,11 @@ function EntryCard({ e }: { e: RefrigerantLogEntryDto }) {
   );
 }
 
-function Totals({ totals }: { totals: NonNullable<ReturnType<typeof useRefrigerantLog>['data']>['pages'][number]['totals'] }) {
+function Totals({
+  totals,
+}: {
+  totals: NonNullable<ReturnType<typeof useRefrigerantLog>['data']>['pages'][number]['totals'];
+}) {
   if (!totals.length) return null;
   return (
     <Panel aria-labelledby="log-totals">
@@ -221,7 +295,10 @@ function Totals({ totals }: { totals: NonNullable<ReturnType<typeof useRefrigera
                 <td className="py-2 pr-3 text-right tabular-nums">
                   {fmtKg(t.addedKg)}
                   <span className="block text-sm text-ink-600">
-                    {t.addedCo2eTonnes === null ? 'CO2e cannot be computed' : `${fmtNumber(t.addedCo2eTonnes, 2)} t CO2e`} · {t.additions}×
+                    {t.addedCo2eTonnes === null
+                      ? 'CO2e cannot be computed'
+                      : `${fmtNumber(t.addedCo2eTonnes, 2)} t CO2e`}{' '}
+                    · {t.additions}×
                   </span>
                 </td>
                 <td className="py-2 pr-3 text-right tabular-nums">

@@ -31,7 +31,9 @@ export default function AlertSettingsPage() {
           </Button>
         </Alert>
       ) : subs.data.sites.length === 0 ? (
-        <EmptyState title="No sites yet">Alerts follow sites. Once sites are registered, they are listed here.</EmptyState>
+        <EmptyState title="No sites yet">
+          Alerts follow sites. Once sites are registered, they are listed here.
+        </EmptyState>
       ) : (
         <SubscriptionsForm data={subs.data} />
       )}

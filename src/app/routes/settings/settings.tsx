@@ -1,5 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { SETTINGS_SECTION_LABELS, SETTINGS_SECTION_PERMISSION, SETTINGS_SECTIONS } from '../../../../shared/schemas/settings-api';
+import {
+  SETTINGS_SECTION_LABELS,
+  SETTINGS_SECTION_PERMISSION,
+  SETTINGS_SECTIONS,
+} from '../../../../shared/schemas/settings-api';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
@@ -21,7 +25,10 @@ export default function SettingsPage() {
   const history = useSettingsHistory();
   return (
     <div className="flex flex-col gap-5">
-      <PageHeader title="Settings" description="Leak-check policy, thresholds, PTI validity and the prices behind repair-or-retire. A change applies to every unit." />
+      <PageHeader
+        title="Settings"
+        description="Leak-check policy, thresholds, PTI validity and the prices behind repair-or-retire. A change applies to every unit."
+      />
       {settings.isPending ? (
         <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700">
           <Spinner /> Loading the settings…
@@ -43,21 +50,33 @@ export default function SettingsPage() {
           <RecomputeProgress key={settings.data.recompute?.id ?? 0} job={settings.data.recompute} />
           <nav aria-label="Sections" className="flex flex-wrap gap-2">
             {SETTINGS_SECTIONS.filter((s) => !settings.data.hiddenSections.includes(s)).map((s) => (
-              <a key={s} href={`#settings-${s}`} className="rounded-full border-2 border-ink-300 bg-white px-3 py-1.5 text-sm font-semibold text-ink-800 hover:border-fjord-700">
+              <a
+                key={s}
+                href={`#settings-${s}`}
+                className="rounded-full border-2 border-ink-300 bg-white px-3 py-1.5 text-sm font-semibold text-ink-800 hover:border-fjord-700"
+              >
                 {SETTINGS_SECTION_LABELS[s]}
               </a>
             ))}
           </nav>
           {SETTINGS_SECTIONS.filter((s) => !settings.data.hiddenSections.includes(s)).map((s) => (
-            <SettingsSectionForm key={`${s}-${settings.data.version}`} section={s} dto={settings.data} canEdit={can(user, SETTINGS_SECTION_PERMISSION[s])} />
+            <SettingsSectionForm
+              key={`${s}-${settings.data.version}`}
+              section={s}
+              dto={settings.data}
+              canEdit={can(user, SETTINGS_SECTION_PERMISSION[s])}
+            />
           ))}
           {history.data && history.data.versions.length > 0 && (
             <details className="rounded-lg border-2 border-ink-200 bg-white p-4">
-              <summary className="min-h-touch cursor-pointer font-semibold">Change history ({history.data.versions.length})</summary>
+              <summary className="min-h-touch cursor-pointer font-semibold">
+                Change history ({history.data.versions.length})
+              </summary>
               <ul className="mt-2 divide-y divide-ink-100 text-sm">
                 {history.data.versions.map((v) => (
                   <li key={v.version} className="py-2">
-                    Version {v.version} · {new Date(v.updatedAt).toLocaleString('en-GB')} · {v.updatedBy.name} · {v.sections.map((s) => SETTINGS_SECTION_LABELS[s]).join(', ')}
+                    Version {v.version} · {new Date(v.updatedAt).toLocaleString('en-GB')} · {v.updatedBy.name} ·{' '}
+                    {v.sections.map((s) => SETTINGS_SECTION_LABELS[s]).join(', ')}
                   </li>
                 ))}
               </ul>

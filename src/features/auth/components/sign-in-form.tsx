@@ -114,9 +114,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
       <Button type="submit" size="lg" pending={signIn.isPending} pendingLabel="Signing in…" className="mt-1 w-full">
         Sign in
       </Button>
-      <p className="text-sm text-ink-600">
-        No account yet? Ask an administrator of your organisation.
-      </p>
+      <p className="text-sm text-ink-600">No account yet? Ask an administrator of your organisation.</p>
     </form>
   );
 }

@@ -6,7 +6,10 @@ import { decisionKeys } from './keys';
 export function candidatesQuery(siteId?: number) {
   return queryOptions({
     queryKey: decisionKeys.candidates(siteId),
-    queryFn: ({ signal }) => apiClient.get<RetirementCandidatesDto>(`/api/decisions/candidates${siteId ? `?siteId=${siteId}` : ''}`, { signal }),
+    queryFn: ({ signal }) =>
+      apiClient.get<RetirementCandidatesDto>(`/api/decisions/candidates${siteId ? `?siteId=${siteId}` : ''}`, {
+        signal,
+      }),
   });
 }
 

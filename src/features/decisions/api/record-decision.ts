@@ -6,7 +6,8 @@ import { decisionKeys } from './keys';
 export function useRecordDecision(unitId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: RecordDecisionBody) => apiClient.post<{ decision: DecisionRecordDto; replayed: boolean }>(`/api/decisions/units/${unitId}`, body),
+    mutationFn: (body: RecordDecisionBody) =>
+      apiClient.post<{ decision: DecisionRecordDto; replayed: boolean }>(`/api/decisions/units/${unitId}`, body),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: decisionKeys.unit(unitId) }),
   });
 }

@@ -123,7 +123,11 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
             {fmtMoney(keep.eac - cheapest.eac, c)} a year less than keeping on topping up ({fmtMoney(keep.eac, c)}).
           </p>
         )}
-        {!live && <p className="mt-1 text-sm font-semibold text-alarm-700">Some assumptions are not valid; the figures shown use the saved settings until they are.</p>}
+        {!live && (
+          <p className="mt-1 text-sm font-semibold text-alarm-700">
+            Some assumptions are not valid; the figures shown use the saved settings until they are.
+          </p>
+        )}
       </section>
 
       <OptionsGrid result={result} />
@@ -133,12 +137,23 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
           <h2 id="assumptions" className="text-xl font-bold">
             Assumptions
           </h2>
-          <p className="mt-1 text-base text-ink-700">Change any of them: the options above follow at once. The settings are not changed.</p>
+          <p className="mt-1 text-base text-ink-700">
+            Change any of them: the options above follow at once. The settings are not changed.
+          </p>
           <fieldset className="mt-4">
             <legend className="mb-2 text-base font-bold">This unit</legend>
             <div className="grid gap-3 sm:grid-cols-3">
-              {field('inputs.topUpIntervalDays', 'Days between top-ups', { nullable: true, hint: data.sources.interval === 'forecast' ? 'The forecast’s median: from the last top-up to its median next date' : 'No leak evidence: leave empty' })}
-              {field('inputs.madeUpKgPerVisit', 'kg per top-up', { nullable: true, hint: data.sources.interval === 'forecast' ? 'Typical made-up kg of its recent top-ups' : undefined })}
+              {field('inputs.topUpIntervalDays', 'Days between top-ups', {
+                nullable: true,
+                hint:
+                  data.sources.interval === 'forecast'
+                    ? 'The forecast’s median: from the last top-up to its median next date'
+                    : 'No leak evidence: leave empty',
+              })}
+              {field('inputs.madeUpKgPerVisit', 'kg per top-up', {
+                nullable: true,
+                hint: data.sources.interval === 'forecast' ? 'Typical made-up kg of its recent top-ups' : undefined,
+              })}
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 Leak to repair
                 <select className={cx(input, 'border-ink-400')} {...form.register('inputs.leakLocation')}>
@@ -149,7 +164,14 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
                   ))}
                 </select>
                 <span className="text-xs font-normal text-ink-600">
-                  {{ open_leak: 'The open leak', last_leak_found: 'Where the last leak was found', last_repair: 'Where it was last repaired', none: 'No leak location recorded' }[data.sources.leakLocation]}
+                  {
+                    {
+                      open_leak: 'The open leak',
+                      last_leak_found: 'Where the last leak was found',
+                      last_repair: 'Where it was last repaired',
+                      none: 'No leak location recorded',
+                    }[data.sources.leakLocation]
+                  }
                 </span>
               </label>
             </div>
@@ -160,7 +182,10 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
               {field(`economics.refrigerantPricePerKg.${code}`, `${data.unit.refrigerant} per kg`)}
               {field('economics.labourPerVisit', 'Labour per visit')}
               {field('economics.downtimePerVisit', 'Downtime per visit')}
-              {field(`economics.repairCostByLocation.${location}`, `Repair at ${termLabel(LEAK_LOCATIONS, location).toLowerCase()}`)}
+              {field(
+                `economics.repairCostByLocation.${location}`,
+                `Repair at ${termLabel(LEAK_LOCATIONS, location).toLowerCase()}`,
+              )}
               {field('economics.machineryCost', 'New machinery')}
               {field('economics.newUnitCost', 'New unit')}
               {field('economics.residualValue', 'Residual value now')}
@@ -171,15 +196,25 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
             <div className="grid gap-3 sm:grid-cols-3">
               {field('economics.discountRatePct', 'Discount rate (%)')}
               {field('economics.designLifeYears', 'Design life (years)', { step: '1' })}
-              {field('economics.defaultRecurrence', 'Leaks again after repair (0–1)', { hint: result.assumptions.recurrenceSource === 'fleet' ? 'The fleet’s own record is used here' : 'Used while the fleet has too few repairs here' })}
+              {field('economics.defaultRecurrence', 'Leaks again after repair (0–1)', {
+                hint:
+                  result.assumptions.recurrenceSource === 'fleet'
+                    ? 'The fleet’s own record is used here'
+                    : 'Used while the fleet has too few repairs here',
+              })}
             </div>
           </fieldset>
           <ul className="mt-4 list-disc pl-5 text-sm text-ink-700">
             <li>
-              Unit age {Math.max(0, result.assumptions.designLifeYears - result.assumptions.remainingYears)} years of {result.assumptions.designLifeYears}; {result.assumptions.visitsPerYear} top-ups a year.
+              Unit age {Math.max(0, result.assumptions.designLifeYears - result.assumptions.remainingYears)} years of{' '}
+              {result.assumptions.designLifeYears}; {result.assumptions.visitsPerYear} top-ups a year.
             </li>
             <li>
-              Chance the repair leaks again: {Math.round(result.assumptions.recurrence * 100)} % ({result.assumptions.recurrenceSource === 'fleet' ? 'from the fleet’s repairs at this location' : 'default: fewer than 5 fleet repairs here'}).
+              Chance the repair leaks again: {Math.round(result.assumptions.recurrence * 100)} % (
+              {result.assumptions.recurrenceSource === 'fleet'
+                ? 'from the fleet’s repairs at this location'
+                : 'default: fewer than 5 fleet repairs here'}
+              ).
             </li>
             {result.assumptions.notes.map((n) => (
               <li key={n}>{n}</li>
@@ -191,20 +226,31 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
           <h2 id="record-decision" className="text-xl font-bold">
             Record the decision
           </h2>
-          <p className="mt-1 text-base text-ink-700">Saved in the unit's history with the figures and assumptions above.</p>
+          <p className="mt-1 text-base text-ink-700">
+            Saved in the unit's history with the figures and assumptions above.
+          </p>
           <fieldset className="mt-3 flex flex-col gap-2">
             <legend className="sr-only">Decision</legend>
             {DECISION_CHOICES.map((ch) => (
-              <label key={ch} className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-ink-200 px-3 has-checked:border-fjord-700 has-checked:bg-fjord-50">
+              <label
+                key={ch}
+                className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md border-2 border-ink-200 px-3 has-checked:border-fjord-700 has-checked:bg-fjord-50"
+              >
                 <input type="radio" value={ch} className="size-5 accent-fjord-700" {...form.register('choice')} />
                 <span className="font-semibold">{DECISION_CHOICE_LABELS[ch]}</span>
-                {DECISION_OPTION[ch] === result.cheapestId && <span className="ml-auto text-sm text-okay-700">cheapest</span>}
+                {DECISION_OPTION[ch] === result.cheapestId && (
+                  <span className="ml-auto text-sm text-okay-700">cheapest</span>
+                )}
               </label>
             ))}
           </fieldset>
           <label className="mt-3 flex flex-col gap-1 text-sm font-semibold text-ink-700">
             Note (optional)
-            <textarea rows={3} className="rounded-md border-2 border-ink-400 bg-white px-3 py-2 text-base text-ink-950" {...form.register('note')} />
+            <textarea
+              rows={3}
+              className="rounded-md border-2 border-ink-400 bg-white px-3 py-2 text-base text-ink-950"
+              {...form.register('note')}
+            />
           </label>
           {record.isError && (
             <Alert tone="alarm" className="mt-3">
@@ -216,7 +262,14 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
               {DECISION_CHOICE_LABELS[record.data.decision.choice]}, by {record.data.decision.by.name}.
             </Alert>
           )}
-          <Button type="submit" size="lg" className="mt-4 w-full" pending={record.isPending} pendingLabel="Saving…" disabled={!live}>
+          <Button
+            type="submit"
+            size="lg"
+            className="mt-4 w-full"
+            pending={record.isPending}
+            pendingLabel="Saving…"
+            disabled={!live}
+          >
             Record decision
           </Button>
           {data.decisions.length > 0 && (
@@ -225,7 +278,8 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
               <ul className="mt-1 divide-y divide-ink-100 text-sm">
                 {data.decisions.map((d) => (
                   <li key={d.eventId} className="py-2">
-                    <span className="font-semibold">{DECISION_CHOICE_LABELS[d.choice]}</span> · {new Date(d.at).toLocaleDateString('en-GB')} · {d.by.name}
+                    <span className="font-semibold">{DECISION_CHOICE_LABELS[d.choice]}</span> ·{' '}
+                    {new Date(d.at).toLocaleDateString('en-GB')} · {d.by.name}
                     {d.note && <span className="block text-ink-700">{d.note}</span>}
                   </li>
                 ))}

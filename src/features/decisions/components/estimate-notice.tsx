@@ -4,8 +4,8 @@ import { Alert } from '../../../components/ui/alert';
 export function EstimateNotice() {
   return (
     <Alert tone="heed" title="Estimates, not instructions">
-      These figures are estimates built on the assumptions listed here and the unit's recorded history. Local regulations and the
-      equipment maker's service instructions take precedence over anything Tightloop computes.
+      These figures are estimates built on the assumptions listed here and the unit's recorded history. Local
+      regulations and the equipment maker's service instructions take precedence over anything Tightloop computes.
     </Alert>
   );
 }

@@ -11,11 +11,16 @@ export function OptionsGrid({ result }: { result: RepairOptionsResult }) {
         <li
           key={o.id}
           data-testid={`option-${o.id}`}
-          className={cx('flex flex-col gap-2 rounded-lg border-2 bg-white p-4', o.cheapest ? 'border-okay-700 shadow-raised ring-2 ring-okay-700/30' : 'border-ink-200')}
+          className={cx(
+            'flex flex-col gap-2 rounded-lg border-2 bg-white p-4',
+            o.cheapest ? 'border-okay-700 shadow-raised ring-2 ring-okay-700/30' : 'border-ink-200',
+          )}
         >
           <div className="flex items-start justify-between gap-2">
             <h3 className="text-lg font-bold">{o.label}</h3>
-            {o.cheapest && <span className="rounded-full bg-okay-700 px-2.5 py-0.5 text-sm font-semibold text-white">Cheapest</span>}
+            {o.cheapest && (
+              <span className="rounded-full bg-okay-700 px-2.5 py-0.5 text-sm font-semibold text-white">Cheapest</span>
+            )}
           </div>
           <p className="text-sm text-ink-700">{o.description}</p>
           <dl className="mt-auto grid grid-cols-2 gap-x-3 gap-y-1 text-base">

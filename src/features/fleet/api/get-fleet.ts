@@ -27,4 +27,5 @@ export function fleetCountQuery(f: FleetFilters) {
 export const useFleetCount = (f: FleetFilters) => useQuery(fleetCountQuery(f));
 
 /** The CSV of the current view: same filters and sort, every page. */
-export const fleetExportHref = (q: FleetQuery) => `/api/fleet/export.csv?${fleetSearch({ ...q, page: undefined, pageSize: undefined })}`;
+export const fleetExportHref = (q: FleetQuery) =>
+  `/api/fleet/export.csv?${fleetSearch({ ...q, page: undefined, pageSize: undefined })}`;

@@ -7,7 +7,8 @@ import { fleetKeys } from './keys';
 export function fleetOverviewQuery(q: FleetOverviewQuery) {
   return queryOptions({
     queryKey: fleetKeys.overview(q),
-    queryFn: ({ signal }) => apiClient.get<FleetOverviewDto>(`/api/fleet/overview?${toSearch(q, { months: 12 })}`, { signal }),
+    queryFn: ({ signal }) =>
+      apiClient.get<FleetOverviewDto>(`/api/fleet/overview?${toSearch(q, { months: 12 })}`, { signal }),
     placeholderData: keepPreviousData,
   });
 }

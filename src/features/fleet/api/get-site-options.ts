@@ -8,7 +8,11 @@ export function siteOptionsQuery() {
   return queryOptions({
     queryKey: fleetKeys.sites(),
     queryFn: async ({ signal }) =>
-      (await apiClient.get<{ sites: SiteOption[] }>('/api/sites', { signal })).sites.map((s) => ({ id: s.id, code: s.code, name: s.name })),
+      (await apiClient.get<{ sites: SiteOption[] }>('/api/sites', { signal })).sites.map((s) => ({
+        id: s.id,
+        code: s.code,
+        name: s.name,
+      })),
     staleTime: 5 * 60_000,
   });
 }

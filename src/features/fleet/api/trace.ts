@@ -1,5 +1,10 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { MarkForInspectionInput, MarkForInspectionResultDto, TraceQuery, TraceResultDto } from '../../../../shared/schemas/fleet';
+import type {
+  MarkForInspectionInput,
+  MarkForInspectionResultDto,
+  TraceQuery,
+  TraceResultDto,
+} from '../../../../shared/schemas/fleet';
 import { apiClient } from '../../../lib/api-client';
 import { toSearch } from '../utils/query-string';
 import { fleetKeys } from './keys';
@@ -18,7 +23,8 @@ export const traceExportHref = (q: TraceQuery) => `/api/traceability/export.csv?
 export function useMarkForInspection() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: MarkForInspectionInput) => apiClient.post<MarkForInspectionResultDto>('/api/traceability/mark-for-inspection', input),
+    mutationFn: (input: MarkForInspectionInput) =>
+      apiClient.post<MarkForInspectionResultDto>('/api/traceability/mark-for-inspection', input),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: fleetKeys.traces() }),
   });
 }

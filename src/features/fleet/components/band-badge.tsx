@@ -8,9 +8,23 @@ const TONES = {
 } as const;
 
 /** The repeat-leak score with its band in words (never colour alone). */
-export function ScoreBadge({ score, band, className }: { score: number; band: keyof typeof TONES; className?: string }) {
+export function ScoreBadge({
+  score,
+  band,
+  className,
+}: {
+  score: number;
+  band: keyof typeof TONES;
+  className?: string;
+}) {
   return (
-    <span className={cx('inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap', TONES[band], className)}>
+    <span
+      className={cx(
+        'inline-flex items-center gap-1.5 rounded-full border px-2.5 py-0.5 text-sm font-semibold whitespace-nowrap',
+        TONES[band],
+        className,
+      )}
+    >
       <span className="tabular-nums">{score}</span>
       <span aria-hidden="true">·</span>
       {BAND_LABELS[band]}

@@ -12,7 +12,15 @@ import { BAND_LABELS } from '../utils/format';
 const STATUS_LABELS = { in_service: 'In service', out_of_service: 'Out of service', retired: 'Retired' } as const;
 const control = 'block w-full min-h-touch rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
 
-function Labelled({ label, children, className }: { label: string; children: (id: string) => ReactNode; className?: string }) {
+function Labelled({
+  label,
+  children,
+  className,
+}: {
+  label: string;
+  children: (id: string) => ReactNode;
+  className?: string;
+}) {
   const id = useId();
   return (
     <div className={cx('flex flex-col gap-1', className)}>
@@ -34,7 +42,11 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
   useEffect(() => setRate(filters.rateAbove === undefined ? '' : String(filters.rateAbove)), [filters.rateAbove]);
   const set = (patch: Partial<FleetFilters>) => onChange({ ...filters, ...patch });
   const active = activeFilterCount(filters);
-  const forecastValue = filters.forecastOverdue ? 'overdue' : filters.forecastDays !== undefined ? String(filters.forecastDays) : '';
+  const forecastValue = filters.forecastOverdue
+    ? 'overdue'
+    : filters.forecastDays !== undefined
+      ? String(filters.forecastDays)
+      : '';
 
   return (
     <div className="flex flex-col gap-3">
@@ -65,10 +77,16 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
           <span className="sr-only sm:not-sr-only">Find</span>
         </Button>
       </form>
-      <details className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1" open={active > 0 ? true : undefined}>
+      <details
+        className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1"
+        open={active > 0 ? true : undefined}
+      >
         <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 text-base font-semibold select-none">
           <span>
-            Filters{active > 0 && <span className="ml-2 rounded-full bg-fjord-700 px-2 py-0.5 text-sm text-white">{active}</span>}
+            Filters
+            {active > 0 && (
+              <span className="ml-2 rounded-full bg-fjord-700 px-2 py-0.5 text-sm text-white">{active}</span>
+            )}
           </span>
           <span aria-hidden="true" className="text-ink-600 group-open:rotate-180">
             ▾
@@ -77,7 +95,12 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
         <div className="grid grid-cols-1 gap-3 px-4 pb-4 sm:grid-cols-2 lg:grid-cols-4">
           <Labelled label="Site">
             {(id) => (
-              <select id={id} className={control} value={filters.siteId ?? ''} onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}>
+              <select
+                id={id}
+                className={control}
+                value={filters.siteId ?? ''}
+                onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
+              >
                 <option value="">All sites</option>
                 {sites.map((s) => (
                   <option key={s.id} value={s.id}>
@@ -89,7 +112,12 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
           </Labelled>
           <Labelled label="Refrigerant">
             {(id) => (
-              <select id={id} className={control} value={filters.refrigerant ?? ''} onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetFilters['refrigerant'] })}>
+              <select
+                id={id}
+                className={control}
+                value={filters.refrigerant ?? ''}
+                onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetFilters['refrigerant'] })}
+              >
                 <option value="">All refrigerants</option>
                 {REFRIGERANT_CODES.map((r) => (
                   <option key={r} value={r}>
@@ -101,7 +129,12 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
           </Labelled>
           <Labelled label="Status">
             {(id) => (
-              <select id={id} className={control} value={filters.status ?? ''} onChange={(e) => set({ status: (e.target.value || undefined) as FleetFilters['status'] })}>
+              <select
+                id={id}
+                className={control}
+                value={filters.status ?? ''}
+                onChange={(e) => set({ status: (e.target.value || undefined) as FleetFilters['status'] })}
+              >
                 <option value="">Any status</option>
                 {UNIT_STATUS_VALUES.map((s) => (
                   <option key={s} value={s}>
@@ -113,7 +146,12 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
           </Labelled>
           <Labelled label="Score band">
             {(id) => (
-              <select id={id} className={control} value={filters.band ?? ''} onChange={(e) => set({ band: (e.target.value || undefined) as FleetFilters['band'] })}>
+              <select
+                id={id}
+                className={control}
+                value={filters.band ?? ''}
+                onChange={(e) => set({ band: (e.target.value || undefined) as FleetFilters['band'] })}
+              >
                 <option value="">Any band</option>
                 {SCORE_BANDS.map((b) => (
                   <option key={b} value={b}>
@@ -150,7 +188,10 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
                 value={forecastValue}
                 onChange={(e) => {
                   const v = e.target.value;
-                  set({ forecastOverdue: v === 'overdue' || undefined, forecastDays: v && v !== 'overdue' ? Number(v) : undefined });
+                  set({
+                    forecastOverdue: v === 'overdue' || undefined,
+                    forecastDays: v && v !== 'overdue' ? Number(v) : undefined,
+                  });
                 }}
               >
                 <option value="">Any time</option>
@@ -161,11 +202,21 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
             )}
           </Labelled>
           <label className="flex min-h-touch items-center gap-3 self-end text-base font-semibold">
-            <input type="checkbox" className="size-6 accent-fjord-700" checked={Boolean(filters.leakCheckOverdue)} onChange={(e) => set({ leakCheckOverdue: e.target.checked || undefined })} />
+            <input
+              type="checkbox"
+              className="size-6 accent-fjord-700"
+              checked={Boolean(filters.leakCheckOverdue)}
+              onChange={(e) => set({ leakCheckOverdue: e.target.checked || undefined })}
+            />
             Leak check overdue
           </label>
           <label className="flex min-h-touch items-center gap-3 self-end text-base font-semibold">
-            <input type="checkbox" className="size-6 accent-fjord-700" checked={Boolean(filters.ptiExpired)} onChange={(e) => set({ ptiExpired: e.target.checked || undefined })} />
+            <input
+              type="checkbox"
+              className="size-6 accent-fjord-700"
+              checked={Boolean(filters.ptiExpired)}
+              onChange={(e) => set({ ptiExpired: e.target.checked || undefined })}
+            />
             No valid PTI
           </label>
         </div>

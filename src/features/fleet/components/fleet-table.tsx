@@ -1,4 +1,10 @@
-import { createColumnHelper, flexRender, getCoreRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
 import { Link } from 'react-router-dom';
 import { FLEET_SORTS, type FleetRowDto, type FleetSort } from '../../../../shared/schemas/fleet';
 import { cx } from '../../../components/ui/cx';
@@ -23,18 +29,32 @@ const columns = [
     header: 'Unit',
     cell: (c) => (
       <span className="flex flex-col">
-        <Link to={unitHref(c.row.original.unitId)} className="text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline md:text-base" data-testid="fleet-unit-link">
+        <Link
+          to={unitHref(c.row.original.unitId)}
+          className="text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline md:text-base"
+          data-testid="fleet-unit-link"
+        >
           {fmtContainer(c.getValue())}
         </Link>
         <span className="text-sm text-ink-600">
-          {c.row.original.site?.name ?? 'No site'} · <span className="whitespace-nowrap">{c.row.original.refrigerant}</span>
-          {c.row.original.status !== 'in_service' && ` · ${c.row.original.status === 'retired' ? 'Retired' : 'Out of service'}`}
+          {c.row.original.site?.name ?? 'No site'} ·{' '}
+          <span className="whitespace-nowrap">{c.row.original.refrigerant}</span>
+          {c.row.original.status !== 'in_service' &&
+            ` · ${c.row.original.status === 'retired' ? 'Retired' : 'Out of service'}`}
         </span>
       </span>
     ),
   }),
-  col.accessor('score', { id: 'score', header: 'Score', cell: (c) => <ScoreBadge score={c.getValue()} band={c.row.original.scoreBand} className="self-start" /> }),
-  col.accessor('rollingLeakRatePct', { id: 'rate', header: 'Leak rate (365 d)', cell: (c) => <span className="tabular-nums">{fmtPct(c.getValue())}</span> }),
+  col.accessor('score', {
+    id: 'score',
+    header: 'Score',
+    cell: (c) => <ScoreBadge score={c.getValue()} band={c.row.original.scoreBand} className="self-start" />,
+  }),
+  col.accessor('rollingLeakRatePct', {
+    id: 'rate',
+    header: 'Leak rate (365 d)',
+    cell: (c) => <span className="tabular-nums">{fmtPct(c.getValue())}</span>,
+  }),
   col.accessor('forecastDate', {
     id: 'forecast',
     header: 'Next top-up',
@@ -73,11 +93,17 @@ const columns = [
       ) : (
         <span className="flex flex-col">
           <Flag tone="heed">{c.getValue() ? 'expired' : 'none valid'}</Flag>
-          {c.getValue() && <span className="text-sm whitespace-nowrap tabular-nums text-ink-700">{fmtDay(c.getValue())}</span>}
+          {c.getValue() && (
+            <span className="text-sm whitespace-nowrap tabular-nums text-ink-700">{fmtDay(c.getValue())}</span>
+          )}
         </span>
       ),
   }),
-  col.accessor('co2eTonnes', { id: 'co2e', header: 'CO2e', cell: (c) => <span className="whitespace-nowrap tabular-nums">{fmtTonnes(c.getValue())}</span> }),
+  col.accessor('co2eTonnes', {
+    id: 'co2e',
+    header: 'CO2e',
+    cell: (c) => <span className="whitespace-nowrap tabular-nums">{fmtTonnes(c.getValue())}</span>,
+  }),
 ];
 
 const sortable = new Set<string>(FLEET_SORTS);
@@ -108,7 +134,15 @@ export function FleetTable({ rows, sort, dir, onSort, busy }: Props) {
   });
 
   return (
-    <table role="table" aria-label="Fleet" aria-busy={busy || undefined} className={cx('block w-full md:table md:rounded-lg md:border-2 md:border-ink-200 md:bg-white', busy && 'opacity-70')}>
+    <table
+      role="table"
+      aria-label="Fleet"
+      aria-busy={busy || undefined}
+      className={cx(
+        'block w-full md:table md:rounded-lg md:border-2 md:border-ink-200 md:bg-white',
+        busy && 'opacity-70',
+      )}
+    >
       <thead role="rowgroup" className="sr-only md:not-sr-only md:table-header-group md:bg-ink-50">
         {table.getHeaderGroups().map((hg) => (
           <tr role="row" key={hg.id}>
@@ -127,14 +161,24 @@ export function FleetTable({ rows, sort, dir, onSort, busy }: Props) {
                   {canSort ? (
                     <button
                       type="button"
-                      className={cx('inline-flex min-h-touch items-center gap-1 rounded-sm text-left', active && 'text-fjord-900')}
-                      onClick={() => onSort(id, active ? (dir === 'asc' ? 'desc' : 'asc') : id === 'containerNumber' ? 'asc' : 'desc')}
+                      className={cx(
+                        'inline-flex min-h-touch items-center gap-1 rounded-sm text-left',
+                        active && 'text-fjord-900',
+                      )}
+                      onClick={() =>
+                        onSort(
+                          id,
+                          active ? (dir === 'asc' ? 'desc' : 'asc') : id === 'containerNumber' ? 'asc' : 'desc',
+                        )
+                      }
                     >
                       {flexRender(h.column.columnDef.header, h.getContext())}
                       <span aria-hidden="true" className={cx('text-xs', !active && 'text-ink-300')}>
                         {active ? (dir === 'asc' ? '▲' : '▼') : '↕'}
                       </span>
-                      <span className="sr-only">{active ? `, sorted ${dir === 'asc' ? 'ascending' : 'descending'}` : ', sort'}</span>
+                      <span className="sr-only">
+                        {active ? `, sorted ${dir === 'asc' ? 'ascending' : 'descending'}` : ', sort'}
+                      </span>
                     </button>
                   ) : (
                     flexRender(h.column.columnDef.header, h.getContext())
@@ -164,7 +208,10 @@ export function FleetTable({ rows, sort, dir, onSort, busy }: Props) {
                 )}
               >
                 {cell.column.id !== 'containerNumber' && (
-                  <span aria-hidden="true" className="text-xs font-semibold tracking-wide text-ink-600 uppercase md:hidden">
+                  <span
+                    aria-hidden="true"
+                    className="text-xs font-semibold tracking-wide text-ink-600 uppercase md:hidden"
+                  >
                     {String(cell.column.columnDef.header)}
                   </span>
                 )}

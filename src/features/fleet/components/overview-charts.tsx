@@ -11,7 +11,18 @@ import { fmtNumber } from '../utils/format';
 const INK = '#2f434d';
 const GRID = '#cbd3d6';
 /** Series colours from the design tokens, dark to light, each readable against paper and told apart by the legend. */
-const SERIES = ['#005264', '#a9d62e', '#7a4300', '#a3190f', '#435762', '#15613a', '#7b8c95', '#00404f', '#dbf78f', '#13222b'];
+const SERIES = [
+  '#005264',
+  '#a9d62e',
+  '#7a4300',
+  '#a3190f',
+  '#435762',
+  '#15613a',
+  '#7b8c95',
+  '#00404f',
+  '#dbf78f',
+  '#13222b',
+];
 const tickLabel = { fill: INK, fontSize: 13, fontFamily: 'Work Sans, sans-serif' };
 
 /** Histogram of the rolling 365-day leak rate across the fleet, with the alert threshold marked. */
@@ -27,7 +38,12 @@ export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate']
   const t = Math.min(110, data.thresholdPct);
   return (
     <div ref={parentRef} className="w-full">
-      <svg width={width} height={height} role="img" aria-label={`Units per 10 % of rolling leak rate; ${data.zero} units with no made-up refrigerant in the last 365 days are not drawn.`}>
+      <svg
+        width={width}
+        height={height}
+        role="img"
+        aria-label={`Units per 10 % of rolling leak rate; ${data.zero} units with no made-up refrigerant in the last 365 days are not drawn.`}
+      >
         <Group left={m.left} top={m.top}>
           {y.ticks(4).map((v) => (
             <Line key={v} from={{ x: 0, y: y(v) }} to={{ x: innerW, y: y(v) }} stroke={GRID} strokeDasharray="2 3" />
@@ -37,16 +53,38 @@ export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate']
             const x1 = x(b.toPct ?? 110);
             const h = innerH - y(b.units);
             return (
-              <Bar key={b.fromPct} x={x0 + 1} y={y(b.units)} width={Math.max(1, x1 - x0 - 2)} height={h} fill={b.fromPct >= data.thresholdPct ? '#a3190f' : '#005264'} rx={2}>
+              <Bar
+                key={b.fromPct}
+                x={x0 + 1}
+                y={y(b.units)}
+                width={Math.max(1, x1 - x0 - 2)}
+                height={h}
+                fill={b.fromPct >= data.thresholdPct ? '#a3190f' : '#005264'}
+                rx={2}
+              >
                 <title>{`${b.toPct === null ? `${b.fromPct} % and above` : `${b.fromPct}–${b.toPct} %`}: ${b.units} units`}</title>
               </Bar>
             );
           })}
-          <Line from={{ x: x(t), y: 0 }} to={{ x: x(t), y: innerH }} stroke="#0b161d" strokeWidth={2} strokeDasharray="6 4" />
+          <Line
+            from={{ x: x(t), y: 0 }}
+            to={{ x: x(t), y: innerH }}
+            stroke="#0b161d"
+            strokeWidth={2}
+            strokeDasharray="6 4"
+          />
           <text x={x(t) + 6} y={12} fontSize={13} fill="#0b161d" fontWeight={600} fontFamily="Work Sans, sans-serif">
             alert {data.thresholdPct} %
           </text>
-          <AxisLeft scale={y} numTicks={4} stroke={INK} tickStroke={INK} tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })} label="units" labelProps={{ ...tickLabel, fontSize: 12 }} />
+          <AxisLeft
+            scale={y}
+            numTicks={4}
+            stroke={INK}
+            tickStroke={INK}
+            tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })}
+            label="units"
+            labelProps={{ ...tickLabel, fontSize: 12 }}
+          />
           <AxisBottom
             top={innerH}
             scale={x}
@@ -76,7 +114,10 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
   const { keys, byMonth, totals } = useMemo(() => {
     const byMonth = new Map<string, Map<string, number>>(data.months.map((m) => [m, new Map()]));
     const keyTotals = new Map<string, number>();
-    const rows = groupBy === 'site' ? data.bySite.map((r) => ({ ...r, key: r.site?.name ?? 'No site' })) : data.byRefrigerant.map((r) => ({ ...r, key: r.refrigerant }));
+    const rows =
+      groupBy === 'site'
+        ? data.bySite.map((r) => ({ ...r, key: r.site?.name ?? 'No site' }))
+        : data.byRefrigerant.map((r) => ({ ...r, key: r.refrigerant }));
     for (const r of rows) {
       const key = r.key;
       const v = measure === 'kg' ? r.madeUpKg : r.co2eTonnes;
@@ -86,7 +127,9 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
       keyTotals.set(key, (keyTotals.get(key) ?? 0) + v);
     }
     const keys = [...keyTotals.entries()].sort((a, b) => b[1] - a[1]).map(([k]) => k);
-    const totals = new Map(data.months.map((m) => [m, [...(byMonth.get(m)?.values() ?? [])].reduce((s, v) => s + v, 0)]));
+    const totals = new Map(
+      data.months.map((m) => [m, [...(byMonth.get(m)?.values() ?? [])].reduce((s, v) => s + v, 0)]),
+    );
     return { keys, byMonth, totals };
   }, [data, measure, groupBy]);
 
@@ -104,14 +147,36 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap gap-3">
-        <Toggle label="Show" value={measure} onChange={setMeasure} options={[['co2e', 't CO2e'], ['kg', 'kg']]} />
-        <Toggle label="Stack by" value={groupBy} onChange={setGroupBy} options={[['site', 'Site'], ['refrigerant', 'Refrigerant']]} />
+        <Toggle
+          label="Show"
+          value={measure}
+          onChange={setMeasure}
+          options={[
+            ['co2e', 't CO2e'],
+            ['kg', 'kg'],
+          ]}
+        />
+        <Toggle
+          label="Stack by"
+          value={groupBy}
+          onChange={setGroupBy}
+          options={[
+            ['site', 'Site'],
+            ['refrigerant', 'Refrigerant'],
+          ]}
+        />
       </div>
       <p className="text-base text-ink-700">
-        {fmtNumber(total, measure === 'kg' ? 1 : 2)} {unit} made up in {data.months.length} months (GWP {data.gwpBasis}).
+        {fmtNumber(total, measure === 'kg' ? 1 : 2)} {unit} made up in {data.months.length} months (GWP {data.gwpBasis}
+        ).
       </p>
       <div ref={parentRef} className="w-full">
-        <svg width={width} height={height} role="img" aria-label={`Made-up refrigerant per month in ${unit}, stacked by ${groupBy}. The table below has the figures.`}>
+        <svg
+          width={width}
+          height={height}
+          role="img"
+          aria-label={`Made-up refrigerant per month in ${unit}, stacked by ${groupBy}. The table below has the figures.`}
+        >
           <Group left={m.left} top={m.top}>
             {y.ticks(4).map((v) => (
               <Line key={v} from={{ x: 0, y: y(v) }} to={{ x: innerW, y: y(v) }} stroke={GRID} strokeDasharray="2 3" />
@@ -125,13 +190,30 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
                 acc += v;
                 const y1 = y(acc);
                 return (
-                  <Bar key={`${month}-${k}`} x={x(month)} y={y1} width={x.bandwidth()} height={Math.max(0.5, y0 - y1)} fill={colour(k)} stroke="#ffffff" strokeWidth={0.5}>
+                  <Bar
+                    key={`${month}-${k}`}
+                    x={x(month)}
+                    y={y1}
+                    width={x.bandwidth()}
+                    height={Math.max(0.5, y0 - y1)}
+                    fill={colour(k)}
+                    stroke="#ffffff"
+                    strokeWidth={0.5}
+                  >
                     <title>{`${month} · ${k}: ${fmtNumber(v, 3)} ${unit}`}</title>
                   </Bar>
                 );
               });
             })}
-            <AxisLeft scale={y} numTicks={4} stroke={INK} tickStroke={INK} tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })} label={unit} labelProps={{ ...tickLabel, fontSize: 12 }} />
+            <AxisLeft
+              scale={y}
+              numTicks={4}
+              stroke={INK}
+              tickStroke={INK}
+              tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })}
+              label={unit}
+              labelProps={{ ...tickLabel, fontSize: 12 }}
+            />
             <AxisBottom
               top={innerH}
               scale={x}
@@ -158,7 +240,9 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
         </ul>
       )}
       <details className="text-sm">
-        <summary className="min-h-touch cursor-pointer py-3 font-semibold text-fjord-700">The figures as a table</summary>
+        <summary className="min-h-touch cursor-pointer py-3 font-semibold text-fjord-700">
+          The figures as a table
+        </summary>
         <div className="overflow-x-auto">
           <table className="w-full text-left text-sm">
             <thead>
@@ -192,7 +276,17 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
   );
 }
 
-function Toggle<T extends string>({ label, value, onChange, options }: { label: string; value: T; onChange: (v: T) => void; options: [T, string][] }) {
+function Toggle<T extends string>({
+  label,
+  value,
+  onChange,
+  options,
+}: {
+  label: string;
+  value: T;
+  onChange: (v: T) => void;
+  options: [T, string][];
+}) {
   return (
     <fieldset className="flex items-center gap-2">
       <legend className="sr-only">{label}</legend>
@@ -201,7 +295,13 @@ function Toggle<T extends string>({ label, value, onChange, options }: { label: 
       </span>
       <div className="flex rounded-md border-2 border-ink-400 bg-white p-0.5">
         {options.map(([v, text]) => (
-          <label key={v} className={cx('flex min-h-11 cursor-pointer items-center rounded-sm px-3 text-sm font-semibold', value === v ? 'bg-fjord-700 text-white' : 'text-ink-800')}>
+          <label
+            key={v}
+            className={cx(
+              'flex min-h-11 cursor-pointer items-center rounded-sm px-3 text-sm font-semibold',
+              value === v ? 'bg-fjord-700 text-white' : 'text-ink-800',
+            )}
+          >
             <input type="radio" className="sr-only" checked={value === v} onChange={() => onChange(v)} />
             {text}
           </label>

@@ -7,7 +7,12 @@ export function RefreshRepairs({ computedAt }: { computedAt: string | null }) {
   return (
     <div className="mt-3 flex flex-wrap items-center gap-3 text-sm text-ink-600">
       {computedAt && <span>Worked out {new Date(computedAt).toLocaleString('en-GB')}.</span>}
-      <Button variant="quiet" onClick={() => refresh.mutate()} pending={refresh.isPending} pendingLabel="Working it out…">
+      <Button
+        variant="quiet"
+        onClick={() => refresh.mutate()}
+        pending={refresh.isPending}
+        pendingLabel="Working it out…"
+      >
         Work it out again
       </Button>
       {refresh.isError && <span className="text-alarm-700">{refresh.error.message}</span>}

@@ -1,4 +1,9 @@
-import { fleetFiltersSchema, fleetQuerySchema, type FleetFilters, type FleetQuery } from '../../../../shared/schemas/fleet';
+import {
+  fleetFiltersSchema,
+  fleetQuerySchema,
+  type FleetFilters,
+  type FleetQuery,
+} from '../../../../shared/schemas/fleet';
 import { toSearch } from './query-string';
 
 export const FLEET_DEFAULTS = { sort: 'score', dir: 'desc', page: 1, pageSize: 25 } as const;
@@ -16,7 +21,13 @@ export function readFleetParams(sp: URLSearchParams): FleetQuery {
 
 export function filtersOf(q: FleetQuery): FleetFilters {
   const { sort: _s, dir: _d, page: _p, pageSize: _ps, count: _c, ...filters } = q;
-  return fleetFiltersSchema.parse(Object.fromEntries(Object.entries(filters).filter(([, v]) => v !== undefined && v !== false).map(([k, v]) => [k, v === true ? '1' : String(v)])));
+  return fleetFiltersSchema.parse(
+    Object.fromEntries(
+      Object.entries(filters)
+        .filter(([, v]) => v !== undefined && v !== false)
+        .map(([k, v]) => [k, v === true ? '1' : String(v)]),
+    ),
+  );
 }
 
 export const fleetSearch = (q: Partial<FleetQuery>) => toSearch(q as Record<string, unknown>, FLEET_DEFAULTS);

@@ -1,7 +1,8 @@
 import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 import { formatContainerNumber } from '../../../../shared/domain';
 
-export const fmtNumber = (v: number, digits = 1) => v.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 });
+export const fmtNumber = (v: number, digits = 1) =>
+  v.toLocaleString('en-GB', { maximumFractionDigits: digits, minimumFractionDigits: 0 });
 export const fmtPct = (v: number) => `${fmtNumber(v, 1)} %`;
 export const fmtKg = (v: number) => `${fmtNumber(v, 2)} kg`;
 export const fmtTonnes = (v: number) => `${fmtNumber(v, v < 10 ? 2 : 1)} t`;

@@ -10,4 +10,5 @@ export function toSearch(values: Record<string, unknown>, defaults: Record<strin
 }
 
 /** A random key for a write that may be retried (idempotency); works outside secure contexts too. */
-export const newKey = () => Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');
+export const newKey = () =>
+  Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');

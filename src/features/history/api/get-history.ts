@@ -3,7 +3,11 @@ import { HISTORY_PAGE_SIZE, type UnitHistoryDto } from '../../../../shared/schem
 import { apiClient } from '../../../lib/api-client';
 import { historyKeys } from './keys';
 
-export async function getHistoryPage(unitId: number, before: number | null, signal?: AbortSignal): Promise<UnitHistoryDto> {
+export async function getHistoryPage(
+  unitId: number,
+  before: number | null,
+  signal?: AbortSignal,
+): Promise<UnitHistoryDto> {
   const q = new URLSearchParams({ limit: String(HISTORY_PAGE_SIZE) });
   if (before) q.set('before', String(before));
   return apiClient.get<UnitHistoryDto>(`/api/units/${unitId}/history?${q}`, { signal });

@@ -15,7 +15,9 @@ export async function refreshAfterVisit(
   unitId: number,
   alsoInvalidate: QueryKey[] = [],
 ) {
-  queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) => (old ? { ...old, stats: result.stats } : old));
+  queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) =>
+    old ? { ...old, stats: result.stats } : old,
+  );
   await Promise.all([
     queryClient.invalidateQueries({ queryKey: historyKeys.unit(unitId) }),
     ...alsoInvalidate.map((queryKey) => queryClient.invalidateQueries({ queryKey })),

@@ -30,7 +30,8 @@ export function uploadAttachments(
     xhr.upload.onprogress = (e) => {
       if (e.lengthComputable) onProgress?.({ loaded: e.loaded, total: e.total });
     };
-    xhr.onerror = () => reject(new ApiError(0, 'network_error', 'The upload did not get through. Check the connection and try again.'));
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network_error', 'The upload did not get through. Check the connection and try again.'));
     xhr.onload = () => {
       let json: unknown = undefined;
       try {
@@ -59,8 +60,15 @@ export function useUploadAttachments(unitId: number) {
   return useMutation({
     // Offline, fail at once with a message instead of waiting silently.
     networkMode: 'always',
-    mutationFn: ({ eventId, files, onProgress }: { eventId: number; files: File[]; onProgress?: (p: UploadProgress) => void }) =>
-      uploadAttachments({ eventId, files }, onProgress),
+    mutationFn: ({
+      eventId,
+      files,
+      onProgress,
+    }: {
+      eventId: number;
+      files: File[];
+      onProgress?: (p: UploadProgress) => void;
+    }) => uploadAttachments({ eventId, files }, onProgress),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: historyKeys.unit(unitId) }),
   });
 }

@@ -48,7 +48,9 @@ export function AttachPhotos({
     }
     const big = files.find((f) => f.size > MAX_UPLOAD_BYTES);
     if (big) {
-      setProblem(`${big.name} is ${(big.size / MB).toFixed(1)} MB; each file must be ${MAX_UPLOAD_BYTES / MB} MB or less.`);
+      setProblem(
+        `${big.name} is ${(big.size / MB).toFixed(1)} MB; each file must be ${MAX_UPLOAD_BYTES / MB} MB or less.`,
+      );
       return;
     }
     setProgress({ loaded: 0, total: files.reduce((s, f) => s + f.size, 0) });
@@ -72,7 +74,11 @@ export function AttachPhotos({
             <li key={a.id}>
               <a href={a.url} target="_blank" rel="noreferrer" className="block rounded-md border-2 border-ink-200">
                 {a.thumbnailUrl ? (
-                  <img src={a.thumbnailUrl} alt={`Photo ${a.originalName}`} className="size-20 rounded-sm object-cover" />
+                  <img
+                    src={a.thumbnailUrl}
+                    alt={`Photo ${a.originalName}`}
+                    className="size-20 rounded-sm object-cover"
+                  />
                 ) : (
                   <span className="flex size-20 items-center justify-center text-sm font-semibold">PDF</span>
                 )}
@@ -82,7 +88,10 @@ export function AttachPhotos({
         </ul>
       )}
       {upload.isPending ? (
-        <div role="status" className="flex min-h-touch items-center gap-3 rounded-md border-2 border-fjord-700 bg-fjord-50 px-3">
+        <div
+          role="status"
+          className="flex min-h-touch items-center gap-3 rounded-md border-2 border-fjord-700 bg-fjord-50 px-3"
+        >
           <Spinner className="text-fjord-700" />
           <span className="flex-1 font-semibold">Uploading… {pct} %</span>
           <progress max={100} value={pct} className="h-2 w-24 accent-fjord-700" aria-label="Upload progress" />

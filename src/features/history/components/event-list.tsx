@@ -73,22 +73,47 @@ function EntryDetails({ e }: { e: EventDto }) {
       if (e.kg !== null) {
         rows.push(
           <Detail key="kg" label={e.kind === 'recovery' ? 'Recovered' : e.kind === 'recharge' ? 'Charged' : 'Added'}>
-            {typed && typed.unit === 'lb' ? `${fmtNumber(typed.value, 2)} lb (${fmtKg(convertMass(typed.value, 'lb', 'kg'))})` : fmtKg(e.kg)}
+            {typed && typed.unit === 'lb'
+              ? `${fmtNumber(typed.value, 2)} lb (${fmtKg(convertMass(typed.value, 'lb', 'kg'))})`
+              : fmtKg(e.kg)}
           </Detail>,
         );
       }
-      if (e.cylinder) rows.push(<Detail key="cyl" label="Cylinder">{e.cylinder}</Detail>);
-      if (e.reusedRecovered) rows.push(<Detail key="reused" label="Gas">Recovered refrigerant put back</Detail>);
-      if (e.excludedFromLeakRate) rows.push(<Detail key="excl" label="Counted">First fill or retrofit: not counted as leaked</Detail>);
+      if (e.cylinder)
+        rows.push(
+          <Detail key="cyl" label="Cylinder">
+            {e.cylinder}
+          </Detail>,
+        );
+      if (e.reusedRecovered)
+        rows.push(
+          <Detail key="reused" label="Gas">
+            Recovered refrigerant put back
+          </Detail>,
+        );
+      if (e.excludedFromLeakRate)
+        rows.push(
+          <Detail key="excl" label="Counted">
+            First fill or retrofit: not counted as leaked
+          </Detail>,
+        );
       break;
     }
     case 'leak_check':
-      if (e.method) rows.push(<Detail key="m" label="Method">{termLabel(LEAK_CHECK_METHODS, e.method)}</Detail>);
+      if (e.method)
+        rows.push(
+          <Detail key="m" label="Method">
+            {termLabel(LEAK_CHECK_METHODS, e.method)}
+          </Detail>,
+        );
       rows.push(
         <Detail key="r" label="Result">
           {e.leakFound ? (
             <span className="text-alarm-700">
-              Leak found{e.location ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}${other('locationOther')}` : ''}
+              Leak found
+              {e.location
+                ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}${other('locationOther')}`
+                : ''}
             </span>
           ) : (
             'No leak found'
@@ -97,28 +122,69 @@ function EntryDetails({ e }: { e: EventDto }) {
       );
       break;
     case 'repair':
-      if (e.location) rows.push(<Detail key="l" label="Where">{termLabel(LEAK_LOCATIONS, e.location)}{other('locationOther')}</Detail>);
-      if (e.action) rows.push(<Detail key="a" label="Done">{termLabel(REPAIR_ACTIONS, e.action)}{other('actionOther')}</Detail>);
-      rows.push(<Detail key="v" label="Verified">{e.verified ? 'Yes, tested tight' : 'No'}</Detail>);
+      if (e.location)
+        rows.push(
+          <Detail key="l" label="Where">
+            {termLabel(LEAK_LOCATIONS, e.location)}
+            {other('locationOther')}
+          </Detail>,
+        );
+      if (e.action)
+        rows.push(
+          <Detail key="a" label="Done">
+            {termLabel(REPAIR_ACTIONS, e.action)}
+            {other('actionOther')}
+          </Detail>,
+        );
+      rows.push(
+        <Detail key="v" label="Verified">
+          {e.verified ? 'Yes, tested tight' : 'No'}
+        </Detail>,
+      );
       break;
     case 'pressure': {
       const as = (enteredAs(e) ?? {}) as EnteredPressure;
       const p = (v: number | null) => pressure(v, as.pressureUnit);
       const t = (v: number | null) => temperature(v, as.temperatureUnit);
       const pair = (a: string | null, b: string | null) => [a, b].filter(Boolean).join(' · ');
-      if (e.suctionKPaG !== null) rows.push(<Detail key="s" label="Suction">{p(e.suctionKPaG)}</Detail>);
-      if (e.dischargeKPaG !== null) rows.push(<Detail key="d" label="Discharge">{p(e.dischargeKPaG)}</Detail>);
+      if (e.suctionKPaG !== null)
+        rows.push(
+          <Detail key="s" label="Suction">
+            {p(e.suctionKPaG)}
+          </Detail>,
+        );
+      if (e.dischargeKPaG !== null)
+        rows.push(
+          <Detail key="d" label="Discharge">
+            {p(e.dischargeKPaG)}
+          </Detail>,
+        );
       const air = pair(
         e.ambientC !== null ? `ambient ${t(e.ambientC)}` : null,
         e.setPointC !== null ? `set point ${t(e.setPointC)}` : null,
       );
-      if (air) rows.push(<Detail key="a" label="Temps">{air}</Detail>);
+      if (air)
+        rows.push(
+          <Detail key="a" label="Temps">
+            {air}
+          </Detail>,
+        );
       const sr = pair(
         e.supplyAirC !== null ? `supply ${t(e.supplyAirC)}` : null,
         e.returnAirC !== null ? `return ${t(e.returnAirC)}` : null,
       );
-      if (sr) rows.push(<Detail key="sr" label="Air">{sr}</Detail>);
-      if (e.sightGlass) rows.push(<Detail key="g" label="Sight glass">{termLabel(SIGHT_GLASS_STATES, e.sightGlass)}</Detail>);
+      if (sr)
+        rows.push(
+          <Detail key="sr" label="Air">
+            {sr}
+          </Detail>,
+        );
+      if (e.sightGlass)
+        rows.push(
+          <Detail key="g" label="Sight glass">
+            {termLabel(SIGHT_GLASS_STATES, e.sightGlass)}
+          </Detail>,
+        );
       break;
     }
     case 'pti':
@@ -129,10 +195,20 @@ function EntryDetails({ e }: { e: EventDto }) {
       );
       break;
     case 'component_replacement':
-      if (typeof d.component === 'string') rows.push(<Detail key="c" label="Part">{d.component}</Detail>);
+      if (typeof d.component === 'string')
+        rows.push(
+          <Detail key="c" label="Part">
+            {d.component}
+          </Detail>,
+        );
       break;
     case 'status_change':
-      if (typeof d.status === 'string') rows.push(<Detail key="s" label="Now">{UNIT_STATUS_WORDS[d.status] ?? d.status}</Detail>);
+      if (typeof d.status === 'string')
+        rows.push(
+          <Detail key="s" label="Now">
+            {UNIT_STATUS_WORDS[d.status] ?? d.status}
+          </Detail>,
+        );
       break;
   }
   return (
@@ -170,7 +246,12 @@ function EntryItem({
   // Photos are added to one's own entries (the API lets any recorder; the list keeps it to the author's).
   const canAttach = can(user, 'record:event') && e.recordedBy.id === user.id;
   return (
-    <li className={cx('flex flex-col gap-2 py-3', voided && 'opacity-75')} data-testid="history-entry" data-kind={e.kind} data-voided={voided ? 'true' : undefined}>
+    <li
+      className={cx('flex flex-col gap-2 py-3', voided && 'opacity-75')}
+      data-testid="history-entry"
+      data-kind={e.kind}
+      data-voided={voided ? 'true' : undefined}
+    >
       <div className="flex items-start gap-3">
         <EntryGlyph kind={e.kind} className={cx('size-8', voided && 'opacity-50')} />
         <div className="flex min-w-0 flex-1 flex-col gap-1">
@@ -198,7 +279,12 @@ function EntryItem({
                     title={`Open ${a.originalName}`}
                   >
                     {a.thumbnailUrl ? (
-                      <img src={a.thumbnailUrl} alt={`Photo: ${a.originalName}`} loading="lazy" className="size-20 rounded-sm object-cover" />
+                      <img
+                        src={a.thumbnailUrl}
+                        alt={`Photo: ${a.originalName}`}
+                        loading="lazy"
+                        className="size-20 rounded-sm object-cover"
+                      />
                     ) : (
                       <span className="flex size-20 flex-col items-center justify-center p-1 text-center text-xs font-semibold break-all">
                         PDF
@@ -232,7 +318,12 @@ function EntryItem({
       )}
       {adding && (
         <div className="pl-11">
-          <AttachPhotos unitId={unitId} eventId={e.id} label={entryKindLabel(e.kind).toLowerCase()} existing={e.attachments.length} />
+          <AttachPhotos
+            unitId={unitId}
+            eventId={e.id}
+            label={entryKindLabel(e.kind).toLowerCase()}
+            existing={e.attachments.length}
+          />
         </div>
       )}
     </li>
@@ -271,7 +362,10 @@ export function EventList({
 
   if (history.isPending) {
     return (
-      <div className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700" role="status">
+      <div
+        className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-ink-700"
+        role="status"
+      >
         <Spinner />
         Loading the history…
       </div>
@@ -281,7 +375,12 @@ export function EventList({
     return (
       <Alert tone="alarm" title="The history could not be loaded">
         <p>{history.error.message}</p>
-        <Button variant="secondary" className="mt-3" onClick={() => void history.refetch()} pending={history.isFetching}>
+        <Button
+          variant="secondary"
+          className="mt-3"
+          onClick={() => void history.refetch()}
+          pending={history.isFetching}
+        >
           Try again
         </Button>
       </Alert>
@@ -343,7 +442,12 @@ export function EventList({
       )}
       {voiding && (
         <Suspense fallback={null}>
-          <VoidEventDialog unitId={unitId} event={voiding} onClose={() => setVoiding(null)} alsoInvalidate={alsoInvalidate} />
+          <VoidEventDialog
+            unitId={unitId}
+            event={voiding}
+            onClose={() => setVoiding(null)}
+            alsoInvalidate={alsoInvalidate}
+          />
         </Suspense>
       )}
     </div>

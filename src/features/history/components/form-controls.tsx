@@ -46,7 +46,11 @@ const chip = cx(
 
 function Check() {
   return (
-    <svg viewBox="0 0 20 20" aria-hidden="true" className="hidden size-5 shrink-0 fill-none stroke-current stroke-[2.5] peer-checked:block">
+    <svg
+      viewBox="0 0 20 20"
+      aria-hidden="true"
+      className="hidden size-5 shrink-0 fill-none stroke-current stroke-[2.5] peer-checked:block"
+    >
       <path d="m4 10.5 4 4 8-9" strokeLinecap="round" strokeLinejoin="round" />
     </svg>
   );
@@ -237,7 +241,11 @@ export function DecimalField({
     if (v.startsWith('-') || v.startsWith('−')) field.onChange(v.slice(1));
     else field.onChange(`-${v}`);
   };
-  const describedBy = cx(hint ? `${id}-hint` : null, error || warning ? `${id}-msg` : null, aside ? `${id}-aside` : null);
+  const describedBy = cx(
+    hint ? `${id}-hint` : null,
+    error || warning ? `${id}-msg` : null,
+    aside ? `${id}-aside` : null,
+  );
   return (
     <div className="flex min-w-0 flex-col gap-1.5">
       <div className="flex flex-wrap items-end justify-between gap-2">

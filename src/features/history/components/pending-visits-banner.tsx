@@ -22,7 +22,11 @@ export function PendingVisitsBanner({
   // Why the last try did not get through; the visit stays and is tried again.
   const lastError = queue.items.find((i) => !i.refused && i.lastError)?.lastError;
   return (
-    <div role="status" className="flex flex-col gap-3 rounded-md border-2 border-ink-950 bg-lime-300 px-4 py-3 text-ink-950" data-testid="visit-queue">
+    <div
+      role="status"
+      className="flex flex-col gap-3 rounded-md border-2 border-ink-950 bg-lime-300 px-4 py-3 text-ink-950"
+      data-testid="visit-queue"
+    >
       {n > 0 && (
         <div className="flex flex-wrap items-center gap-3">
           <svg viewBox="0 0 24 24" aria-hidden="true" className="size-7 shrink-0 fill-none stroke-current stroke-2">
@@ -30,17 +34,22 @@ export function PendingVisitsBanner({
             <path d="M4 4l16 16" strokeLinecap="round" />
           </svg>
           <p className="min-w-0 flex-1">
-            <span className="font-bold">
-              {n === 1 ? '1 visit waiting to send' : `${n} visits waiting to send`}
+            <span className="font-bold">{n === 1 ? '1 visit waiting to send' : `${n} visits waiting to send`}</span>
+            <span className="block text-sm">
+              Kept on this phone. It goes out by itself once the connection is back.
             </span>
-            <span className="block text-sm">Kept on this phone. It goes out by itself once the connection is back.</span>
             {lastError && (
               <span className="block text-sm" data-testid="visit-queue-last-error">
                 Last try: {lastError}
               </span>
             )}
           </p>
-          <Button variant="secondary" onClick={() => void queue.sendNow()} pending={queue.sending} pendingLabel="Sending…">
+          <Button
+            variant="secondary"
+            onClick={() => void queue.sendNow()}
+            pending={queue.sending}
+            pendingLabel="Sending…"
+          >
             Send now
           </Button>
         </div>

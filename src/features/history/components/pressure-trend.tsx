@@ -11,7 +11,15 @@ import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { fmtC, fmtDateTime, fmtK, timeTick } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
 
-const C = { ink: '#0b161d', ink600: '#435762', ink300: '#a9b6bc', ink100: '#e3e8e8', fjord: '#005264', heed: '#7a4300', alarm: '#a3190f' };
+const C = {
+  ink: '#0b161d',
+  ink600: '#435762',
+  ink300: '#a9b6bc',
+  ink100: '#e3e8e8',
+  fjord: '#005264',
+  heed: '#7a4300',
+  alarm: '#a3190f',
+};
 
 type Point = PressureSnapshot & { t: number };
 
@@ -20,14 +28,17 @@ type Point = PressureSnapshot & { t: number };
  * the unit's own post-charge baseline expects at that ambient (ambient + baseline approach). A condensing line
  * sinking below the expected one is the drift that hints at a low charge.
  */
-export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null; snapshots: readonly PressureSnapshot[] }) {
+export function PressureTrend({
+  stats,
+  snapshots,
+}: {
+  stats: UnitStatsDto | null;
+  snapshots: readonly PressureSnapshot[];
+}) {
   const detail = statsDetail(stats);
   const { parentRef, width } = useParentSize({ debounceTime: 50, initialSize: { width: 360 } });
   const { tooltipOpen, tooltipData, tooltipLeft, showTooltip, hideTooltip } = useTooltip<Point>();
-  const points = useMemo<Point[]>(
-    () => snapshots.map((s) => ({ ...s, t: parseISO(s.at).getTime() })),
-    [snapshots],
-  );
+  const points = useMemo<Point[]>(() => snapshots.map((s) => ({ ...s, t: parseISO(s.at).getTime() })), [snapshots]);
   const health = detail?.pressureHealth;
   const baseline = health?.baselineApproachK ?? null;
 
@@ -46,7 +57,9 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
   const innerW = Math.max(10, width - m.left - m.right);
   const innerH = height - m.top - m.bottom;
   const expected = (p: Point) => (baseline !== null && p.ambientC !== null ? p.ambientC + baseline : null);
-  const temps = usable.flatMap((p) => [p.condensingC, p.evaporatingC, expected(p)]).filter((v): v is number => v !== null);
+  const temps = usable
+    .flatMap((p) => [p.condensingC, p.evaporatingC, expected(p)])
+    .filter((v): v is number => v !== null);
   const lo = Math.floor((Math.min(...temps) - 3) / 5) * 5;
   const hi = Math.ceil((Math.max(...temps) + 3) / 5) * 5;
   let t0 = usable[0].t;
@@ -72,16 +85,22 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
     <div className="flex flex-col gap-2" data-testid="pressure-trend">
       <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" aria-label="Key">
         <li className="flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.alarm} strokeWidth="3" /></svg>
+          <svg width="22" height="10" aria-hidden="true">
+            <line x1="0" y1="5" x2="22" y2="5" stroke={C.alarm} strokeWidth="3" />
+          </svg>
           Condensing (discharge)
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.fjord} strokeWidth="3" strokeDasharray="6 3" /></svg>
+          <svg width="22" height="10" aria-hidden="true">
+            <line x1="0" y1="5" x2="22" y2="5" stroke={C.fjord} strokeWidth="3" strokeDasharray="6 3" />
+          </svg>
           Evaporating (suction)
         </li>
         {baseline !== null && (
           <li className="flex items-center gap-1.5">
-            <svg width="22" height="10" aria-hidden="true"><line x1="0" y1="5" x2="22" y2="5" stroke={C.ink600} strokeWidth="2" strokeDasharray="2 3" /></svg>
+            <svg width="22" height="10" aria-hidden="true">
+              <line x1="0" y1="5" x2="22" y2="5" stroke={C.ink600} strokeWidth="2" strokeDasharray="2 3" />
+            </svg>
             Expected condensing (ambient + baseline)
           </li>
         )}
@@ -127,11 +146,27 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
             {usable.map((p, i) => (
               <g key={`${p.at}#${i}`}>
                 {p.condensingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.condensingC)} r={4} fill={C.alarm} />}
-                {p.evaporatingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.evaporatingC)} r={4} fill="#fff" stroke={C.fjord} strokeWidth={2} />}
+                {p.evaporatingC !== null && (
+                  <circle
+                    cx={x(new Date(p.t))}
+                    cy={y(p.evaporatingC)}
+                    r={4}
+                    fill="#fff"
+                    stroke={C.fjord}
+                    strokeWidth={2}
+                  />
+                )}
               </g>
             ))}
             {tooltipOpen && tooltipData && (
-              <line x1={x(new Date(tooltipData.t))} x2={x(new Date(tooltipData.t))} y1={0} y2={innerH} stroke={C.ink} strokeDasharray="3 2" />
+              <line
+                x1={x(new Date(tooltipData.t))}
+                x2={x(new Date(tooltipData.t))}
+                y1={0}
+                y2={innerH}
+                stroke={C.ink}
+                strokeDasharray="3 2"
+              />
             )}
             <rect
               width={innerW}
@@ -148,7 +183,14 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
               stroke={C.ink300}
               tickStroke={C.ink300}
               tickFormat={(v) => `${Number(v)}°`}
-              tickLabelProps={() => ({ fill: C.ink600, fontSize: 12, textAnchor: 'end', dx: -2, dy: 4, fontFamily: 'inherit' })}
+              tickLabelProps={() => ({
+                fill: C.ink600,
+                fontSize: 12,
+                textAnchor: 'end',
+                dx: -2,
+                dy: 4,
+                fontFamily: 'inherit',
+              })}
             />
             <AxisBottom
               top={innerH}
@@ -165,7 +207,13 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
           <div
             role="status"
             className="pointer-events-none absolute top-2 z-10 rounded-md border-2 border-ink-950 bg-white px-3 py-2 text-sm shadow-raised"
-            style={{ width: tipW, left: Math.max(0, Math.min(width - tipW, tooltipLeft + 12 > width - tipW ? tooltipLeft - tipW - 12 : tooltipLeft + 12)) }}
+            style={{
+              width: tipW,
+              left: Math.max(
+                0,
+                Math.min(width - tipW, tooltipLeft + 12 > width - tipW ? tooltipLeft - tipW - 12 : tooltipLeft + 12),
+              ),
+            }}
           >
             <p className="font-bold">{fmtDateTime(tooltipData.at)}</p>
             {tooltipData.condensingC !== null && <p>Condensing {fmtC(tooltipData.condensingC)}</p>}
@@ -180,8 +228,10 @@ export function PressureTrend({ stats, snapshots }: { stats: UnitStatsDto | null
       <p className="text-sm text-ink-700">
         {baseline !== null ? (
           <>
-            Baseline approach {fmtK(baseline)} (condensing minus ambient, in the weeks after the last recharge or verified
-            repair){health?.driftK !== null && health?.driftK !== undefined ? <>; latest drift {fmtK(health.driftK)}</> : null}.{' '}
+            Baseline approach {fmtK(baseline)} (condensing minus ambient, in the weeks after the last recharge or
+            verified repair)
+            {health?.driftK !== null && health?.driftK !== undefined ? <>; latest drift {fmtK(health.driftK)}</> : null}
+            .{' '}
           </>
         ) : (
           'No baseline yet: it forms from readings taken soon after a recharge or verified repair. '

@@ -68,7 +68,12 @@ function QueuedPhotoInput(props: {
   return (
     <div className="flex flex-col gap-2">
       {room > 0 && (
-        <PhotoPicker id={id} label={props.label} testId={`queued-attach-${props.index}`} onChange={(e) => void onChange(e)}>
+        <PhotoPicker
+          id={id}
+          label={props.label}
+          testId={`queued-attach-${props.index}`}
+          onChange={(e) => void onChange(e)}
+        >
           {busy ? 'Keeping the photo…' : props.kept > 0 ? 'Add more photos' : 'Add photos'}
         </PhotoPicker>
       )}

@@ -10,10 +10,7 @@ import { fmtNumber } from '../utils/labels';
 import { temperatureSymbol, type UnitPrefs } from '../utils/unit-prefs';
 import { parseTyped } from '../utils/visit-form-model';
 
-type Reading =
-  | { state: 'empty' }
-  | { state: 'ok'; tempC: number }
-  | { state: 'out'; message: string };
+type Reading = { state: 'empty' } | { state: 'ok'; tempC: number } | { state: 'out'; message: string };
 
 /** The saturation (dew) temperature of a typed gauge pressure, for the unit's refrigerant. */
 function readSaturation(refrigerant: string, typed: string, unit: UnitPrefs['pressure']): Reading {
@@ -81,7 +78,11 @@ export function SaturationReadout({
         r.state === 'empty' && 'text-ink-600',
       )}
     >
-      {r.state === 'empty' && <>{word} temperature appears as you type ({refrigerant}).</>}
+      {r.state === 'empty' && (
+        <>
+          {word} temperature appears as you type ({refrigerant}).
+        </>
+      )}
       {r.state === 'ok' && (
         <>
           <span className="font-semibold tabular-nums">

@@ -17,7 +17,15 @@ const FACTOR_ORDER: ScoreFactorName[] = ['rate', 'count', 'afterRepair', 'sameSp
 /** The loop, as in the logo: closed when it holds, opened when it slips, broken for a repeat leaker. */
 export function BandGlyph({ band, className }: { band: ScoreBand; className?: string }) {
   return (
-    <svg viewBox="0 0 24 24" aria-hidden="true" className={cx('size-6 shrink-0', className)} fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round">
+    <svg
+      viewBox="0 0 24 24"
+      aria-hidden="true"
+      className={cx('size-6 shrink-0', className)}
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="3"
+      strokeLinecap="round"
+    >
       {band === 'tight' && <circle cx="12" cy="12" r="8" />}
       {band === 'watch' && <path d="M18.4 7.2A8 8 0 1 1 12 4" />}
       {band === 'chronic' && (
@@ -68,7 +76,16 @@ function Flag({ tone, children }: { tone: 'alarm' | 'heed' | 'okay'; children: R
     heed: 'bg-heed-800 text-white',
     okay: 'bg-okay-700 text-white',
   };
-  return <span className={cx('ml-1 inline-block rounded-sm px-1.5 py-px align-middle text-xs font-bold tracking-wide uppercase', tones[tone])}>{children}</span>;
+  return (
+    <span
+      className={cx(
+        'ml-1 inline-block rounded-sm px-1.5 py-px align-middle text-xs font-bold tracking-wide uppercase',
+        tones[tone],
+      )}
+    >
+      {children}
+    </span>
+  );
 }
 
 function ScoreCard({ stats }: { stats: UnitStatsDto }) {
@@ -88,7 +105,9 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
       >
         <span className="flex w-full items-center justify-between gap-2">
           <span className="text-sm font-semibold text-ink-800">Repeat-leak score</span>
-          <span className="text-sm font-semibold underline underline-offset-2">{open ? 'Hide why' : 'Why this score?'}</span>
+          <span className="text-sm font-semibold underline underline-offset-2">
+            {open ? 'Hide why' : 'Why this score?'}
+          </span>
         </span>
         <span className="flex flex-wrap items-center gap-x-3 gap-y-1">
           <span className="flex items-baseline gap-1">
@@ -120,7 +139,10 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
                       </span>
                     </div>
                     <div className="h-2 rounded-full bg-ink-100" aria-hidden="true">
-                      <div className="h-2 rounded-full bg-ink-950" style={{ width: `${Math.min(100, f.value * 100)}%` }} />
+                      <div
+                        className="h-2 rounded-full bg-ink-950"
+                        style={{ width: `${Math.min(100, f.value * 100)}%` }}
+                      />
                     </div>
                     <p className="text-sm text-ink-700">{f.explanation}</p>
                   </li>
@@ -165,13 +187,18 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
   if (!stats.forecast || !f) {
     const repaired = detail?.forecastReason === 'repaired_since_last_addition';
     return (
-      <div className="flex flex-col justify-center rounded-lg border-2 border-ink-200 bg-white px-4 py-3" data-testid="forecast-card">
+      <div
+        className="flex flex-col justify-center rounded-lg border-2 border-ink-200 bg-white px-4 py-3"
+        data-testid="forecast-card"
+      >
         <p className="text-sm font-semibold text-ink-600">Next top-up</p>
         <p className="text-xl font-bold" data-testid="forecast-value">
           {repaired ? 'None expected' : 'No leak evidence'}
         </p>
         <p className="text-sm text-ink-700">
-          {repaired ? 'A verified repair came after the last top-up.' : 'No refrigerant has been made up, so there is nothing to project.'}
+          {repaired
+            ? 'A verified repair came after the last top-up.'
+            : 'No refrigerant has been made up, so there is nothing to project.'}
         </p>
       </div>
     );
@@ -181,7 +208,10 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
   const inDays = days === 0 ? 'today' : days === 1 ? 'tomorrow' : `in ${days} days`;
   const rhythm = Math.round(f.rhythmIntervalDays);
   return (
-    <div className="flex flex-col gap-1 rounded-lg border-2 border-ink-950 bg-white px-4 py-3" data-testid="forecast-card">
+    <div
+      className="flex flex-col gap-1 rounded-lg border-2 border-ink-950 bg-white px-4 py-3"
+      data-testid="forecast-card"
+    >
       <p className="text-sm font-semibold text-ink-600">Next top-up</p>
       <p className="text-sm text-ink-800" data-testid="forecast-situation">
         {situationWords(f)}
@@ -200,7 +230,9 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
       {f.pastRhythm && (
         <p className="text-sm text-ink-700">
           It has gone {f.waitedDays} days without a top-up, longer than its usual {rhythm};{' '}
-          {f.basis === 'cases' ? 'of the fleet’s units that waited as long, half were topped up by this date.' : 'by its own rhythm it is due.'}
+          {f.basis === 'cases'
+            ? 'of the fleet’s units that waited as long, half were topped up by this date.'
+            : 'by its own rhythm it is due.'}
         </p>
       )}
       <p className="text-sm text-ink-800" data-testid="forecast-range">
@@ -218,7 +250,8 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
               : 'No fleet record learned yet: this is the unit’s own rhythm.'}
       </p>
       <p className="text-sm text-ink-600" data-testid="forecast-basis">
-        Basis: {f.basisIntervals.length} interval{f.basisIntervals.length === 1 ? '' : 's'}, about {fmtKg(f.expectedKg)} every {rhythm} days
+        Basis: {f.basisIntervals.length} interval{f.basisIntervals.length === 1 ? '' : 's'}, about {fmtKg(f.expectedKg)}{' '}
+        every {rhythm} days
         {f.basis === 'cases' ? `; the ${f.neighbours} most similar past cases of the fleet.` : '.'}
       </p>
     </div>
@@ -227,14 +260,20 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
 
 function ptiFigure(stats: UnitStatsDto) {
   const today = new Date();
-  if (stats.ptiPassed === null) return { value: 'None on record', tone: undefined, detail: 'No pre-trip inspection recorded.' };
+  if (stats.ptiPassed === null)
+    return { value: 'None on record', tone: undefined, detail: 'No pre-trip inspection recorded.' };
   const detail = statsDetail(stats);
   const last = detail?.lastPtiAt ? `Last PTI ${fmtDay(detail.lastPtiAt)}.` : undefined;
-  if (stats.ptiPassed === false) return { value: 'Failed', tone: 'alarm' as const, detail: last ? `${last} Not releasable.` : undefined };
+  if (stats.ptiPassed === false)
+    return { value: 'Failed', tone: 'alarm' as const, detail: last ? `${last} Not releasable.` : undefined };
   if (stats.ptiValidUntil && differenceInCalendarDays(parseISO(stats.ptiValidUntil), today) >= 0) {
     return { value: `Valid until ${fmtDay(stats.ptiValidUntil)}`, tone: 'okay' as const, detail: last };
   }
-  return { value: stats.ptiValidUntil ? `Expired ${fmtDay(stats.ptiValidUntil)}` : 'Expired', tone: 'heed' as const, detail: last };
+  return {
+    value: stats.ptiValidUntil ? `Expired ${fmtDay(stats.ptiValidUntil)}` : 'Expired',
+    tone: 'heed' as const,
+    detail: last,
+  };
 }
 
 const PRESSURE_WORDS = {
@@ -254,10 +293,15 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
   }
   if (stats.computeError) {
     return (
-      <div role="alert" data-testid="unit-figures-error" className="rounded-md border-2 border-heed-800 bg-white px-4 py-3 text-ink-800">
+      <div
+        role="alert"
+        data-testid="unit-figures-error"
+        className="rounded-md border-2 border-heed-800 bg-white px-4 py-3 text-ink-800"
+      >
         <p className="font-bold">Cannot compute: {stats.computeError}</p>
         <p className="text-sm text-ink-700">
-          The history is kept as recorded. Correct the unit's details (an engineer can edit them), and the figures are worked out again.
+          The history is kept as recorded. Correct the unit's details (an engineer can edit them), and the figures are
+          worked out again.
         </p>
       </div>
     );
@@ -277,7 +321,13 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
           label="Leak rate"
           testId="leak-rate"
           tone={detail?.leakRateAboveThreshold ? 'heed' : undefined}
-          detail={detail ? (detail.rollingSinceRepair ? `Since ${fmtDay(detail.rollingSince)}` : 'Rolling 12 months') : undefined}
+          detail={
+            detail
+              ? detail.rollingSinceRepair
+                ? `Since ${fmtDay(detail.rollingSince)}`
+                : 'Rolling 12 months'
+              : undefined
+          }
         >
           {fmtPct(stats.rollingLeakRatePct)}
           <span className="text-sm font-semibold text-ink-600"> of charge</span>
@@ -326,7 +376,10 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
       {detail?.openLeak && (
         <p className="rounded-md border-2 border-alarm-700 bg-alarm-50 px-3 py-2 text-base">
           <span className="font-bold text-alarm-700">Open leak:</span> found {fmtDay(detail.openLeak.foundAt)}
-          {detail.openLeak.location ? ` at the ${termLabel(LEAK_LOCATIONS, detail.openLeak.location).toLowerCase()}` : ''}, no repair recorded since.
+          {detail.openLeak.location
+            ? ` at the ${termLabel(LEAK_LOCATIONS, detail.openLeak.location).toLowerCase()}`
+            : ''}
+          , no repair recorded since.
         </p>
       )}
     </div>

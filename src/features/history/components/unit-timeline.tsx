@@ -20,7 +20,11 @@ const LANES: { id: Lane; label: string }[] = [
   { id: 'pressure', label: 'Pressure readings' },
 ];
 const laneOf = (kind: string): Lane =>
-  kind === 'top_up' || kind === 'recovery' || kind === 'recharge' ? 'refrigerant' : kind === 'pressure' ? 'pressure' : 'service';
+  kind === 'top_up' || kind === 'recovery' || kind === 'recharge'
+    ? 'refrigerant'
+    : kind === 'pressure'
+      ? 'pressure'
+      : 'service';
 
 const DAY = 86_400_000;
 const PRESETS = [
@@ -66,7 +70,11 @@ function describe(e: TimelineEventDto): string[] {
       if (e.kg != null) lines.push(fmtKg(e.kg));
       break;
     case 'leak_check':
-      lines.push(e.leakFound ? `Leak found${e.location ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}` : ''}` : 'No leak found');
+      lines.push(
+        e.leakFound
+          ? `Leak found${e.location ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}` : ''}`
+          : 'No leak found',
+      );
       break;
     case 'repair':
       if (e.location) lines.push(termLabel(LEAK_LOCATIONS, e.location));
@@ -76,8 +84,10 @@ function describe(e: TimelineEventDto): string[] {
       lines.push(e.passed ? 'Passed' : 'Failed');
       break;
     case 'pressure':
-      if (e.suctionKPaG != null) lines.push(`Suction ${fmtNumber(e.suctionKPaG / 100, 2)} bar (${fmtNumber(e.suctionKPaG, 0)} kPa) gauge`);
-      if (e.dischargeKPaG != null) lines.push(`Discharge ${fmtNumber(e.dischargeKPaG / 100, 2)} bar (${fmtNumber(e.dischargeKPaG, 0)} kPa) gauge`);
+      if (e.suctionKPaG != null)
+        lines.push(`Suction ${fmtNumber(e.suctionKPaG / 100, 2)} bar (${fmtNumber(e.suctionKPaG, 0)} kPa) gauge`);
+      if (e.dischargeKPaG != null)
+        lines.push(`Discharge ${fmtNumber(e.dischargeKPaG / 100, 2)} bar (${fmtNumber(e.dischargeKPaG, 0)} kPa) gauge`);
       if (e.ambientC != null) lines.push(`Ambient ${fmtNumber(e.ambientC, 1)} °C`);
       if (e.sightGlass) lines.push(`Sight glass: ${termLabel(SIGHT_GLASS_STATES, e.sightGlass).toLowerCase()}`);
       break;
@@ -108,29 +118,86 @@ function Marker({ item, x, y, barH }: { item: Item; x: number; y: number; barH: 
       );
       break;
     case 'recovery':
-      shape = <rect x={x - 4} y={y} width={8} height={Math.max(3, barH)} rx={1.5} fill={C.paper} stroke={C.ink} strokeWidth={1.5} />;
+      shape = (
+        <rect
+          x={x - 4}
+          y={y}
+          width={8}
+          height={Math.max(3, barH)}
+          rx={1.5}
+          fill={C.paper}
+          stroke={C.ink}
+          strokeWidth={1.5}
+        />
+      );
       break;
     case 'leak_check':
-      shape = <circle cx={x} cy={y} r={7} fill={e.leakFound ? C.alarm : '#fff'} stroke={e.leakFound ? C.alarm : C.ink} strokeWidth={2} />;
+      shape = (
+        <circle
+          cx={x}
+          cy={y}
+          r={7}
+          fill={e.leakFound ? C.alarm : '#fff'}
+          stroke={e.leakFound ? C.alarm : C.ink}
+          strokeWidth={2}
+        />
+      );
       break;
     case 'repair':
-      shape = <rect x={x - 6.5} y={y - 6.5} width={13} height={13} fill={e.verified ? C.ink : '#fff'} stroke={C.ink} strokeWidth={2} />;
+      shape = (
+        <rect
+          x={x - 6.5}
+          y={y - 6.5}
+          width={13}
+          height={13}
+          fill={e.verified ? C.ink : '#fff'}
+          stroke={C.ink}
+          strokeWidth={2}
+        />
+      );
       break;
     case 'pti':
       shape = (
         <g>
-          <path d={`M${x} ${y - 8} L${x + 8} ${y} L${x} ${y + 8} L${x - 8} ${y} Z`} fill={e.passed ? C.okay : '#fff'} stroke={e.passed ? C.okay : C.alarm} strokeWidth={2} />
-          {!e.passed && <path d={`M${x - 3} ${y - 3} L${x + 3} ${y + 3} M${x + 3} ${y - 3} L${x - 3} ${y + 3}`} stroke={C.alarm} strokeWidth={2} />}
+          <path
+            d={`M${x} ${y - 8} L${x + 8} ${y} L${x} ${y + 8} L${x - 8} ${y} Z`}
+            fill={e.passed ? C.okay : '#fff'}
+            stroke={e.passed ? C.okay : C.alarm}
+            strokeWidth={2}
+          />
+          {!e.passed && (
+            <path
+              d={`M${x - 3} ${y - 3} L${x + 3} ${y + 3} M${x + 3} ${y - 3} L${x - 3} ${y + 3}`}
+              stroke={C.alarm}
+              strokeWidth={2}
+            />
+          )}
         </g>
       );
       break;
     case 'pressure': {
       const warn = e.sightGlass === 'bubbles' || e.sightGlass === 'empty';
-      shape = <circle cx={x} cy={y} r={5.5} fill={warn ? '#fff' : C.ink600} stroke={warn ? C.heed : C.ink600} strokeWidth={warn ? 2.5 : 1} />;
+      shape = (
+        <circle
+          cx={x}
+          cy={y}
+          r={5.5}
+          fill={warn ? '#fff' : C.ink600}
+          stroke={warn ? C.heed : C.ink600}
+          strokeWidth={warn ? 2.5 : 1}
+        />
+      );
       break;
     }
     default:
-      shape = <path d={`M${x} ${y - 7} L${x + 6} ${y + 5} L${x - 6} ${y + 5} Z`} fill={C.ink300} stroke={C.ink} strokeWidth={1.5} />;
+      shape = (
+        <path
+          d={`M${x} ${y - 7} L${x + 6} ${y + 5} L${x - 6} ${y + 5} Z`}
+          fill={C.ink300}
+          stroke={C.ink}
+          strokeWidth={1.5}
+        />
+      );
   }
   return (
     <g opacity={faded}>
@@ -208,16 +275,27 @@ export function UnitTimeline({
   const chartH = laneTop.pressure + LANE_H.pressure;
   const totalH = chartH + AXIS_H;
 
-  const x = useMemo(() => scaleTime({ domain: [new Date(current[0]), new Date(current[1])], range: [0, innerW] }), [current, innerW]);
-  const stripX = useMemo(() => scaleTime({ domain: [new Date(full[0]), new Date(full[1])], range: [0, innerW] }), [full, innerW]);
+  const x = useMemo(
+    () => scaleTime({ domain: [new Date(current[0]), new Date(current[1])], range: [0, innerW] }),
+    [current, innerW],
+  );
+  const stripX = useMemo(
+    () => scaleTime({ domain: [new Date(full[0]), new Date(full[1])], range: [0, innerW] }),
+    [full, innerW],
+  );
   const stripY = useMemo(() => scaleLinear({ domain: [0, STRIP_H], range: [STRIP_H, 0] }), []);
 
-  const maxKg = Math.max(0.5, ...items.filter((i) => i.lane === 'refrigerant').map((i) => i.e.kg ?? 0), expectedKg ?? 0);
+  const maxKg = Math.max(
+    0.5,
+    ...items.filter((i) => i.lane === 'refrigerant').map((i) => i.e.kg ?? 0),
+    expectedKg ?? 0,
+  );
   const refBase = laneTop.refrigerant + 16 + (LANE_H.refrigerant - 16) * 0.72;
   const upRoom = refBase - laneTop.refrigerant - 18;
   const downRoom = laneTop.refrigerant + LANE_H.refrigerant - refBase - 2;
   // Square root: a 0.5 kg top-up stays visible beside a 4.5 kg recharge, and more kg is still taller.
-  const barH = (kg: number | null, kind: string) => Math.sqrt(Math.max(0, kg ?? 0) / maxKg) * (kind === 'recovery' ? downRoom : upRoom);
+  const barH = (kg: number | null, kind: string) =>
+    Math.sqrt(Math.max(0, kg ?? 0) / maxKg) * (kind === 'recovery' ? downRoom : upRoom);
   const laneY = (lane: Lane) => (lane === 'refrigerant' ? refBase : laneTop[lane] + LANE_H[lane] / 2 + 6);
 
   const brushRef = useRef<BrushHandle | null>(null);
@@ -275,7 +353,8 @@ export function UnitTimeline({
     if (d && !d.moved) hideTooltip();
   };
 
-  const tipAt = (tip: Tip, px: number, py: number) => showTooltip({ tooltipData: tip, tooltipLeft: px + margin.left, tooltipTop: py });
+  const tipAt = (tip: Tip, px: number, py: number) =>
+    showTooltip({ tooltipData: tip, tooltipLeft: px + margin.left, tooltipTop: py });
 
   const visible = items.filter((i) => i.t >= current[0] - DAY && i.t <= current[1] + DAY);
   // Service marks of one visit (a leak check and a repair on the same day) stack instead of hiding each other.
@@ -315,7 +394,9 @@ export function UnitTimeline({
               onClick={() => applyView(presetView(p.id), p.id)}
               className={cx(
                 'min-h-touch min-w-14 rounded-md border-2 px-3 font-semibold',
-                preset === p.id ? 'border-ink-950 bg-ink-950 text-white' : 'border-ink-400 bg-white hover:border-ink-950',
+                preset === p.id
+                  ? 'border-ink-950 bg-ink-950 text-white'
+                  : 'border-ink-400 bg-white hover:border-ink-950',
               )}
             >
               {p.label}
@@ -327,7 +408,9 @@ export function UnitTimeline({
             onClick={() => applyView(full, 'all')}
             className={cx(
               'min-h-touch rounded-md border-2 px-3 font-semibold',
-              preset === 'all' ? 'border-ink-950 bg-ink-950 text-white' : 'border-ink-400 bg-white hover:border-ink-950',
+              preset === 'all'
+                ? 'border-ink-950 bg-ink-950 text-white'
+                : 'border-ink-400 bg-white hover:border-ink-950',
             )}
           >
             Fit all
@@ -338,7 +421,11 @@ export function UnitTimeline({
         </p>
       </div>
 
-      <div ref={parentRef} className="relative w-full select-none" onKeyDown={(e) => e.key === 'Escape' && hideTooltip()}>
+      <div
+        ref={parentRef}
+        className="relative w-full select-none"
+        onKeyDown={(e) => e.key === 'Escape' && hideTooltip()}
+      >
         <svg
           width={width}
           height={totalH}
@@ -362,7 +449,15 @@ export function UnitTimeline({
           <Group left={margin.left}>
             {LANES.map((l) => (
               <g key={l.id}>
-                <rect x={0} y={laneTop[l.id]} width={innerW} height={LANE_H[l.id]} fill="#fff" stroke={C.ink100} rx={6} />
+                <rect
+                  x={0}
+                  y={laneTop[l.id]}
+                  width={innerW}
+                  height={LANE_H[l.id]}
+                  fill="#fff"
+                  stroke={C.ink100}
+                  rx={6}
+                />
                 <text x={6} y={laneTop[l.id] + 14} fontSize={12} fontWeight={600} fill={C.ink600}>
                   {l.label}
                 </text>
@@ -372,8 +467,13 @@ export function UnitTimeline({
             <g clipPath="url(#tl-clip)">
               {forecast && fDate !== null && (
                 <g
-                  onClick={() => tipAt({ type: 'forecast', forecast, expectedKg }, x(new Date(fDate)), laneTop.refrigerant)}
-                  onPointerEnter={(e) => e.pointerType === 'mouse' && tipAt({ type: 'forecast', forecast, expectedKg }, x(new Date(fDate)), laneTop.refrigerant)}
+                  onClick={() =>
+                    tipAt({ type: 'forecast', forecast, expectedKg }, x(new Date(fDate)), laneTop.refrigerant)
+                  }
+                  onPointerEnter={(e) =>
+                    e.pointerType === 'mouse' &&
+                    tipAt({ type: 'forecast', forecast, expectedKg }, x(new Date(fDate)), laneTop.refrigerant)
+                  }
                   className="cursor-pointer"
                   data-testid="timeline-forecast"
                 >
@@ -407,7 +507,13 @@ export function UnitTimeline({
                   >
                     {forecast.overdue ? 'overdue' : 'next?'}
                   </text>
-                  <rect x={x(new Date(fDate)) - 16} y={laneTop.refrigerant} width={32} height={LANE_H.refrigerant} fill="transparent" />
+                  <rect
+                    x={x(new Date(fDate)) - 16}
+                    y={laneTop.refrigerant}
+                    width={32}
+                    height={LANE_H.refrigerant}
+                    fill="transparent"
+                  />
                 </g>
               )}
               <rect
@@ -424,8 +530,23 @@ export function UnitTimeline({
               />
               {todayX >= 0 && todayX <= innerW && (
                 <g pointerEvents="none">
-                  <line x1={todayX} x2={todayX} y1={TOP - 4} y2={chartH} stroke={C.ink} strokeWidth={1.5} strokeDasharray="4 3" />
-                  <text x={todayX} y={TOP - 6} fontSize={11} fontWeight={700} textAnchor={todayX > innerW - 30 ? 'end' : 'middle'} fill={C.ink}>
+                  <line
+                    x1={todayX}
+                    x2={todayX}
+                    y1={TOP - 4}
+                    y2={chartH}
+                    stroke={C.ink}
+                    strokeWidth={1.5}
+                    strokeDasharray="4 3"
+                  />
+                  <text
+                    x={todayX}
+                    y={TOP - 6}
+                    fontSize={11}
+                    fontWeight={700}
+                    textAnchor={todayX > innerW - 30 ? 'end' : 'middle'}
+                    fill={C.ink}
+                  >
                     Today
                   </text>
                 </g>
@@ -483,12 +604,16 @@ export function UnitTimeline({
           >
             {tooltipData.type === 'event' ? (
               <>
-                <p className={cx('font-bold', tooltipData.item.e.voided && 'line-through')}>{entryKindLabel(tooltipData.item.e.kind)}</p>
+                <p className={cx('font-bold', tooltipData.item.e.voided && 'line-through')}>
+                  {entryKindLabel(tooltipData.item.e.kind)}
+                </p>
                 <p className="text-ink-600">{fmtDateTime(tooltipData.item.e.occurredAt)}</p>
                 {describe(tooltipData.item.e).map((l) => (
                   <p key={l}>{l}</p>
                 ))}
-                {tooltipData.item.e.voided && <p className="font-semibold text-alarm-700">Voided: see the list below</p>}
+                {tooltipData.item.e.voided && (
+                  <p className="font-semibold text-alarm-700">Voided: see the list below</p>
+                )}
               </>
             ) : (
               <>
@@ -505,7 +630,13 @@ export function UnitTimeline({
           </div>
         )}
 
-        <svg width={width} height={STRIP_H + 4} className="mt-1 block" aria-hidden="true" style={{ touchAction: 'pan-y' }}>
+        <svg
+          width={width}
+          height={STRIP_H + 4}
+          className="mt-1 block"
+          aria-hidden="true"
+          style={{ touchAction: 'pan-y' }}
+        >
           <Group left={margin.left} top={2}>
             <rect x={0} y={0} width={innerW} height={STRIP_H} fill={C.ink100} rx={6} />
             {items.map((i) => {
@@ -523,8 +654,17 @@ export function UnitTimeline({
                 />
               );
             })}
-            {fDate !== null && <circle cx={stripX(new Date(fDate))} cy={20} r={4} fill="#fff" stroke={C.fjord} strokeWidth={2} />}
-            <line x1={stripX(new Date(now))} x2={stripX(new Date(now))} y1={0} y2={STRIP_H} stroke={C.ink} strokeDasharray="3 2" />
+            {fDate !== null && (
+              <circle cx={stripX(new Date(fDate))} cy={20} r={4} fill="#fff" stroke={C.fjord} strokeWidth={2} />
+            )}
+            <line
+              x1={stripX(new Date(now))}
+              x2={stripX(new Date(now))}
+              y1={0}
+              y2={STRIP_H}
+              stroke={C.ink}
+              strokeDasharray="3 2"
+            />
             <Brush
               key={`${full[0]}-${full[1]}-${innerW}`}
               innerRef={brushRef}
@@ -536,7 +676,11 @@ export function UnitTimeline({
               handleSize={12}
               resizeTriggerAreas={['left', 'right']}
               brushDirection="horizontal"
-              initialBrushPosition={view ? { start: { x: stripX(new Date(current[0])) }, end: { x: stripX(new Date(current[1])) } } : undefined}
+              initialBrushPosition={
+                view
+                  ? { start: { x: stripX(new Date(current[0])) }, end: { x: stripX(new Date(current[1])) } }
+                  : undefined
+              }
               onChange={onBrushChange}
               selectedBoxStyle={{ fill: C.fjord, fillOpacity: 0.18, stroke: C.fjord, strokeWidth: 2 }}
               disableDraggingSelection={false}
@@ -549,28 +693,52 @@ export function UnitTimeline({
 
       <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" aria-label="Key">
         <li className="flex items-center gap-1.5">
-          <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="14" fill={C.fjord} /></svg>Top-up (taller = more kg)
+          <svg width="12" height="16" aria-hidden="true">
+            <rect x="2" y="2" width="8" height="14" fill={C.fjord} />
+          </svg>
+          Top-up (taller = more kg)
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="14" fill="url(#tl-hatch)" stroke={C.fjord} /></svg>Recharge
+          <svg width="12" height="16" aria-hidden="true">
+            <rect x="2" y="2" width="8" height="14" fill="url(#tl-hatch)" stroke={C.fjord} />
+          </svg>
+          Recharge
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="12" height="16" aria-hidden="true"><rect x="2" y="2" width="8" height="12" fill={C.paper} stroke={C.ink} /></svg>Recovery
+          <svg width="12" height="16" aria-hidden="true">
+            <rect x="2" y="2" width="8" height="12" fill={C.paper} stroke={C.ink} />
+          </svg>
+          Recovery
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="16" height="16" aria-hidden="true"><circle cx="8" cy="8" r="6" fill={C.alarm} /></svg>Leak found
+          <svg width="16" height="16" aria-hidden="true">
+            <circle cx="8" cy="8" r="6" fill={C.alarm} />
+          </svg>
+          Leak found
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="16" height="16" aria-hidden="true"><rect x="2" y="2" width="12" height="12" fill={C.ink} /></svg>Verified repair
+          <svg width="16" height="16" aria-hidden="true">
+            <rect x="2" y="2" width="12" height="12" fill={C.ink} />
+          </svg>
+          Verified repair
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="16" height="16" aria-hidden="true"><path d="M8 1 15 8 8 15 1 8Z" fill={C.okay} /></svg>PTI passed
+          <svg width="16" height="16" aria-hidden="true">
+            <path d="M8 1 15 8 8 15 1 8Z" fill={C.okay} />
+          </svg>
+          PTI passed
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="16" height="16" aria-hidden="true"><rect x="1" y="3" width="14" height="10" fill="url(#tl-band)" /></svg>Forecast range
+          <svg width="16" height="16" aria-hidden="true">
+            <rect x="1" y="3" width="14" height="10" fill="url(#tl-band)" />
+          </svg>
+          Forecast range
         </li>
         <li className="flex items-center gap-1.5">
-          <svg width="16" height="16" aria-hidden="true" opacity={0.4}><circle cx="8" cy="8" r="5" fill={C.ink600} /><line x1="2" y1="14" x2="14" y2="2" stroke={C.ink} strokeWidth="2" /></svg>
+          <svg width="16" height="16" aria-hidden="true" opacity={0.4}>
+            <circle cx="8" cy="8" r="5" fill={C.ink600} />
+            <line x1="2" y1="14" x2="14" y2="2" stroke={C.ink} strokeWidth="2" />
+          </svg>
           Voided
         </li>
       </ul>

@@ -50,7 +50,8 @@ export function VoidEventDialog({
       { eventId: event.id, reason },
       {
         onSuccess: () => onClose(),
-        onError: (error) => setProblem(isApiError(error) ? error.message : 'Something unexpected went wrong. Try again.'),
+        onError: (error) =>
+          setProblem(isApiError(error) ? error.message : 'Something unexpected went wrong. Try again.'),
       },
     );
   });
@@ -67,8 +68,8 @@ export function VoidEventDialog({
           Void this {entryKindLabel(event.kind).toLowerCase()}?
         </h2>
         <p className="text-ink-700">
-          Recorded by {event.recordedBy.name}, {fmtDateTime(event.occurredAt)}. It stays in the history, struck through, with
-          your name and reason; the unit's figures are recomputed without it.
+          Recorded by {event.recordedBy.name}, {fmtDateTime(event.occurredAt)}. It stays in the history, struck through,
+          with your name and reason; the unit's figures are recomputed without it.
         </p>
         {problem && (
           <Alert tone="alarm" title="Not voided">

@@ -61,7 +61,8 @@ const FLAMMABLE = (code: string): Caution => ({
 const HIGH_PRESSURE: Caution = {
   id: 'high-pressure',
   title: 'CO2 (R-744): very high pressures',
-  summary: 'Several times the pressure of HFC units: R-744-rated gauges, hoses and recovery gear only; never trap liquid.',
+  summary:
+    'Several times the pressure of HFC units: R-744-rated gauges, hoses and recovery gear only; never trap liquid.',
   points: [
     'Working pressures run several times higher than HFC units (well above 100 bar on the high side): use gauges, hoses and recovery equipment rated for R-744.',
     'Never trap liquid CO2 between closed valves; it can burst the line. Dry ice can form when pressure drops.',
@@ -80,6 +81,7 @@ export function cautionsFor(kind: VisitEventKind, refrigerant: string): Caution[
   if (opens) out.push(OPENING);
   if (kind === 'pressure' || kind === 'leak_check') out.push(GAUGES);
   if (r?.flammable && (MOVES.has(kind) || opens || kind === 'leak_check')) out.push(FLAMMABLE(r.code));
-  if (r?.highPressure && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check')) out.push(HIGH_PRESSURE);
+  if (r?.highPressure && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check'))
+    out.push(HIGH_PRESSURE);
   return out;
 }

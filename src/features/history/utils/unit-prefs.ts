@@ -24,7 +24,9 @@ function parse(raw: string | null): UnitPrefs {
     const v = JSON.parse(raw) as Partial<UnitPrefs>;
     return {
       mass: (MASS_CHOICES as readonly string[]).includes(v.mass ?? '') ? v.mass! : DEFAULT_UNIT_PREFS.mass,
-      pressure: (PRESSURE_CHOICES as readonly string[]).includes(v.pressure ?? '') ? v.pressure! : DEFAULT_UNIT_PREFS.pressure,
+      pressure: (PRESSURE_CHOICES as readonly string[]).includes(v.pressure ?? '')
+        ? v.pressure!
+        : DEFAULT_UNIT_PREFS.pressure,
       temperature: (TEMPERATURE_CHOICES as readonly string[]).includes(v.temperature ?? '')
         ? v.temperature!
         : DEFAULT_UNIT_PREFS.temperature,

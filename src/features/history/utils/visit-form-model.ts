@@ -10,7 +10,12 @@ import {
   isDomainError,
   type MassUnit,
 } from '../../../../shared/domain';
-import { recordVisitSchema, type RecordVisitInput, type VisitEventInput, type VisitEventKind } from '../../../../shared/schemas/history';
+import {
+  recordVisitSchema,
+  type RecordVisitInput,
+  type VisitEventInput,
+  type VisitEventKind,
+} from '../../../../shared/schemas/history';
 import type { UnitPrefs } from './unit-prefs';
 
 export type EntryDraft = {
@@ -92,7 +97,11 @@ export function toLocalInputValue(d: Date): string {
 
 /** A typed number: blank → undefined, a decimal comma is accepted, anything else → NaN (the schema says what to type). */
 export function parseTyped(value: string): number | undefined {
-  const t = value.trim().replace(/\s+/g, '').replace(/^([+-−]?\d*),(\d+)$/, '$1.$2').replace(/^−/, '-');
+  const t = value
+    .trim()
+    .replace(/\s+/g, '')
+    .replace(/^([+-−]?\d*),(\d+)$/, '$1.$2')
+    .replace(/^−/, '-');
   if (t === '') return undefined;
   return /^[+-]?(\d+\.?\d*|\.\d+)$/.test(t) ? Number(t) : Number.NaN;
 }
@@ -133,7 +142,11 @@ export function toVisitEvent(d: EntryDraft): VisitEventInput {
   const note = optionalText(d.note);
   switch (d.kind) {
     case 'pti':
-      return { kind: 'pti', passed: d.passed === 'pass' ? true : d.passed === 'fail' ? false : (undefined as never), note };
+      return {
+        kind: 'pti',
+        passed: d.passed === 'pass' ? true : d.passed === 'fail' ? false : (undefined as never),
+        note,
+      };
     case 'leak_check': {
       const leakFound = d.leakFound === 'yes' ? true : d.leakFound === 'no' ? false : (undefined as never);
       return {
@@ -170,7 +183,8 @@ export function toVisitEvent(d: EntryDraft): VisitEventInput {
       const enteredAs = typed !== undefined && !Number.isNaN(typed) ? { value: typed, unit: d.massUnit } : undefined;
       const cylinder = d.cylinder.trim();
       if (d.kind === 'recovery') return { kind: 'recovery', kg, enteredAs, cylinder, note };
-      if (d.kind === 'top_up') return { kind: 'top_up', kg, enteredAs, cylinder, reusedRecovered: d.reusedRecovered, note };
+      if (d.kind === 'top_up')
+        return { kind: 'top_up', kg, enteredAs, cylinder, reusedRecovered: d.reusedRecovered, note };
       return {
         kind: 'recharge',
         kg,
@@ -215,7 +229,8 @@ export function visitFormSchema(unitId: number) {
     .object({ occurredAt: z.string(), events: z.array(z.custom<EntryDraft>()) })
     .transform((v) => ({
       unitId,
-      occurredAt: v.occurredAt && !Number.isNaN(new Date(v.occurredAt).getTime()) ? new Date(v.occurredAt).toISOString() : '',
+      occurredAt:
+        v.occurredAt && !Number.isNaN(new Date(v.occurredAt).getTime()) ? new Date(v.occurredAt).toISOString() : '',
       events: v.events.map(toVisitEvent),
     }))
     .pipe(apiSchema);

@@ -5,10 +5,17 @@ import { apiClient } from '../../../lib/api-client';
 import { meQuery } from '../../../lib/auth';
 import { mailKeys, type AccountLinkPurpose } from './keys';
 
-const base: Record<AccountLinkPurpose, string> = { invitation: '/api/invitations', password_reset: '/api/password-reset' };
+const base: Record<AccountLinkPurpose, string> = {
+  invitation: '/api/invitations',
+  password_reset: '/api/password-reset',
+};
 const url = (purpose: AccountLinkPurpose, token: string) => `${base[purpose]}/${encodeURIComponent(token)}`;
 
-export async function getAccountLink(purpose: AccountLinkPurpose, token: string, signal?: AbortSignal): Promise<AccountLinkDto> {
+export async function getAccountLink(
+  purpose: AccountLinkPurpose,
+  token: string,
+  signal?: AbortSignal,
+): Promise<AccountLinkDto> {
   return accountLinkDto.parse(await apiClient.get(url(purpose, token), { signal }));
 }
 
@@ -45,6 +52,7 @@ export function useRequestPasswordReset() {
 
 export function useResendInvitation() {
   return useMutation({
-    mutationFn: (userId: string) => apiClient.post<{ ok: true }>(`/api/users/${encodeURIComponent(userId)}/invitation`, {}),
+    mutationFn: (userId: string) =>
+      apiClient.post<{ ok: true }>(`/api/users/${encodeURIComponent(userId)}/invitation`, {}),
   });
 }

@@ -32,7 +32,8 @@ export function useSaveSubscriptions() {
 export function useUnsubscribe() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: UnsubscribeInput) => apiClient.post<{ kind: string; removed: number }>('/api/alerts/unsubscribe', input),
+    mutationFn: (input: UnsubscribeInput) =>
+      apiClient.post<{ kind: string; removed: number }>('/api/alerts/unsubscribe', input),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: mailKeys.subscriptions() }),
   });
 }

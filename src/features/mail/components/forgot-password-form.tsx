@@ -20,15 +20,19 @@ export function ForgotPasswordForm() {
     setFocus,
     getValues,
     formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({ resolver: zodResolver(requestPasswordResetSchema), defaultValues: { email: '' } });
+  } = useForm<FormInput, unknown, FormOutput>({
+    resolver: zodResolver(requestPasswordResetSchema),
+    defaultValues: { email: '' },
+  });
 
   useEffect(() => setFocus('email'), [setFocus]);
 
   if (request.isSuccess) {
     return (
       <Alert tone="okay" title="Check your e-mail">
-        If {getValues('email').trim().toLowerCase()} has a Tightloop account, a link to choose a new password is on its way. It works
-        once, for {PASSWORD_RESET_HOURS} hour. Nothing arrived? Look in the spam folder, or ask an administrator.
+        If {getValues('email').trim().toLowerCase()} has a Tightloop account, a link to choose a new password is on its
+        way. It works once, for {PASSWORD_RESET_HOURS} hour. Nothing arrived? Look in the spam folder, or ask an
+        administrator.
       </Alert>
     );
   }

@@ -50,7 +50,12 @@ function MailItem({ mail }: { mail: ReceivedMailDto }) {
           )}
           {asHtml && mail.html ? (
             // Sandboxed: the mail's HTML cannot run scripts or reach this page.
-            <iframe title={`Mail: ${mail.subject}`} sandbox="" srcDoc={mail.html} className={cx('h-[32rem] w-full rounded-md border-2 border-ink-200')} />
+            <iframe
+              title={`Mail: ${mail.subject}`}
+              sandbox=""
+              srcDoc={mail.html}
+              className={cx('h-[32rem] w-full rounded-md border-2 border-ink-200')}
+            />
           ) : (
             <LinkedText text={mail.text} />
           )}

@@ -1,5 +1,10 @@
 import { useState } from 'react';
-import { ALERT_KIND_LABELS, ALERT_KINDS, type AlertKind, type SubscriptionsDto } from '../../../../shared/schemas/alerts';
+import {
+  ALERT_KIND_LABELS,
+  ALERT_KINDS,
+  type AlertKind,
+  type SubscriptionsDto,
+} from '../../../../shared/schemas/alerts';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { isApiError } from '../../../lib/api-client';
@@ -50,8 +55,16 @@ export function SubscriptionsForm({ data }: { data: SubscriptionsDto }) {
               {ALERT_KINDS.map((kind) => {
                 const key = keyOf(site.id, kind);
                 return (
-                  <label key={kind} className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md px-2 hover:bg-ink-50">
-                    <input type="checkbox" className="size-6 accent-fjord-700" checked={chosen.has(key)} onChange={() => toggle(key)} />
+                  <label
+                    key={kind}
+                    className="flex min-h-touch cursor-pointer items-center gap-3 rounded-md px-2 hover:bg-ink-50"
+                  >
+                    <input
+                      type="checkbox"
+                      className="size-6 accent-fjord-700"
+                      checked={chosen.has(key)}
+                      onChange={() => toggle(key)}
+                    />
                     {ALERT_KIND_LABELS[kind].title}
                   </label>
                 );

@@ -17,7 +17,8 @@ const search = (q: Record<string, unknown>) => {
 export function useRefrigerantLog(q: Omit<RefrigerantLogQuery, 'before'>) {
   return useInfiniteQuery({
     queryKey: logKeys.list(q),
-    queryFn: ({ pageParam, signal }) => apiClient.get<RefrigerantLogDto>(`/api/refrigerant-log?${search({ ...q, before: pageParam })}`, { signal }),
+    queryFn: ({ pageParam, signal }) =>
+      apiClient.get<RefrigerantLogDto>(`/api/refrigerant-log?${search({ ...q, before: pageParam })}`, { signal }),
     initialPageParam: undefined as string | undefined,
     getNextPageParam: (last) => last.nextBefore ?? undefined,
     placeholderData: keepPreviousData,

@@ -1,5 +1,13 @@
 /** Period presets of the log, as UTC calendar days. */
-export const PERIODS = ['this_month', 'last_month', 'this_quarter', 'last_quarter', 'this_year', 'last_year', 'custom'] as const;
+export const PERIODS = [
+  'this_month',
+  'last_month',
+  'this_quarter',
+  'last_quarter',
+  'this_year',
+  'last_year',
+  'custom',
+] as const;
 export type Period = (typeof PERIODS)[number];
 export const PERIOD_LABELS: Record<Period, string> = {
   this_month: 'This month',

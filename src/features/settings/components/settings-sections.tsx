@@ -3,7 +3,11 @@ import { useFieldArray, useForm, type FieldErrors, type UseFormRegister } from '
 import type { z } from 'zod';
 import { LEAK_LOCATIONS, REFRIGERANT_CODES } from '../../../../shared/domain';
 import { settingsSchema, type Settings } from '../../../../shared/schemas/settings';
-import { SETTINGS_SECTION_LABELS, type SettingsDto, type SettingsSection } from '../../../../shared/schemas/settings-api';
+import {
+  SETTINGS_SECTION_LABELS,
+  type SettingsDto,
+  type SettingsSection,
+} from '../../../../shared/schemas/settings-api';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
@@ -14,7 +18,8 @@ import { useSaveSettings } from '../api/settings';
 type Input = z.input<typeof settingsSchema>;
 type Reg = UseFormRegister<Input>;
 
-const control = 'block w-full min-h-touch rounded-md border-2 bg-white px-3 text-base text-ink-950 disabled:bg-ink-50 disabled:text-ink-700';
+const control =
+  'block w-full min-h-touch rounded-md border-2 bg-white px-3 text-base text-ink-950 disabled:bg-ink-50 disabled:text-ink-700';
 
 function errorAt(errors: FieldErrors<Input>, path: string): string | undefined {
   let node: unknown = errors;
@@ -23,12 +28,36 @@ function errorAt(errors: FieldErrors<Input>, path: string): string | undefined {
   return n?.message ?? n?.root?.message;
 }
 
-function Num({ reg, errors, path, label, hint, disabled, step = 'any' }: { reg: Reg; errors: FieldErrors<Input>; path: string; label: string; hint?: string; disabled: boolean; step?: string }) {
+function Num({
+  reg,
+  errors,
+  path,
+  label,
+  hint,
+  disabled,
+  step = 'any',
+}: {
+  reg: Reg;
+  errors: FieldErrors<Input>;
+  path: string;
+  label: string;
+  hint?: string;
+  disabled: boolean;
+  step?: string;
+}) {
   const err = errorAt(errors, path);
   return (
     <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
       {label}
-      <input type="number" step={step} inputMode="decimal" disabled={disabled} aria-invalid={err ? true : undefined} className={cx(control, err ? 'border-alarm-700' : 'border-ink-400')} {...reg(path as never, { valueAsNumber: true })} />
+      <input
+        type="number"
+        step={step}
+        inputMode="decimal"
+        disabled={disabled}
+        aria-invalid={err ? true : undefined}
+        className={cx(control, err ? 'border-alarm-700' : 'border-ink-400')}
+        {...reg(path as never, { valueAsNumber: true })}
+      />
       {hint && <span className="text-xs font-normal text-ink-600">{hint}</span>}
       {err && <span className="text-sm text-alarm-700">{err}</span>}
     </label>
@@ -40,7 +69,11 @@ type SectionProps = { section: SettingsSection; dto: SettingsDto; canEdit: boole
 /** One section of the settings, saved on its own; the whole settings object goes to the server, which checks it all. */
 export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
   const save = useSaveSettings();
-  const form = useForm<Input, unknown, Settings>({ resolver: zodResolver(settingsSchema), defaultValues: dto.settings, mode: 'onBlur' });
+  const form = useForm<Input, unknown, Settings>({
+    resolver: zodResolver(settingsSchema),
+    defaultValues: dto.settings,
+    mode: 'onBlur',
+  });
   const { register, formState, handleSubmit, setError, reset, control: formControl, watch } = form;
   const bands = useFieldArray({ control: formControl, name: 'customLeakCheck.bands' });
   const errors = formState.errors;
@@ -50,14 +83,21 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
   const onSubmit = handleSubmit((values) => {
     // Only this section's edits go in; the rest is the version in force.
     const merged = { ...dto.settings } as Settings;
-    const keys = { policy: ['policy', 'customLeakCheck', 'gwpBasis'], thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'], pti: ['ptiValidityDays'], economics: ['economics'] }[section] as (keyof Settings)[];
+    const keys = {
+      policy: ['policy', 'customLeakCheck', 'gwpBasis'],
+      thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'],
+      pti: ['ptiValidityDays'],
+      economics: ['economics'],
+    }[section] as (keyof Settings)[];
     for (const k of keys) (merged as Record<string, unknown>)[k] = values[k];
     save.mutate(
       { settings: merged, baseVersion: dto.version },
       {
         onSuccess: (saved) => reset(saved.settings),
         onError: (err) => {
-          if (isApiError(err) && err.fields) for (const [k, m] of Object.entries(err.fields)) setError(k.replace(/^settings\./, '') as never, { message: m });
+          if (isApiError(err) && err.fields)
+            for (const [k, m] of Object.entries(err.fields))
+              setError(k.replace(/^settings\./, '') as never, { message: m });
         },
       },
     );
@@ -76,7 +116,9 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
 
         {section === 'policy' && (
           <>
-            <p className="text-base text-ink-700">Which rule sets the leak-check interval of each unit from its charge in CO2 equivalent.</p>
+            <p className="text-base text-ink-700">
+              Which rule sets the leak-check interval of each unit from its charge in CO2 equivalent.
+            </p>
             <div className="grid gap-3 sm:grid-cols-2">
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 Policy
@@ -101,13 +143,24 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
                   <div key={f.id} className="grid grid-cols-[1fr_1fr_auto] items-end gap-2">
                     <Num {...p} path={`customLeakCheck.bands.${i}.fromTCO2e`} label="From t CO2e" />
                     <Num {...p} path={`customLeakCheck.bands.${i}.months`} label="Every (months)" step="1" />
-                    <Button variant="quiet" disabled={disabled || bands.fields.length <= 1} onClick={() => bands.remove(i)}>
+                    <Button
+                      variant="quiet"
+                      disabled={disabled || bands.fields.length <= 1}
+                      onClick={() => bands.remove(i)}
+                    >
                       Remove
                     </Button>
                   </div>
                 ))}
-                {errorAt(errors, 'customLeakCheck.bands') && <p className="text-sm text-alarm-700">{errorAt(errors, 'customLeakCheck.bands')}</p>}
-                <Button variant="secondary" className="self-start" disabled={disabled} onClick={() => bands.append({ fromTCO2e: 1000, months: 1 })}>
+                {errorAt(errors, 'customLeakCheck.bands') && (
+                  <p className="text-sm text-alarm-700">{errorAt(errors, 'customLeakCheck.bands')}</p>
+                )}
+                <Button
+                  variant="secondary"
+                  className="self-start"
+                  disabled={disabled}
+                  onClick={() => bands.append({ fromTCO2e: 1000, months: 1 })}
+                >
                   Add a band
                 </Button>
               </fieldset>
@@ -118,7 +171,12 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
         {section === 'thresholds' && (
           <>
             <div className="grid gap-3 sm:grid-cols-3">
-              <Num {...p} path="leakRateThresholdPct" label="Alert at rolling leak rate (%)" hint="20 % is the US commercial-refrigeration threshold" />
+              <Num
+                {...p}
+                path="leakRateThresholdPct"
+                label="Alert at rolling leak rate (%)"
+                hint="20 % is the US commercial-refrigeration threshold"
+              />
               <Num {...p} path="score.rateCapPct" label="Leak rate for a full rate factor (%)" />
               <Num {...p} path="score.watchFrom" label="“Slipping” from score" step="1" />
               <Num {...p} path="score.chronicFrom" label="“Repeat leaker” from score" step="1" />
@@ -131,7 +189,9 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
                 <Num {...p} path="score.weights.afterRepair" label="Leak after repair" />
                 <Num {...p} path="score.weights.sameSpot" label="Same spot again" />
               </div>
-              {errorAt(errors, 'score.weights') && <p className="mt-1 text-sm text-alarm-700">{errorAt(errors, 'score.weights')}</p>}
+              {errorAt(errors, 'score.weights') && (
+                <p className="mt-1 text-sm text-alarm-700">{errorAt(errors, 'score.weights')}</p>
+              )}
             </fieldset>
             <fieldset>
               <legend className="mb-2 text-base font-bold">Windows (days)</legend>
@@ -158,17 +218,31 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
 
         {section === 'pti' && (
           <div className="grid gap-3 sm:grid-cols-3">
-            <Num {...p} path="ptiValidityDays" label="A passed PTI stays valid for (days)" step="1" hint="30 to 365 days" />
+            <Num
+              {...p}
+              path="ptiValidityDays"
+              label="A passed PTI stays valid for (days)"
+              step="1"
+              hint="30 to 365 days"
+            />
           </div>
         )}
 
         {section === 'economics' && (
           <>
-            <p className="text-base text-ink-700">The starting assumptions of every repair-or-retire comparison. Refrigerant, labour, downtime and repair prices are invented demo figures until you set yours.</p>
+            <p className="text-base text-ink-700">
+              The starting assumptions of every repair-or-retire comparison. Refrigerant, labour, downtime and repair
+              prices are invented demo figures until you set yours.
+            </p>
             <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
               <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
                 Currency
-                <input className={cx(control, 'border-ink-400 uppercase')} maxLength={3} disabled={disabled} {...register('economics.currency')} />
+                <input
+                  className={cx(control, 'border-ink-400 uppercase')}
+                  maxLength={3}
+                  disabled={disabled}
+                  {...register('economics.currency')}
+                />
               </label>
               <Num {...p} path="economics.discountRatePct" label="Discount rate (%)" />
               <Num {...p} path="economics.designLifeYears" label="Design life (years)" step="1" />
@@ -205,7 +279,9 @@ export function SettingsSectionForm({ section, dto, canEdit }: SectionProps) {
           </Alert>
         )}
         {save.isSuccess && (
-          <Alert tone="okay">{save.data.changedSections.length ? `Saved as version ${save.data.version}.` : 'Nothing had changed.'}</Alert>
+          <Alert tone="okay">
+            {save.data.changedSections.length ? `Saved as version ${save.data.version}.` : 'Nothing had changed.'}
+          </Alert>
         )}
         {canEdit && (
           <div className="flex gap-3">

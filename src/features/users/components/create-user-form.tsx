@@ -19,7 +19,13 @@ type FormOutput = z.output<typeof createUserSchema>;
 const FIELDS = ['email', 'name', 'role', 'certificateNumber', 'password'] as const satisfies readonly Path<FormInput>[];
 const isFormField = (key: string): key is (typeof FIELDS)[number] => (FIELDS as readonly string[]).includes(key);
 
-export function CreateUserForm({ onCreated, onCancel }: { onCreated: (user: UserDto, withPassword: boolean) => void; onCancel: () => void }) {
+export function CreateUserForm({
+  onCreated,
+  onCancel,
+}: {
+  onCreated: (user: UserDto, withPassword: boolean) => void;
+  onCancel: () => void;
+}) {
   const createUser = useCreateUser();
   const [formError, setFormError] = useState<string | null>(null);
   const {
@@ -47,7 +53,10 @@ export function CreateUserForm({ onCreated, onCancel }: { onCreated: (user: User
           return;
         }
         if (error.status === 409) {
-          setError('email', { type: 'server', message: error.message || 'That e-mail address already has an account.' });
+          setError('email', {
+            type: 'server',
+            message: error.message || 'That e-mail address already has an account.',
+          });
           setFocus('email');
           return;
         }

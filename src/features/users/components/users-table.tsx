@@ -97,7 +97,9 @@ function UserRow({ user, isSelf }: { user: UserDto; isSelf: boolean }) {
         {user.certificateNumber ? (
           <span className="font-semibold tabular-nums">{user.certificateNumber}</span>
         ) : (
-          <span className="text-ink-600">—<span className="sr-only">none</span></span>
+          <span className="text-ink-600">
+            —<span className="sr-only">none</span>
+          </span>
         )}
       </Cell>
       <Cell label="Status">
