@@ -38,8 +38,21 @@ const envSchema = z.object({
   SMTP_USER: z.string().optional(),
   SMTP_PASSWORD: z.string().optional(),
   SMTP_FROM: z.string().default('Tightloop <no-reply@tightloop.example>'),
-  STORAGE_DRIVER: z.enum(['local'], { message: 'Only local storage is available in this version' }).default('local'),
+  // Uploads: local disk (the default) or S3-compatible object storage, which several API processes can share.
+  STORAGE_DRIVER: z.enum(['local', 's3']).default('local'),
   STORAGE_DIR: z.string().default('.data/uploads'),
+  S3_BUCKET: z.string().optional(),
+  // Empty for AWS itself; the address of another S3-compatible service (which usually also wants path-style).
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().default('us-east-1'),
+  S3_FORCE_PATH_STYLE: z
+    .enum(['true', 'false', ''])
+    .default('')
+    .transform((v) => v === 'true'),
+  // Without these the AWS SDK's own chain applies (instance role, AWS_* variables, profile).
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  S3_PREFIX: z.string().default(''),
   // The development mailbox (every invitation and reset link) answers loopback only unless this is "true".
   MAILBOX_FROM_ANY_ADDRESS: z
     .enum(['true', 'false', ''])
