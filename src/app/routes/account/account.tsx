@@ -1,9 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { PageHeader, Panel } from '../../../components/ui/page';
-import { sessionsQuery } from '../../../features/users/api/sessions';
-import { ChangePasswordForm } from '../../../features/users/components/change-password-form';
-import { MyDevices } from '../../../features/users/components/my-devices';
+import { sessionsQuery } from '../../../features/account/api/sessions';
+import { ChangePasswordForm } from '../../../features/account/components/change-password-form';
+import { MyDevices } from '../../../features/account/components/my-devices';
 import { useUser } from '../../../lib/auth';
 
 export const loader = (queryClient: QueryClient) => async () => {

@@ -1,7 +1,7 @@
 import { Link } from 'react-router-dom';
 import { AuthLayout } from '../../../components/layouts/auth-layout';
 import { paths } from '../../../config/paths';
-import { ForgotPasswordForm } from '../../../features/mail/components/forgot-password-form';
+import { ForgotPasswordForm } from '../../../features/account/components/forgot-password-form';
 
 export default function ForgotPasswordPage() {
   return (

@@ -4,9 +4,9 @@ import { AuthLayout } from '../../../components/layouts/auth-layout';
 import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
-import { useAccountLink, useCompleteAccountLink } from '../../../features/mail/api/account-links';
-import { LinkProblem } from '../../../features/mail/components/link-problem';
-import { SetPasswordForm } from '../../../features/mail/components/set-password-form';
+import { useAccountLink, useCompleteAccountLink } from '../../../features/account/api/account-links';
+import { LinkProblem } from '../../../features/account/components/link-problem';
+import { SetPasswordForm } from '../../../features/account/components/set-password-form';
 
 /** The link in an invitation mail: the person chooses a first password and is signed in. */
 export default function InvitePage() {

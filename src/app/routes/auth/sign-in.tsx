@@ -3,7 +3,7 @@ import { Link, redirect, useNavigate, useSearchParams, type LoaderFunctionArgs }
 import { Alert } from '../../../components/ui/alert';
 import { AuthLayout } from '../../../components/layouts/auth-layout';
 import { paths, safeNext } from '../../../config/paths';
-import { SignInForm } from '../../../features/auth/components/sign-in-form';
+import { SignInForm } from '../../../features/account/components/sign-in-form';
 import { meQuery } from '../../../lib/auth';
 
 /** Already signed in (in this tab's cache)? Skip the form. No request here: a 401 on this page would be noise. */

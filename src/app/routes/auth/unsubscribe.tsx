@@ -5,7 +5,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
-import { useUnsubscribe } from '../../../features/mail/api/subscriptions';
+import { useUnsubscribe } from '../../../features/alerts/api/subscriptions';
 
 /** The signed link at the foot of every alert mail. A button, not the visit itself, does it: mail scanners open links. */
 export default function UnsubscribePage() {

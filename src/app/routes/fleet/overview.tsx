@@ -16,7 +16,7 @@ import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/compo
 import { fmtContainer, fmtDay, fmtPct, unitHref } from '../../../features/fleet/utils/format';
 import { toSearch } from '../../../features/fleet/utils/query-string';
 import { RefreshRepairs } from '../../../features/fleet/components/refresh-repairs';
-import { ForecastAccuracy } from '../../../features/fleet/components/forecast-accuracy';
+import { ForecastAccuracy } from '../../../features/forecast/components/forecast-accuracy';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));

@@ -7,7 +7,7 @@ import { TextField, SelectField } from '../../../components/ui/field';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
-import { traceExportHref, useMarkForInspection, useTrace } from '../../../features/fleet/api/trace';
+import { traceExportHref, useMarkForInspection, useTrace } from '../../../features/trace/api/trace';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
 import { fmtContainer, fmtDay, fmtKg, unitHref } from '../../../features/fleet/utils/format';
 import { newKey, toSearch } from '../../../features/fleet/utils/query-string';

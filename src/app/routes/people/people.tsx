@@ -7,9 +7,9 @@ import { Button } from '../../../components/ui/button';
 import { PeopleIcon, PlusIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
-import { usersQuery, useUsers } from '../../../features/users/api/get-users';
-import { CreateUserForm } from '../../../features/users/components/create-user-form';
-import { UsersTable } from '../../../features/users/components/users-table';
+import { usersQuery, useUsers } from '../../../features/people/api/get-users';
+import { CreateUserForm } from '../../../features/people/components/create-user-form';
+import { UsersTable } from '../../../features/people/components/users-table';
 import { useUser } from '../../../lib/auth';
 
 export const loader = (queryClient: QueryClient) => async () => {

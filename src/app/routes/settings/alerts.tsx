@@ -3,8 +3,8 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
-import { subscriptionsQuery, useSubscriptions } from '../../../features/mail/api/subscriptions';
-import { SubscriptionsForm } from '../../../features/mail/components/subscriptions-form';
+import { subscriptionsQuery, useSubscriptions } from '../../../features/alerts/api/subscriptions';
+import { SubscriptionsForm } from '../../../features/alerts/components/subscriptions-form';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(subscriptionsQuery());

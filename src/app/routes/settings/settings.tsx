@@ -9,7 +9,7 @@ import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { settingsQuery, useSettings, useSettingsHistory } from '../../../features/settings/api/settings';
-import { RecomputeProgress } from '../../../features/settings/components/recompute-progress';
+import { RecomputeProgress } from '../../../features/jobs/components/recompute-progress';
 import { SettingsSectionForm } from '../../../features/settings/components/settings-sections';
 import { can } from '../../../../shared/permissions';
 import { useUser } from '../../../lib/auth';

@@ -6,7 +6,7 @@ import { Alert } from '../../../components/ui/alert';
 import { PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
-import { sitesQuery, useSites } from '../../../features/units/api/get-sites';
+import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { UnitForm } from '../../../features/units/components/unit-form';
 import { isApiError } from '../../../lib/api-client';

@@ -1,6 +1,6 @@
 import { PageHeader } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { FleetImport } from '../../../features/units/components/fleet-import';
+import { FleetImport } from '../../../features/imports/components/fleet-import';
 
 export default function FleetImportPage() {
   return (

@@ -6,7 +6,7 @@ import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { overviewQuery } from '../../../features/history/api/get-overview';
-import { unitByTokenQuery, useUnitByToken } from '../../../features/units/api/get-unit-by-token';
+import { unitByTokenQuery, useUnitByToken } from '../../../features/labels/api/get-unit-by-token';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useOnline } from '../../../lib/online';

@@ -3,7 +3,7 @@ import { useNavigate, useSearchParams } from 'react-router-dom';
 import { formatContainerNumber, normalizeContainerNumber } from '../../../../shared/domain';
 import { PageHeader, Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { sitesQuery, useSites } from '../../../features/units/api/get-sites';
+import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
 import { UnitForm } from '../../../features/units/components/unit-form';
 
 export const loader = (queryClient: QueryClient) => async () => {

@@ -1,14 +1,20 @@
 // Loaded lazily: the camera scanner brings @zxing/browser with it.
+import { useQueryClient } from '@tanstack/react-query';
 import { useNavigate } from 'react-router-dom';
 import type { UnitDto } from '../../../../shared/schemas/units';
 import { PageHeader } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
-import { QrScanner } from '../../../features/units/components/qr-scanner';
-import { LookupMessage, ManualLookup, useUnitLookup } from '../../../features/units/components/unit-lookup';
+import { QrScanner } from '../../../features/labels/components/qr-scanner';
+import { LookupMessage, ManualLookup, useUnitLookup } from '../../../features/labels/components/unit-lookup';
+import { unitByNumberQuery } from '../../../features/units/api/get-unit-by-number';
 
 export default function ScanPage() {
   const navigate = useNavigate();
-  const lookup = useUnitLookup((unit: UnitDto) => void navigate(paths.unit.getHref(unit.id)));
+  const queryClient = useQueryClient();
+  const lookup = useUnitLookup(
+    (unit: UnitDto) => void navigate(paths.unit.getHref(unit.id)),
+    (containerNumber) => queryClient.fetchQuery(unitByNumberQuery(containerNumber)),
+  );
   return (
     <div className="flex flex-col gap-6">
       <PageHeader

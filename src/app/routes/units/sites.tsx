@@ -5,9 +5,9 @@ import { Button } from '../../../components/ui/button';
 import { PlusIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
-import { sitesQuery, useSites } from '../../../features/units/api/get-sites';
-import { SiteForm } from '../../../features/units/components/site-form';
-import { SitesList } from '../../../features/units/components/sites-list';
+import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
+import { SiteForm } from '../../../features/sites/components/site-form';
+import { SitesList } from '../../../features/sites/components/sites-list';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(sitesQuery());

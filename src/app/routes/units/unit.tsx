@@ -11,7 +11,7 @@ import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
 import { UnitChanges } from '../../../features/units/components/unit-changes';
 import { UnitIdentity } from '../../../features/units/components/unit-identity';
-import { UnitLabelActions } from '../../../features/units/components/unit-label-actions';
+import { UnitLabelActions } from '../../../features/labels/components/unit-label-actions';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
 

@@ -1,5 +1,5 @@
 import { Button } from '../../../components/ui/button';
-import { useRefreshJob } from '../api/refresh-job';
+import { useRefreshJob } from '../../jobs/api/refresh-job';
 
 /** Repair effectiveness is worked out by a background job; this asks for a fresh one and reloads when it is done. */
 export function RefreshRepairs({ computedAt }: { computedAt: string | null }) {

@@ -19,7 +19,7 @@ import { SelectField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { useCreateUnit } from '../api/create-unit';
 import { useUpdateUnit } from '../api/update-unit';
-import { ContainerNumberField } from './container-number-field';
+import { ContainerNumberField } from '../../../components/ui/container-number-field';
 
 type FormInput = z.input<typeof createUnitSchema>;
 type FormOutput = z.output<typeof createUnitSchema>;

@@ -3,7 +3,7 @@ import { accountLinkDto, type AccountLinkDto } from '../../../../shared/schemas/
 import { meDto, type UserDto } from '../../../../shared/schemas/auth';
 import { apiClient } from '../../../lib/api-client';
 import { meQuery } from '../../../lib/auth';
-import { mailKeys, type AccountLinkPurpose } from './keys';
+import { mailKeys, type AccountLinkPurpose } from '../../mail/api/keys';
 
 const base: Record<AccountLinkPurpose, string> = {
   invitation: '/api/invitations',

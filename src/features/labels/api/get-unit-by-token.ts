@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { unitResponseDto, type UnitDto } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
-import { unitKeys } from './keys';
+import { unitKeys } from '../../units/api/keys';
 
 export async function getUnitByToken(token: string, signal?: AbortSignal): Promise<UnitDto> {
   return unitResponseDto.parse(await apiClient.get(`/api/units/by-token/${encodeURIComponent(token)}`, { signal }))

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
 import type { JobDto } from '../../../../shared/schemas/settings-api';
 import { apiClient } from '../../../lib/api-client';
-import { fleetKeys } from './keys';
+import { fleetKeys } from '../../fleet/api/keys';
 
 /**
  * Starts a background job of the fleet views (`path` answers `{ job }`), follows it once a second for at most

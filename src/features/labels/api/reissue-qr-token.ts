@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { unitResponseDto, type UnitDto } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
-import { unitKeys } from './keys';
+import { unitKeys } from '../../units/api/keys';
 
 export async function reissueQrToken(id: number): Promise<UnitDto> {
   return unitResponseDto.parse(await apiClient.post(`/api/units/${id}/qr-token`)).unit;

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { siteDto, type CreateSiteInput, type SiteDto, type UpdateSiteInput } from '../../../../shared/schemas/sites';
 import { apiClient } from '../../../lib/api-client';
-import { siteKeys, unitKeys } from './keys';
+import { siteKeys, unitKeys } from '../../units/api/keys';
 
 const siteResponse = z.object({ site: siteDto });
 

@@ -6,7 +6,7 @@ import {
   type SessionDto,
 } from '../../../../shared/schemas/account';
 import { apiClient } from '../../../lib/api-client';
-import { userKeys } from './keys';
+import { userKeys } from '../../people/api/keys';
 
 const url = (userId: string | 'me') =>
   userId === 'me' ? '/api/account/sessions' : `/api/users/${encodeURIComponent(userId)}/sessions`;

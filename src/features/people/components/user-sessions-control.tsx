@@ -1,8 +1,8 @@
 import { useState } from 'react';
 import type { UserDto } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/ui/button';
-import { useEndUserSessions, useSessions } from '../api/sessions';
-import { DeviceList } from './device-list';
+import { useEndUserSessions, useSessions } from '../../account/api/sessions';
+import { DeviceList } from '../../../components/sessions/device-list';
 
 /** For administrators: where a person is signed in, and signing them out of one device or all. */
 export function UserSessionsControl({ user }: { user: UserDto }) {

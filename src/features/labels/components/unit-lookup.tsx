@@ -7,9 +7,8 @@ import { Button, ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
-import { unitByNumberQuery } from '../api/get-unit-by-number';
 import { unitByTokenQuery } from '../api/get-unit-by-token';
-import { ContainerNumberField } from './container-number-field';
+import { ContainerNumberField } from '../../../components/ui/container-number-field';
 
 /** The label code in a scanned text: the last path segment of a `…/u/<code>` address, from any host. */
 export function labelTokenFrom(text: string): string | null {
@@ -29,8 +28,14 @@ export type LookupState =
   | { kind: 'not-a-label'; text: string }
   | { kind: 'failed'; message: string };
 
-/** Finds the unit behind a scanned text or a typed number and hands it to `onFound`; says why when there is none. */
-export function useUnitLookup(onFound: (unit: UnitDto) => void) {
+/**
+ * Finds the unit behind a scanned text or a typed number and hands it to `onFound`; says why when there is none.
+ * `findByNumber` comes from the units feature (the route composes the two).
+ */
+export function useUnitLookup(
+  onFound: (unit: UnitDto) => void,
+  findByNumber: (containerNumber: string) => Promise<UnitDto>,
+) {
   const queryClient = useQueryClient();
   const [state, setState] = useState<LookupState>({ kind: 'idle' });
 
@@ -46,7 +51,7 @@ export function useUnitLookup(onFound: (unit: UnitDto) => void) {
   };
 
   const byNumber = (containerNumber: string) =>
-    run(formatContainerNumber(containerNumber), () => queryClient.fetchQuery(unitByNumberQuery(containerNumber)), {
+    run(formatContainerNumber(containerNumber), () => findByNumber(containerNumber), {
       kind: 'unknown-number',
       containerNumber,
     });

@@ -6,7 +6,7 @@ import {
   type UnsubscribeInput,
 } from '../../../../shared/schemas/alerts';
 import { apiClient } from '../../../lib/api-client';
-import { mailKeys } from './keys';
+import { mailKeys } from '../../mail/api/keys';
 
 export async function getSubscriptions(signal?: AbortSignal): Promise<SubscriptionsDto> {
   return subscriptionsDto.parse(await apiClient.get('/api/alerts/subscriptions', { signal }));

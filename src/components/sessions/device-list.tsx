@@ -1,6 +1,6 @@
-import type { SessionDto } from '../../../../shared/schemas/account';
-import { Badge } from '../../../components/ui/page';
-import { Button } from '../../../components/ui/button';
+import type { SessionDto } from '../../../shared/schemas/account';
+import { Badge } from '../ui/page';
+import { Button } from '../ui/button';
 
 const when = (iso: string) =>
   new Date(iso).toLocaleString('en-GB', {

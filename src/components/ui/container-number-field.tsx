@@ -4,8 +4,8 @@ import {
   formatContainerNumber,
   normalizeContainerNumber,
   parseContainerNumber,
-} from '../../../../shared/domain';
-import { cx } from '../../../components/ui/cx';
+} from '../../../shared/domain';
+import { cx } from './cx';
 
 type Hint = { tone: 'okay' | 'alarm' | 'info'; text: string } | null;
 

@@ -6,8 +6,8 @@ import type {
   TraceResultDto,
 } from '../../../../shared/schemas/fleet';
 import { apiClient } from '../../../lib/api-client';
-import { toSearch } from '../utils/query-string';
-import { fleetKeys } from './keys';
+import { toSearch } from '../../fleet/utils/query-string';
+import { fleetKeys } from '../../fleet/api/keys';
 
 export function traceQuery(q: TraceQuery | null) {
   return queryOptions({

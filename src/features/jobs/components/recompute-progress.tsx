@@ -1,6 +1,6 @@
 import type { JobDto } from '../../../../shared/schemas/settings-api';
 import { Alert } from '../../../components/ui/alert';
-import { useJob } from '../api/settings';
+import { useJob } from '../../settings/api/settings';
 
 /** Progress of the statistics recompute that follows a settings change; the app stays usable meanwhile. */
 export function RecomputeProgress({ job }: { job: JobDto | null }) {

@@ -5,7 +5,7 @@ import { PasswordField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { isApiError } from '../../../lib/api-client';
 import { useEndMySessions, useSessions } from '../api/sessions';
-import { DeviceList } from './device-list';
+import { DeviceList } from '../../../components/sessions/device-list';
 
 /** "Signed-in devices": the person's sessions; ending another one asks for the password again. */
 export function MyDevices() {

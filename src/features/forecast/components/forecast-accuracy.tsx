@@ -1,7 +1,7 @@
 import { FORECAST_SITUATION_LABELS, MIN_JUDGED_FOR_COVERAGE } from '../../../../shared/domain';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
 import { Button } from '../../../components/ui/button';
-import { useRefreshJob } from '../api/refresh-job';
+import { useRefreshJob } from '../../jobs/api/refresh-job';
 
 const num = (v: number | null, unit: string) =>
   v === null ? '—' : `${v.toLocaleString('en-GB', { maximumFractionDigits: 1 })}${unit}`;

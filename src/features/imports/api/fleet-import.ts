@@ -9,7 +9,7 @@ import {
 } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
 import { uploadForm, type TransferProgress } from '../../../lib/transfer';
-import { siteKeys, unitImportKeys, unitKeys } from './keys';
+import { siteKeys, unitImportKeys, unitKeys } from '../../units/api/keys';
 
 export const IMPORT_TEMPLATE_HREF = '/api/unit-imports/template';
 
