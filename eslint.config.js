@@ -1,8 +1,22 @@
-// ESLint flat config: TypeScript, React hooks, and the import boundaries of STYLE.md (src and server never import each
-// other; shared imports neither).
+// ESLint flat config: TypeScript, React hooks, and the import boundaries of STYLE.md and docs/feature-map.md — src and
+// server never import each other, shared imports neither, a feature imports only shared, the lib/components folders
+// and its own folder, and no module imports itself through others.
+import { readdirSync } from 'node:fs';
+import path from 'node:path';
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
+import { importX } from 'eslint-plugin-import-x';
+import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
+
+// While the architecture step moves code into the zones, a rule warns; it fails the build once its side complies.
+const LEVEL = {
+  serverZones: 'warn',
+  clientZones: 'warn',
+  cycles: 'warn',
+  serverFunctionSize: 'warn',
+  clientFunctionSize: 'warn',
+};
 
 const boundary = (from, banned) => ({
   files: [`${from}/**/*.{ts,tsx}`],
@@ -13,6 +27,26 @@ const boundary = (from, banned) => ({
     ],
   },
 });
+
+/** The feature folders under `dir`, read when lint starts so a renamed or new feature is covered at once. */
+const featuresIn = (dir) =>
+  readdirSync(path.join(import.meta.dirname, dir), { withFileTypes: true })
+    .filter((d) => d.isDirectory())
+    .map((d) => d.name);
+
+/** One zone per feature: nothing from `root` except the allowed folders and the feature's own folder. */
+const featureZones = (root, allowed) =>
+  featuresIn(`./${root}/features`).map((f) => ({
+    target: `./${root}/features/${f}`,
+    from: `./${root}`,
+    except: [...allowed.map((a) => `./${a}`), `./features/${f}`],
+    message: `${root}/features/${f} may import only shared/, ${allowed.map((a) => `${root}/${a}/`).join(', ')} and its own folder (docs/feature-map.md).`,
+  }));
+
+const functionSize = (level) => [
+  'max-lines-per-function',
+  [level, { max: 150, skipBlankLines: true, skipComments: true }],
+];
 
 export default tseslint.config(
   { ignores: ['dist/**', 'node_modules/**', 'coverage/**', '.data/**', '.tmp/**', 'drizzle/**', 'bench/**'] },
@@ -34,4 +68,38 @@ export default tseslint.config(
   boundary('src', ['server', 'seed', 'scripts']),
   boundary('server', ['src']),
   boundary('shared', ['src', 'server', 'seed', 'scripts']),
+  {
+    files: ['{src,server,shared,seed,scripts}/**/*.{ts,tsx}'],
+    plugins: { 'import-x': importX },
+    settings: {
+      // Which files the import rules read to follow an import (the cycle rule reads the whole graph).
+      'import-x/extensions': ['.ts', '.tsx', '.js', '.mjs'],
+      'import-x/parsers': { '@typescript-eslint/parser': ['.ts', '.tsx'] },
+      'import-x/resolver-next': [createTypeScriptImportResolver({ project: 'tsconfig.json' })],
+    },
+    rules: {
+      // Type-only imports are not counted: they leave no edge at run time.
+      'import-x/no-cycle': [LEVEL.cycles, { ignoreExternal: true }],
+    },
+  },
+  {
+    files: ['server/features/**/*.ts'],
+    rules: {
+      'import-x/no-restricted-paths': [
+        LEVEL.serverZones,
+        { zones: featureZones('server', ['lib', 'db', 'middleware']) },
+      ],
+    },
+  },
+  {
+    files: ['src/features/**/*.{ts,tsx}'],
+    rules: {
+      'import-x/no-restricted-paths': [
+        LEVEL.clientZones,
+        { zones: featureZones('src', ['lib', 'components', 'config']) },
+      ],
+    },
+  },
+  { files: ['server/**/*.ts'], rules: Object.fromEntries([functionSize(LEVEL.serverFunctionSize)]) },
+  { files: ['src/**/*.{ts,tsx}'], rules: Object.fromEntries([functionSize(LEVEL.clientFunctionSize)]) },
 );
