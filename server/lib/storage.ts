@@ -1,9 +1,10 @@
-// Where uploaded files live. Local disk by default (content-addressed under .data/uploads); the interface is what an
-// object-storage adapter implements for production.
+// Where uploaded files live: local disk by default (content-addressed under .data/uploads), or S3-compatible object
+// storage (storage-s3.ts) when several API processes must see the same files.
 import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream, existsSync } from 'node:fs';
-import { mkdir, open, readFile, rename, rm, writeFile } from 'node:fs/promises';
+import { mkdir, open, rename, rm, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import type { Readable } from 'node:stream';
 
 export interface Storage {
   /**
@@ -13,6 +14,9 @@ export interface Storage {
   put(bytes: Buffer): Promise<Stored>;
   /** Moves a finished upload (a file under `tempDir`) into the store like `put`; the file is gone afterwards. */
   putFile(file: string, sha256?: string): Promise<Stored>;
+  /** A stored file as a stream (read it to the end or destroy it), or null when there is none. */
+  open(key: string): Promise<StoredFile | null>;
+  /** The whole file in memory (small files only); `open` streams. */
   get(key: string): Promise<Buffer | null>;
   /** Removes a stored file; for taking back what a refused request created. */
   remove(key: string): Promise<void>;
@@ -21,8 +25,18 @@ export interface Storage {
 }
 
 export type Stored = { key: string; created: boolean };
+export type StoredFile = { stream: Readable; size: number };
 
-const KEY = /^[a-f0-9]{64}$/;
+export const STORAGE_KEY = /^[a-f0-9]{64}$/;
+
+/** A whole stored file in memory: for small ones only (tests, thumbnails); serve files with `open`. */
+export async function readStored(storage: Pick<Storage, 'open'>, key: string): Promise<Buffer | null> {
+  const file = await storage.open(key);
+  if (!file) return null;
+  const chunks: Buffer[] = [];
+  for await (const chunk of file.stream) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks);
+}
 
 /** The SHA-256 of a file, read as a stream. */
 export function hashFile(file: string): Promise<string> {
@@ -37,7 +51,7 @@ export function hashFile(file: string): Promise<string> {
 
 export function createLocalStorage(root: string): Storage {
   const fileOf = (key: string) => path.join(root, key.slice(0, 2), key.slice(2, 4), key);
-  return {
+  const storage: Storage = {
     tempDir: path.join(root, 'incoming'),
     async put(bytes) {
       const key = createHash('sha256').update(bytes).digest('hex');
@@ -60,18 +74,19 @@ export function createLocalStorage(root: string): Storage {
       await rename(upload, file);
       return { key, created: true };
     },
-    async get(key) {
-      if (!KEY.test(key)) return null;
-      try {
-        return await readFile(fileOf(key));
-      } catch {
-        return null;
-      }
+    async open(key) {
+      if (!STORAGE_KEY.test(key)) return null;
+      const file = fileOf(key);
+      const info = await stat(file).catch(() => null);
+      if (!info?.isFile()) return null;
+      return { stream: createReadStream(file), size: info.size };
     },
     async remove(key) {
-      if (KEY.test(key)) await rm(fileOf(key), { force: true });
+      if (STORAGE_KEY.test(key)) await rm(fileOf(key), { force: true });
     },
+    get: (key) => readStored(storage, key),
   };
+  return storage;
 }
 
 export type SniffedType = 'image/jpeg' | 'image/png' | 'image/webp' | 'application/pdf';
