@@ -1,13 +1,13 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { ROLE_LABELS } from '../../../../shared/permissions';
 import { PageHeader, Panel } from '../../../components/ui/page';
-import { sessionsQuery } from '../../../features/account/api/sessions';
+import { mySessionsQuery } from '../../../features/account/api/sessions';
 import { ChangePasswordForm } from '../../../features/account/components/change-password-form';
 import { MyDevices } from '../../../features/account/components/my-devices';
 import { useUser } from '../../../lib/auth';
 
 export const loader = (queryClient: QueryClient) => async () => {
-  await queryClient.prefetchQuery(sessionsQuery('me'));
+  await queryClient.prefetchQuery(mySessionsQuery());
   return null;
 };
 

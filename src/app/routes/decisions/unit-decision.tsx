@@ -9,7 +9,7 @@ import { DecisionWorkbench } from '../../../features/decisions/components/decisi
 import { EstimateNotice } from '../../../features/decisions/components/estimate-notice';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
 import { fmtContainer, fmtPct, unitHref } from '../../../features/fleet/utils/format';
-import { newKey } from '../../../features/fleet/utils/query-string';
+import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { isApiError } from '../../../lib/api-client';
 import { NotFound } from '../../../components/errors/not-found';
 
@@ -82,7 +82,7 @@ function UnitDecision({ id }: { id: number }) {
         </p>
       )}
       <EstimateNotice />
-      <DecisionWorkbench key={d.unit.id} data={d} keyFor={newKey} />
+      <DecisionWorkbench key={d.unit.id} data={d} keyFor={newIdempotencyKey} />
     </div>
   );
 }

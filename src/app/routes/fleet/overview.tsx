@@ -14,9 +14,10 @@ import { ScoreBadge } from '../../../features/fleet/components/band-badge';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
 import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/components/overview-charts';
 import { fmtContainer, fmtDay, fmtPct, unitHref } from '../../../features/fleet/utils/format';
-import { toSearch } from '../../../features/fleet/utils/query-string';
-import { RefreshRepairs } from '../../../features/fleet/components/refresh-repairs';
+import { toSearch } from '../../../lib/query-string';
 import { ForecastAccuracy } from '../../../features/forecast/components/forecast-accuracy';
+import { RefreshJob } from '../../../features/jobs/components/refresh-job';
+import { fleetKeys } from '../../../features/fleet/api/keys';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -103,7 +104,12 @@ export default function FleetOverviewPage() {
   );
 }
 
+// A background job's new figures show in the overview.
+const OVERVIEWS = [fleetKeys.overviews()];
+
 function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
+  const computedAt = o.repairEffectiveness.computedAt;
+  const builtAt = o.forecastAccuracy?.builtAt ?? null;
   return (
     <div className={busy ? 'opacity-70' : undefined}>
       <div className="grid grid-cols-1 gap-5 lg:grid-cols-2">
@@ -257,14 +263,33 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
               </table>
             </div>
           )}
-          <RefreshRepairs computedAt={o.repairEffectiveness.computedAt} />
+          <RefreshJob
+            path="/api/fleet/repair-effectiveness/refresh"
+            maxSeconds={120}
+            alsoInvalidate={OVERVIEWS}
+            note={computedAt && `Worked out ${new Date(computedAt).toLocaleString('en-GB')}.`}
+            label="Work it out again"
+            pendingLabel="Working it out…"
+          />
         </Panel>
       </div>
       <Panel aria-labelledby="ov-forecast" className="mt-5">
         <h2 id="ov-forecast" className="text-xl font-bold">
           Forecast accuracy on this fleet
         </h2>
-        <ForecastAccuracy accuracy={o.forecastAccuracy} />
+        <ForecastAccuracy
+          accuracy={o.forecastAccuracy}
+          refresh={
+            <RefreshJob
+              path="/api/fleet/forecast/refresh"
+              maxSeconds={600}
+              alsoInvalidate={OVERVIEWS}
+              note={builtAt && `Learned ${new Date(builtAt).toLocaleString('en-GB')}; again every night.`}
+              label="Learn again now"
+              pendingLabel="Learning from the fleet…"
+            />
+          }
+        />
       </Panel>
     </div>
   );

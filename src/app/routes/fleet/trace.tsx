@@ -10,7 +10,8 @@ import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
 import { traceExportHref, useMarkForInspection, useTrace } from '../../../features/trace/api/trace';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
 import { fmtContainer, fmtDay, fmtKg, unitHref } from '../../../features/fleet/utils/format';
-import { newKey, toSearch } from '../../../features/fleet/utils/query-string';
+import { newIdempotencyKey } from '../../../lib/idempotency-key';
+import { toSearch } from '../../../lib/query-string';
 import { Can } from '../../../lib/can';
 import { isApiError } from '../../../lib/api-client';
 
@@ -142,7 +143,7 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
   const mark = useMarkForInspection();
   const [reason, setReason] = useState('');
   const [confirming, setConfirming] = useState(false);
-  const [key] = useState(newKey);
+  const [key] = useState(newIdempotencyKey);
   const fields = isApiError(mark.error) ? mark.error.fields : undefined;
   return (
     <section aria-labelledby="trace-results" className="flex flex-col gap-4">

@@ -11,7 +11,7 @@ import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
 import { fmtContainer, fmtKg, fmtNumber, unitHref } from '../../../features/fleet/utils/format';
-import { toSearch } from '../../../features/fleet/utils/query-string';
+import { toSearch } from '../../../lib/query-string';
 import { logExportHref, useRefrigerantLog } from '../../../features/refrigerant-log/api/get-log';
 import { PERIOD_LABELS, PERIODS, periodRange, type Period } from '../../../features/refrigerant-log/components/period';
 

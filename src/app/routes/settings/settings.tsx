@@ -9,7 +9,10 @@ import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { settingsQuery, useSettings, useSettingsHistory } from '../../../features/settings/api/settings';
+import { fleetKeys } from '../../../features/fleet/api/keys';
 import { RecomputeProgress } from '../../../features/jobs/components/recompute-progress';
+import { settingsKeys } from '../../../features/settings/api/keys';
+import { traceKeys } from '../../../features/trace/api/keys';
 import { SettingsSectionForm } from '../../../features/settings/components/settings-sections';
 import { can } from '../../../../shared/permissions';
 import { useUser } from '../../../lib/auth';
@@ -18,6 +21,9 @@ export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(settingsQuery());
   return null;
 };
+
+// Everything that shows unit figures, fetched again when the recompute after a settings change ends.
+const RECOMPUTED = [fleetKeys.all, traceKeys.all, settingsKeys.current()];
 
 export default function SettingsPage() {
   const user = useUser();
@@ -47,7 +53,11 @@ export default function SettingsPage() {
               ? 'The defaults are in force; nothing has been saved yet.'
               : `Version ${settings.data.version}, saved ${new Date(settings.data.updatedAt!).toLocaleString('en-GB')} by ${settings.data.updatedBy?.name ?? 'someone'}.`}
           </p>
-          <RecomputeProgress key={settings.data.recompute?.id ?? 0} job={settings.data.recompute} />
+          <RecomputeProgress
+            key={settings.data.recompute?.id ?? 0}
+            job={settings.data.recompute}
+            alsoInvalidate={RECOMPUTED}
+          />
           <nav aria-label="Sections" className="flex flex-wrap gap-2">
             {SETTINGS_SECTIONS.filter((s) => !settings.data.hiddenSections.includes(s)).map((s) => (
               <a

@@ -3,7 +3,7 @@ import { accountLinkDto, type AccountLinkDto } from '../../../../shared/schemas/
 import { meDto, type UserDto } from '../../../../shared/schemas/auth';
 import { apiClient } from '../../../lib/api-client';
 import { meQuery } from '../../../lib/auth';
-import { mailKeys, type AccountLinkPurpose } from '../../mail/api/keys';
+import { accountKeys, type AccountLinkPurpose } from './keys';
 
 const base: Record<AccountLinkPurpose, string> = {
   invitation: '/api/invitations',
@@ -21,7 +21,7 @@ export async function getAccountLink(
 
 export function accountLinkQuery(purpose: AccountLinkPurpose, token: string) {
   return queryOptions({
-    queryKey: mailKeys.link(purpose, token),
+    queryKey: accountKeys.link(purpose, token),
     queryFn: ({ signal }) => getAccountLink(purpose, token, signal),
     // An expired or used link stays that way.
     retry: false,

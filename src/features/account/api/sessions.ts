@@ -6,20 +6,17 @@ import {
   type SessionDto,
 } from '../../../../shared/schemas/account';
 import { apiClient } from '../../../lib/api-client';
-import { userKeys } from '../../people/api/keys';
+import { accountKeys } from './keys';
 
-const url = (userId: string | 'me') =>
-  userId === 'me' ? '/api/account/sessions' : `/api/users/${encodeURIComponent(userId)}/sessions`;
-
-/** Signed-in devices of the person (`'me'`) or, for an administrator, of anyone. */
-export function sessionsQuery(userId: string | 'me') {
+/** The signed-in person's own signed-in devices. */
+export function mySessionsQuery() {
   return queryOptions({
-    queryKey: userKeys.sessions(userId),
+    queryKey: accountKeys.sessions(),
     queryFn: async ({ signal }): Promise<SessionDto[]> =>
-      sessionsListDto.parse(await apiClient.get(url(userId), { signal })).sessions,
+      sessionsListDto.parse(await apiClient.get('/api/account/sessions', { signal })).sessions,
   });
 }
-export const useSessions = (userId: string | 'me', enabled = true) => useQuery({ ...sessionsQuery(userId), enabled });
+export const useMySessions = () => useQuery(mySessionsQuery());
 
 /** Ends one of my other sessions, or all of them (no session id); asks for the password. */
 export function useEndMySessions() {
@@ -27,17 +24,7 @@ export function useEndMySessions() {
   return useMutation({
     mutationFn: (input: EndMySessionsInput) =>
       apiClient.post<{ ended: number }>('/api/account/sessions/sign-out', input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userKeys.sessions('me') }),
-  });
-}
-
-/** An administrator ends one session of a person, or all of them. */
-export function useEndUserSessions(userId: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (sessionId?: string) =>
-      apiClient.delete<void>(sessionId ? `${url(userId)}/${encodeURIComponent(sessionId)}` : url(userId)),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userKeys.sessions(userId) }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: accountKeys.sessions() }),
   });
 }
 
@@ -46,6 +33,6 @@ export function useChangePassword() {
   return useMutation({
     mutationFn: (input: ChangePasswordInput) =>
       apiClient.post<{ endedSessions: number }>('/api/account/password', input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userKeys.sessions('me') }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: accountKeys.sessions() }),
   });
 }

@@ -4,12 +4,12 @@ import { Button } from '../../../components/ui/button';
 import { PasswordField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
 import { isApiError } from '../../../lib/api-client';
-import { useEndMySessions, useSessions } from '../api/sessions';
+import { useEndMySessions, useMySessions } from '../api/sessions';
 import { DeviceList } from '../../../components/sessions/device-list';
 
 /** "Signed-in devices": the person's sessions; ending another one asks for the password again. */
 export function MyDevices() {
-  const sessions = useSessions('me');
+  const sessions = useMySessions();
   const end = useEndMySessions();
   const [password, setPassword] = useState('');
   const [endingId, setEndingId] = useState<string | null>(null);

@@ -6,14 +6,14 @@ import {
   type UnsubscribeInput,
 } from '../../../../shared/schemas/alerts';
 import { apiClient } from '../../../lib/api-client';
-import { mailKeys } from '../../mail/api/keys';
+import { alertKeys } from './keys';
 
 export async function getSubscriptions(signal?: AbortSignal): Promise<SubscriptionsDto> {
   return subscriptionsDto.parse(await apiClient.get('/api/alerts/subscriptions', { signal }));
 }
 
 export function subscriptionsQuery() {
-  return queryOptions({ queryKey: mailKeys.subscriptions(), queryFn: ({ signal }) => getSubscriptions(signal) });
+  return queryOptions({ queryKey: alertKeys.subscriptions(), queryFn: ({ signal }) => getSubscriptions(signal) });
 }
 
 export function useSubscriptions() {
@@ -25,7 +25,7 @@ export function useSaveSubscriptions() {
   return useMutation({
     mutationFn: async (input: PutSubscriptionsInput) =>
       subscriptionsDto.parse(await apiClient.put('/api/alerts/subscriptions', input)),
-    onSuccess: (saved) => queryClient.setQueryData(mailKeys.subscriptions(), saved),
+    onSuccess: (saved) => queryClient.setQueryData(alertKeys.subscriptions(), saved),
   });
 }
 
@@ -34,6 +34,6 @@ export function useUnsubscribe() {
   return useMutation({
     mutationFn: (input: UnsubscribeInput) =>
       apiClient.post<{ kind: string; removed: number }>('/api/alerts/unsubscribe', input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: mailKeys.subscriptions() }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: alertKeys.subscriptions() }),
   });
 }

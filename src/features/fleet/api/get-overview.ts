@@ -1,7 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { FleetOverviewDto, FleetOverviewQuery } from '../../../../shared/schemas/fleet';
 import { apiClient } from '../../../lib/api-client';
-import { toSearch } from '../utils/query-string';
+import { toSearch } from '../../../lib/query-string';
 import { fleetKeys } from './keys';
 
 export function fleetOverviewQuery(q: FleetOverviewQuery) {

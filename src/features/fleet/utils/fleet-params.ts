@@ -4,7 +4,7 @@ import {
   type FleetFilters,
   type FleetQuery,
 } from '../../../../shared/schemas/fleet';
-import { toSearch } from './query-string';
+import { toSearch } from '../../../lib/query-string';
 
 export const FLEET_DEFAULTS = { sort: 'score', dir: 'desc', page: 1, pageSize: 25 } as const;
 

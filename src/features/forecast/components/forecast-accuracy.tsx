@@ -1,29 +1,9 @@
 import { FORECAST_SITUATION_LABELS, MIN_JUDGED_FOR_COVERAGE } from '../../../../shared/domain';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
-import { Button } from '../../../components/ui/button';
-import { useRefreshJob } from '../../jobs/api/refresh-job';
+import type { ReactNode } from 'react';
 
 const num = (v: number | null, unit: string) =>
   v === null ? '—' : `${v.toLocaleString('en-GB', { maximumFractionDigits: 1 })}${unit}`;
-
-/** The case base is learned by a background job; this asks for a fresh one and reloads when it is done. */
-function RefreshForecast({ builtAt }: { builtAt: string | null }) {
-  const refresh = useRefreshJob('/api/fleet/forecast/refresh', 600);
-  return (
-    <div className="mt-3 flex flex-wrap items-center gap-3 text-sm text-ink-600">
-      {builtAt && <span>Learned {new Date(builtAt).toLocaleString('en-GB')}; again every night.</span>}
-      <Button
-        variant="quiet"
-        onClick={() => refresh.mutate()}
-        pending={refresh.isPending}
-        pendingLabel="Learning from the fleet…"
-      >
-        Learn again now
-      </Button>
-      {refresh.isError && <span className="text-alarm-700">{refresh.error.message}</span>}
-    </div>
-  );
-}
 
 function Measure({ label, value, testId }: { label: string; value: string; testId?: string }) {
   return (
@@ -40,7 +20,14 @@ function Measure({ label, value, testId }: { label: string; value: string; testI
  * How good the next top-up forecast is on this fleet (DOMAIN.md §7b): measured on the fleet's own record, each half
  * of the units forecast from the other half's cases.
  */
-export function ForecastAccuracy({ accuracy }: { accuracy: FleetOverviewDto['forecastAccuracy'] }) {
+export function ForecastAccuracy({
+  accuracy,
+  refresh,
+}: {
+  accuracy: FleetOverviewDto['forecastAccuracy'];
+  /** The button that learns the case base again (a background job). */
+  refresh: ReactNode;
+}) {
   if (!accuracy) {
     return (
       <div data-testid="forecast-accuracy">
@@ -48,7 +35,7 @@ export function ForecastAccuracy({ accuracy }: { accuracy: FleetOverviewDto['for
           Not learned yet. The forecast learns from the fleet’s own record every night; until then each unit shows its
           own rhythm.
         </p>
-        <RefreshForecast builtAt={null} />
+        {refresh}
       </div>
     );
   }
@@ -101,7 +88,7 @@ export function ForecastAccuracy({ accuracy }: { accuracy: FleetOverviewDto['for
         narrow. A still-open interval counts once it has outlasted its range. Fewer than {MIN_JUDGED_FOR_COVERAGE}{' '}
         judged cases are too few to give figures. {accuracy.k} most similar cases per forecast.
       </p>
-      <RefreshForecast builtAt={accuracy.builtAt} />
+      {refresh}
     </div>
   );
 }

@@ -14,6 +14,7 @@ import { visitPlausibilityIssues } from '../../../../shared/schemas/visit-rules'
 import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
+import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { isApiError } from '../../../lib/api-client';
 import { useUnsentInput } from '../../../lib/unsent-input';
 import { useRecordVisit } from '../api/record-visit';
@@ -70,13 +71,6 @@ const MISSING: Record<string, string> = {
   sightGlass: 'Choose what the sight glass showed',
   verified: 'Say whether the repair was verified',
 };
-
-/** An id that is made once per submission and kept with it, also when it waits on the phone. */
-function newIdempotencyKey(): string {
-  if (typeof crypto.randomUUID === 'function') return crypto.randomUUID();
-  const b = crypto.getRandomValues(new Uint8Array(16));
-  return Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('');
-}
 
 function issuesToErrors(issues: Record<string, string>) {
   const flat: Record<string, FieldError> = {};

@@ -9,7 +9,8 @@ import {
 } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
 import { uploadForm, type TransferProgress } from '../../../lib/transfer';
-import { siteKeys, unitImportKeys, unitKeys } from '../../units/api/keys';
+import { queryRoots } from '../../../lib/query-roots';
+import { importKeys } from './keys';
 
 export const IMPORT_TEMPLATE_HREF = '/api/unit-imports/template';
 
@@ -55,8 +56,8 @@ export function useCommitImport() {
     mutationFn: commitImport,
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: unitKeys.all }),
-        queryClient.invalidateQueries({ queryKey: siteKeys.all }),
+        queryClient.invalidateQueries({ queryKey: queryRoots.units }),
+        queryClient.invalidateQueries({ queryKey: queryRoots.sites }),
       ]),
   });
 }
@@ -69,7 +70,7 @@ export async function getImportProgress(key: string, signal?: AbortSignal): Prom
 /** Polled while the commit request runs; the import row appears once the server has checked every row. */
 export function importProgressQuery(key: string) {
   return queryOptions({
-    queryKey: unitImportKeys.detail(key),
+    queryKey: importKeys.detail(key),
     queryFn: ({ signal }) => getImportProgress(key, signal),
     retry: false,
   });

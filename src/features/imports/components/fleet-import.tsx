@@ -12,6 +12,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink, buttonClasses } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { isApiError } from '../../../lib/api-client';
+import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import type { TransferProgress } from '../../../lib/transfer';
 import { IMPORT_TEMPLATE_HREF, useCommitImport, useImportProgress, usePreviewImport } from '../api/fleet-import';
 
@@ -154,8 +155,6 @@ function Problems({ preview }: { preview: ImportPreviewDto }) {
   );
 }
 
-const newImportKey = () => crypto.randomUUID();
-
 /** Upload a fleet CSV, match its columns, see what would go wrong, then import every row or none. */
 export function FleetImport({ unitsHref }: { unitsHref: string }) {
   const [file, setFile] = useState<File | null>(null);
@@ -186,7 +185,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
 
   const startImport = () => {
     if (!file || !p) return;
-    const key = newImportKey();
+    const key = newIdempotencyKey();
     setImportKey(key);
     setUpload(null);
     commit.mutate(

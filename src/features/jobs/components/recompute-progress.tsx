@@ -1,10 +1,20 @@
+import type { QueryKey } from '@tanstack/react-query';
 import type { JobDto } from '../../../../shared/schemas/settings-api';
 import { Alert } from '../../../components/ui/alert';
-import { useJob } from '../../settings/api/settings';
+import { useJob } from '../api/get-job';
 
-/** Progress of the statistics recompute that follows a settings change; the app stays usable meanwhile. */
-export function RecomputeProgress({ job }: { job: JobDto | null }) {
-  const live = useJob(job);
+/**
+ * Progress of the statistics recompute that follows a settings change; the app stays usable meanwhile. When it ends,
+ * what shows unit figures (`alsoInvalidate`) is fetched again.
+ */
+export function RecomputeProgress({
+  job,
+  alsoInvalidate,
+}: {
+  job: JobDto | null;
+  alsoInvalidate: readonly QueryKey[];
+}) {
+  const live = useJob(job, alsoInvalidate);
   const j = live.data ?? job;
   if (!j) return null;
   if (j.status === 'running') {

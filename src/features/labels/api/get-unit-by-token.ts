@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { unitResponseDto, type UnitDto } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
-import { unitKeys } from '../../units/api/keys';
+import { labelKeys } from './keys';
 
 export async function getUnitByToken(token: string, signal?: AbortSignal): Promise<UnitDto> {
   return unitResponseDto.parse(await apiClient.get(`/api/units/by-token/${encodeURIComponent(token)}`, { signal }))
@@ -10,7 +10,7 @@ export async function getUnitByToken(token: string, signal?: AbortSignal): Promi
 
 export function unitByTokenQuery(token: string) {
   return queryOptions({
-    queryKey: unitKeys.byToken(token),
+    queryKey: labelKeys.byToken(token),
     queryFn: ({ signal }) => getUnitByToken(token, signal),
     // A label read twice in a row opens the same unit without a second round trip; a re-issued label is rare.
     staleTime: 60_000,

@@ -1,8 +1,6 @@
-export const mailKeys = {
-  all: ['mail'] as const,
-  mailbox: () => [...mailKeys.all, 'mailbox'] as const,
-  subscriptions: () => [...mailKeys.all, 'subscriptions'] as const,
-  link: (purpose: AccountLinkPurpose, token: string) => [...mailKeys.all, 'link', purpose, token] as const,
-};
+import { queryRoots } from '../../../lib/query-roots';
 
-export type AccountLinkPurpose = 'invitation' | 'password_reset';
+export const mailKeys = {
+  all: queryRoots.mail,
+  mailbox: () => [...mailKeys.all, 'mailbox'] as const,
+};

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { meDto, type UserDto } from '../../../../shared/schemas/auth';
 import type { CreateUserInput } from '../../../../shared/schemas/users';
 import { apiClient } from '../../../lib/api-client';
-import { userKeys } from './keys';
+import { peopleKeys } from './keys';
 
 export async function createUser(input: CreateUserInput): Promise<UserDto> {
   // `{ user }` — the same envelope as /api/auth/me.
@@ -13,6 +13,6 @@ export function useCreateUser() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createUser,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userKeys.lists() }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: peopleKeys.lists() }),
   });
 }

@@ -2,7 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { UserDto } from '../../../../shared/schemas/auth';
 import { usersListDto } from '../../../../shared/schemas/users';
 import { apiClient } from '../../../lib/api-client';
-import { userKeys } from './keys';
+import { peopleKeys } from './keys';
 
 export async function getUsers(signal?: AbortSignal): Promise<UserDto[]> {
   return usersListDto.parse(await apiClient.get('/api/users', { signal })).users;
@@ -10,7 +10,7 @@ export async function getUsers(signal?: AbortSignal): Promise<UserDto[]> {
 
 export function usersQuery() {
   return queryOptions({
-    queryKey: userKeys.list(),
+    queryKey: peopleKeys.list(),
     queryFn: ({ signal }) => getUsers(signal),
   });
 }

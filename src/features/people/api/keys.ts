@@ -1,7 +1,9 @@
-export const userKeys = {
-  all: ['users'] as const,
-  lists: () => [...userKeys.all, 'list'] as const,
-  list: () => [...userKeys.lists()] as const,
-  /** A person's signed-in devices: `'me'` for the signed-in person's own. */
-  sessions: (userId: string | 'me') => [...userKeys.all, 'sessions', userId] as const,
+import { queryRoots } from '../../../lib/query-roots';
+
+export const peopleKeys = {
+  all: queryRoots.people,
+  lists: () => [...peopleKeys.all, 'list'] as const,
+  list: () => [...peopleKeys.lists()] as const,
+  /** A person's signed-in devices, as the administrator sees them. */
+  sessions: (userId: string) => [...peopleKeys.all, 'sessions', userId] as const,
 };

@@ -3,7 +3,7 @@ import { meDto, type UserDto } from '../../../../shared/schemas/auth';
 import type { UpdateUserInput } from '../../../../shared/schemas/users';
 import { apiClient } from '../../../lib/api-client';
 import { authKeys } from '../../../lib/auth';
-import { userKeys } from './keys';
+import { peopleKeys } from './keys';
 
 export async function updateUser({ id, changes }: { id: string; changes: UpdateUserInput }): Promise<UserDto> {
   return meDto.parse(await apiClient.patch(`/api/users/${encodeURIComponent(id)}`, changes)).user;
@@ -15,10 +15,12 @@ export function useUpdateUser() {
     mutationFn: updateUser,
     onSuccess: async (user) => {
       // Show the change at once, then confirm against the server.
-      queryClient.setQueryData<UserDto[]>(userKeys.list(), (users) => users?.map((u) => (u.id === user.id ? user : u)));
+      queryClient.setQueryData<UserDto[]>(peopleKeys.list(), (users) =>
+        users?.map((u) => (u.id === user.id ? user : u)),
+      );
       const me = queryClient.getQueryData<UserDto>(authKeys.me());
       if (me?.id === user.id) queryClient.setQueryData(authKeys.me(), user);
-      await queryClient.invalidateQueries({ queryKey: userKeys.lists() });
+      await queryClient.invalidateQueries({ queryKey: peopleKeys.lists() });
     },
   });
 }

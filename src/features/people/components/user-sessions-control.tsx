@@ -1,13 +1,13 @@
 import { useState } from 'react';
 import type { UserDto } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/ui/button';
-import { useEndUserSessions, useSessions } from '../../account/api/sessions';
+import { useEndUserSessions, useUserSessions } from '../api/user-sessions';
 import { DeviceList } from '../../../components/sessions/device-list';
 
 /** For administrators: where a person is signed in, and signing them out of one device or all. */
 export function UserSessionsControl({ user }: { user: UserDto }) {
   const [open, setOpen] = useState(false);
-  const sessions = useSessions(user.id, open);
+  const sessions = useUserSessions(user.id, open);
   const end = useEndUserSessions(user.id);
   const [endingId, setEndingId] = useState<string | null>(null);
   const run = (sessionId?: string) => {

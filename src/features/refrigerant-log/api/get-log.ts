@@ -1,11 +1,7 @@
 import { keepPreviousData, useInfiniteQuery } from '@tanstack/react-query';
 import type { RefrigerantLogDto, RefrigerantLogQuery } from '../../../../shared/schemas/refrigerant-log';
 import { apiClient } from '../../../lib/api-client';
-
-export const logKeys = {
-  all: ['refrigerant-log'] as const,
-  list: (q: Omit<RefrigerantLogQuery, 'before'>) => [...logKeys.all, q] as const,
-};
+import { logKeys } from './keys';
 
 const search = (q: Record<string, unknown>) => {
   const sp = new URLSearchParams();

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { sitesListDto, type SiteDto } from '../../../../shared/schemas/sites';
 import { apiClient } from '../../../lib/api-client';
-import { siteKeys } from '../../units/api/keys';
+import { siteKeys } from './keys';
 
 export async function getSites(signal?: AbortSignal): Promise<SiteDto[]> {
   return sitesListDto.parse(await apiClient.get('/api/sites', { signal })).sites;

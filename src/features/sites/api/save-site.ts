@@ -2,7 +2,8 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { siteDto, type CreateSiteInput, type SiteDto, type UpdateSiteInput } from '../../../../shared/schemas/sites';
 import { apiClient } from '../../../lib/api-client';
-import { siteKeys, unitKeys } from '../../units/api/keys';
+import { queryRoots } from '../../../lib/query-roots';
+import { siteKeys } from './keys';
 
 const siteResponse = z.object({ site: siteDto });
 
@@ -26,7 +27,7 @@ function useSiteMutation<V, R>(mutationFn: (v: V) => Promise<R>) {
     onSuccess: () =>
       Promise.all([
         queryClient.invalidateQueries({ queryKey: siteKeys.all }),
-        queryClient.invalidateQueries({ queryKey: unitKeys.all }),
+        queryClient.invalidateQueries({ queryKey: queryRoots.units }),
       ]),
   });
 }

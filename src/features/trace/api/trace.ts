@@ -6,12 +6,12 @@ import type {
   TraceResultDto,
 } from '../../../../shared/schemas/fleet';
 import { apiClient } from '../../../lib/api-client';
-import { toSearch } from '../../fleet/utils/query-string';
-import { fleetKeys } from '../../fleet/api/keys';
+import { toSearch } from '../../../lib/query-string';
+import { traceKeys } from './keys';
 
 export function traceQuery(q: TraceQuery | null) {
   return queryOptions({
-    queryKey: fleetKeys.trace(q ?? {}),
+    queryKey: traceKeys.result(q ?? {}),
     queryFn: ({ signal }) => apiClient.get<TraceResultDto>(`/api/traceability?${toSearch(q ?? {})}`, { signal }),
     enabled: q !== null,
   });
@@ -25,6 +25,6 @@ export function useMarkForInspection() {
   return useMutation({
     mutationFn: (input: MarkForInspectionInput) =>
       apiClient.post<MarkForInspectionResultDto>('/api/traceability/mark-for-inspection', input),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: fleetKeys.traces() }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: traceKeys.all }),
   });
 }

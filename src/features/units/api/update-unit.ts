@@ -1,7 +1,8 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { unitResponseDto, type UnitDto, type UpdateUnitInput } from '../../../../shared/schemas/units';
 import { apiClient } from '../../../lib/api-client';
-import { siteKeys, unitKeys } from './keys';
+import { queryRoots } from '../../../lib/query-roots';
+import { unitKeys } from './keys';
 
 export async function updateUnit({ id, changes }: { id: number; changes: UpdateUnitInput }): Promise<UnitDto> {
   return unitResponseDto.parse(await apiClient.patch(`/api/units/${id}`, changes)).unit;
@@ -16,7 +17,7 @@ export function useUpdateUnit() {
       await Promise.all([
         queryClient.invalidateQueries({ queryKey: unitKeys.changes(unit.id) }),
         queryClient.invalidateQueries({ queryKey: unitKeys.lists() }),
-        queryClient.invalidateQueries({ queryKey: siteKeys.all }),
+        queryClient.invalidateQueries({ queryKey: queryRoots.sites }),
       ]);
     },
   });

@@ -8,7 +8,3 @@ export function toSearch(values: Record<string, unknown>, defaults: Record<strin
   }
   return sp.toString();
 }
-
-/** A random key for a write that may be retried (idempotency); works outside secure contexts too. */
-export const newKey = () =>
-  Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('');

@@ -1,0 +1,7 @@
+import type { TraceQuery } from '../../../../shared/schemas/fleet';
+import { queryRoots } from '../../../lib/query-roots';
+
+export const traceKeys = {
+  all: queryRoots.trace,
+  result: (q: TraceQuery) => [...traceKeys.all, q] as const,
+};
