@@ -32,6 +32,8 @@ export type S3Settings = {
 const PART_BYTES = 5 * 1024 * 1024;
 
 export function createS3Client(s: Omit<S3Settings, 'bucket' | 'tempDir' | 'prefix'>): S3Client {
+  // The pinned SDK runs on Node 20; its warning is about releases after January 2027, which the pin keeps out.
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
   return new S3Client({
     region: s.region,
     endpoint: s.endpoint,

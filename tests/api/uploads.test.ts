@@ -11,65 +11,59 @@ import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app';
 import { createHttpServer } from '../../server/lib/http-server';
 import { createLocalStorage } from '../../server/lib/storage';
+import type { Express } from 'express';
 import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES } from '../../shared/schemas/history';
 import { MAX_IMPORT_BYTES } from '../../shared/schemas/units';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
+import { openTestStorage, STORAGE_DRIVERS, type TestStorage } from '../support/storage-drivers';
 
 const { db, pool } = openTestDb();
-const root = mkdtempSync(path.join(os.tmpdir(), 'tightloop-uploads-'));
-const storage = createLocalStorage(root);
-const { app } = createApp({ db, storage, rateLimits: { signInPerIp: 1000 } });
 const scratch = mkdtempSync(path.join(os.tmpdir(), 'tightloop-upload-src-'));
-let technician: TestAgent;
-let engineer: TestAgent;
 
-beforeAll(async () => {
-  await resetDb(db);
-  technician = (await signInAs(app, db, 'technician')).agent;
-  engineer = (await signInAs(app, db, 'engineer')).agent;
-});
+beforeAll(() => resetDb(db));
 afterAll(() => pool.end());
-
-/** Every file under the storage root, temporary ones included. */
-function filesIn(dir: string): string[] {
-  if (!existsSync(dir)) return [];
-  return readdirSync(dir, { recursive: true, withFileTypes: true })
-    .filter((e) => e.isFile())
-    .map((e) => path.relative(root, path.join(e.parentPath, e.name)))
-    .sort();
-}
-
-/** The temporary files are removed when the response has been sent, a moment after the client has it. */
-const expectNothingLeft = async (before: string[]) => {
-  await expect.poll(() => filesIn(storage.tempDir), { timeout: 2000 }).toEqual([]);
-  expect(filesIn(root)).toEqual(before);
-};
-
-async function newEvent() {
-  const unit = await createTestUnit(db);
-  const res = await technician
-    .post('/api/visits')
-    .set('Origin', TEST_ORIGIN)
-    .send({
-      idempotencyKey: randomUUID(),
-      unitId: unit.id,
-      occurredAt: new Date(Date.now() - 3600_000).toISOString(),
-      events: [{ kind: 'note', note: 'Photos' }],
-    });
-  expect(res.status).toBe(201);
-  return res.body.events[0].id as number;
-}
-
-const attach = (eventId: number, files: [Buffer | string, string][]) => {
-  let req = technician.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN);
-  for (const [content, name] of files) req = req.attach('files', content, name);
-  return req;
-};
 
 const pdf = (text: string) => Buffer.from(`%PDF-1.4\n% ${text}\n%%EOF\n`);
 
-describe('photo and document uploads', () => {
+describe.each(STORAGE_DRIVERS)('photo and document uploads (%s storage)', (driver) => {
+  let t: TestStorage;
+  let app: Express;
+  let technician: TestAgent;
+  beforeAll(async () => {
+    t = await openTestStorage(driver);
+    app = createApp({ db, storage: t.storage, rateLimits: { signInPerIp: 1000 } }).app;
+    technician = (await signInAs(app, db, 'technician')).agent;
+  });
+  afterAll(() => t.stop());
+
+  /** The temporary files are removed when the response has been sent, a moment after the client has it. */
+  const expectNothingLeft = async (before: string[]) => {
+    await expect.poll(() => t.tempFiles(), { timeout: 2000 }).toEqual([]);
+    expect(await t.keys()).toEqual(before);
+  };
+
+  async function newEvent() {
+    const unit = await createTestUnit(db);
+    const res = await technician
+      .post('/api/visits')
+      .set('Origin', TEST_ORIGIN)
+      .send({
+        idempotencyKey: randomUUID(),
+        unitId: unit.id,
+        occurredAt: new Date(Date.now() - 3600_000).toISOString(),
+        events: [{ kind: 'note', note: 'Photos' }],
+      });
+    expect(res.status).toBe(201);
+    return res.body.events[0].id as number;
+  }
+
+  const attach = (eventId: number, files: [Buffer | string, string][]) => {
+    let req = technician.post(`/api/events/${eventId}/attachments`).set('Origin', TEST_ORIGIN);
+    for (const [content, name] of files) req = req.attach('files', content, name);
+    return req;
+  };
+
   it('keeps a photo and its thumbnail and leaves no temporary file', async () => {
     const eventId = await newEvent();
     const png = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#36a' } })
@@ -84,14 +78,14 @@ describe('photo and document uploads', () => {
     });
     const file = await technician.get(res.body.attachments[0].url);
     expect(Buffer.compare(file.body as Buffer, png)).toBe(0);
-    await expect.poll(() => filesIn(storage.tempDir)).toEqual([]);
+    await expect.poll(() => t.tempFiles()).toEqual([]);
     // The photo and its thumbnail.
-    expect(filesIn(root)).toHaveLength(2);
+    expect(await t.keys()).toHaveLength(2);
   });
 
   it('returns 413 for a file over 10 MB and keeps nothing of the request', async () => {
     const eventId = await newEvent();
-    const before = filesIn(root);
+    const before = await t.keys();
     const big = path.join(scratch, 'big.pdf');
     writeFileSync(big, Buffer.concat([pdf('big'), Buffer.alloc(MAX_UPLOAD_BYTES, 0x20)]));
     const res = await attach(eventId, [
@@ -105,7 +99,7 @@ describe('photo and document uploads', () => {
 
   it('returns 415 for a file whose content is not an image or PDF, whatever its name, and keeps nothing', async () => {
     const eventId = await newEvent();
-    const before = filesIn(root);
+    const before = await t.keys();
     const res = await attach(eventId, [
       [pdf('a good one'), 'report.pdf'],
       [Buffer.from('MZ\x90\x00 not a photo at all'), 'photo.jpg'],
@@ -118,7 +112,7 @@ describe('photo and document uploads', () => {
 
   it('returns 415 for a file that starts like a PNG but is not one, and keeps the others of the request neither', async () => {
     const eventId = await newEvent();
-    const before = filesIn(root);
+    const before = await t.keys();
     const fake = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(2000, 7)]);
     const res = await attach(eventId, [
       [pdf('kept only if all are good'), 'report.pdf'],
@@ -135,14 +129,14 @@ describe('photo and document uploads', () => {
       { length: MAX_PHOTOS_PER_EVENT + 1 },
       (_, i) => [pdf(`nine ${i}`), `doc${i}.pdf`] as [Buffer, string],
     );
-    const before = filesIn(root);
+    const before = await t.keys();
     const tooMany = await attach(eventId, nine);
     expect(tooMany.status).toBe(400);
     expect(tooMany.body.error.code).toBe('too_many_files');
     await expectNothingLeft(before);
 
     expect((await attach(eventId, nine.slice(0, 7))).status).toBe(201);
-    const seven = filesIn(root);
+    const seven = await t.keys();
     const over = await attach(eventId, [
       [pdf('ninth'), 'ninth.pdf'],
       [pdf('tenth'), 'tenth.pdf'],
@@ -153,7 +147,7 @@ describe('photo and document uploads', () => {
   });
 
   it('keeps nothing of an upload whose connection is cut halfway', async () => {
-    const before = filesIn(root);
+    const before = await t.keys();
     const eventId = await newEvent();
     const user = await createTestUser(db, { role: 'technician' });
     const signIn = await request(app)
@@ -182,7 +176,7 @@ describe('photo and document uploads', () => {
     req.write(head);
     req.write(Buffer.alloc(1024 * 1024, 0x20));
     // Wait until the file is being written, then cut the connection.
-    await expect.poll(() => filesIn(storage.tempDir).length).toBe(1);
+    await expect.poll(() => t.tempFiles().length).toBe(1);
     req.destroy();
     await expectNothingLeft([...before].sort());
     server.close();
@@ -212,11 +206,32 @@ describe('photo and document uploads', () => {
     );
     // Held in memory the three took ~295 MB more; streamed to disk, tens of MB (the client in this process included).
     expect(peak - before).toBeLessThan(150 * 1024 * 1024);
-    await expect.poll(() => filesIn(storage.tempDir)).toEqual([]);
+    await expect.poll(() => t.tempFiles()).toEqual([]);
   });
 });
 
 describe('fleet CSV uploads', () => {
+  const root = mkdtempSync(path.join(os.tmpdir(), 'tightloop-uploads-'));
+  const storage = createLocalStorage(root);
+  const { app } = createApp({ db, storage, rateLimits: { signInPerIp: 1000 } });
+  let engineer: TestAgent;
+  beforeAll(async () => {
+    engineer = (await signInAs(app, db, 'engineer')).agent;
+  });
+
+  /** Every file under the storage root, temporary ones included. */
+  function filesIn(dir: string): string[] {
+    if (!existsSync(dir)) return [];
+    return readdirSync(dir, { recursive: true, withFileTypes: true })
+      .filter((e) => e.isFile())
+      .map((e) => path.relative(root, path.join(e.parentPath, e.name)))
+      .sort();
+  }
+  const expectNothingLeft = async (before: string[]) => {
+    await expect.poll(() => filesIn(storage.tempDir), { timeout: 2000 }).toEqual([]);
+    expect(filesIn(root)).toEqual(before);
+  };
+
   const previewCsv = (content: Buffer | string, name = 'fleet.csv') =>
     engineer
       .post('/api/unit-imports/preview')
