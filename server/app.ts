@@ -7,13 +7,12 @@ import { type Clock, systemClock } from './lib/clock';
 import { createLogger, type Logger } from './lib/logger';
 import { createSessionManager, type SessionLifetimes } from './lib/session';
 import { counterStore } from './lib/rate-limit-store';
-import { createSignInGuard } from './features/auth/sign-in-guard';
-import { accountRoutes } from './features/auth/account.router';
+import { createSignInGuard } from './lib/sign-in-guard';
 import { createSmtpMailer, smtpSettingsFrom, type Mailer } from './lib/mailer';
 import { mailGoesToFakeSmtp, readEnv, type TrustProxy } from './env';
 import { notFound } from './lib/http-error';
-import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './deps';
-import type { RouteSpec } from './routes';
+import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './lib/app-context';
+import { allRoutes } from './routes';
 import { requestLog } from './middleware/request-log';
 import { sessionMiddleware } from './middleware/session';
 import { allowedOrigins, originCheck } from './middleware/origin-check';
@@ -22,19 +21,6 @@ import { errorHandler } from './middleware/error-handler';
 import { verifyUtf8Body, wellFormedText } from './middleware/well-formed-text';
 import { bodyDeadline } from './middleware/body-deadline';
 import { apiCompression, clientAssets } from './middleware/client-assets';
-import { authRoutes } from './features/auth/auth.router';
-import { usersRoutes } from './features/users/users.router';
-import { healthRoutes } from './features/health/health.router';
-import { unitsRoutes } from './features/units/units.router';
-import { sitesRoutes } from './features/sites/sites.router';
-import { labelsRoutes } from './features/labels/labels.router';
-import { unitImportsRoutes } from './features/unit-imports/unit-imports.router';
-import { mailRoutes } from './features/mail/mail.router';
-import { fleetRoutes } from './features/fleet/fleet.router';
-import { refrigerantLogRoutes } from './features/refrigerant-log/refrigerant-log.router';
-import { decisionsRoutes } from './features/decisions/decisions.router';
-import { settingsRoutes } from './features/settings/settings.router';
-import { historyRoutes } from './features/history/history.router';
 import { createLocalStorage, type Storage } from './lib/storage';
 
 export type AppDeps = {
@@ -62,25 +48,6 @@ export type AppDeps = {
 };
 
 export const JSON_BODY_LIMIT = '256kb';
-
-export function allRoutes(ctx: AppContext): RouteSpec[] {
-  return [
-    ...healthRoutes(ctx),
-    ...authRoutes(ctx),
-    ...accountRoutes(ctx),
-    ...usersRoutes(ctx),
-    ...historyRoutes(ctx),
-    ...mailRoutes(ctx),
-    ...unitsRoutes(ctx),
-    ...sitesRoutes(ctx),
-    ...labelsRoutes(ctx),
-    ...unitImportsRoutes(ctx),
-    ...fleetRoutes(ctx),
-    ...refrigerantLogRoutes(ctx),
-    ...decisionsRoutes(ctx),
-    ...settingsRoutes(ctx),
-  ];
-}
 
 export function createApp(deps: AppDeps) {
   const logger = deps.logger ?? createLogger('silent');

@@ -4,8 +4,8 @@ import { createApp } from './app';
 import { createDb } from './db/client';
 import { publicUrl, readEnv } from './env';
 import { createLogger } from './lib/logger';
-import { createOutboxWorker } from './features/mail/outbox-worker';
-import { scheduleForecastRefresh } from './features/jobs/jobs.service';
+import { createOutboxWorker } from './lib/mail/sender';
+import { startSchedules } from './scheduler';
 import { createLocalStorage } from './lib/storage';
 import { createHttpServer } from './lib/http-server';
 
@@ -33,8 +33,8 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
   });
   const mailWorker = createOutboxWorker(ctx);
   mailWorker.start();
-  // The forecast's case base: learned shortly after start-up when there is none, then every night (DOMAIN.md §7b).
-  const forecastRefresh = scheduleForecastRefresh(ctx);
+  // Background work on timers: the forecast's nightly case base, the daily mails, stale jobs and old derived tables.
+  const schedules = startSchedules(ctx);
   // Ended sessions and expired known devices leave their rows; sweep them hourly.
   const sweep = setInterval(
     () =>
@@ -65,7 +65,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
       const force = setTimeout(() => server.closeAllConnections(), 5000);
       force.unref();
       await new Promise((r) => server.once('close', r));
-      forecastRefresh.stop();
+      schedules.stop();
       await mailWorker.stop();
       await pool.end();
     })());

@@ -1,11 +1,11 @@
-import type { Db } from './db/client';
-import type { Clock } from './lib/clock';
-import type { Logger } from './lib/logger';
-import type { Mailer } from './lib/mailer';
-import type { SessionManager } from './lib/session';
-import type { Storage } from './lib/storage';
-import type { CounterStore } from './lib/rate-limit-store';
-import type { SignInGuard } from './features/auth/sign-in-guard';
+import type { Db } from '../db/client';
+import type { Clock } from './clock';
+import type { Logger } from './logger';
+import type { Mailer } from './mailer';
+import type { SessionManager } from './session';
+import type { Storage } from './storage';
+import type { CounterStore } from './rate-limit-store';
+import type { SignInGuard } from './sign-in-guard';
 
 export type RateLimits = {
   /** Failed sign-ins from one address (IPv6: one /64), over all accounts, per hour. */

@@ -5,8 +5,8 @@ import { pipeline } from 'node:stream/promises';
 import type { Response } from 'express';
 import type { Pool as CorePool } from 'mysql2';
 import { stringify } from 'csv-stringify';
-import type { Db } from '../../db/client';
-import { CSV_OPTIONS } from '../../lib/csv';
+import type { Db } from '../db/client';
+import { CSV_OPTIONS } from './csv';
 
 type Compiled = { toSQL(): { sql: string; params: unknown[] } };
 
@@ -36,7 +36,3 @@ export async function sendCsv(
   const csv = stringify({ ...CSV_OPTIONS, header: true, columns, bom: true });
   await pipeline(Readable.from(records), csv, res);
 }
-
-/** Date-only text of a DATE column read raw (a Date at UTC midnight) or already text. */
-export const dayText = (v: unknown): string =>
-  v == null ? '' : v instanceof Date ? v.toISOString().slice(0, 10) : String(v).slice(0, 10);

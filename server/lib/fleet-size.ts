@@ -1,7 +1,7 @@
 // The whole fleet's size, kept between reads: counting reads every unit, a primary-key lookup does not.
 import { count, max } from 'drizzle-orm';
-import type { Db } from '../../db/client';
-import { units } from '../../db/schema';
+import type { Db } from '../db/client';
+import { units } from '../db/schema';
 
 // Units are never deleted (retired ones stay), so the size changes only when units are added. This process adds
 // them through registration and import, which call unitsAdded after they commit; a kept count taken before that

@@ -1,7 +1,7 @@
 // The API's route table. Every API route is declared here with the permission it needs, so the role × route test
 // can walk all of them and no route can be mounted without a permission decision.
 import type { RequestHandler } from 'express';
-import type { Permission } from '../shared/permissions';
+import type { Permission } from '../../shared/permissions';
 
 export type Access = Permission | 'public' | 'signed-in';
 export type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';

@@ -1,5 +1,5 @@
-import type { UserDto } from '../../../shared/schemas/auth';
-import type { users } from '../../db/schema';
+import type { UserDto } from '../../shared/schemas/auth';
+import type { users } from '../db/schema';
 
 type UserRow = typeof users.$inferSelect;
 type UserLike = Pick<UserRow, 'id' | 'email' | 'name' | 'role' | 'certificateNumber' | 'active' | 'createdAt'>;

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import { can } from '../../shared/permissions';
-import type { Access } from '../routes';
+import type { Access } from '../lib/route';
 import { forbidden, unauthenticated } from '../lib/http-error';
 
 export function requireAccess(access: Access) {

@@ -4,7 +4,7 @@ import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { accountLinks, mailOutbox, rateLimits, users } from '../../server/db/schema';
-import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
+import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
 import { linkIn, startTestSmtp, testClock } from '../support/mail';

@@ -8,7 +8,7 @@ import { alertSubscriptions, sites, units, unitStats, users } from '../../server
 import { newToken } from '../../server/lib/ids';
 import { queueAlertsForStatsChange, type UnitStatsRow } from '../../server/features/alerts/alerts.service';
 import { queueDailyDigest, queueOverdueLeakAlerts } from '../../server/features/alerts/digest.service';
-import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
+import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { containerCheckDigit } from '../../shared/domain/container-number';
 import { isoDate, dayOf, MS_PER_DAY } from '../../shared/domain/dates';
 import { ALERT_KINDS, type AlertKind } from '../../shared/schemas/alerts';

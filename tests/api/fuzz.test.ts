@@ -14,7 +14,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { accountLinks, units, users } from '../../server/db/schema';
-import { hashToken } from '../../server/features/account-links/account-links.service';
+import { hashToken } from '../../server/features/account/account-links.service';
 import { unsubscribeUrl } from '../../server/features/alerts/unsubscribe-link';
 import { waitForJobs } from '../../server/features/jobs/jobs.service';
 import { newToken } from '../../server/lib/ids';

@@ -26,7 +26,7 @@ function send(agent: TestAgent | ReturnType<typeof request>, method: string, pat
   return method === 'get' ? req : req.set('Origin', TEST_ORIGIN).send({});
 }
 
-import type { Access } from '../../server/routes';
+import type { Access } from '../../server/lib/route';
 
 const guarded = routes.filter((r): r is typeof r & { access: Exclude<Access, 'public'> } => r.access !== 'public');
 

@@ -18,7 +18,7 @@ import { createDb } from '../../server/db/client';
 import { accountLinks, knownDevices, mailOutbox, rateLimits, sessions } from '../../server/db/schema';
 import { readEnv } from '../../server/env';
 import { startServer } from '../../server/index';
-import { hashToken } from '../../server/features/account-links/account-links.service';
+import { hashToken } from '../../server/features/account/account-links.service';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
 import { createLocalStorage } from '../../server/lib/storage';

@@ -11,7 +11,7 @@ import { sharedTestDb } from './global-setup-db';
 import { startFakeSmtp } from '../../server/lib/fake-smtp';
 import { createSmtpMailer } from '../../server/lib/mailer';
 import { storeReceivedMail } from '../../server/features/mail/mailbox.service';
-import { createOutboxWorker } from '../../server/features/mail/outbox-worker';
+import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { createHttpServer } from '../../server/lib/http-server';
 
 export default async function setup(project: TestProject) {

@@ -16,7 +16,7 @@ import {
 } from 'drizzle-orm/mysql-core';
 import { sites } from './sites';
 import { units } from './units';
-import { users } from './users';
+import { users } from './people';
 
 export const EVENT_KINDS = [
   'pti',

@@ -1,5 +1,5 @@
-// E-mail: the outbox (written in the same transaction as the event that causes a message), one-time account links,
-// alert subscriptions, the key that signs unsubscribe links, and the development mailbox of the fake SMTP server.
+// E-mail: the outbox (written in the same transaction as the event that causes a message), the key that signs links
+// in mails, and the development mailbox of the fake SMTP server.
 import { sql } from 'drizzle-orm';
 import {
   bigint,
@@ -11,12 +11,8 @@ import {
   mediumtext,
   mysqlEnum,
   mysqlTable,
-  uniqueIndex,
   varchar,
 } from 'drizzle-orm/mysql-core';
-import { ALERT_KINDS } from '../../../shared/schemas/alerts';
-import { sites } from './sites';
-import { users } from './users';
 
 export const MAIL_KINDS = ['invitation', 'password_reset', 'alert', 'digest', 'password_changed'] as const;
 
@@ -43,48 +39,6 @@ export const mailOutbox = mysqlTable(
       .default(sql`CURRENT_TIMESTAMP(3)`),
   },
   (t) => [index('mail_outbox_due_idx').on(t.sentAt, t.nextAttemptAt)],
-);
-
-export const ACCOUNT_LINK_PURPOSES = ['invitation', 'password_reset'] as const;
-
-export const accountLinks = mysqlTable(
-  'account_links',
-  {
-    id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
-    userId: varchar('user_id', { length: 32 })
-      .notNull()
-      .references(() => users.id),
-    purpose: mysqlEnum('purpose', ACCOUNT_LINK_PURPOSES).notNull(),
-    // SHA-256 of the token in the link (hex); the token itself is never stored.
-    tokenHash: char('token_hash', { length: 64 }).notNull().unique(),
-    expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
-    usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
-  },
-  (t) => [index('account_links_user_idx').on(t.userId, t.purpose)],
-);
-
-export const alertSubscriptions = mysqlTable(
-  'alert_subscriptions',
-  {
-    id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
-    userId: varchar('user_id', { length: 32 })
-      .notNull()
-      .references(() => users.id),
-    siteId: int('site_id')
-      .notNull()
-      .references(() => sites.id),
-    kind: mysqlEnum('kind', ALERT_KINDS).notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
-  },
-  (t) => [
-    uniqueIndex('alert_subscriptions_user_site_kind_uq').on(t.userId, t.siteId, t.kind),
-    index('alert_subscriptions_site_kind_idx').on(t.siteId, t.kind),
-  ],
 );
 
 /** Keys that sign links in mails; created on first use so every server behind the balancer shares them. */

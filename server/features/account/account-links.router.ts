@@ -5,11 +5,11 @@ import {
   requestPasswordResetSchema,
   setPasswordSchema,
 } from '../../../shared/schemas/account-links';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { HttpError } from '../../lib/http-error';
 import { addressBucket, clientAddress } from '../../lib/client-address';
-import { toUserDto } from '../users/users.mapper';
+import { toUserDto } from '../../lib/user-dto';
 import { completeLink, describeLink, requestPasswordReset, resendInvitation } from './account-links.service';
 
 const WINDOW_S = 15 * 60;

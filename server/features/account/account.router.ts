@@ -8,11 +8,11 @@ import {
 } from '../../../shared/schemas/account';
 import { idParamSchema } from '../../../shared/schemas/common';
 import { users } from '../../db/schema';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import { badRequest, HttpError, notFound } from '../../lib/http-error';
 import { addressBucket, clientAddress } from '../../lib/client-address';
 import { assessPassword } from '../../lib/password-policy';
-import { route } from '../../routes';
+import { route } from '../../lib/route';
 import { changePassword, confirmPassword } from './account.service';
 
 export function accountRoutes(ctx: AppContext) {

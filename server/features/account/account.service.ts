@@ -2,7 +2,7 @@
 import { and, eq, gt, isNull } from 'drizzle-orm';
 import type { Request } from 'express';
 import { accountLinks, users } from '../../db/schema';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import { badRequest, notFound } from '../../lib/http-error';
 import { hashPassword, verifyPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';

@@ -2,9 +2,9 @@ import { createHash } from 'node:crypto';
 import { signInSchema } from '../../../shared/schemas/auth';
 import { HttpError } from '../../lib/http-error';
 import { clientAddress } from '../../lib/client-address';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
-import { toUserDto } from '../users/users.mapper';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
+import { toUserDto } from '../../lib/user-dto';
 import { checkCredentials } from './auth.service';
 
 export function authRoutes(ctx: AppContext) {

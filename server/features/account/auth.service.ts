@@ -5,7 +5,7 @@ import { users } from '../../db/schema';
 import { burnPasswordCheck, verifyPassword } from '../../lib/password';
 import { HttpError } from '../../lib/http-error';
 import type { SignInInput } from '../../../shared/schemas/auth';
-import type { SignInGuard } from './sign-in-guard';
+import type { SignInGuard } from '../../lib/sign-in-guard';
 
 // One answer for an unknown e-mail, a wrong password, an account without a password and a deactivated account.
 const invalidCredentials = () =>

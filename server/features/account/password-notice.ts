@@ -2,9 +2,9 @@
 // and can take the account back with a reset link.
 import { randomUUID } from 'node:crypto';
 import type { DbOrTx } from '../../db/client';
-import type { AppContext } from '../../deps';
-import { enqueueMail } from '../mail/outbox';
-import { renderMail } from '../mail/layout';
+import type { AppContext } from '../../lib/app-context';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { renderMail } from '../../lib/mail/layout';
 
 const FORGOT_PASSWORD_PATH = '/forgot-password';
 

@@ -1,6 +1,6 @@
 import { putSubscriptionsSchema, unsubscribeSchema } from '../../../shared/schemas/alerts';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { getSubscriptions, putSubscriptions, unsubscribe } from './alerts.service';
 
 export function alertRoutes(ctx: AppContext) {

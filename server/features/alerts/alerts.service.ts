@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { alertSubscriptions, sites, users, type unitStats } from '../../db/schema';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import { badRequest, HttpError } from '../../lib/http-error';
 import { retryTransaction } from '../../lib/retry';
 import { can } from '../../../shared/permissions';
@@ -16,8 +16,8 @@ import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
 import { getSettings } from '../settings/settings.service';
-import { enqueueMail } from '../mail/outbox';
-import { renderMail, type MailContent } from '../mail/layout';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { renderMail, type MailContent } from '../../lib/mail/layout';
 import { unsubscribeUrl, verifyUnsubscribe } from './unsubscribe-link';
 
 /** Days a found leak may stay unrepaired before the engineers hear about it (policy; not in the settings yet). */

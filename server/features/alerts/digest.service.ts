@@ -5,8 +5,8 @@ import { alertSubscriptions, mailOutbox, sites, units, unitStats, users } from '
 import { can } from '../../../shared/permissions';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
-import { enqueueMail } from '../mail/outbox';
-import { renderMail, type MailSection } from '../mail/layout';
+import { enqueueMail } from '../../lib/mail/outbox';
+import { renderMail, type MailSection } from '../../lib/mail/layout';
 import { OPEN_LEAK_ALERT_DAYS, queueOpenLeakAlert, subscriptionFooter, type AlertContext } from './alerts.service';
 
 export const DIGEST_LEAK_CHECK_DAYS = 30;

@@ -1,7 +1,7 @@
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { candidatesQuerySchema, recordDecisionSchema } from '../../../shared/schemas/decisions';
-import { unitIdParam } from '../fleet/params';
+import { unitIdParam } from '../../lib/id-params';
 import { getUnitDecision, recordDecision, retirementCandidates } from './decisions.service';
 
 export function decisionsRoutes(ctx: AppContext) {

@@ -19,7 +19,8 @@ import {
 import { LRUCache } from 'lru-cache';
 import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
-import { fleetSize } from './fleet-size';
+import { fleetSize } from '../../lib/fleet-size';
+import { dayPlus, todayOf } from '../../lib/dates';
 import { sites, units, unitStats } from '../../db/schema';
 import {
   FLEET_COUNT_CAP,
@@ -30,10 +31,6 @@ import {
   type FleetRowDto,
   type FleetSort,
 } from '../../../shared/schemas/fleet';
-
-export const todayOf = (now: Date) => now.toISOString().slice(0, 10);
-export const dayPlus = (day: string, days: number) =>
-  new Date(Date.parse(day) + days * 86_400_000).toISOString().slice(0, 10);
 
 const SORT_COLUMNS: Record<FleetSort, MySqlColumn> = {
   score: unitStats.score,
@@ -283,7 +280,7 @@ export async function countFleet(db: Db, f: FleetFilters, today: string): Promis
   const where = fleetWhere(f, today);
   // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet. Each
   // side's filters alone are counted on that table's own indexes, without the join (every unit has its statistics
-  // row once ensureStatsRows has run).
+  // row: registration writes it, and the scheduler fills in units loaded past the API).
   const onStats = db
     .select({ one: sql`1` })
     .from(unitStats)

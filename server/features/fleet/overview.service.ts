@@ -8,7 +8,7 @@ import { co2eTonnes, type GwpBasis } from '../../../shared/domain';
 import { fleetMonthlyGeneration } from './fleet-monthly.service';
 import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
 import { getSettings } from '../settings/settings.service';
-import { dayPlus, todayOf } from './fleet.service';
+import { dayPlus, todayOf } from '../../lib/dates';
 import { latestForecastAccuracy, type ForecastAccuracyInfo } from '../forecast/case-base.service';
 
 const BIN_PCT = 10;

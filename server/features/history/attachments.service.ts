@@ -1,7 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import { eq, or, sql } from 'drizzle-orm';
 import sharp from 'sharp';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import type { DbOrTx } from '../../db/client';
 import { attachments, events } from '../../db/schema';
 import { badRequest, HttpError, notFound } from '../../lib/http-error';

@@ -1,13 +1,11 @@
-import { z } from 'zod';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
+import { numericIdParam } from '../../lib/id-params';
 import type { Storage } from '../../lib/storage';
 import { attachmentUpload } from '../../middleware/upload';
 import { historyQuerySchema, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
 import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent } from './history.service';
 import { addAttachments, readAttachment } from './attachments.service';
-
-const numericId = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) });
 
 export function historyRoutes(ctx: AppContext & { storage: Storage }) {
   return [
@@ -19,7 +17,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
     // Every role may void something: technicians and engineers their own recent entries, engineers, owners and admins
     // any entry; the service applies the rule for the role.
     route('post', '/api/events/:id/void', 'signed-in', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       const { reason } = voidEventSchema.parse(req.body);
       res.status(201).json(await voidEvent(ctx, req.user!, id, reason));
     }),
@@ -28,7 +26,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       '/api/events/:id/attachments',
       'record:event',
       async (req, res) => {
-        const { id } = numericId.parse(req.params);
+        const { id } = numericIdParam.parse(req.params);
         const files = (req.files as Express.Multer.File[] | undefined) ?? [];
         res.status(201).json({ attachments: await addAttachments(ctx, req.user!, id, files) });
       },
@@ -37,7 +35,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
     // Photos show inline; anything else (PDFs) only downloads, so nothing uploaded runs in the app's origin
     // (ASVS 4.0 12.5.2). Not kept by the browser's cache: a shared phone holds nothing after sign-out (8.2.1).
     route('get', '/api/attachments/:id/file', 'view:unit', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       const f = await readAttachment(ctx, id, 'file');
       const disposition = f.mimeType.startsWith('image/') ? 'inline' : 'attachment';
       const ascii = f.name.replace(/[^\x20-\x7e]|["\\]/g, '_');
@@ -51,23 +49,23 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       res.send(f.bytes);
     }),
     route('get', '/api/attachments/:id/thumbnail', 'view:unit', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       const f = await readAttachment(ctx, id, 'thumbnail');
       res.setHeader('Content-Type', f.mimeType);
       res.setHeader('Cache-Control', 'private, no-store');
       res.send(f.bytes);
     }),
     route('get', '/api/units/:id/overview', 'view:unit', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       res.json(await getUnitOverview(ctx.db, id));
     }),
     route('get', '/api/units/:id/history', 'view:unit', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       const q = historyQuerySchema.parse(req.query);
       res.json(await getUnitHistory(ctx.db, id, q.before, q.limit));
     }),
     route('get', '/api/units/:id/timeline', 'view:unit', async (req, res) => {
-      const { id } = numericId.parse(req.params);
+      const { id } = numericIdParam.parse(req.params);
       res.json(await getUnitTimeline(ctx.db, id, ctx.clock.now()));
     }),
   ];

@@ -15,7 +15,7 @@ import {
   visits,
 } from '../../db/schema';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import type { SessionUser } from '../../lib/session';
 import { can } from '../../../shared/permissions';
 import {

@@ -4,19 +4,19 @@ import {
   importPreviewFormSchema,
   MAX_IMPORT_BYTES,
 } from '../../../shared/schemas/units';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import { badRequest } from '../../lib/http-error';
 import { singleFileUpload } from '../../middleware/upload';
-import { route } from '../../routes';
-import { acceptCsvHead, acceptCsvUpload } from './fleet-csv';
-import { commitImport, getImport, importTemplateCsv, previewImport } from './unit-imports.service';
+import { route } from '../../lib/route';
+import { acceptCsvHead, acceptCsvUpload } from './import-csv';
+import { commitImport, getImport, importTemplateCsv, previewImport } from './imports.service';
 
 function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
   if (!file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
   return file;
 }
 
-export function unitImportsRoutes(ctx: AppContext) {
+export function importsRoutes(ctx: AppContext) {
   // Streamed to a temporary file and parsed from there; removed again when the response is sent.
   const csvUpload = singleFileUpload({
     field: 'file',

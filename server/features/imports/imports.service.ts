@@ -19,10 +19,10 @@ import {
   type ImportRowErrorDto,
   type UnitImportDto,
 } from '../../../shared/schemas/units';
-import { unitsAdded } from '../fleet/fleet-size';
+import { unitsAdded } from '../../lib/fleet-size';
 import { registerNewUnits } from '../history/write-path';
 import { newUnitRow } from '../units/units.mapper';
-import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './fleet-csv';
+import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './import-csv';
 
 /** Rows per INSERT: large enough to be fast, small enough to stay far below max_allowed_packet. */
 const INSERT_CHUNK = 2000;

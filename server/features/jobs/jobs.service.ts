@@ -469,45 +469,6 @@ export async function refreshForecastIfStale(
   return toJobDto(job);
 }
 
-const NIGHTLY_HOUR_UTC = 2;
-const NIGHTLY_FRESH_MS = 6 * 3600_000;
-const FIRST_CHECK_MS = 30_000;
-
-/**
- * The nightly refresh of the case base (and with it every unit's forecast), at 02:00 UTC plus a few random minutes
- * per process; and one check shortly after start-up, so a new installation gets its first case base. Timers do not
- * keep the process alive.
- */
-export function scheduleForecastRefresh(ctx: JobContext): { stop(): void } {
-  let timer: NodeJS.Timeout | null = null;
-  const run = (maxAgeMs: number) =>
-    void refreshForecastIfStale(ctx, { maxAgeMs }).catch((err: unknown) =>
-      ctx.logger.warn({ err }, 'forecast case base refresh'),
-    );
-  const arm = () => {
-    const now = Date.now();
-    const next = new Date(now);
-    next.setUTCHours(NIGHTLY_HOUR_UTC, Math.floor(Math.random() * 10), 0, 0);
-    if (next.getTime() <= now) next.setUTCDate(next.getUTCDate() + 1);
-    timer = setTimeout(() => {
-      // Every night, so each date moves on with the wait; one built in the last few hours (another process's, a
-      // button press) counts as tonight's.
-      run(NIGHTLY_FRESH_MS);
-      arm();
-    }, next.getTime() - now);
-    timer.unref();
-  };
-  const first = setTimeout(() => run(FORECAST_CASES_MAX_AGE_MS), FIRST_CHECK_MS);
-  first.unref();
-  arm();
-  return {
-    stop() {
-      clearTimeout(first);
-      if (timer) clearTimeout(timer);
-    },
-  };
-}
-
 async function runForecastCases(ctx: JobContext, jobId: number): Promise<void> {
   const started = Date.now();
   const settings = await getSettings(ctx.db);

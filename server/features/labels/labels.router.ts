@@ -1,7 +1,7 @@
 import type { Response } from 'express';
 import { labelsRequestSchema, unitIdParamSchema } from '../../../shared/schemas/units';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { unitsForLabels } from '../units/units.service';
 import { labelUrl, renderLabelSheet, renderSingleLabel, type LabelContent } from './label-sheet';
 

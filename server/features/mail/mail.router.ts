@@ -1,15 +1,13 @@
 import { mailboxQuerySchema } from '../../../shared/schemas/mail';
-import type { AppContext } from '../../deps';
-import { route, type RouteSpec } from '../../routes';
-import { accountLinkRoutes } from '../account-links/account-links.router';
-import { alertRoutes } from '../alerts/alerts.router';
+import type { AppContext } from '../../lib/app-context';
+import { route, type RouteSpec } from '../../lib/route';
 import { listMailbox } from './mailbox.service';
 import { notFound } from '../../lib/http-error';
 import { clientAddress, isLoopback } from '../../lib/client-address';
 
-/** Everything that goes out by e-mail: invitation and reset links, alert subscriptions, the development mailbox. */
+/** The development mailbox: what the fake SMTP server received. */
 export function mailRoutes(ctx: AppContext): RouteSpec[] {
-  const routes = [...accountLinkRoutes(ctx), ...alertRoutes(ctx)];
+  const routes: RouteSpec[] = [];
   // Mounted only while mail goes to the fake SMTP server (never in production, never with a real SMTP server), so
   // the path answers the ordinary API 404 otherwise. It holds every reset link: from another address than loopback
   // it is not there either, unless MAILBOX_FROM_ANY_ADDRESS asks for it.

@@ -1,10 +1,10 @@
 import { createUserSchema, updateUserSchema } from '../../../shared/schemas/users';
 import { idParamSchema } from '../../../shared/schemas/common';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
-import { createUser, listUsers, updateUser } from './users.service';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
+import { createUser, listUsers, updateUser } from './people.service';
 
-export function usersRoutes(ctx: AppContext) {
+export function peopleRoutes(ctx: AppContext) {
   return [
     route('get', '/api/users', 'manage:users', async (_req, res) => {
       res.json({ users: await listUsers(ctx.db) });

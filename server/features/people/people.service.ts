@@ -7,9 +7,9 @@ import { hashPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';
 import { newId } from '../../lib/ids';
 import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/users';
-import { toUserDto } from './users.mapper';
-import { queueInvitation } from '../account-links/account-links.service';
-import type { AppContext } from '../../deps';
+import { toUserDto } from '../../lib/user-dto';
+import { queueInvitation } from '../account/account-links.service';
+import type { AppContext } from '../../lib/app-context';
 
 export async function listUsers(db: Db) {
   const rows = await db.select().from(users).orderBy(asc(users.name));

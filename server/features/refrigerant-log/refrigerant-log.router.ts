@@ -1,8 +1,8 @@
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { termLabel, LEAK_CHECK_METHODS, LEAK_LOCATIONS } from '../../../shared/domain';
 import { refrigerantLogQuerySchema } from '../../../shared/schemas/refrigerant-log';
-import { sendCsv, streamRows } from '../fleet/csv-stream';
+import { sendCsv, streamRows } from '../../lib/csv-stream';
 import { getSettings } from '../settings/settings.service';
 import { LOG_FIELD_NAMES, logEntriesQuery, logTotals, refrigerantLog, toLogEntry } from './refrigerant-log.service';
 

@@ -15,7 +15,7 @@ import {
   type RefrigerantLogTotalsDto,
 } from '../../../shared/schemas/refrigerant-log';
 import type { Settings } from '../../../shared/schemas/settings';
-import { dayPlus } from '../fleet/fleet.service';
+import { dayPlus } from '../../lib/dates';
 
 const voided = sql`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
 const notVoided = sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;

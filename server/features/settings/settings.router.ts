@@ -1,27 +1,14 @@
-import { z } from 'zod';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { updateSettingsSchema } from '../../../shared/schemas/settings-api';
-import {
-  getJob,
-  latestJob,
-  resumeStaleJobs,
-  startForecastCases,
-  startRepairEffectiveness,
-  startStatsRecompute,
-} from '../jobs/jobs.service';
+import { latestJob, startForecastCases, startRepairEffectiveness, startStatsRecompute } from '../jobs/jobs.service';
 import { getSettings, getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
-
-const jobIdSchema = z.object({
-  id: z.coerce.number({ message: 'Not a valid job id' }).int().positive().max(2_147_483_647),
-});
 
 export function settingsRoutes(ctx: AppContext) {
   return [
     // Engineers read the policy, thresholds and PTI validity they work by; prices only owners and admins
     // (technicians need none of it: their screens get the figures computed on the server).
     route('get', '/api/settings', 'view:fleet', async (req, res) => {
-      await resumeStaleJobs(ctx);
       res.json(await getSettingsDto(ctx.db, await latestJob(ctx.db, 'stats_recompute'), req.user!));
     }),
     // The route admits whoever may change any section (owners: prices); the service checks each changed section.
@@ -53,11 +40,6 @@ export function settingsRoutes(ctx: AppContext) {
     }),
     route('get', '/api/settings/history', 'view:fleet', async (_req, res) => {
       res.json(await getSettingsHistory(ctx.db));
-    }),
-    route('get', '/api/jobs/:id', 'view:fleet', async (req, res) => {
-      const { id } = jobIdSchema.parse(req.params);
-      await resumeStaleJobs(ctx);
-      res.json({ job: await getJob(ctx.db, id) });
     }),
   ];
 }

@@ -1,6 +1,6 @@
 import { createSiteSchema, siteIdParamSchema, updateSiteSchema } from '../../../shared/schemas/sites';
-import type { AppContext } from '../../deps';
-import { route } from '../../routes';
+import type { AppContext } from '../../lib/app-context';
+import { route } from '../../lib/route';
 import { createSite, deleteSite, getSite, listSites, updateSite } from './sites.service';
 
 export function sitesRoutes(ctx: AppContext) {

@@ -17,7 +17,7 @@ import {
   type TraceResultDto,
 } from '../../../shared/schemas/fleet';
 import { MAX_NOTE_LENGTH } from '../../../shared/schemas/history';
-import { dayPlus } from './fleet.service';
+import { dayPlus } from '../../lib/dates';
 
 const CHARGES = ['top_up', 'recharge'] as const;
 const voided = sql`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;

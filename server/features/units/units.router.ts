@@ -7,9 +7,9 @@ import {
   unitListQuerySchema,
   updateUnitSchema,
 } from '../../../shared/schemas/units';
-import type { AppContext } from '../../deps';
+import type { AppContext } from '../../lib/app-context';
 import { HttpError } from '../../lib/http-error';
-import { route } from '../../routes';
+import { route } from '../../lib/route';
 import {
   createUnit,
   getUnit,

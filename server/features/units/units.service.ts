@@ -16,7 +16,7 @@ import {
   type UnitListQuery,
   type UpdateUnitInput,
 } from '../../../shared/schemas/units';
-import { unitsAdded } from '../fleet/fleet-size';
+import { unitsAdded } from '../../lib/fleet-size';
 import { newUnitRow, toUnitDto } from './units.mapper';
 import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../history/write-path';
 import { retryTransaction } from '../../lib/retry';

@@ -1,6 +1,6 @@
 import type { DbOrTx } from '../../db/client';
 import { mailOutbox, MAIL_KINDS } from '../../db/schema';
-import { isDuplicateKeyError } from '../../lib/db-errors';
+import { isDuplicateKeyError } from '../db-errors';
 
 export type OutboxMessage = {
   /** One per logical message (an alert for one unit, one person and one crossing): a repeat is dropped. */

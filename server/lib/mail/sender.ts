@@ -2,8 +2,7 @@
 // message goes out once; a failed send waits with exponential backoff and is tried again, never dropped.
 import { and, asc, eq, isNull, lt, lte, or, sql } from 'drizzle-orm';
 import { mailOutbox } from '../../db/schema';
-import type { AppContext } from '../../deps';
-import { runDailyMailJobs } from '../alerts/digest.service';
+import type { AppContext } from '../app-context';
 
 export type WorkerContext = Pick<AppContext, 'db' | 'mailer' | 'clock' | 'logger' | 'publicUrl'>;
 
@@ -14,8 +13,6 @@ export type OutboxWorkerOptions = {
   pollMs?: number;
   baseBackoffMs?: number;
   maxBackoffMs?: number;
-  /** How often the timer checks whether today's digest and overdue-leak alerts are queued. */
-  dailyCheckMs?: number;
 };
 
 const DEFAULTS: Required<OutboxWorkerOptions> = {
@@ -24,11 +21,7 @@ const DEFAULTS: Required<OutboxWorkerOptions> = {
   pollMs: 5_000,
   baseBackoffMs: 30_000,
   maxBackoffMs: 6 * 3600_000,
-  dailyCheckMs: 3600_000,
 };
-
-/** Digests go out from this hour (UTC) on; the dedupe key keeps it to one per person per day. */
-export const DIGEST_HOUR_UTC = 6;
 
 export function backoffMs(attempts: number, base: number, max: number): number {
   return Math.min(max, base * 2 ** Math.max(0, attempts - 1));
@@ -127,28 +120,14 @@ export function createOutboxWorker(ctx: WorkerContext, options: OutboxWorkerOpti
     return running;
   }
 
-  let lastDailyRun = '';
-  /** Queues the day's digests and overdue-leak alerts once per process and day; dedupe keys cover other servers. */
-  async function daily() {
-    const now = clock.now();
-    const day = now.toISOString().slice(0, 10);
-    if (now.getUTCHours() < DIGEST_HOUR_UTC || day === lastDailyRun) return;
-    await runDailyMailJobs(db, ctx, now);
-    lastDailyRun = day;
-  }
-
   const timers: NodeJS.Timeout[] = [];
   const report = (what: string) => (err: unknown) => logger.error({ err }, `${what} failed`);
 
   return {
     drain,
-    daily,
     start() {
       timers.push(setInterval(() => void drain().catch(report('mail outbox')), o.pollMs));
-      timers.push(setInterval(() => void daily().catch(report('daily mail jobs')), o.dailyCheckMs));
-      void daily()
-        .then(() => drain())
-        .catch(report('mail outbox'));
+      void drain().catch(report('mail outbox'));
     },
     async stop() {
       timers.splice(0).forEach(clearInterval);

@@ -1,20 +1,8 @@
-import { bigint, boolean, datetime, index, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+// Signing in: sessions, known devices, the sign-in and reset counters, and one-time account links (invitation,
+// password reset).
 import { sql } from 'drizzle-orm';
-import { ROLES } from '../../../shared/permissions';
-
-export const users = mysqlTable('users', {
-  id: varchar('id', { length: 32 }).primaryKey(),
-  email: varchar('email', { length: 254 }).notNull().unique(),
-  name: varchar('name', { length: 120 }).notNull(),
-  role: mysqlEnum('role', ROLES).notNull(),
-  // argon2id; null until the person sets a password through an invitation.
-  passwordHash: varchar('password_hash', { length: 255 }),
-  certificateNumber: varchar('certificate_number', { length: 64 }),
-  active: boolean('active').notNull().default(true),
-  createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-    .notNull()
-    .default(sql`CURRENT_TIMESTAMP(3)`),
-});
+import { bigint, char, datetime, index, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
+import { users } from './people';
 
 export const sessions = mysqlTable(
   'sessions',
@@ -71,3 +59,24 @@ export const rateLimits = mysqlTable('rate_limits', {
   // Milliseconds since the epoch; null = never expires.
   expire: bigint('expire', { mode: 'number', unsigned: true }),
 });
+
+export const ACCOUNT_LINK_PURPOSES = ['invitation', 'password_reset'] as const;
+
+export const accountLinks = mysqlTable(
+  'account_links',
+  {
+    id: bigint('id', { mode: 'number', unsigned: true }).autoincrement().primaryKey(),
+    userId: varchar('user_id', { length: 32 })
+      .notNull()
+      .references(() => users.id),
+    purpose: mysqlEnum('purpose', ACCOUNT_LINK_PURPOSES).notNull(),
+    // SHA-256 of the token in the link (hex); the token itself is never stored.
+    tokenHash: char('token_hash', { length: 64 }).notNull().unique(),
+    expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+    usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
+    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
+      .notNull()
+      .default(sql`CURRENT_TIMESTAMP(3)`),
+  },
+  (t) => [index('account_links_user_idx').on(t.userId, t.purpose)],
+);
