@@ -1,7 +1,4 @@
-import '@fontsource/work-sans/latin-400.css';
-import '@fontsource/work-sans/latin-500.css';
-import '@fontsource/work-sans/latin-600.css';
-import '@fontsource/work-sans/latin-700.css';
+import './fonts.css';
 import './styles.css';
 import { StrictMode } from 'react';
 import { createRoot } from 'react-dom/client';
