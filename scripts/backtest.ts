@@ -1,35 +1,35 @@
 // `npm run backtest -- --seed <n> --train-seed <m> --units <k> [--json]`: the next top-up forecast (DOMAIN.md §7b)
 // learned from a simulated training fleet (seed m) and measured on a test fleet from another seed (n), against the
-// unit's rhythm (§7a) and the naive "the last interval repeats". --json prints one JSON object as the last line.
-//   --train-units <k>  units of the training fleet (default: --units)   --step <days>  days between cut-offs (30)
-//   --now <date>       the day both fleets are seen from (2026-12-01)   --k <n>        neighbours (the setting, 100)
+// unit's rhythm (§7a) and the naive "the last interval repeats". --json prints one JSON object as the last line;
+// `-- --help` lists every option.
 import { createFleet } from '../seed/simulator/fleet';
 import { backtestForecast, type BacktestRow } from '../seed/simulator/backtest';
 import { settingsSchema } from '../shared/schemas/settings';
+import { parseCli } from './lib/cli';
 
-function arg(name: string): string | undefined {
-  const i = process.argv.indexOf(`--${name}`);
-  return i >= 0 ? process.argv[i + 1] : undefined;
-}
-function num(name: string, fallback: number): number {
-  const v = arg(name);
-  if (v === undefined) return fallback;
-  const n = Number(v);
-  if (!Number.isInteger(n) || n < 0) {
-    console.error(`--${name} must be a whole number, not ${v}`);
-    process.exit(2);
-  }
-  return n;
-}
-const testSeed = num('seed', 11);
-const trainSeed = num('train-seed', 7);
-const units = num('units', 4000);
-const trainUnits = num('train-units', units);
-const stepDays = num('step', 30);
-const now = new Date(`${arg('now') ?? '2026-12-01'}T00:00:00Z`);
-const json = process.argv.includes('--json');
+const options = parseCli(
+  `npm run backtest [-- options]: the next top-up forecast (DOMAIN.md §7b) learned from a simulated training fleet and
+measured on a test fleet from another seed, against the unit's rhythm (§7a) and "the last interval repeats".`,
+  {
+    seed: { type: 'number', default: 11, integer: true, min: 0, help: 'seed of the test fleet' },
+    'train-seed': { type: 'number', default: 7, integer: true, min: 0, help: 'seed of the training fleet' },
+    units: { type: 'number', default: 4000, integer: true, min: 0, help: 'units of the test fleet' },
+    'train-units': { type: 'number', integer: true, min: 0, help: 'units of the training fleet (default: --units)' },
+    step: { type: 'number', default: 30, integer: true, min: 0, placeholder: 'days', help: 'days between cut-offs' },
+    now: { type: 'string', default: '2026-12-01', placeholder: 'date', help: 'the day both fleets are seen from' },
+    k: { type: 'number', default: 100, integer: true, min: 0, help: 'neighbours (the setting)' },
+    json: { type: 'boolean', help: 'print one JSON object as the last line' },
+  },
+);
+const testSeed = options.seed;
+const trainSeed = options['train-seed'];
+const units = options.units;
+const trainUnits = options['train-units'] ?? units;
+const stepDays = options.step;
+const now = new Date(`${options.now}T00:00:00Z`);
+const json = options.json;
 if (testSeed === trainSeed) console.warn('The test fleet has the training seed: the result is not a fair test.');
-const settings = settingsSchema.parse({ forecast: { neighbours: num('k', 100) } });
+const settings = settingsSchema.parse({ forecast: { neighbours: options.k } });
 
 const result = backtestForecast({
   train: createFleet({ seed: trainSeed, units: trainUnits, now }),

@@ -15,14 +15,20 @@ import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../seed/demo-accounts';
 import { resolveDatabaseUrl } from './lib/database-url';
 import { PROJECT_ROOT } from './lib/mariadb';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from './lib/chromium';
+import { parseCli } from './lib/cli';
 
-function arg(name: string): string | undefined {
-  const i = process.argv.indexOf(`--${name}`);
-  return i >= 0 ? process.argv[i + 1] : undefined;
-}
-const RUNS = Number(arg('runs') ?? 5);
-const TIMEOUT_MS = Number(arg('timeout') ?? 20_000);
-const LABEL = arg('label') ?? 'current';
+const options = parseCli(
+  `BASE_URL=http://localhost:3000 npm run bench:client [-- options]: a technician's phone opening unit pages by their
+label address, cold, warm and offline, in Chromium emulating a mid-range phone on Slow 4G.`,
+  {
+    runs: { type: 'number', default: 5, integer: true, min: 1, help: 'fresh profiles, medians quoted' },
+    label: { type: 'string', default: 'current', help: 'kept in the JSON, e.g. "before"' },
+    timeout: { type: 'number', default: 20_000, min: 1, placeholder: 'ms', help: 'per page' },
+  },
+);
+const RUNS = options.runs;
+const TIMEOUT_MS = options.timeout;
+const LABEL = options.label;
 const BASE_URL = (process.env.BASE_URL ?? 'http://localhost:3000').replace(/\/$/, '');
 
 // Chrome DevTools' "Slow 4G" preset and its 4× CPU slowdown for a mid-range phone.

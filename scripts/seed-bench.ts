@@ -7,29 +7,44 @@ import path from 'node:path';
 import mysql from 'mysql2/promise';
 import { createDb, migrateDb } from '../server/db/client';
 import { hashPassword } from '../server/lib/password';
-import { getSettings } from '../server/features/settings/settings.service';
+import { getSettings } from '../server/lib/settings';
 import { DEMO_PASSWORD } from '../seed/demo-accounts';
 import { BUSY_UNIT_EVENTS, createFleet, DEFAULT_SEED, unitCount } from '../seed/simulator/fleet';
 import { FleetWriter, fleetRows, writeSitesAndPeople, type Exec } from '../seed/simulator/writer';
 import { ensureProjectDatabase } from './lib/mariadb';
 import { BENCH_DATABASE, BENCH_SEED_INFO } from './lib/bench-paths';
+import { parseCli } from './lib/cli';
 
-function arg(name: string, fallback: string): string {
-  const i = process.argv.indexOf(`--${name}`);
-  return i >= 0 && process.argv[i + 1] ? process.argv[i + 1] : fallback;
-}
-const flag = (name: string) => process.argv.includes(`--${name}`);
-
-const unitsWanted = Number(arg('units', '100000'));
-const seed = Number(arg('seed', String(DEFAULT_SEED)));
-const batchUnits = Number(arg('batch', '1000'));
-const connectionCount = Number(arg('connections', '2'));
-const deferIndexes = !flag('keep-indexes');
-if (!Number.isInteger(unitsWanted) || unitsWanted < 1) throw new Error('--units must be a positive whole number');
+const options = parseCli(
+  `npm run seed:bench [-- options]: the benchmark fleet (about 50 events a unit, one unit with ${BUSY_UNIT_EVENTS.toLocaleString('en')}) in
+its own database (${BENCH_DATABASE} on the project MariaDB, or DATABASE_URL), emptied first.`,
+  {
+    units: {
+      type: 'number',
+      default: 100_000,
+      integer: true,
+      min: 1,
+      help: 'ordinary units (the busy unit comes on top)',
+    },
+    seed: { type: 'number', default: DEFAULT_SEED, integer: true, help: 'seed of the simulated fleet' },
+    batch: { type: 'number', default: 1000, integer: true, min: 1, help: 'units simulated per batch' },
+    connections: { type: 'number', default: 2, integer: true, min: 1, help: 'connections loading in parallel' },
+    'keep-indexes': {
+      type: 'boolean',
+      help: 'keep the secondary indexes during the load instead of building them after',
+    },
+    reset: { type: 'boolean', help: 'empty the database even if its name has no "bench" in it' },
+  },
+);
+const unitsWanted = options.units;
+const seed = options.seed;
+const batchUnits = options.batch;
+const connectionCount = options.connections;
+const deferIndexes = !options['keep-indexes'];
 
 const url = process.env.DATABASE_URL ?? (await ensureProjectDatabase(BENCH_DATABASE));
 const dbName = new URL(url).pathname.replace(/^\//, '');
-if (!/bench/i.test(dbName) && !flag('reset')) {
+if (!/bench/i.test(dbName) && !options.reset) {
   console.error(`Refusing to empty "${dbName}": its name has no "bench" in it. Pass --reset if you mean it.`);
   process.exit(1);
 }
