@@ -21,7 +21,7 @@ as_root() {
 
 need_pkg() { # need_pkg <binary path> <debian package>
   local bin=$1 pkg=$2
-  if ! command -v "$bin" >/dev/null 2>&1 && [ ! -x "$bin" ]; then
+  if ! command -v "$bin" >/dev/null 2>&1 && [ ! -e "$bin" ]; then
     echo "Installing Debian package $pkg…"
     if [ -z "${TIGHTLOOP_APT_UPDATED:-}" ]; then as_root apt-get update -qq; export TIGHTLOOP_APT_UPDATED=1; fi
     as_root env DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$pkg" >/dev/null
@@ -33,4 +33,12 @@ if [ -z "${DATABASE_URL:-}" ] || [ "${1:-}" = "--test" ]; then
 fi
 if [ "${1:-}" = "--test" ]; then
   need_pkg /usr/bin/chromium chromium
+fi
+# `npm run cluster` and `test:cluster`: Galera (with mariadb-server), rsync and ss for its state transfers, HAProxy.
+if [ "${1:-}" = "--cluster" ]; then
+  need_pkg /usr/sbin/mariadbd mariadb-server
+  need_pkg /usr/lib/galera/libgalera_smm.so galera-4
+  need_pkg rsync rsync
+  need_pkg ss iproute2
+  need_pkg /usr/sbin/haproxy haproxy
 fi

@@ -1,7 +1,6 @@
 // A fake S3 server on loopback (s3rver, files under a folder) for the tests and the local cluster. Its buckets are made
 // when it starts (the app never creates buckets). s3rver computes the signature of bucket-level requests without the
 // SDK's trailing slash, so it is told to accept a mismatched signature; the access key must still be its own.
-import path from 'node:path';
 import S3rver from '@20minutes/s3rver';
 
 /** s3rver's fixed credentials; anything else is refused. */
@@ -33,14 +32,4 @@ export function fakeS3Env(endpoint: string, bucket: string): Record<string, stri
     S3_ACCESS_KEY_ID: FAKE_S3_KEY,
     S3_SECRET_ACCESS_KEY: FAKE_S3_KEY,
   };
-}
-
-// `tsx scripts/cluster/fake-s3.ts <dir> <port> <bucket>`: the cluster's fake S3 as a process of its own.
-if (process.argv[1] && path.resolve(process.argv[1]) === path.resolve(new URL(import.meta.url).pathname)) {
-  const [directory, port, bucket] = process.argv.slice(2);
-  const s3 = await startFakeS3({ directory, port: Number(port), buckets: [bucket] });
-  console.log(`fake S3 at ${s3.endpoint}, bucket ${bucket}`);
-  const stop = () => void s3.stop().then(() => process.exit(0));
-  process.once('SIGTERM', stop);
-  process.once('SIGINT', stop);
 }
