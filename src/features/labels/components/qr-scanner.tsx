@@ -1,11 +1,11 @@
-// Camera QR scanning. This file pulls in @zxing/browser (large), so only the lazily loaded scan page imports it.
-import { BrowserQRCodeReader, type IScannerControls } from '@zxing/browser';
+// Camera QR scanning: the browser's own barcode detector where it has one, zxing (fetched then) where it does not.
 import { useEffect, useRef, useState } from 'react';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { SelectField } from '../../../components/ui/field';
 import { Spinner } from '../../../components/ui/spinner';
-import { createQrFallbackReader } from '../lib/qr-fallback-reader';
+import { startNativeCamera, type CameraRun } from '../lib/camera-run';
+import { chooseQrEngine } from '../lib/qr-engine';
 
 type CameraState =
   | { kind: 'starting' }
@@ -39,6 +39,8 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
   const [deviceId, setDeviceId] = useState<string | undefined>(undefined);
   const [enabled, setEnabled] = useState(true);
   const [run, setRun] = useState(0);
+  // The browser's detector threw instead of reading: zxing from then on.
+  const [nativeBroken, setNativeBroken] = useState(false);
   // The camera run being shut down. Stopping a run empties the shared <video>, so a new run starts only after the
   // previous one has stopped; otherwise a late stop blanks the new run's picture and nothing is ever decoded.
   const stoppingRef = useRef<Promise<unknown>>(Promise.resolve());
@@ -51,30 +53,37 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
     }
     let cancelled = false;
     setState({ kind: 'starting' });
-    const reader = new BrowserQRCodeReader(undefined, { delayBetweenScanAttempts: 120 });
-    const readMissedFrame = createQrFallbackReader();
-    const video: MediaTrackConstraints = deviceId
-      ? { deviceId: { exact: deviceId } }
-      : { facingMode: { ideal: 'environment' } };
-    const started: Promise<IScannerControls | null> = stoppingRef.current.then(() =>
-      cancelled
-        ? null
-        : reader.decodeFromConstraints({ video, audio: false }, videoRef.current ?? undefined, (result) => {
-            const text = result ? result.getText() : readMissedFrame(videoRef.current);
-            if (!text) return;
-            const last = lastRef.current;
-            // The same label stays in view for many frames; report it once (again only after a pause).
-            if (last && last.text === text && Date.now() - last.at < 3000) return;
-            lastRef.current = { text, at: Date.now() };
-            onCodeRef.current(text);
-          }),
-    );
+    const constraints: MediaStreamConstraints = {
+      video: deviceId ? { deviceId: { exact: deviceId } } : { facingMode: { ideal: 'environment' } },
+      audio: false,
+    };
+    const onText = (text: string) => {
+      const last = lastRef.current;
+      // The same label stays in view for many frames; report it once (again only after a pause).
+      if (last && last.text === text && Date.now() - last.at < 3000) return;
+      lastRef.current = { text, at: Date.now() };
+      onCodeRef.current(text);
+    };
+    const start = async (): Promise<CameraRun | null> => {
+      await stoppingRef.current;
+      const engine = nativeBroken ? ({ kind: 'zxing' } as const) : await chooseQrEngine();
+      const video = videoRef.current;
+      if (cancelled || !video) return null;
+      if (engine.kind === 'native') {
+        return startNativeCamera(constraints, video, engine.detector, onText, () => {
+          if (!cancelled) setNativeBroken(true);
+        });
+      }
+      const { startZxingCamera } = await import('../lib/zxing-camera');
+      return cancelled ? null : startZxingCamera(constraints, video, onText);
+    };
+    const started = start();
     started
-      .then(async (controls) => {
-        if (cancelled || !controls) return;
+      .then(async (camera) => {
+        if (cancelled || !camera) return;
         setState({ kind: 'scanning' });
         // Camera names are only readable once permission is granted.
-        const found = await BrowserQRCodeReader.listVideoInputDevices();
+        const found = (await navigator.mediaDevices.enumerateDevices()).filter((d) => d.kind === 'videoinput');
         if (!cancelled) setDevices(found);
       })
       .catch((error: unknown) => {
@@ -82,9 +91,9 @@ export function QrScanner({ onCode }: { onCode: (text: string) => void }) {
       });
     return () => {
       cancelled = true;
-      stoppingRef.current = started.then((controls) => controls?.stop()).catch(() => undefined);
+      stoppingRef.current = started.then((camera) => camera?.stop()).catch(() => undefined);
     };
-  }, [enabled, deviceId, run]);
+  }, [enabled, deviceId, run, nativeBroken]);
 
   const message = {
     unsupported: {
