@@ -6,24 +6,31 @@ import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { overviewQuery } from '../../../features/history/api/get-overview';
-import { unitByTokenQuery, useUnitByToken } from '../../../features/labels/api/get-unit-by-token';
+import { getOverviewByToken, unitByTokenQuery, useUnitByToken } from '../../../features/labels/api/get-unit-by-token';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useOnline } from '../../../lib/online';
 import { Can } from '../../../lib/can';
 
 /**
- * The label's unit is looked up before anything renders, and its page opens in place of this one with the unit
- * already in the cache (the same record as /api/units/:id), so a scan costs one round trip, not three.
+ * The label's unit and its figures are asked for together, before anything renders (index.html's boot script has
+ * usually asked already), and the unit's page opens in place of this one with both in the cache: a scan costs one
+ * round trip.
  */
 export const loader =
   (queryClient: QueryClient) =>
   async ({ params }: LoaderFunctionArgs) => {
+    const token = params.token ?? '';
+    const figures = getOverviewByToken(token);
+    figures.catch(() => undefined); // a label that is not linked: the unit's lookup says so
     try {
-      const unit = await queryClient.fetchQuery(unitByTokenQuery(params.token ?? ''));
+      const unit = await queryClient.fetchQuery(unitByTokenQuery(token));
       queryClient.setQueryData(unitKeys.detail(unit.id), unit);
-      // The figures are asked for now, not after the redirect has been handled.
-      void queryClient.prefetchQuery(overviewQuery(unit.id));
+      // Under the unit's own key, so the unit page waits for this answer instead of asking again.
+      void queryClient.prefetchQuery({
+        ...overviewQuery(unit.id),
+        queryFn: (context) => figures.catch(() => overviewQuery(unit.id).queryFn!(context)),
+      });
       return redirect(paths.unit.getHref(unit.id));
     } catch {
       return null; // the page below says what went wrong
