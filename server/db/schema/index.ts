@@ -10,3 +10,4 @@ export * from './settings';
 export * from './jobs';
 export * from './mail';
 export * from './alerts';
+export * from './cylinders';
