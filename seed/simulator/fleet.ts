@@ -4,7 +4,8 @@ import type { Role } from '../../shared/permissions';
 import { DEMO_ACCOUNTS } from '../demo-accounts';
 import { EXTRA_ENGINEERS, FIRST_NAMES, LAST_NAMES, TECHNICIANS_PER_SITE, fleetSites, type SiteSpec } from './catalogue';
 import { createRng, streamSeed } from './prng';
-import { DAY_MS, simulateUnit, type FleetContext, type Profile, type StoryId, type UnitSim } from './unit-sim';
+import { DAY_MS } from './numbers';
+import { simulateUnit, type FleetContext, type Profile, type StoryId, type UnitSim } from './unit-sim';
 
 export const DEFAULT_SEED = 6346;
 export const DEFAULT_HISTORY_YEARS = 6;
