@@ -86,7 +86,7 @@ describe('the learned next top-up forecast', () => {
         /^Range \(80 %\): \d+ \w+ \d{4} – \d+ \w+ \d{4}\.$/,
       );
       expect(await page.getByTestId('forecast-coverage').textContent()).toMatch(
-        /^On this fleet, ranges like this held the next top-up \d+ % of the time\.$/,
+        /^On this fleet, ranges like this held the next top-up \d+(\.\d)? % of the time\.$/,
       );
       expect(await page.getByTestId('forecast-basis').textContent()).toMatch(/most similar past cases of the fleet/);
       await shoot(page, 'unit-card-390');

@@ -1,15 +1,7 @@
 import type { SessionDto } from '../../../shared/schemas/account';
 import { Badge } from '../ui/page';
 import { Button } from '../ui/button';
-
-const when = (iso: string) =>
-  new Date(iso).toLocaleString('en-GB', {
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-    hour: '2-digit',
-    minute: '2-digit',
-  });
+import { fmtDateTime } from '../../lib/format';
 
 /** "Chrome on Android" from a user-agent string; good enough to tell one's own devices apart. */
 export function describeAgent(ua: string | null): string {
@@ -61,11 +53,12 @@ export function DeviceList({
               {describeAgent(s.userAgent)} {s.current && <Badge tone="fjord">This device</Badge>}
             </p>
             <p className="text-sm text-ink-700">
-              Signed in {when(s.createdAt)} · last used {when(s.lastSeenAt)}
+              Signed in {fmtDateTime(s.createdAt)} · last used {fmtDateTime(s.lastSeenAt)}
               {s.ipAddress && <> · from {s.ipAddress}</>}
             </p>
             <p className="text-sm text-ink-600">
-              Signs out by itself after {s.idleHours} hours unused, and on {when(s.absoluteExpiresAt)} at the latest.
+              Signs out by itself after {s.idleHours} hours unused, and on {fmtDateTime(s.absoluteExpiresAt)} at the
+              latest.
             </p>
           </div>
           {onEnd && !s.current && (

@@ -12,21 +12,23 @@ export function LoadingPanel({ children }: { children: ReactNode }) {
   );
 }
 
-/** The main query failed: say what happened and offer a retry. */
+/** A query failed: say what happened (the error's own message unless `message` says it better) and offer a retry. */
 export function LoadError({
   title,
   error,
+  message,
   onRetry,
   retrying,
 }: {
   title: string;
   error: Error;
+  message?: ReactNode;
   onRetry: () => void;
   retrying?: boolean;
 }) {
   return (
     <Alert tone="alarm" title={title}>
-      <p>{error.message}</p>
+      <p>{message ?? error.message}</p>
       <Button variant="secondary" className="mt-3" onClick={onRetry} pending={retrying}>
         Try again
       </Button>

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Alert } from '../../../components/ui/alert';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
+import { LoadError } from '../../../components/ui/query-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { isApiError } from '../../../lib/api-client';
 import { mailboxQuery, useMailbox } from '../../../features/mail/api/get-mailbox';
@@ -25,11 +25,17 @@ export default function MailboxPage() {
           <Spinner /> Loading mail…
         </p>
       ) : mailbox.isError ? (
-        <Alert tone="alarm" title="The mailbox could not be loaded">
-          {isApiError(mailbox.error) && mailbox.error.status === 404
-            ? 'This server runs in production, where mail goes to the real SMTP server and no mailbox exists.'
-            : mailbox.error.message}
-        </Alert>
+        <LoadError
+          title="The mailbox could not be loaded"
+          error={mailbox.error}
+          message={
+            isApiError(mailbox.error) && mailbox.error.status === 404
+              ? 'This server runs in production, where mail goes to the real SMTP server and no mailbox exists.'
+              : undefined
+          }
+          onRetry={() => void mailbox.refetch()}
+          retrying={mailbox.isFetching}
+        />
       ) : mailbox.data.length === 0 ? (
         <EmptyState title="No mail yet">
           Invite someone from People or ask for a password reset, and the mail appears here.

@@ -4,10 +4,9 @@ import { EmptyState, PageHeader } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { candidatesQuery, useCandidates } from '../../../features/decisions/api/get-candidates';
 import { EstimateNotice } from '../../../features/decisions/components/estimate-notice';
-import { fmtMoney } from '../../../features/decisions/components/money';
-import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
+import { useSites } from '../../../features/sites/api/get-sites';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
-import { fmtContainer, fmtPct } from '../../../features/fleet/utils/format';
+import { fmtContainer, fmtMoney, fmtPct } from '../../../lib/format';
 
 const OPTION_LABELS = {
   keep_topping_up: 'Keep topping up',
@@ -25,7 +24,7 @@ export default function CandidatesPage() {
   const [sp, setSp] = useSearchParams();
   const siteId = sp.get('siteId') ? Number(sp.get('siteId')) : undefined;
   const list = useCandidates(siteId);
-  const sites = useSiteOptions();
+  const sites = useSites();
   return (
     <div className="flex flex-col gap-5">
       <PageHeader

@@ -1,17 +1,17 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { unitDecisionQuery, useUnitDecision } from '../../../features/decisions/api/get-unit-decision';
 import { DecisionWorkbench } from '../../../features/decisions/components/decision-workbench';
 import { EstimateNotice } from '../../../features/decisions/components/estimate-notice';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
-import { fmtContainer, fmtPct, unitHref } from '../../../features/fleet/utils/format';
 import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { isApiError } from '../../../lib/api-client';
 import { NotFound } from '../../../components/errors/not-found';
+import { LoadError } from '../../../components/ui/query-state';
+import { fmtContainer, fmtPct } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
 
@@ -40,12 +40,12 @@ function UnitDecision({ id }: { id: number }) {
   if (decision.isError) {
     if (isApiError(decision.error) && decision.error.status === 404) return <NotFound />;
     return (
-      <Alert tone="alarm" title="The options could not be priced">
-        <p>{decision.error.message}</p>
-        <Button variant="secondary" className="mt-3" onClick={() => void decision.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadError
+        title="The options could not be priced"
+        error={decision.error}
+        onRetry={() => void decision.refetch()}
+        retrying={decision.isFetching}
+      />
     );
   }
   const d = decision.data;
@@ -67,7 +67,7 @@ function UnitDecision({ id }: { id: number }) {
         }
         actions={
           <Link
-            to={unitHref(d.unit.id)}
+            to={paths.unit.getHref(d.unit.id)}
             className="inline-flex min-h-touch items-center font-semibold text-fjord-700 underline-offset-4 hover:underline"
           >
             Unit history

@@ -7,7 +7,7 @@ import { UnitsIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetExportHref, fleetQuery, useFleet, useFleetCount } from '../../../features/fleet/api/get-fleet';
-import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
+import { useSites } from '../../../features/sites/api/get-sites';
 import { FleetFiltersPanel } from '../../../features/fleet/components/fleet-filters';
 import { FleetTable, SORT_LABELS } from '../../../features/fleet/components/fleet-table';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
@@ -27,7 +27,7 @@ export default function FleetPage() {
   const filters = filtersOf(q);
   const fleet = useFleet(q);
   const count = useFleetCount(filters);
-  const sites = useSiteOptions();
+  const sites = useSites();
 
   const go = (next: Partial<FleetQuery>) =>
     setSearchParams(fleetSearch({ ...q, ...next }), { preventScrollReset: true });

@@ -9,15 +9,16 @@ import {
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetOverviewQuery, useFleetOverview } from '../../../features/fleet/api/get-overview';
-import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
+import { useSites } from '../../../features/sites/api/get-sites';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
 import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/components/overview-charts';
-import { fmtContainer, fmtDay, fmtPct, unitHref } from '../../../features/fleet/utils/format';
 import { toSearch } from '../../../lib/query-string';
 import { ForecastAccuracy } from '../../../features/forecast/components/forecast-accuracy';
 import { RefreshJob } from '../../../features/jobs/components/refresh-job';
 import { fleetKeys } from '../../../features/fleet/api/keys';
+import { fmtContainer, fmtCount, fmtDateTime, fmtDay, fmtPct, fmtTime } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -37,7 +38,7 @@ export default function FleetOverviewPage() {
   const [sp, setSp] = useSearchParams();
   const q = readQuery(sp);
   const overview = useFleetOverview(q);
-  const sites = useSiteOptions();
+  const sites = useSites();
   const set = (patch: Partial<FleetOverviewQuery>) =>
     setSp(toSearch({ ...q, ...patch }, { months: 12 }), { preventScrollReset: true });
 
@@ -118,12 +119,12 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Leak-rate distribution
           </h2>
           <p className="mt-1 text-base text-ink-700">
-            {o.units.toLocaleString('en-GB')} units; {o.leakRate.zero.toLocaleString('en-GB')} needed no refrigerant in
-            the last 365 days and are not drawn. Bars at or above the alert threshold are red.
+            {fmtCount(o.units)} units; {fmtCount(o.leakRate.zero)} needed no refrigerant in the last 365 days and are
+            not drawn. Bars at or above the alert threshold are red.
           </p>
           <p className="mt-1 text-sm text-ink-600">
             The distribution, repeat leakers and checks due are read at most every 15 seconds; these are from{' '}
-            {new Date(o.figuresAt).toLocaleTimeString('en-GB')}.
+            {fmtTime(o.figuresAt)}.
           </p>
           <div className="mt-3">
             <LeakRateHistogram data={o.leakRate} />
@@ -134,10 +135,9 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Leak checks due
           </h2>
           <p className="mt-1 text-base text-ink-700">
-            <strong>{o.leakChecksDue.count.toLocaleString('en-GB')}</strong> due in the next {o.leakChecksDue.days}{' '}
-            days;{' '}
+            <strong>{fmtCount(o.leakChecksDue.count)}</strong> due in the next {o.leakChecksDue.days} days;{' '}
             <strong className={o.leakChecksDue.overdue ? 'text-alarm-700' : undefined}>
-              {o.leakChecksDue.overdue.toLocaleString('en-GB')}
+              {fmtCount(o.leakChecksDue.overdue)}
             </strong>{' '}
             overdue.
           </p>
@@ -148,7 +148,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
               {o.leakChecksDue.units.map((u) => (
                 <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
                   <Link
-                    to={unitHref(u.unitId)}
+                    to={paths.unit.getHref(u.unitId)}
                     className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
                   >
                     {fmtContainer(u.containerNumber)}
@@ -186,7 +186,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
                 <li key={c.unitId} className="rounded-md border-2 border-ink-100 p-3">
                   <div className="flex flex-wrap items-center justify-between gap-2">
                     <Link
-                      to={unitHref(c.unitId)}
+                      to={paths.unit.getHref(c.unitId)}
                       className="font-bold text-fjord-700 underline-offset-4 hover:underline"
                     >
                       {fmtContainer(c.containerNumber)}
@@ -267,7 +267,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             path="/api/fleet/repair-effectiveness/refresh"
             maxSeconds={120}
             alsoInvalidate={OVERVIEWS}
-            note={computedAt && `Worked out ${new Date(computedAt).toLocaleString('en-GB')}.`}
+            note={computedAt && `Worked out ${fmtDateTime(computedAt)}.`}
             label="Work it out again"
             pendingLabel="Working it out…"
           />
@@ -284,7 +284,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
               path="/api/fleet/forecast/refresh"
               maxSeconds={600}
               alsoInvalidate={OVERVIEWS}
-              note={builtAt && `Learned ${new Date(builtAt).toLocaleString('en-GB')}; again every night.`}
+              note={builtAt && `Learned ${fmtDateTime(builtAt)}; again every night.`}
               label="Learn again now"
               pendingLabel="Learning from the fleet…"
             />

@@ -6,14 +6,15 @@ import { Button, buttonClasses } from '../../../components/ui/button';
 import { TextField, SelectField } from '../../../components/ui/field';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
-import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
+import { useSites } from '../../../features/sites/api/get-sites';
 import { traceExportHref, useMarkForInspection, useTrace } from '../../../features/trace/api/trace';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
-import { fmtContainer, fmtDay, fmtKg, unitHref } from '../../../features/fleet/utils/format';
 import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { toSearch } from '../../../lib/query-string';
 import { Can } from '../../../lib/can';
 import { isApiError } from '../../../lib/api-client';
+import { fmtContainer, fmtCount, fmtDay, fmtKg } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 function readTrace(sp: URLSearchParams): { query: TraceQuery | null; errors: Record<string, string> } {
   if (![...sp.keys()].length) return { query: null, errors: {} };
@@ -29,7 +30,7 @@ export default function TracePage() {
   const [sp, setSp] = useSearchParams();
   const { query, errors } = readTrace(sp);
   const [mode, setMode] = useState<'cylinder' | 'site'>(sp.get('siteId') && !sp.get('cylinder') ? 'site' : 'cylinder');
-  const sites = useSiteOptions();
+  const sites = useSites();
   const trace = useTrace(query);
 
   const submit = (form: FormData) => {
@@ -150,11 +151,10 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h2 id="trace-results" className="text-xl font-bold">
-            {data.units.length.toLocaleString('en-GB')} unit{data.units.length === 1 ? '' : 's'} charged
+            {fmtCount(data.units.length)} unit{data.units.length === 1 ? '' : 's'} charged
           </h2>
           <p className="text-base text-ink-700">
-            {data.totalCharges.toLocaleString('en-GB')} charge(s), {fmtKg(data.totalKg)} in all. Voided charges are left
-            out
+            {fmtCount(data.totalCharges)} charge(s), {fmtKg(data.totalKg)} in all. Voided charges are left out
             {data.voidedExcluded ? ` (${data.voidedExcluded} matched)` : ''}.
           </p>
         </div>
@@ -223,7 +223,7 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
                 className="flex min-h-touch flex-wrap items-center justify-between gap-2 border-b border-ink-100 py-1"
               >
                 <Link
-                  to={unitHref(u.unitId)}
+                  to={paths.unit.getHref(u.unitId)}
                   className="font-semibold text-fjord-700 underline-offset-4 hover:underline"
                 >
                   {fmtContainer(u.containerNumber)}

@@ -11,6 +11,7 @@ import { usersQuery, useUsers } from '../../../features/people/api/get-users';
 import { CreateUserForm } from '../../../features/people/components/create-user-form';
 import { UsersTable } from '../../../features/people/components/users-table';
 import { useUser } from '../../../lib/auth';
+import { LoadError } from '../../../components/ui/query-state';
 
 export const loader = (queryClient: QueryClient) => async () => {
   // Prime the cache; if it fails, the page shows its own error state with a retry instead of the route error.
@@ -91,17 +92,12 @@ export default function PeoplePage() {
             Loading people…
           </div>
         ) : users.isError && !users.data ? (
-          <Alert tone="alarm" title="The list of people could not be loaded">
-            <p>{users.error.message}</p>
-            <Button
-              variant="secondary"
-              className="mt-3"
-              onClick={() => void users.refetch()}
-              pending={users.isFetching}
-            >
-              Try again
-            </Button>
-          </Alert>
+          <LoadError
+            title="The list of people could not be loaded"
+            error={users.error}
+            onRetry={() => void users.refetch()}
+            retrying={users.isFetching}
+          />
         ) : !users.data || users.data.length === 0 ? (
           <EmptyState icon={<PeopleIcon className="size-10" />} title="No one here yet">
             Add the first person with “Add person”.

@@ -9,11 +9,12 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
-import { useSiteOptions } from '../../../features/fleet/api/get-site-options';
-import { fmtContainer, fmtKg, fmtNumber, unitHref } from '../../../features/fleet/utils/format';
+import { useSites } from '../../../features/sites/api/get-sites';
 import { toSearch } from '../../../lib/query-string';
 import { logExportHref, useRefrigerantLog } from '../../../features/refrigerant-log/api/get-log';
 import { PERIOD_LABELS, PERIODS, periodRange, type Period } from '../../../features/refrigerant-log/components/period';
+import { fmtContainer, fmtKg, fmtNumber, fmtTonnes } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 const KIND_LABELS = { top_up: 'Top-up', recharge: 'Recharge', recovery: 'Recovery', leak_check: 'Leak check' } as const;
 const select = 'min-h-touch w-full rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
@@ -41,7 +42,7 @@ export default function RefrigerantLogPage() {
   const [sp, setSp] = useSearchParams();
   const { period, q, error } = readLog(sp);
   const log = useRefrigerantLog(q);
-  const sites = useSiteOptions();
+  const sites = useSites();
   const set = (patch: Record<string, string | undefined>) => {
     const next = {
       period,
@@ -189,15 +190,17 @@ export default function RefrigerantLogPage() {
                         <td className="px-3 py-2 whitespace-nowrap">{KIND_LABELS[e.kind]}</td>
                         <td className="px-3 py-2 whitespace-nowrap">
                           <Link
-                            to={unitHref(e.unit.id)}
+                            to={paths.unit.getHref(e.unit.id)}
                             className="font-semibold text-fjord-700 underline-offset-4 hover:underline"
                           >
                             {fmtContainer(e.unit.containerNumber)}
                           </Link>
                           <span className="block text-sm text-ink-600">{e.refrigerant}</span>
                         </td>
-                        <td className="px-3 py-2 text-right tabular-nums">{e.kg ?? ''}</td>
-                        <td className="px-3 py-2 text-right tabular-nums">{e.co2eTonnes ?? ''}</td>
+                        <td className="px-3 py-2 text-right tabular-nums">{e.kg == null ? '' : fmtNumber(e.kg, 2)}</td>
+                        <td className="px-3 py-2 text-right tabular-nums">
+                          {e.co2eTonnes == null ? '' : fmtNumber(e.co2eTonnes, 2)}
+                        </td>
                         <td className="px-3 py-2">{detailOf(e)}</td>
                         <td className="px-3 py-2">{e.site?.name ?? '—'}</td>
                         <td className="px-3 py-2">
@@ -250,13 +253,13 @@ function EntryCard({ e }: { e: RefrigerantLogEntryDto }) {
         <span className="font-bold">{KIND_LABELS[e.kind]}</span>
         <span className="tabular-nums text-ink-700">{e.occurredAt.slice(0, 10)}</span>
       </div>
-      <Link to={unitHref(e.unit.id)} className="font-semibold text-fjord-700">
+      <Link to={paths.unit.getHref(e.unit.id)} className="font-semibold text-fjord-700">
         {fmtContainer(e.unit.containerNumber)}
       </Link>{' '}
       <span className="text-sm text-ink-600">{e.refrigerant}</span>
       {e.kg !== null && (
         <p className="text-figure tabular-nums">
-          {fmtKg(e.kg)} <span className="text-base text-ink-700">{fmtNumber(e.co2eTonnes ?? 0, 3)} t CO2e</span>
+          {fmtKg(e.kg)} <span className="text-base text-ink-700">{fmtTonnes(e.co2eTonnes ?? 0)} CO2e</span>
         </p>
       )}
       <p className="text-sm text-ink-800">{detailOf(e)}</p>
@@ -295,10 +298,8 @@ function Totals({
                 <td className="py-2 pr-3 text-right tabular-nums">
                   {fmtKg(t.addedKg)}
                   <span className="block text-sm text-ink-600">
-                    {t.addedCo2eTonnes === null
-                      ? 'CO2e cannot be computed'
-                      : `${fmtNumber(t.addedCo2eTonnes, 2)} t CO2e`}{' '}
-                    · {t.additions}×
+                    {t.addedCo2eTonnes === null ? 'CO2e cannot be computed' : `${fmtTonnes(t.addedCo2eTonnes)} CO2e`} ·{' '}
+                    {t.additions}×
                   </span>
                 </td>
                 <td className="py-2 pr-3 text-right tabular-nums">

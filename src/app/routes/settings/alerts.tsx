@@ -1,10 +1,9 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { EmptyState, PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { subscriptionsQuery, useSubscriptions } from '../../../features/alerts/api/subscriptions';
 import { SubscriptionsForm } from '../../../features/alerts/components/subscriptions-form';
+import { LoadError } from '../../../components/ui/query-state';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(subscriptionsQuery());
@@ -24,12 +23,12 @@ export default function AlertSettingsPage() {
           <Spinner /> Loading your alert settings…
         </p>
       ) : subs.isError ? (
-        <Alert tone="alarm" title="Your alert settings could not be loaded">
-          <p>{subs.error.message}</p>
-          <Button variant="secondary" className="mt-3" onClick={() => void subs.refetch()} pending={subs.isFetching}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError
+          title="Your alert settings could not be loaded"
+          error={subs.error}
+          onRetry={() => void subs.refetch()}
+          retrying={subs.isFetching}
+        />
       ) : subs.data.sites.length === 0 ? (
         <EmptyState title="No sites yet">
           Alerts follow sites. Once sites are registered, they are listed here.

@@ -4,8 +4,6 @@ import {
   SETTINGS_SECTION_PERMISSION,
   SETTINGS_SECTIONS,
 } from '../../../../shared/schemas/settings-api';
-import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { settingsQuery, useSettings, useSettingsHistory } from '../../../features/settings/api/settings';
@@ -16,6 +14,8 @@ import { traceKeys } from '../../../features/trace/api/keys';
 import { SettingsSectionForm } from '../../../features/settings/components/settings-sections';
 import { can } from '../../../../shared/permissions';
 import { useUser } from '../../../lib/auth';
+import { LoadError } from '../../../components/ui/query-state';
+import { fmtDateTime } from '../../../lib/format';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(settingsQuery());
@@ -40,18 +40,18 @@ export default function SettingsPage() {
           <Spinner /> Loading the settings…
         </div>
       ) : settings.isError ? (
-        <Alert tone="alarm" title="The settings could not be loaded">
-          <p>{settings.error.message}</p>
-          <Button variant="secondary" className="mt-3" onClick={() => void settings.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadError
+          title="The settings could not be loaded"
+          error={settings.error}
+          onRetry={() => void settings.refetch()}
+          retrying={settings.isFetching}
+        />
       ) : (
         <>
           <p className="text-base text-ink-700">
             {settings.data.version === 0
               ? 'The defaults are in force; nothing has been saved yet.'
-              : `Version ${settings.data.version}, saved ${new Date(settings.data.updatedAt!).toLocaleString('en-GB')} by ${settings.data.updatedBy?.name ?? 'someone'}.`}
+              : `Version ${settings.data.version}, saved ${fmtDateTime(settings.data.updatedAt!)} by ${settings.data.updatedBy?.name ?? 'someone'}.`}
           </p>
           <RecomputeProgress
             key={settings.data.recompute?.id ?? 0}
@@ -85,7 +85,7 @@ export default function SettingsPage() {
               <ul className="mt-2 divide-y divide-ink-100 text-sm">
                 {history.data.versions.map((v) => (
                   <li key={v.version} className="py-2">
-                    Version {v.version} · {new Date(v.updatedAt).toLocaleString('en-GB')} · {v.updatedBy.name} ·{' '}
+                    Version {v.version} · {fmtDateTime(v.updatedAt)} · {v.updatedBy.name} ·{' '}
                     {v.sections.map((s) => SETTINGS_SECTION_LABELS[s]).join(', ')}
                   </li>
                 ))}

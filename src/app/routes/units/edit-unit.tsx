@@ -2,7 +2,6 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
-import { Alert } from '../../../components/ui/alert';
 import { PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
@@ -10,6 +9,7 @@ import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { UnitForm } from '../../../features/units/components/unit-form';
 import { isApiError } from '../../../lib/api-client';
+import { LoadError } from '../../../components/ui/query-state';
 
 const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
 
@@ -43,9 +43,12 @@ function EditUnit({ id }: { id: number }) {
   if (unit.isError) {
     if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
     return (
-      <Alert tone="alarm" title="The unit could not be loaded">
-        {unit.error.message}
-      </Alert>
+      <LoadError
+        title="The unit could not be loaded"
+        error={unit.error}
+        onRetry={() => void unit.refetch()}
+        retrying={unit.isFetching}
+      />
     );
   }
   const back = () => void navigate(paths.unit.getHref(id));

@@ -3,7 +3,6 @@ import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
 import { Alert } from '../../../components/ui/alert';
-import { Button } from '../../../components/ui/button';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
@@ -12,6 +11,7 @@ import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
+import { LoadError } from '../../../components/ui/query-state';
 
 const unitIdOf = (raw: string | undefined) => {
   const n = Number(raw);
@@ -45,12 +45,12 @@ export default function RecordVisitPage() {
   }
   if (unit.isError) {
     return (
-      <Alert tone="alarm" title="The unit could not be loaded">
-        <p>{unit.error.message}</p>
-        <Button variant="secondary" className="mt-3" onClick={() => void unit.refetch()} pending={unit.isFetching}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadError
+        title="The unit could not be loaded"
+        error={unit.error}
+        onRetry={() => void unit.refetch()}
+        retrying={unit.isFetching}
+      />
     );
   }
   const u = unit.data;

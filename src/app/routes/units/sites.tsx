@@ -1,6 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PlusIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
@@ -8,6 +7,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
 import { SiteForm } from '../../../features/sites/components/site-form';
 import { SitesList } from '../../../features/sites/components/sites-list';
+import { LoadError } from '../../../components/ui/query-state';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(sitesQuery());
@@ -40,9 +40,12 @@ export default function SitesPage() {
           <Spinner /> Loading sites…
         </p>
       ) : sites.isError ? (
-        <Alert tone="alarm" title="The sites could not be loaded">
-          {sites.error.message}
-        </Alert>
+        <LoadError
+          title="The sites could not be loaded"
+          error={sites.error}
+          onRetry={() => void sites.refetch()}
+          retrying={sites.isFetching}
+        />
       ) : sites.data.length === 0 ? (
         <EmptyState title="No sites yet">
           Add the depots and terminals where your units are, so each unit can name its place.

@@ -2,8 +2,7 @@ import type { QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense } from 'react';
 import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { NotFound } from '../../../components/errors/not-found';
-import { Alert } from '../../../components/ui/alert';
-import { Button, ButtonLink } from '../../../components/ui/button';
+import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { overviewQuery } from '../../../features/history/api/get-overview';
@@ -14,6 +13,7 @@ import { UnitIdentity } from '../../../features/units/components/unit-identity';
 import { UnitLabelActions } from '../../../features/labels/components/unit-label-actions';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
+import { LoadError } from '../../../components/ui/query-state';
 
 // The history (and after it the charts) loads apart from the app shell; the loader starts it alongside the data.
 const loadServiceHistory = () => import('../../../features/history/components/service-history');
@@ -56,12 +56,12 @@ function UnitRecord({ id }: { id: number }) {
   if (unit.isError) {
     if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
     return (
-      <Alert tone="alarm" title="The unit could not be loaded">
-        <p>{unit.error.message}</p>
-        <Button variant="secondary" className="mt-3" onClick={() => void unit.refetch()} pending={unit.isFetching}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadError
+        title="The unit could not be loaded"
+        error={unit.error}
+        onRetry={() => void unit.refetch()}
+        retrying={unit.isFetching}
+      />
     );
   }
 

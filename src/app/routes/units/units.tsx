@@ -2,7 +2,6 @@ import type { QueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { unitListQuerySchema, type UnitListFilters } from '../../../../shared/schemas/units';
-import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { PlusIcon, UnitsIcon } from '../../../components/ui/icons';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
@@ -14,6 +13,8 @@ import { usePrintLabelSheet } from '../../../features/labels/api/print-labels';
 import { UnitsFilters, type UnitFilterValues } from '../../../features/units/components/units-filters';
 import { Pager, UnitsList } from '../../../features/units/components/units-list';
 import { Can, useCan } from '../../../lib/can';
+import { LoadError } from '../../../components/ui/query-state';
+import { fmtCount } from '../../../lib/format';
 
 const PAGE_SIZE = 25;
 
@@ -134,17 +135,12 @@ export default function UnitsPage() {
             <Spinner /> Loading units…
           </div>
         ) : units.isError && !data ? (
-          <Alert tone="alarm" title="The units could not be loaded">
-            <p>{units.error.message}</p>
-            <Button
-              variant="secondary"
-              className="mt-3"
-              onClick={() => void units.refetch()}
-              pending={units.isFetching}
-            >
-              Try again
-            </Button>
-          </Alert>
+          <LoadError
+            title="The units could not be loaded"
+            error={units.error}
+            onRetry={() => void units.refetch()}
+            retrying={units.isFetching}
+          />
         ) : !data || data.total === 0 ? (
           filtered ? (
             <EmptyState icon={<UnitsIcon className="size-10" />} title="No unit matches">
@@ -165,7 +161,7 @@ export default function UnitsPage() {
         ) : (
           <>
             <p className="text-base text-ink-700" aria-live="polite">
-              {data.total.toLocaleString('en')} unit{data.total === 1 ? '' : 's'}
+              {fmtCount(data.total)} unit{data.total === 1 ? '' : 's'}
             </p>
             <UnitsList
               units={data.units}

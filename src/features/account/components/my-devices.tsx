@@ -6,6 +6,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { isApiError } from '../../../lib/api-client';
 import { useEndMySessions, useMySessions } from '../api/sessions';
 import { DeviceList } from '../../../components/sessions/device-list';
+import { LoadError } from '../../../components/ui/query-state';
 
 /** "Signed-in devices": the person's sessions; ending another one asks for the password again. */
 export function MyDevices() {
@@ -41,9 +42,12 @@ export function MyDevices() {
   }
   if (sessions.isError)
     return (
-      <Alert tone="alarm" title="Your devices could not be loaded">
-        {sessions.error.message}
-      </Alert>
+      <LoadError
+        title="Your devices could not be loaded"
+        error={sessions.error}
+        onRetry={() => void sessions.refetch()}
+        retrying={sessions.isFetching}
+      />
     );
   return (
     <div className="flex flex-col gap-4">

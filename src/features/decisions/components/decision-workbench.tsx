@@ -18,8 +18,8 @@ import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { Panel } from '../../../components/ui/page';
 import { useRecordDecision } from '../api/record-decision';
-import { fmtMoney } from './money';
 import { OptionsGrid } from './options-grid';
+import { fmtDay, fmtMoney } from '../../../lib/format';
 
 const formSchema = z.object({
   economics: economicsSchema,
@@ -278,8 +278,8 @@ export function DecisionWorkbench({ data, keyFor }: { data: UnitDecisionDto; key
               <ul className="mt-1 divide-y divide-ink-100 text-sm">
                 {data.decisions.map((d) => (
                   <li key={d.eventId} className="py-2">
-                    <span className="font-semibold">{DECISION_CHOICE_LABELS[d.choice]}</span> ·{' '}
-                    {new Date(d.at).toLocaleDateString('en-GB')} · {d.by.name}
+                    <span className="font-semibold">{DECISION_CHOICE_LABELS[d.choice]}</span> · {fmtDay(d.at)} ·{' '}
+                    {d.by.name}
                     {d.note && <span className="block text-ink-700">{d.note}</span>}
                   </li>
                 ))}

@@ -1,6 +1,6 @@
 import type { RepairOptionsResult } from '../../../../shared/domain';
 import { cx } from '../../../components/ui/cx';
-import { fmtMoney } from './money';
+import { fmtMoney } from '../../../lib/format';
 
 /** The four options side by side (stacked on phones), the cheapest marked in words. */
 export function OptionsGrid({ result }: { result: RepairOptionsResult }) {

@@ -9,5 +9,4 @@ export const fleetKeys = {
   count: (f: FleetFilters) => [...fleetKeys.all, 'count', f] as const,
   overviews: () => [...fleetKeys.all, 'overview'] as const,
   overview: (q: FleetOverviewQuery) => [...fleetKeys.overviews(), q] as const,
-  sites: () => [...fleetKeys.all, 'sites'] as const,
 };

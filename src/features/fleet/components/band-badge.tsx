@@ -1,5 +1,5 @@
 import { cx } from '../../../components/ui/cx';
-import { BAND_LABELS } from '../utils/format';
+import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 
 const TONES = {
   tight: 'border-okay-700 bg-okay-50 text-okay-700',
@@ -27,7 +27,7 @@ export function ScoreBadge({
     >
       <span className="tabular-nums">{score}</span>
       <span aria-hidden="true">·</span>
-      {BAND_LABELS[band]}
+      {SCORE_BAND_WORDS[band].label}
     </span>
   );
 }

@@ -5,11 +5,13 @@ import { UNIT_STATUS_VALUES } from '../../../../shared/schemas/history';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { SearchIcon } from '../../../components/ui/icons';
-import type { SiteOption } from '../api/get-site-options';
+import type { SiteDto } from '../../../../shared/schemas/sites';
+import { UNIT_STATUS_LABELS } from '../../../../shared/schemas/units';
 import { activeFilterCount } from '../utils/fleet-params';
-import { BAND_LABELS } from '../utils/format';
+import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 
-const STATUS_LABELS = { in_service: 'In service', out_of_service: 'Out of service', retired: 'Retired' } as const;
+type SiteOption = Pick<SiteDto, 'id' | 'code' | 'name'>;
+
 const control = 'block w-full min-h-touch rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
 
 function Labelled({
@@ -138,7 +140,7 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
                 <option value="">Any status</option>
                 {UNIT_STATUS_VALUES.map((s) => (
                   <option key={s} value={s}>
-                    {STATUS_LABELS[s]}
+                    {UNIT_STATUS_LABELS[s]}
                   </option>
                 ))}
               </select>
@@ -155,7 +157,7 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
                 <option value="">Any band</option>
                 {SCORE_BANDS.map((b) => (
                   <option key={b} value={b}>
-                    {BAND_LABELS[b]}
+                    {SCORE_BAND_WORDS[b].label}
                   </option>
                 ))}
               </select>

@@ -8,8 +8,9 @@ import {
 import { Link } from 'react-router-dom';
 import { FLEET_SORTS, type FleetRowDto, type FleetSort } from '../../../../shared/schemas/fleet';
 import { cx } from '../../../components/ui/cx';
-import { fmtContainer, fmtDay, fmtPct, fmtTonnes, unitHref } from '../utils/format';
 import { Flag, ScoreBadge } from './band-badge';
+import { fmtContainer, fmtDay, fmtPct, fmtTonnes } from '../../../lib/format';
+import { paths } from '../../../config/paths';
 
 const col = createColumnHelper<FleetRowDto>();
 
@@ -30,7 +31,7 @@ const columns = [
     cell: (c) => (
       <span className="flex flex-col">
         <Link
-          to={unitHref(c.row.original.unitId)}
+          to={paths.unit.getHref(c.row.original.unitId)}
           className="text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline md:text-base"
           data-testid="fleet-unit-link"
         >

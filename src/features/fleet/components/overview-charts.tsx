@@ -6,7 +6,7 @@ import { Bar, Line } from '@visx/shape';
 import { useMemo, useState } from 'react';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
 import { cx } from '../../../components/ui/cx';
-import { fmtNumber } from '../utils/format';
+import { fmtKg, fmtMonth, fmtTonnes } from '../../../lib/format';
 
 const INK = '#2f434d';
 const GRID = '#cbd3d6';
@@ -141,6 +141,7 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
   const y = scaleLinear({ domain: [0, Math.max(0.001, ...totals.values())], range: [innerH, 0], nice: true });
   const colour = (k: string) => SERIES[keys.indexOf(k) % SERIES.length];
   const unit = measure === 'kg' ? 'kg' : 't CO2e';
+  const amount = (v: number) => (measure === 'kg' ? fmtKg(v) : `${fmtTonnes(v)} CO2e`);
   const every = Math.ceil(data.months.length / Math.max(1, Math.floor(innerW / 56)));
   const total = [...totals.values()].reduce((s, v) => s + v, 0);
 
@@ -167,7 +168,7 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
         />
       </div>
       <p className="text-base text-ink-700">
-        {fmtNumber(total, measure === 'kg' ? 1 : 2)} {unit} made up in {data.months.length} months (GWP {data.gwpBasis}
+        {amount(total)} made up in {data.months.length} months (GWP {data.gwpBasis}
         ).
       </p>
       <div ref={parentRef} className="w-full">
@@ -200,7 +201,7 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
                     stroke="#ffffff"
                     strokeWidth={0.5}
                   >
-                    <title>{`${month} · ${k}: ${fmtNumber(v, 3)} ${unit}`}</title>
+                    <title>{`${month} · ${k}: ${amount(v)}`}</title>
                   </Bar>
                 );
               });
@@ -218,10 +219,7 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
               top={innerH}
               scale={x}
               tickValues={data.months.filter((_, i) => (data.months.length - 1 - i) % every === 0)}
-              tickFormat={(v) => {
-                const d = new Date(`${v}-01T00:00:00Z`);
-                return d.toLocaleDateString('en-GB', { month: 'short', year: '2-digit', timeZone: 'UTC' });
-              }}
+              tickFormat={(v) => fmtMonth(String(v))}
               stroke={INK}
               tickStroke={INK}
               tickLabelProps={() => ({ ...tickLabel, textAnchor: 'middle' })}
@@ -262,10 +260,10 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
                   <td className="py-1 pr-3 tabular-nums">{month}</td>
                   {keys.map((k) => (
                     <td key={k} className="py-1 pr-3 tabular-nums">
-                      {fmtNumber(byMonth.get(month)?.get(k) ?? 0, 3)}
+                      {amount(byMonth.get(month)?.get(k) ?? 0)}
                     </td>
                   ))}
-                  <td className="py-1 tabular-nums">{fmtNumber(totals.get(month) ?? 0, 3)}</td>
+                  <td className="py-1 tabular-nums">{amount(totals.get(month) ?? 0)}</td>
                 </tr>
               ))}
             </tbody>

@@ -1,5 +1,6 @@
 import { FLEET_PAGE_SIZES, type FleetCountDto } from '../../../../shared/schemas/fleet';
 import { Button } from '../../../components/ui/button';
+import { fmtCount } from '../../../lib/format';
 
 type Props = {
   page: number;
@@ -21,9 +22,8 @@ export function Pager({ page, pageSize, hasMore, count, onPage, onPageSize }: Pr
             'No units'
           ) : (
             <>
-              Units {from.toLocaleString('en-GB')}–{Math.min(from + pageSize - 1, count.total).toLocaleString('en-GB')}{' '}
-              of{' '}
-              {count.capped ? `more than ${count.total.toLocaleString('en-GB')}` : count.total.toLocaleString('en-GB')}
+              Units {fmtCount(from)}–{fmtCount(Math.min(from + pageSize - 1, count.total))} of{' '}
+              {count.capped ? `more than ${fmtCount(count.total)}` : fmtCount(count.total)}
             </>
           )
         ) : (

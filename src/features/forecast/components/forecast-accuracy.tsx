@@ -1,9 +1,10 @@
 import { FORECAST_SITUATION_LABELS, MIN_JUDGED_FOR_COVERAGE } from '../../../../shared/domain';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
 import type { ReactNode } from 'react';
+import { fmtCount, fmtNumber, fmtPct } from '../../../lib/format';
 
-const num = (v: number | null, unit: string) =>
-  v === null ? '—' : `${v.toLocaleString('en-GB', { maximumFractionDigits: 1 })}${unit}`;
+const days = (v: number | null, unit: string) => (v === null ? '—' : `${fmtNumber(v, 1)} ${unit}`);
+const pct = (v: number | null) => (v === null ? '—' : fmtPct(v));
 
 function Measure({ label, value, testId }: { label: string; value: string; testId?: string }) {
   return (
@@ -43,14 +44,14 @@ export function ForecastAccuracy({
   return (
     <div data-testid="forecast-accuracy">
       <p className="mt-1 text-base text-ink-700">
-        Each half of the units forecast from the other half’s past, at {a.cases.toLocaleString('en-GB')} past days whose
-        next top-up is known
-        {a.open ? ` (${a.open.toLocaleString('en-GB')} more still open, not judged yet)` : ''}.
+        Each half of the units forecast from the other half’s past, at {fmtCount(a.cases)} past days whose next top-up
+        is known
+        {a.open ? ` (${fmtCount(a.open)} more still open, not judged yet)` : ''}.
       </p>
       <dl className="mt-3 grid gap-2 sm:grid-cols-3 sm:gap-3">
-        <Measure label="Off by, on average" testId="forecast-accuracy-mae" value={num(a.maeDays, ' days')} />
-        <Measure label="80 % ranges that held" testId="forecast-accuracy-coverage" value={num(a.coveragePct, ' %')} />
-        <Measure label="Range-end loss" value={num(a.pinballDays, ' days')} />
+        <Measure label="Off by, on average" testId="forecast-accuracy-mae" value={days(a.maeDays, 'days')} />
+        <Measure label="80 % ranges that held" testId="forecast-accuracy-coverage" value={pct(a.coveragePct)} />
+        <Measure label="Range-end loss" value={days(a.pinballDays, 'days')} />
       </dl>
       <div className="mt-3 overflow-x-auto">
         <table className="w-full text-left text-base">
@@ -66,11 +67,11 @@ export function ForecastAccuracy({
             {accuracy.bySituation.map((s) => (
               <tr key={s.situation} className="border-t border-ink-100">
                 <td className="py-2 pr-3">{s.situation ? FORECAST_SITUATION_LABELS[s.situation] : 'All'}</td>
-                <td className="py-2 pr-3 text-right tabular-nums">{s.cases.toLocaleString('en-GB')}</td>
+                <td className="py-2 pr-3 text-right tabular-nums">{fmtCount(s.cases)}</td>
                 {s.cases >= MIN_JUDGED_FOR_COVERAGE ? (
                   <>
-                    <td className="py-2 pr-3 text-right whitespace-nowrap tabular-nums">{num(s.maeDays, ' d')}</td>
-                    <td className="py-2 text-right whitespace-nowrap tabular-nums">{num(s.coveragePct, ' %')}</td>
+                    <td className="py-2 pr-3 text-right whitespace-nowrap tabular-nums">{days(s.maeDays, 'd')}</td>
+                    <td className="py-2 text-right whitespace-nowrap tabular-nums">{pct(s.coveragePct)}</td>
                   </>
                 ) : (
                   <td colSpan={2} className="py-2 text-right text-sm text-ink-600">

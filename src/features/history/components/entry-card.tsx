@@ -2,7 +2,8 @@ import { useController, useWatch } from 'react-hook-form';
 import { LEAK_CHECK_METHODS, LEAK_LOCATIONS, REPAIR_ACTIONS, SIGHT_GLASS_STATES } from '../../../../shared/domain';
 import { UNIT_STATUS_VALUES, type VisitEventKind } from '../../../../shared/schemas/history';
 import { Button } from '../../../components/ui/button';
-import { ENTRY_KIND_LABELS, UNIT_STATUS_WORDS } from '../utils/labels';
+import { ENTRY_KIND_LABELS } from '../utils/labels';
+import { UNIT_STATUS_LABELS } from '../../../../shared/schemas/units';
 import { cautionsFor } from '../utils/safety';
 import {
   MASS_CHOICES,
@@ -295,7 +296,7 @@ function KindFields(props: Props) {
           name={`events.${index}.status`}
           legend="New status"
           columns={1}
-          choices={UNIT_STATUS_VALUES.map((s) => ({ value: s, label: UNIT_STATUS_WORDS[s] }))}
+          choices={UNIT_STATUS_VALUES.map((s) => ({ value: s, label: UNIT_STATUS_LABELS[s] }))}
         />
       );
     case 'note':

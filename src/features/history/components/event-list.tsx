@@ -15,16 +15,18 @@ import {
 import { can } from '../../../../shared/permissions';
 import type { UserDto } from '../../../../shared/schemas/auth';
 import { VOID_WINDOW_HOURS, type EventDto } from '../../../../shared/schemas/history';
-import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { EmptyState } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { useHistory } from '../api/get-history';
-import { entryKindLabel, fmtDateTime, fmtKg, fmtNumber, UNIT_STATUS_WORDS } from '../utils/labels';
+import { entryKindLabel } from '../utils/labels';
+import { UNIT_STATUS_LABELS } from '../../../../shared/schemas/units';
 import { temperatureSymbol, type UnitPrefs } from '../utils/unit-prefs';
 import { AttachPhotos } from './attach-photos';
 import { EntryGlyph } from './entry-glyph';
+import { LoadError } from '../../../components/ui/query-state';
+import { fmtDateTime, fmtKg, fmtNumber } from '../../../lib/format';
 
 // The void form (react-hook-form + its resolver) loads when someone voids an entry, not with the unit page.
 const VoidEventDialog = lazy(() => import('./void-event-dialog').then((m) => ({ default: m.VoidEventDialog })));
@@ -206,7 +208,7 @@ function EntryDetails({ e }: { e: EventDto }) {
       if (typeof d.status === 'string')
         rows.push(
           <Detail key="s" label="Now">
-            {UNIT_STATUS_WORDS[d.status] ?? d.status}
+            {(UNIT_STATUS_LABELS as Record<string, string>)[d.status] ?? d.status}
           </Detail>,
         );
       break;
@@ -373,17 +375,12 @@ export function EventList({
   }
   if (history.isError) {
     return (
-      <Alert tone="alarm" title="The history could not be loaded">
-        <p>{history.error.message}</p>
-        <Button
-          variant="secondary"
-          className="mt-3"
-          onClick={() => void history.refetch()}
-          pending={history.isFetching}
-        >
-          Try again
-        </Button>
-      </Alert>
+      <LoadError
+        title="The history could not be loaded"
+        error={history.error}
+        onRetry={() => void history.refetch()}
+        retrying={history.isFetching}
+      />
     );
   }
   const events = history.data.pages.flatMap((p) => p.events);

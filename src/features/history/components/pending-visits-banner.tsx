@@ -2,7 +2,7 @@ import type { QueryKey } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Button } from '../../../components/ui/button';
 import { useVisitQueue } from '../api/visit-queue';
-import { fmtDateTime } from '../utils/labels';
+import { fmtDateTime } from '../../../lib/format';
 
 /**
  * "1 visit waiting to send": visits kept on this phone while the connection was down. They go out by themselves

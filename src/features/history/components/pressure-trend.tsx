@@ -8,8 +8,8 @@ import { parseISO } from 'date-fns';
 import { useMemo, type PointerEvent as ReactPointerEvent } from 'react';
 import type { PressureSnapshot } from '../../../../shared/domain';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
-import { fmtC, fmtDateTime, fmtK, timeTick } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
+import { fmtC, fmtDateTime, fmtK, timeTick } from '../../../lib/format';
 
 const C = {
   ink: '#0b161d',

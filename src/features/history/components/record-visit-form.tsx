@@ -5,7 +5,6 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { useRecordVisitForm, type VisitFormError } from '../hooks/use-record-visit-form';
 import type { VisitUnit } from '../hooks/use-visit-resolver';
-import { fmtKg } from '../utils/labels';
 import { PRECEDENCE_NOTE } from '../utils/safety';
 import { toLocalInputValue } from '../utils/visit-form-model';
 import { EntryCard } from './entry-card';
@@ -14,6 +13,7 @@ import { PendingVisitsBanner } from './pending-visits-banner';
 import { EntryPalette } from './record-visit/entry-palette';
 import { OutcomeActions, VisitQueued, VisitSaved } from './record-visit/visit-outcome';
 import { WhenField } from './record-visit/when-field';
+import { fmtKg } from '../../../lib/format';
 
 export type { VisitUnit } from '../hooks/use-visit-resolver';
 

@@ -6,9 +6,9 @@ import {
   saturationTemperatureC,
 } from '../../../../shared/domain';
 import { cx } from '../../../components/ui/cx';
-import { fmtNumber } from '../utils/labels';
 import { temperatureSymbol, type UnitPrefs } from '../utils/unit-prefs';
 import { parseTyped } from '../utils/visit-form-model';
+import { fmtNumber } from '../../../lib/format';
 
 type Reading = { state: 'empty' } | { state: 'ok'; tempC: number } | { state: 'out'; message: string };
 

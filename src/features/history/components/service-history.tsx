@@ -1,8 +1,7 @@
 import type { QueryKey } from '@tanstack/react-query';
 import { lazy, Suspense, type ReactNode } from 'react';
 import { can } from '../../../../shared/permissions';
-import { Alert } from '../../../components/ui/alert';
-import { Button, ButtonLink } from '../../../components/ui/button';
+import { ButtonLink } from '../../../components/ui/button';
 import { PlusIcon } from '../../../components/ui/icons';
 import { Spinner } from '../../../components/ui/spinner';
 import { useUser } from '../../../lib/auth';
@@ -11,6 +10,7 @@ import { useTimeline } from '../api/get-timeline';
 import { EventList } from './event-list';
 import { PendingVisitsBanner } from './pending-visits-banner';
 import { UnitFigures } from './unit-figures';
+import { LoadError } from '../../../components/ui/query-state';
 
 // The charts (visx) load after the figures: a technician on one bar of signal reads the figures first.
 const UnitTimeline = lazy(() => import('./unit-timeline').then((m) => ({ default: m.UnitTimeline })));
@@ -91,17 +91,12 @@ export function ServiceHistory({
           {overview.isPending ? (
             <Loading what="the figures" />
           ) : overview.isError ? (
-            <Alert tone="alarm" title="The figures could not be loaded">
-              <p>{overview.error.message}</p>
-              <Button
-                variant="secondary"
-                className="mt-3"
-                onClick={() => void overview.refetch()}
-                pending={overview.isFetching}
-              >
-                Try again
-              </Button>
-            </Alert>
+            <LoadError
+              title="The figures could not be loaded"
+              error={overview.error}
+              onRetry={() => void overview.refetch()}
+              retrying={overview.isFetching}
+            />
           ) : (
             <UnitFigures stats={overview.data.stats} />
           )}
@@ -113,12 +108,12 @@ export function ServiceHistory({
           {timeline.isPending ? (
             <Loading what="the timeline" />
           ) : timeline.isError ? (
-            <Alert tone="alarm" title="The timeline could not be loaded">
-              <p>{timeline.error.message}</p>
-              <Button variant="secondary" className="mt-3" onClick={() => void timeline.refetch()}>
-                Try again
-              </Button>
-            </Alert>
+            <LoadError
+              title="The timeline could not be loaded"
+              error={timeline.error}
+              onRetry={() => void timeline.refetch()}
+              retrying={timeline.isFetching}
+            />
           ) : (
             <div className="rounded-lg border-2 border-ink-200 bg-white p-3 md:p-4">
               <Suspense fallback={<Loading what="the timeline" />}>

@@ -3,8 +3,9 @@ import { useId, useState, type ReactNode } from 'react';
 import { LEAK_LOCATIONS, termLabel, type ScoreBand, type ScoreFactorName } from '../../../../shared/domain';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { cx } from '../../../components/ui/cx';
-import { BAND_LABELS, BAND_TONES, fmtDay, fmtK, fmtKg, fmtNumber, fmtPct } from '../utils/labels';
+import { BAND_LABELS, BAND_TONES } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
+import { fmtDay, fmtK, fmtKg, fmtNumber, fmtPct, fmtTonnes } from '../../../lib/format';
 
 const FACTOR_LABELS: Record<ScoreFactorName, string> = {
   rate: 'Leak rate',
@@ -242,7 +243,7 @@ function ForecastCard({ stats }: { stats: UnitStatsDto }) {
       </p>
       <p className="text-sm text-ink-700" data-testid="forecast-coverage">
         {f.basis === 'cases' && f.coveragePct !== null
-          ? `On this fleet, ranges like this held the next top-up ${fmtNumber(f.coveragePct, 0)} % of the time.`
+          ? `On this fleet, ranges like this held the next top-up ${fmtPct(f.coveragePct)} of the time.`
           : f.basis === 'cases'
             ? `Learned from the ${f.neighbours} most similar past cases of the fleet; how often such ranges hold is not measured yet.`
             : f.situationCases > 0
@@ -333,7 +334,7 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
           <span className="text-sm font-semibold text-ink-600"> of charge</span>
         </Figure>
         <Figure label="Charge as CO₂e" detail={detail ? `${detail.refrigerant}` : undefined}>
-          {fmtNumber(stats.co2eTonnes, 2)} t
+          {fmtTonnes(stats.co2eTonnes)} CO2e
         </Figure>
         <Figure
           label="Next leak check"

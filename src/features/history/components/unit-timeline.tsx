@@ -9,7 +9,8 @@ import { useMemo, useRef, useState, type PointerEvent as ReactPointerEvent } fro
 import { LEAK_LOCATIONS, SIGHT_GLASS_STATES, termLabel } from '../../../../shared/domain';
 import type { TimelineEventDto, UnitStatsDto } from '../../../../shared/schemas/history';
 import { cx } from '../../../components/ui/cx';
-import { entryKindLabel, fmtDateTime, fmtDay, fmtKg, fmtNumber, timeTick } from '../utils/labels';
+import { entryKindLabel } from '../utils/labels';
+import { fmtDateTime, fmtDay, fmtKg, fmtNumber, timeTick } from '../../../lib/format';
 
 type BrushHandle = NonNullable<NonNullable<BrushProps['innerRef']>['current']>;
 

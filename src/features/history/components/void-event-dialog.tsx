@@ -9,7 +9,8 @@ import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { isApiError } from '../../../lib/api-client';
 import { useVoidEvent } from '../api/void-event';
-import { entryKindLabel, fmtDateTime } from '../utils/labels';
+import { entryKindLabel } from '../utils/labels';
+import { fmtDateTime } from '../../../lib/format';
 
 type Input = z.input<typeof voidEventSchema>;
 type Output = z.output<typeof voidEventSchema>;

@@ -15,8 +15,7 @@ import { isApiError } from '../../../lib/api-client';
 import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import type { TransferProgress } from '../../../lib/transfer';
 import { IMPORT_TEMPLATE_HREF, useCommitImport, useImportProgress, usePreviewImport } from '../api/fleet-import';
-
-const count = new Intl.NumberFormat('en');
+import { fmtCount } from '../../../lib/format';
 
 function ProgressBar({ label, value, max }: { label: string; value: number; max: number }) {
   const pct = max > 0 ? Math.min(100, Math.round((value / max) * 100)) : 0;
@@ -133,7 +132,7 @@ function Problems({ preview }: { preview: ImportPreviewDto }) {
   return (
     <section aria-labelledby="import-problems-title" className="flex flex-col gap-2">
       <h3 id="import-problems-title" className="text-lg font-bold text-alarm-700">
-        {count.format(preview.rowsWithErrors)} row{preview.rowsWithErrors === 1 ? '' : 's'} to fix
+        {fmtCount(preview.rowsWithErrors)} row{preview.rowsWithErrors === 1 ? '' : 's'} to fix
       </h3>
       <ul
         className="flex max-h-96 flex-col gap-1 overflow-y-auto rounded-lg border-2 border-alarm-700 bg-white p-3"
@@ -148,7 +147,7 @@ function Problems({ preview }: { preview: ImportPreviewDto }) {
       </ul>
       {preview.errorCount > preview.errors.length && (
         <p className="text-sm text-ink-600">
-          …and {count.format(preview.errorCount - preview.errors.length)} more. Fix these and check the file again.
+          …and {fmtCount(preview.errorCount - preview.errors.length)} more. Fix these and check the file again.
         </p>
       )}
     </section>
@@ -196,11 +195,11 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
 
   if (done) {
     return (
-      <Alert tone="okay" title={`${count.format(done.insertedRows)} units imported`}>
+      <Alert tone="okay" title={`${fmtCount(done.insertedRows)} units imported`}>
         <p>
           From {done.fileName}
           {done.totalRows > done.insertedRows
-            ? `; ${count.format(done.totalRows - done.insertedRows)} already registered were skipped`
+            ? `; ${fmtCount(done.totalRows - done.insertedRows)} already registered were skipped`
             : ''}
           .
         </p>
@@ -232,7 +231,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
           1 · Choose the CSV file
         </h2>
         <p className="text-base text-ink-600">
-          One unit per row, with a header row. Up to {count.format(MAX_IMPORT_ROWS)} rows and{' '}
+          One unit per row, with a header row. Up to {fmtCount(MAX_IMPORT_ROWS)} rows and{' '}
           {MAX_IMPORT_BYTES / 1024 / 1024} MB. Spreadsheets: save as “CSV UTF-8” first.
         </p>
         <div className="flex flex-wrap gap-3">
@@ -290,7 +289,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
             ].map(([label, n]) => (
               <div key={label} className="rounded-md bg-ink-50 px-3 py-2">
                 <dt className="text-sm font-semibold text-ink-600">{label}</dt>
-                <dd className="text-figure font-bold tabular-nums">{count.format(Number(n))}</dd>
+                <dd className="text-figure font-bold tabular-nums">{fmtCount(Number(n))}</dd>
               </div>
             ))}
           </dl>
@@ -300,7 +299,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
           {p.existingCount > 0 && (
             <div className="flex flex-col gap-2 rounded-md border-2 border-heed-800 bg-heed-50 p-4">
               <p className="font-semibold">
-                {count.format(p.existingCount)} unit{p.existingCount === 1 ? ' is' : 's are'} already registered:{' '}
+                {fmtCount(p.existingCount)} unit{p.existingCount === 1 ? ' is' : 's are'} already registered:{' '}
                 {p.existing
                   .slice(0, 5)
                   .map((e) => `${formatContainerNumber(e.containerNumber)} (row ${e.row})`)
@@ -339,7 +338,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
             <div aria-live="polite">
               {server && server.processedRows > 0 ? (
                 <ProgressBar
-                  label={`Saving units: ${count.format(server.processedRows)} of ${count.format(server.totalRows)}`}
+                  label={`Saving units: ${fmtCount(server.processedRows)} of ${fmtCount(server.totalRows)}`}
                   value={server.processedRows}
                   max={server.totalRows}
                 />
@@ -361,7 +360,7 @@ export function FleetImport({ unitsHref }: { unitsHref: string }) {
             onClick={startImport}
             className="self-start"
           >
-            Import {p ? count.format(p.readyCount) : ''} units
+            Import {p ? fmtCount(p.readyCount) : ''} units
           </Button>
           {blocked && !commit.isPending && (
             <p className="text-base text-ink-600">

@@ -2,6 +2,7 @@ import type { QueryKey } from '@tanstack/react-query';
 import type { JobDto } from '../../../../shared/schemas/settings-api';
 import { Alert } from '../../../components/ui/alert';
 import { useJob } from '../api/get-job';
+import { fmtCount } from '../../../lib/format';
 
 /**
  * Progress of the statistics recompute that follows a settings change; the app stays usable meanwhile. When it ends,
@@ -26,8 +27,7 @@ export function RecomputeProgress({
         data-testid="recompute-progress"
       >
         <p className="font-semibold text-fjord-900">
-          Recomputing every unit's figures with the new settings: {j.processed.toLocaleString('en-GB')} of{' '}
-          {j.total.toLocaleString('en-GB')}
+          Recomputing every unit's figures with the new settings: {fmtCount(j.processed)} of {fmtCount(j.total)}
         </p>
         <div className="mt-2 h-3 overflow-hidden rounded-full bg-white" aria-hidden="true">
           <div className="h-full bg-fjord-700 transition-[width]" style={{ width: `${pct}%` }} />
@@ -47,7 +47,7 @@ export function RecomputeProgress({
   if (j.status === 'done' && j.finishedAt && Date.now() - Date.parse(j.finishedAt) < 10 * 60_000) {
     return (
       <Alert tone="okay" title="Every unit's figures follow the current settings">
-        {j.total.toLocaleString('en-GB')} units recomputed{j.message ? `. ${j.message}` : '.'}
+        {fmtCount(j.total)} units recomputed{j.message ? `. ${j.message}` : '.'}
       </Alert>
     );
   }

@@ -4,8 +4,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { singleLabelHref } from '../api/print-labels';
 import { useReissueQrToken } from '../api/reissue-qr-token';
-
-const timeFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { fmtDateTime } from '../../../lib/format';
 
 /** Print the unit's QR label, or replace a lost one (the old label stops opening the unit). */
 export function UnitLabelActions({ unit }: { unit: UnitDto }) {
@@ -22,7 +21,7 @@ export function UnitLabelActions({ unit }: { unit: UnitDto }) {
         <h2 id="label-actions-title" className="text-xl font-bold">
           QR label
         </h2>
-        <p className="text-base text-ink-600">Label issued {timeFormat.format(new Date(unit.qrIssuedAt))}.</p>
+        <p className="text-base text-ink-600">Label issued {fmtDateTime(unit.qrIssuedAt)}.</p>
       </div>
       {reissued && (
         <Alert tone="okay" title="A new label code was issued">

@@ -2,6 +2,7 @@ import { Fragment, useState } from 'react';
 import type { ReceivedMailDto } from '../../../../shared/schemas/mail';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
+import { fmtDateTime } from '../../../lib/format';
 
 const URL_PATTERN = /(https?:\/\/[^\s<>"]+)/g;
 
@@ -25,7 +26,6 @@ function LinkedText({ text }: { text: string }) {
 function MailItem({ mail }: { mail: ReceivedMailDto }) {
   const [open, setOpen] = useState(false);
   const [asHtml, setAsHtml] = useState(false);
-  const when = new Date(mail.receivedAt);
   return (
     <li className="rounded-lg border-2 border-ink-200 bg-white" data-testid="mailbox-item">
       <button
@@ -36,7 +36,7 @@ function MailItem({ mail }: { mail: ReceivedMailDto }) {
       >
         <span className="font-semibold">{mail.subject || '(no subject)'}</span>
         <span className="text-sm text-ink-600">
-          To {mail.to} · <time dateTime={mail.receivedAt}>{when.toLocaleString()}</time>
+          To {mail.to} · <time dateTime={mail.receivedAt}>{fmtDateTime(mail.receivedAt)}</time>
         </span>
       </button>
       {open && (

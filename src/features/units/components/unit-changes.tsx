@@ -1,15 +1,14 @@
 import { useState } from 'react';
 import { UNIT_STATUS_LABELS, type UnitChangeDto, type UnitStatus } from '../../../../shared/schemas/units';
-import { Alert } from '../../../components/ui/alert';
 import { Spinner } from '../../../components/ui/spinner';
 import { useUnitChanges } from '../api/get-unit-changes';
-
-const timeFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { LoadError } from '../../../components/ui/query-state';
+import { fmtDateTime } from '../../../lib/format';
 
 function shown(change: UnitChangeDto, value: string | null): string {
   if (value === null || value === '') return '(empty)';
   if (change.field === 'status') return UNIT_STATUS_LABELS[value as UnitStatus] ?? value;
-  if (change.field === 'qrIssuedAt') return timeFormat.format(new Date(value));
+  if (change.field === 'qrIssuedAt') return fmtDateTime(value);
   return value;
 }
 
@@ -35,9 +34,12 @@ export function UnitChanges({ unitId }: { unitId: number }) {
             <Spinner /> Loading changes…
           </p>
         ) : changes.isError ? (
-          <Alert tone="alarm" title="The changes could not be loaded">
-            {changes.error.message}
-          </Alert>
+          <LoadError
+            title="The changes could not be loaded"
+            error={changes.error}
+            onRetry={() => void changes.refetch()}
+            retrying={changes.isFetching}
+          />
         ) : changes.data.length === 0 ? (
           <p className="text-base text-ink-600">No changes since the unit was registered.</p>
         ) : (
@@ -45,7 +47,7 @@ export function UnitChanges({ unitId }: { unitId: number }) {
             {changes.data.map((c) => (
               <li key={c.id} className="border-l-4 border-fjord-700 pl-3">
                 <p className="text-sm text-ink-600">
-                  {timeFormat.format(new Date(c.at))} · {c.user.name}
+                  {fmtDateTime(c.at)} · {c.user.name}
                 </p>
                 <p className="text-base">
                   <span className="font-semibold">{c.label}:</span> {shown(c, c.before)} → {shown(c, c.after)}

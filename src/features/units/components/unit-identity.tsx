@@ -4,8 +4,8 @@ import { SITE_KIND_LABELS } from '../../../../shared/schemas/sites';
 import type { UnitDto } from '../../../../shared/schemas/units';
 import { Badge } from '../../../components/ui/page';
 import { Can } from '../../../lib/can';
-import { formatKg } from './units-list';
 import { UnitStatusBadge } from './unit-status-badge';
+import { fmtDay, fmtKg, fmtMoney } from '../../../lib/format';
 
 /** "HRLU 100001" and the check digit boxed, the way ISO 6346 marks it on the unit (and our label prints it). */
 export function ContainerNumber({ value, className }: { value: string; className?: string }) {
@@ -22,15 +22,6 @@ export function ContainerNumber({ value, className }: { value: string; className
     </span>
   );
 }
-
-const dateFormat = new Intl.DateTimeFormat(undefined, {
-  day: 'numeric',
-  month: 'short',
-  year: 'numeric',
-  timeZone: 'UTC',
-});
-const money = new Intl.NumberFormat(undefined, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-export const formatDay = (isoDay: string) => dateFormat.format(new Date(`${isoDay}T00:00:00Z`));
 
 function Fact({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -68,7 +59,7 @@ export function UnitIdentity({ unit, actions }: { unit: UnitDto; actions?: React
         </div>
         <div className="rounded-md bg-ink-950 px-4 py-3 text-white md:min-w-56">
           <p className="text-sm font-semibold text-lime-300">Full charge</p>
-          <p className="text-figure font-bold tabular-nums">{formatKg(unit.nominalChargeKg)}</p>
+          <p className="text-figure font-bold tabular-nums">{fmtKg(unit.nominalChargeKg)}</p>
         </div>
       </div>
       {refrigerant && (refrigerant.flammable || refrigerant.highPressure) && (
@@ -91,13 +82,13 @@ export function UnitIdentity({ unit, actions }: { unit: UnitDto; actions?: React
             none
           )}
         </Fact>
-        <Fact label="Commissioned">{unit.commissionedOn ? formatDay(unit.commissionedOn) : none}</Fact>
+        <Fact label="Commissioned">{unit.commissionedOn ? fmtDay(unit.commissionedOn) : none}</Fact>
         <Fact label="Model">{unit.model ?? none}</Fact>
         <Fact label="Machinery serial">{unit.machinerySerial ?? none}</Fact>
         <Fact label="Year of manufacture">{unit.manufactureYear ?? none}</Fact>
         <Can permission="view:fleet">
-          <Fact label="Purchase cost">{unit.purchaseCost == null ? none : money.format(unit.purchaseCost)}</Fact>
-          <Fact label="Residual value">{unit.residualValue == null ? none : money.format(unit.residualValue)}</Fact>
+          <Fact label="Purchase cost">{unit.purchaseCost == null ? none : fmtMoney(unit.purchaseCost)}</Fact>
+          <Fact label="Residual value">{unit.residualValue == null ? none : fmtMoney(unit.residualValue)}</Fact>
         </Can>
       </dl>
       {unit.notes && (

@@ -4,8 +4,7 @@ import type { UnitDto } from '../../../../shared/schemas/units';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { UnitStatusBadge } from './unit-status-badge';
-
-export const formatKg = (kg: number) => `${Number(kg.toFixed(2))} kg`;
+import { fmtKg } from '../../../lib/format';
 
 type Selection = {
   selected: ReadonlySet<number>;
@@ -69,7 +68,7 @@ export function UnitsList({
               </span>
               <span className="flex flex-wrap items-center justify-between gap-x-4 gap-y-1 md:contents">
                 <span className="text-base whitespace-nowrap text-ink-700 md:w-36">
-                  {u.refrigerant} · {formatKg(u.nominalChargeKg)}
+                  {u.refrigerant} · {fmtKg(u.nominalChargeKg)}
                 </span>
                 <span className="md:order-last md:ml-auto">
                   <UnitStatusBadge status={u.status} />

@@ -2,10 +2,11 @@ import type { ReactNode } from 'react';
 import type { RecordVisitInput, RecordVisitResultDto, VisitEventKind } from '../../../../../shared/schemas/history';
 import { Alert } from '../../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../../components/ui/button';
-import { ENTRY_KIND_LABELS, fmtDateTime, fmtKg } from '../../utils/labels';
+import { ENTRY_KIND_LABELS } from '../../utils/labels';
 import { AttachPhotos } from '../attach-photos';
 import { EntryGlyph } from '../entry-glyph';
 import { QueuedPhotos } from '../queued-photos';
+import { fmtDateTime, fmtKg } from '../../../../lib/format';
 
 /** Back to the unit, or start the next visit. */
 export function OutcomeActions({
