@@ -165,6 +165,18 @@ export const recordVisitSchema = z.object({
 });
 export type RecordVisitInput = z.infer<typeof recordVisitSchema>;
 
+/**
+ * The same visit addressed by the label's token instead of the unit's id: recorded on a phone with no signal at a
+ * label it had never opened, so it did not know which unit that is. The server finds the unit when it arrives.
+ */
+export const recordVisitByLabelSchema = recordVisitSchema.omit({ unitId: true }).extend({
+  qrToken: z.string().regex(/^[A-Za-z0-9_-]{16,64}$/, 'This is not a Tightloop label code'),
+});
+export type RecordVisitByLabelInput = z.infer<typeof recordVisitByLabelSchema>;
+/** What `POST /api/visits` takes: a visit for a unit, or for a label. */
+export type VisitSubmission = RecordVisitInput | RecordVisitByLabelInput;
+export const isByLabel = (v: VisitSubmission): v is RecordVisitByLabelInput => 'qrToken' in v;
+
 export const voidEventSchema = z.object({
   reason: z.string().trim().min(3, 'Say why this entry is wrong').max(500),
 });
