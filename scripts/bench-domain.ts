@@ -3,18 +3,7 @@
 // Deterministic (seeded PRNG). Run: npm run bench:domain
 import { cpus, loadavg } from 'node:os';
 import { computeUnitStats, forecastNextTopUp, naiveForecastDay, type UnitEvent } from '../shared/domain';
-
-/** mulberry32: small, fast, seeded. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4_294_967_296;
-  };
-}
+import { mulberry32 } from '../seed/simulator/prng';
 
 const DAY_MS = 86_400_000;
 const START_MS = Date.UTC(2000, 0, 1);
@@ -31,7 +20,7 @@ const SIGHT = ['full', 'full', 'full', 'bubbles', 'not_checked'] as const;
 
 /** A unit's service history of exactly `count` events: visits every 1–6 days, each a realistic bundle. */
 function syntheticHistory(count: number, seed: number): { events: UnitEvent[]; asOf: string } {
-  const rnd = prng(seed);
+  const rnd = mulberry32(seed);
   const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
   const events: UnitEvent[] = [];
   let dayMs = START_MS;
@@ -118,7 +107,7 @@ function time(
 
 /** Fisher–Yates with the seeded PRNG: the same "do not trust order" input every run. */
 function shuffled<T>(xs: readonly T[], seed: number): T[] {
-  const rnd = prng(seed);
+  const rnd = mulberry32(seed);
   const out = [...xs];
   for (let i = out.length - 1; i > 0; i--) {
     const j = Math.floor(rnd() * (i + 1));
@@ -172,7 +161,7 @@ if (load > cpus().length)
 // Forecast accuracy on a synthetic fleet: each unit leaks at its own rate; the technician tops up when the loss
 // is noticed (somewhere between 10 % and 30 % of the charge) and adds back what was lost.
 function forecastAccuracy(units: number, seed: number): { engine: number; naive: number; cases: number } {
-  const rnd = prng(seed);
+  const rnd = mulberry32(seed);
   const normal = () => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
   let engineErr = 0;
   let naiveErr = 0;

@@ -16,19 +16,24 @@ if (!url || !port || (mode !== 'app' && mode !== 'baseline')) {
   process.exit(2);
 }
 
+/** Listens on loopback; the returned close ends the open connections, the server and the database pool. */
+async function serve(app: express.Express, pool: { end(): Promise<void> }): Promise<() => Promise<void>> {
+  const server = app.listen(port, '127.0.0.1');
+  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
+  return async () => {
+    server.closeAllConnections();
+    await new Promise((r) => server.close(r));
+    await pool.end();
+  };
+}
+
 let close: () => Promise<void>;
 if (mode === 'app') {
   const { db, pool } = createDb(url);
   // Mail is queued in the outbox by the write transactions; nothing is sent during a benchmark.
   const mailer: Mailer = { send: async () => undefined };
   const { app } = createApp({ db, publicUrl: `http://127.0.0.1:${port}`, devTools: false, mailer });
-  const server = app.listen(port, '127.0.0.1');
-  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
-  close = async () => {
-    server.closeAllConnections();
-    await new Promise((r) => server.close(r));
-    await pool.end();
-  };
+  close = await serve(app, pool);
 } else {
   // Same pool size and options as the app's own pool, so the comparison is about the work per request.
   const pool = mysql.createPool({ uri: url, connectionLimit: 20, timezone: 'Z', supportBigNumbers: true });
@@ -42,13 +47,7 @@ if (mode === 'app') {
       next(err);
     }
   });
-  const server = app.listen(port, '127.0.0.1');
-  await new Promise<void>((resolve, reject) => server.once('listening', resolve).once('error', reject));
-  close = async () => {
-    server.closeAllConnections();
-    await new Promise((r) => server.close(r));
-    await pool.end();
-  };
+  close = await serve(app, pool);
 }
 process.once('SIGTERM', () => void close().then(() => process.exit(0)));
 console.log('ready');

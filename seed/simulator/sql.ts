@@ -1,6 +1,7 @@
 // Multi-row INSERT statements for bulk loads: values written as SQL literals (far faster than placeholders for
 // millions of rows), in chunks below a byte budget that stays well under max_allowed_packet.
 import { getTableColumns, getTableName, type Table } from 'drizzle-orm';
+import { civilFromDay } from '../../shared/domain/dates';
 
 export type ColumnList = { key: string; name: string }[];
 
@@ -35,16 +36,7 @@ export function datetime(d: Date): string {
   for (let i = 0; i < 3; i++) if (recentMs[i] === ms) return recentText[i];
   const days = Math.floor(ms / 86_400_000);
   let rest = ms - days * 86_400_000;
-  // Civil date from a day count (H. Hinnant's algorithm), proleptic Gregorian, UTC.
-  const z = days + 719_468;
-  const era = Math.floor(z / 146_097);
-  const doe = z - era * 146_097;
-  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36_524) - Math.floor(doe / 146_096)) / 365);
-  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
-  const mp = Math.floor((5 * doy + 2) / 153);
-  const day = doy - Math.floor((153 * mp + 2) / 5) + 1;
-  const month = mp < 10 ? mp + 3 : mp - 9;
-  const year = yoe + era * 400 + (month <= 2 ? 1 : 0);
+  const { year, month, day } = civilFromDay(days);
   const h = Math.floor(rest / 3_600_000);
   rest -= h * 3_600_000;
   const mi = Math.floor(rest / 60_000);
