@@ -62,7 +62,8 @@ export async function freePort(): Promise<number> {
   });
 }
 
-function portOpen(port: number): Promise<boolean> {
+/** Whether something on 127.0.0.1 accepts connections on `port`. */
+export function portOpen(port: number): Promise<boolean> {
   return new Promise((resolve) => {
     const sock = net.connect({ port, host: '127.0.0.1' });
     sock.once('connect', () => {
