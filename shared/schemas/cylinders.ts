@@ -267,3 +267,12 @@ export type CylinderListDto = { cylinders: CylinderDto[]; toleranceKg: number; n
 export type CylinderImportResultDto = { imported: number; cylinderIds: number[] };
 export type CylinderImportRowError = { row: number; field: string | null; message: string };
 export type QuarantineResultDto = { cylinder: CylinderDto; unitsMarked: number; unitIds: number[] };
+
+/** Settings of the register (DOMAIN.md has no rule: our own defaults, [T]). */
+export type CylinderSettings = { toleranceKg: number; nearFullPct: number };
+export const DEFAULT_CYLINDER_SETTINGS: CylinderSettings = { toleranceKg: 0.5, nearFullPct: 90 };
+/** The register's settings from the settings in force, or the defaults while the settings carry none. */
+export function cylinderSettingsOf(settings: object): CylinderSettings {
+  const given = (settings as { cylinders?: Partial<CylinderSettings> }).cylinders;
+  return { ...DEFAULT_CYLINDER_SETTINGS, ...given };
+}

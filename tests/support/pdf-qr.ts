@@ -3,7 +3,7 @@
 import { inflateSync } from 'node:zlib';
 import jsQR from 'jsqr';
 import { PDFArray, PDFDocument, PDFName, PDFRawStream, type PDFObject } from 'pdf-lib';
-import { QR_MARK, QR_QUIET_ZONE } from '../../server/features/labels/label-sheet';
+import { QR_MARK, QR_QUIET_ZONE } from '../../server/lib/pdf/pdf-parts';
 
 function streamText(doc: PDFDocument, obj: PDFObject | undefined): string {
   if (obj === undefined) return '';
