@@ -1,14 +1,16 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useEffect } from 'react';
+import { lazy, Suspense, useEffect, useState } from 'react';
 import { redirect, useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Alert } from '../../../components/ui/alert';
-import { ButtonLink } from '../../../components/ui/button';
+import { Button, ButtonLink } from '../../../components/ui/button';
+import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { overviewQuery } from '../../../features/history/api/get-overview';
 import { getOverviewByToken, unitByTokenQuery, useUnitByToken } from '../../../features/labels/api/get-unit-by-token';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
+import { useUser } from '../../../lib/auth';
 import { useOnline } from '../../../lib/online';
 import { Can } from '../../../lib/can';
 
@@ -37,16 +39,43 @@ export const loader =
     }
   };
 
+// The form and its libraries come with the record-visit page's code (precached by the service worker), not the shell.
+const RecordVisitForm = lazy(() =>
+  import('../../../features/history/components/record-visit-form').then((m) => ({ default: m.RecordVisitForm })),
+);
+
+/** A visit recorded with no signal at a label this phone has never opened: it waits, and goes to the label's unit. */
+function VisitByLabel({ token }: { token: string }) {
+  const user = useUser();
+  const label = `Label …${token.slice(-6)}`;
+  return (
+    <div className="flex flex-col gap-4">
+      <PageHeader title="Record a visit" description={label} />
+      <Suspense fallback={<Spinner />}>
+        <RecordVisitForm
+          unit={{ id: 0, containerNumber: label, refrigerant: '', nominalChargeKg: 0, qrToken: token }}
+          userId={user.id}
+          unitHref={paths.labelLink.getHref(token)}
+        />
+      </Suspense>
+    </div>
+  );
+}
+
 /** Where a label scanned with the phone's own camera app lands: find the unit, then open its page in place. */
 export default function LabelLinkPage() {
   const token = useParams().token ?? '';
   const navigate = useNavigate();
   const unit = useUnitByToken(token);
   const online = useOnline();
+  const [recording, setRecording] = useState(false);
 
   useEffect(() => {
-    if (unit.data) void navigate(paths.unit.getHref(unit.data.id), { replace: true });
-  }, [unit.data, navigate]);
+    // Not from under a visit being recorded when the signal comes back: it is sent from here, by the label.
+    if (unit.data && !recording) void navigate(paths.unit.getHref(unit.data.id), { replace: true });
+  }, [unit.data, recording, navigate]);
+
+  if (recording) return <VisitByLabel token={token} />;
 
   if (unit.isError) {
     const unknown = isApiError(unit.error) && (unit.error.status === 404 || unit.error.status === 400);
@@ -76,8 +105,14 @@ export default function LabelLinkPage() {
       <Alert tone="heed" title="No signal, and this label has not been opened on this phone before">
         <p>
           Units opened earlier on this phone can be read without a connection. This one opens by itself once the phone
-          is back online.
+          is back online. A visit recorded now waits on this phone and goes to this label&rsquo;s unit when the signal
+          is back.
         </p>
+        <Can permission="record:event">
+          <Button className="mt-3" onClick={() => setRecording(true)}>
+            Record a visit for this label
+          </Button>
+        </Can>
       </Alert>
     );
   }

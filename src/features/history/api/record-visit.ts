@@ -1,12 +1,18 @@
 import { useMutation, useQueryClient, type QueryClient, type QueryKey } from '@tanstack/react-query';
-import type { RecordVisitInput, RecordVisitResultDto, UnitOverviewDto } from '../../../../shared/schemas/history';
+import type { RecordVisitResultDto, UnitOverviewDto, VisitSubmission } from '../../../../shared/schemas/history';
 import { apiClient } from '../../../lib/api-client';
 import { historyKeys } from './keys';
 
-/** Sends one visit. The idempotency key makes a retry safe: the server answers a known key with the first result. */
-export async function recordVisit(input: RecordVisitInput): Promise<RecordVisitResultDto> {
+/**
+ * Sends one visit, for a unit or for a label (the server finds the label's unit). The idempotency key makes a retry
+ * safe: the server answers a known key with the first result.
+ */
+export async function recordVisit(input: VisitSubmission): Promise<RecordVisitResultDto> {
   return apiClient.post<RecordVisitResultDto>('/api/visits', input);
 }
+
+/** The unit a saved visit went to (a visit has at least one entry, and every entry names its unit). */
+export const visitUnitId = (result: RecordVisitResultDto): number => result.events[0].unitId;
 
 /** After a visit is saved: its figures at once, then everything of the unit fresh from the server. */
 export async function refreshAfterVisit(
@@ -32,9 +38,10 @@ export function useRecordVisit(options: { alsoInvalidate?: (unitId: number) => Q
     // Try even when the browser says it is offline: a failed attempt is what puts the visit in the phone's queue
     // (the default would hold the mutation in memory, lost with the page).
     networkMode: 'always',
-    onSuccess: (result, input) => {
+    onSuccess: (result) => {
+      const unitId = visitUnitId(result);
       // Not awaited: the form shows "saved" at once; the unit page refetches in the background.
-      void refreshAfterVisit(queryClient, result, input.unitId, options.alsoInvalidate?.(input.unitId));
+      void refreshAfterVisit(queryClient, result, unitId, options.alsoInvalidate?.(unitId));
     },
   });
 }

@@ -5,16 +5,17 @@
 import { useQueryClient, type QueryKey } from '@tanstack/react-query';
 import { createStore, get, set } from 'idb-keyval';
 import { useCallback, useEffect, useRef, useState, useSyncExternalStore } from 'react';
-import type { RecordVisitInput } from '../../../../shared/schemas/history';
+import type { VisitSubmission } from '../../../../shared/schemas/history';
 import { isApiError } from '../../../lib/api-client';
-import { recordVisit, refreshAfterVisit } from './record-visit';
+import { recordVisit, refreshAfterVisit, visitUnitId } from './record-visit';
 import { uploadAttachments } from './upload-attachments';
 
 export type QueuedPhoto = { name: string; type: string; blob: Blob };
 
 export type QueuedVisit = {
-  input: RecordVisitInput;
-  /** Container number, for the banner. */
+  /** For a unit, or for a label this phone had never opened (the server finds its unit when the visit arrives). */
+  input: VisitSubmission;
+  /** Container number (or the label), for the banner. */
   unitLabel: string;
   queuedAt: string;
   attempts: number;
@@ -106,7 +107,7 @@ function update(userId: string, fn: (items: QueuedVisit[]) => QueuedVisit[]): Pr
 }
 
 /** Keeps a visit to send later. Rejects when the phone's storage refuses it (full or blocked). */
-export function enqueueVisit(userId: string, input: RecordVisitInput, unitLabel: string): Promise<void> {
+export function enqueueVisit(userId: string, input: VisitSubmission, unitLabel: string): Promise<void> {
   return update(userId, (items) =>
     items.some((i) => i.input.idempotencyKey === input.idempotencyKey)
       ? items
@@ -241,8 +242,10 @@ export function useVisitQueue(userId: string, options: { alsoInvalidate?: (unitI
       try {
         return await flushQueue(
           userId,
-          (result, item) =>
-            void refreshAfterVisit(queryClient, result, item.input.unitId, alsoInvalidate.current?.(item.input.unitId)),
+          (result) => {
+            const unitId = visitUnitId(result);
+            void refreshAfterVisit(queryClient, result, unitId, alsoInvalidate.current?.(unitId));
+          },
           includeRefused,
         );
       } finally {

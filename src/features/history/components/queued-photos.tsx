@@ -1,12 +1,12 @@
 import { useId, useState, type ChangeEvent } from 'react';
-import { MAX_PHOTOS_PER_EVENT, type RecordVisitInput } from '../../../../shared/schemas/history';
+import { MAX_PHOTOS_PER_EVENT, type VisitSubmission } from '../../../../shared/schemas/history';
 import { PhotoPicker } from './photo-picker';
 import { addQueuedPhotos, useVisitQueue } from '../api/visit-queue';
 import { downscalePhoto } from '../utils/downscale-photo';
 import { entryKindLabel } from '../utils/labels';
 
 /** Photos for the entries of a visit that waits on the phone: downscaled, kept with it, uploaded once it is sent. */
-export function QueuedPhotos({ userId, input }: { userId: string; input: RecordVisitInput }) {
+export function QueuedPhotos({ userId, input }: { userId: string; input: VisitSubmission }) {
   const queue = useVisitQueue(userId);
   const item = queue.items.find((i) => i.input.idempotencyKey === input.idempotencyKey);
   if (!item) return null; // sent meanwhile: its photos went with it

@@ -1,6 +1,6 @@
 import type { QueryKey } from '@tanstack/react-query';
 import type { MutableRefObject } from 'react';
-import type { RecordVisitInput } from '../../../../shared/schemas/history';
+import type { VisitSubmission } from '../../../../shared/schemas/history';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { useRecordVisitForm, type VisitFormError } from '../hooks/use-record-visit-form';
@@ -24,8 +24,8 @@ function FormErrorAlert({
   onQueue,
 }: {
   error: VisitFormError;
-  currentInput: MutableRefObject<RecordVisitInput | null>;
-  onQueue: (input: RecordVisitInput) => void;
+  currentInput: MutableRefObject<VisitSubmission | null>;
+  onQueue: (input: VisitSubmission) => void;
 }) {
   return (
     <Alert tone="alarm" title={error.title}>
@@ -45,6 +45,14 @@ function FormErrorAlert({
 }
 
 function UnitLine({ unit }: { unit: VisitUnit }) {
+  if (unit.qrToken) {
+    return (
+      <p className="text-sm text-ink-600">
+        {unit.containerNumber}: this phone does not know the unit yet. The visit goes to the label&rsquo;s unit when it
+        is sent; check the refrigerant and full charge on the unit&rsquo;s data plate. {PRECEDENCE_NOTE}
+      </p>
+    );
+  }
   return (
     <p className="text-sm text-ink-600">
       {unit.containerNumber} · {unit.refrigerant} · full charge {fmtKg(unit.nominalChargeKg)}
@@ -87,7 +95,7 @@ export function RecordVisitForm({
     return (
       <div className="flex max-w-3xl flex-col gap-5">
         {banner}
-        <VisitSaved unitId={unit.id} result={v.outcome.result} />
+        <VisitSaved unitId={v.outcome.result.events[0]?.unitId ?? unit.id} result={v.outcome.result} />
         {actions}
       </div>
     );

@@ -67,6 +67,8 @@ export function SaturationReadout({
   temperatureUnit: UnitPrefs['temperature'];
   side: 'suction' | 'discharge';
 }) {
+  // A unit known only by its label: its refrigerant, and so its saturation table, is not known on the phone.
+  if (!refrigerant) return null;
   const r = readSaturation(refrigerant, typed, pressureUnit);
   const word = side === 'suction' ? 'Evaporating' : 'Condensing';
   return (

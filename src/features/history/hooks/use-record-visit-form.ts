@@ -1,7 +1,7 @@
 import type { QueryKey } from '@tanstack/react-query';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Path, type UseFormSetError } from 'react-hook-form';
-import type { RecordVisitInput, RecordVisitResultDto, VisitEventKind } from '../../../../shared/schemas/history';
+import type { RecordVisitResultDto, VisitEventKind, VisitSubmission } from '../../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../../shared/schemas/visit-rules';
 import { isApiError, type ApiError } from '../../../lib/api-client';
 import { newIdempotencyKey } from '../../../lib/idempotency-key';
@@ -25,9 +25,7 @@ import {
 } from './use-visit-resolver';
 
 export type VisitOutcome =
-  | { state: 'editing' }
-  | { state: 'saved'; result: RecordVisitResultDto }
-  | { state: 'queued'; input: RecordVisitInput };
+  { state: 'editing' } | { state: 'saved'; result: RecordVisitResultDto } | { state: 'queued'; input: VisitSubmission };
 
 export type VisitFormError = { title: string; message: string; canQueue: boolean };
 
@@ -65,7 +63,7 @@ function usePlausibilityPreview(
   const watched = useWatch({ control }) as VisitFormValues;
   return useMemo(() => {
     const parsed = schema.safeParse(watched);
-    if (!parsed.success) return {};
+    if (!parsed.success || unit.qrToken) return {};
     return visitPlausibilityIssues(unit, parsed.data, new Date());
   }, [watched, schema, unit]);
 }
@@ -100,8 +98,9 @@ export function useRecordVisitForm({
   const [formError, setFormError] = useState<VisitFormError | null>(null);
   const recordVisit = useRecordVisit({ alsoInvalidate });
   const lastAttempt = useRef<{ json: string; key: string } | null>(null);
-  const currentInput = useRef<RecordVisitInput | null>(null);
-  const schema = useMemo(() => visitFormSchema(unit.id), [unit.id]);
+  const currentInput = useRef<VisitSubmission | null>(null);
+  // A unit known only by its label has no id here; the token replaces the placeholder when the visit is sent.
+  const schema = useMemo(() => visitFormSchema(unit.qrToken ? 1 : unit.id), [unit.id, unit.qrToken]);
   const resolver = useVisitResolver(schema, unit);
 
   const form = useForm<VisitFormInput, unknown, VisitFormOutput>({
@@ -121,7 +120,7 @@ export function useRecordVisitForm({
     entries.append(emptyEntry(kind, prefs), { shouldFocus: false });
   };
 
-  const queue = async (input: RecordVisitInput) => {
+  const queue = async (input: VisitSubmission) => {
     try {
       await enqueueVisit(userId, input, unit.containerNumber);
     } catch {
@@ -138,7 +137,7 @@ export function useRecordVisitForm({
     window.scrollTo({ top: 0 });
   };
 
-  const onError = (error: unknown, input: RecordVisitInput, values: VisitFormOutput) => {
+  const onError = (error: unknown, input: VisitSubmission, values: VisitFormOutput) => {
     if (!isApiError(error))
       setFormError({ title: NOT_SAVED, message: 'Something unexpected went wrong. Try again.', canQueue: false });
     else if (error.status === 0) void queue(input);
@@ -152,7 +151,10 @@ export function useRecordVisitForm({
     // A retry of the very same visit keeps its key, so the server can tell it from a new one.
     const key = lastAttempt.current?.json === json ? lastAttempt.current.key : newIdempotencyKey();
     lastAttempt.current = { json, key };
-    const input: RecordVisitInput = { ...values, idempotencyKey: key };
+    const { unitId, ...visit } = values;
+    const input: VisitSubmission = unit.qrToken
+      ? { ...visit, idempotencyKey: key, qrToken: unit.qrToken }
+      : { ...visit, unitId, idempotencyKey: key };
     currentInput.current = input;
     recordVisit.mutate(input, {
       onSuccess: (result) => {

@@ -13,6 +13,11 @@ export type VisitUnit = {
   refrigerant: string;
   nominalChargeKg: number;
   siteName?: string | null;
+  /**
+   * Set for a unit this phone knows only by its label (recorded offline, never opened here): `id`, `refrigerant` and
+   * `nominalChargeKg` are then unknown, the plausibility rules wait for the server, and the visit goes by this token.
+   */
+  qrToken?: string;
 };
 
 export type VisitSchema = ReturnType<typeof visitFormSchema>;
@@ -67,6 +72,7 @@ export function useVisitResolver(schema: VisitSchema, unit: VisitUnit) {
         inTypedUnits(values, result.errors);
         return result;
       }
+      if (unit.qrToken) return result;
       const issues = visitPlausibilityIssues(unit, result.values as VisitFormOutput, new Date());
       if (Object.keys(issues).length === 0) return result;
       return { values: {}, errors: toNestErrors(issuesToErrors(issues), options) };

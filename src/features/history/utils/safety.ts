@@ -69,6 +69,17 @@ const HIGH_PRESSURE: Caution = {
   ],
 };
 
+const UNKNOWN_REFRIGERANT: Caution = {
+  id: 'unknown-refrigerant',
+  title: 'Refrigerant not known on this phone',
+  summary:
+    'Read the refrigerant off the data plate first: flammable (A2L) and CO2 units need their own tools and care.',
+  points: [
+    'This unit has not been opened on this phone, so Tightloop cannot tell its refrigerant: read it off the unit’s data plate.',
+    'Flammable (A2L) refrigerants: no flames or sparks, A2L-rated tools, recover fully before brazing. CO2 (R-744): gear rated for its much higher pressures.',
+  ],
+};
+
 const MOVES = new Set<VisitEventKind>(['top_up', 'recovery', 'recharge']);
 
 /** The cautions for the step at hand: what this entry involves, on this unit's refrigerant. */
@@ -83,5 +94,7 @@ export function cautionsFor(kind: VisitEventKind, refrigerant: string): Caution[
   if (r?.flammable && (MOVES.has(kind) || opens || kind === 'leak_check')) out.push(FLAMMABLE(r.code));
   if (r?.highPressure && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check'))
     out.push(HIGH_PRESSURE);
+  if (!refrigerant && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check'))
+    out.push(UNKNOWN_REFRIGERANT);
   return out;
 }

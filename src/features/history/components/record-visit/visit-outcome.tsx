@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { RecordVisitInput, RecordVisitResultDto, VisitEventKind } from '../../../../../shared/schemas/history';
+import type { RecordVisitResultDto, VisitEventKind, VisitSubmission } from '../../../../../shared/schemas/history';
 import { Alert } from '../../../../components/ui/alert';
 import { Button, ButtonLink } from '../../../../components/ui/button';
 import { ENTRY_KIND_LABELS } from '../../utils/labels';
@@ -31,7 +31,7 @@ export function OutcomeActions({
 }
 
 /** No connection: the visit waits on the phone, and so do photos added to it. */
-export function VisitQueued({ userId, input, banner }: { userId: string; input: RecordVisitInput; banner: ReactNode }) {
+export function VisitQueued({ userId, input, banner }: { userId: string; input: VisitSubmission; banner: ReactNode }) {
   return (
     <>
       <Alert tone="info" title="Kept on this phone: no connection right now">
