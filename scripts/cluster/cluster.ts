@@ -7,7 +7,7 @@ import { mkdirSync, openSync } from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
 import mysql, { type RowDataPacket } from 'mysql2/promise';
-import { newPassword, PROJECT_ROOT } from '../lib/mariadb';
+import { newPassword, portOpen, PROJECT_ROOT } from '../lib/mariadb';
 import { fakeS3Env } from './fake-s3';
 import { bootstrapNode, killNode, nodePid, nodeSql, startNode, stopNode } from './galera';
 import { startHaproxy } from './haproxy';
@@ -44,17 +44,6 @@ function spawnDetached(name: string, args: string[], env: NodeJS.ProcessEnv = {}
   });
   child.unref();
   return child.pid ?? 0;
-}
-
-function portOpen(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const sock = net.connect({ port, host: '127.0.0.1' });
-    sock.once('connect', () => {
-      sock.destroy();
-      resolve(true);
-    });
-    sock.once('error', () => resolve(false));
-  });
 }
 
 async function waitFor(what: string, check: () => Promise<boolean>, timeoutMs = 60_000): Promise<void> {

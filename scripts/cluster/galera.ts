@@ -2,10 +2,9 @@
 // join), readiness, a hard kill for the failure tests, a clean stop.
 import { execFileSync, spawn } from 'node:child_process';
 import { chownSync, existsSync, mkdirSync, openSync, readFileSync, writeFileSync } from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
-import { findMariadbd } from '../lib/mariadb';
+import { findMariadbd, portOpen } from '../lib/mariadb';
 import { alive, logFile, NODES, nodeDir, nodeSocket, PORTS, waitUntilGone } from './layout';
 
 export const GALERA_PROVIDER = '/usr/lib/galera/libgalera_smm.so';
@@ -119,17 +118,6 @@ function nodeArgs(i: number, bootstrap: boolean): string[] {
   if (bootstrap) args.push('--wsrep-new-cluster');
   if (runAs()) args.push('--user=mysql');
   return args;
-}
-
-function portOpen(port: number): Promise<boolean> {
-  return new Promise((resolve) => {
-    const sock = net.connect({ port, host: '127.0.0.1' });
-    sock.once('connect', () => {
-      sock.destroy();
-      resolve(true);
-    });
-    sock.once('error', () => resolve(false));
-  });
 }
 
 /** Runs SQL on one node as its superuser over the unix socket. */
