@@ -21,7 +21,7 @@ import {
   type View,
 } from '../utils/timeline-layout';
 import { ChartDefs, LaneBackgrounds, TodayLine } from './timeline/chart-parts';
-import { C } from './timeline/colours';
+import { C } from '../../../components/ui/chart-colours';
 import { EventMarks, type PlacedItem } from './timeline/event-marks';
 import { ForecastMark } from './timeline/forecast-mark';
 import { OverviewStrip } from './timeline/overview-strip';

@@ -1,5 +1,5 @@
 import { LANE_H, LANES, TOP, type LaneGeometry } from '../../utils/timeline-layout';
-import { C } from './colours';
+import { C } from '../../../../components/ui/chart-colours';
 
 /** The hatch of a recharge and the band of the forecast range; the key below the chart uses them too. */
 export function ChartDefs({ innerW, totalH }: { innerW: number; totalH: number }) {

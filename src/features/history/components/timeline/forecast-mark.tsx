@@ -1,6 +1,6 @@
 import { parseISO } from 'date-fns';
 import { edgeAnchor, LANE_H, type Forecast, type LaneGeometry } from '../../utils/timeline-layout';
-import { C } from './colours';
+import { C } from '../../../../components/ui/chart-colours';
 
 /** The expected next top-up: a dashed bar of the expected kg on its date, over its 80 % range as a band. */
 export function ForecastMark({

@@ -1,5 +1,5 @@
 import type { Item } from '../../utils/timeline-layout';
-import { C } from './colours';
+import { C } from '../../../../components/ui/chart-colours';
 
 /** A marker per kind; voided entries are faded and struck through. */
 export function Marker({ item, x, y, barH }: { item: Item; x: number; y: number; barH: number }) {

@@ -3,7 +3,7 @@ import { Group } from '@visx/group';
 import { scaleLinear, type scaleTime } from '@visx/scale';
 import type { MutableRefObject } from 'react';
 import { STRIP_H, stripRow, type Item, type View } from '../../utils/timeline-layout';
-import { C } from './colours';
+import { C } from '../../../../components/ui/chart-colours';
 
 export type BrushHandle = NonNullable<NonNullable<BrushProps['innerRef']>['current']>;
 

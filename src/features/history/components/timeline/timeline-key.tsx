@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { C } from './colours';
+import { C } from '../../../../components/ui/chart-colours';
 
 function KeyItem({ w = 16, children, label }: { w?: number; children: ReactNode; label: string }) {
   return (

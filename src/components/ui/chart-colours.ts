@@ -1,4 +1,4 @@
-// Colours from the design tokens (SVG needs the values).
+// Colours from the design tokens, for charts (SVG needs the values).
 export const C = {
   ink: '#0b161d',
   ink600: '#435762',
