@@ -3,8 +3,8 @@ import type { Db } from '../server/db/client';
 import { users } from '../server/db/schema';
 import { hashPassword } from '../server/lib/password';
 import { newId } from '../server/lib/ids';
-import { getSettings } from '../server/features/settings/settings.service';
-import { startRepairEffectiveness, waitForJobs } from '../server/features/jobs/jobs.service';
+import { getSettings } from '../server/lib/settings';
+import { rebuildRepairEffectiveness } from '../server/jobs';
 import { createLogger } from '../server/lib/logger';
 import { publicUrl, readEnv } from '../server/env';
 import { DEMO_ACCOUNTS, DEMO_COMPANY, DEMO_PASSWORD } from './demo-accounts';
@@ -95,13 +95,12 @@ export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<Seed
     conn.release();
   }
   // The repair-effectiveness table is a cache the server rebuilds in the background; build it now with the same job.
-  await startRepairEffectiveness({
+  await rebuildRepairEffectiveness({
     db,
     clock: { now: () => now },
     logger: createLogger('silent'),
     publicUrl: publicUrl(readEnv()),
   });
-  await waitForJobs();
   const summary: SeedSummary = {
     units: writer.counts.units,
     visits: writer.counts.visits,

@@ -11,8 +11,13 @@ import { createSignInGuard } from './lib/sign-in-guard';
 import { createSmtpMailer, smtpSettingsFrom, type Mailer } from './lib/mailer';
 import { mailGoesToFakeSmtp, readEnv, type TrustProxy } from './env';
 import { notFound } from './lib/http-error';
-import { DEFAULT_RATE_LIMITS, type AppContext, type RateLimits } from './lib/app-context';
+import type { AppContext } from './lib/app-context';
+import { DEFAULT_RATE_LIMITS, type RateLimits } from './lib/rate-limits';
 import { allRoutes } from './routes';
+import { JOB_DEFINITIONS } from './jobs';
+import { createCaches, type AppCaches } from './lib/caches';
+import { createJobRunner } from './lib/jobs/runner';
+import { queueInvitation } from './features/account/account-links.service';
 import { requestLog } from './middleware/request-log';
 import { sessionMiddleware } from './middleware/session';
 import { allowedOrigins, originCheck } from './middleware/origin-check';
@@ -45,6 +50,8 @@ export type AppDeps = {
   storage?: Storage;
   /** How long a JSON or form body may take to arrive (uploads: the server's request timeout); 15 s by default. */
   bodyDeadlineMs?: number;
+  /** What the app keeps in memory between requests; each one not given is made fresh for this app. */
+  caches?: Partial<AppCaches>;
 };
 
 export const JSON_BODY_LIMIT = '256kb';
@@ -69,6 +76,9 @@ export function createApp(deps: AppDeps) {
     mailer: deps.mailer ?? createSmtpMailer(smtpSettingsFrom(readEnv())),
     devTools: deps.devTools ?? mailGoesToFakeSmtp(readEnv()),
     mailboxFromAnyAddress: deps.mailboxFromAnyAddress ?? false,
+    caches: createCaches(deps.caches),
+    jobs: createJobRunner(() => ctx, JOB_DEFINITIONS),
+    queueInvitation: (tx, user) => queueInvitation(tx, ctx, user),
   };
 
   const app = express();

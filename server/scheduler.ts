@@ -2,13 +2,9 @@
 // Started by server/index.ts next to the mail sender; timers do not keep the process alive.
 import type { AppContext } from './lib/app-context';
 import { runDailyMailJobs } from './features/alerts/digest.service';
-import {
-  ensureStatsRows,
-  FORECAST_CASES_MAX_AGE_MS,
-  refreshForecastIfStale,
-  refreshRepairEffectivenessIfStale,
-  resumeStaleJobs,
-} from './features/jobs/jobs.service';
+import { refreshRepairEffectivenessIfStale } from './features/fleet/repair-effectiveness.job';
+import { FORECAST_CASES_MAX_AGE_MS, refreshForecastIfStale } from './features/forecast/forecast-cases.job';
+import { createStatsBackfill, type StatsBackfill } from './features/history/stats-backfill';
 
 /** Digests go out from this hour (UTC) on; the dedupe key keeps it to one per person per day. */
 export const DIGEST_HOUR_UTC = 6;
@@ -78,10 +74,10 @@ export function scheduleDailyMail(ctx: AppContext): Stop & { daily(): Promise<vo
  * the background when old (the case base only once there is one: the first is the start-up check's or the refresh
  * button's to build).
  */
-export async function maintain(ctx: AppContext): Promise<void> {
+export async function maintain(ctx: AppContext, backfill: StatsBackfill): Promise<void> {
   const warn = (what: string) => (err: unknown) => ctx.logger.warn({ err }, what);
-  await resumeStaleJobs(ctx).catch(warn('resuming stale jobs'));
-  await ensureStatsRows(ctx).catch(warn('statistics backfill'));
+  await ctx.jobs.resumeStale().catch(warn('resuming stale jobs'));
+  await backfill.run(ctx).catch(warn('statistics backfill'));
   await refreshRepairEffectivenessIfStale(ctx).catch(warn('repair effectiveness refresh'));
   await refreshForecastIfStale(ctx, { firstBuild: false, message: 'Older than a day at the regular check.' }).catch(
     warn('forecast case base refresh'),
@@ -89,10 +85,11 @@ export async function maintain(ctx: AppContext): Promise<void> {
 }
 
 export function scheduleMaintenance(ctx: AppContext): Stop {
-  const timer = setInterval(() => void maintain(ctx), MAINTENANCE_MS);
+  const backfill = createStatsBackfill();
+  const timer = setInterval(() => void maintain(ctx, backfill), MAINTENANCE_MS);
   timer.unref();
   // At start-up only the backfill: a fleet loaded while the server was down shows with its figures at once.
-  void ensureStatsRows(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'statistics backfill'));
+  void backfill.run(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'statistics backfill'));
   return { stop: () => clearInterval(timer) };
 }
 

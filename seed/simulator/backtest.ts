@@ -19,7 +19,7 @@ import {
   type ForecastTimeline,
 } from '../../shared/domain';
 import type { Settings } from '../../shared/schemas/settings';
-import { engineUnit } from '../../server/features/history/stats.service';
+import { engineUnit } from '../../server/lib/record/stats';
 import { simulateFleetUnit, type Fleet } from './fleet';
 import { rowsForUnit } from './rows';
 

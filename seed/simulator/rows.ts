@@ -1,12 +1,7 @@
 // From a simulated unit to the rows the server itself would have written: units, visits, events (void markers
 // included) and the unit's statistics row, computed in memory with the server's own functions.
 import type { events, sites, units, users, visitMadeUp, visits } from '../../server/db/schema';
-import {
-  engineUnit,
-  statsRowsFrom,
-  toEngineEvent,
-  type UnitStatsRows,
-} from '../../server/features/history/stats.service';
+import { engineUnit, statsRowsFrom, toEngineEvent, type UnitStatsRows } from '../../server/lib/record/stats';
 import { computeUnitStats } from '../../shared/domain';
 import type { Settings } from '../../shared/schemas/settings';
 import type { Fleet } from './fleet';

@@ -1,4 +1,6 @@
-import type { Db } from '../db/client';
+import type { Db, DbOrTx } from '../db/client';
+import type { AppCaches } from './caches';
+import type { JobRunner } from './jobs/runner';
 import type { Clock } from './clock';
 import type { Logger } from './logger';
 import type { Mailer } from './mailer';
@@ -6,34 +8,9 @@ import type { SessionManager } from './session';
 import type { Storage } from './storage';
 import type { CounterStore } from './rate-limit-store';
 import type { SignInGuard } from './sign-in-guard';
+import type { RateLimits } from './rate-limits';
 
-export type RateLimits = {
-  /** Failed sign-ins from one address (IPv6: one /64), over all accounts, per hour. */
-  signInPerIp: number;
-  /**
-   * Failed sign-ins on one account per hour from devices it has never signed in on. Past it the account accepts only
-   * its known devices (and password-reset links) until the hour is over.
-   */
-  signInPerAccount: number;
-  /** Tries of one account from one address (or one known device) before each further try has to wait. */
-  signInFreeTries: number;
-  /** The first wait; it doubles with each further try, up to signInMaxDelaySeconds. */
-  signInDelaySeconds: number;
-  signInMaxDelaySeconds: number;
-  /** Password-reset requests per address and per e-mail address per 15 minutes. */
-  resetPerIp: number;
-  resetPerEmail: number;
-};
-
-export const DEFAULT_RATE_LIMITS: RateLimits = {
-  signInPerIp: 50,
-  signInPerAccount: 30,
-  signInFreeTries: 5,
-  signInDelaySeconds: 1,
-  signInMaxDelaySeconds: 15 * 60,
-  resetPerIp: 20,
-  resetPerEmail: 3,
-};
+export type { RateLimits } from './rate-limits';
 
 /** What every router and service may use; built once in createApp. */
 export type AppContext = {
@@ -52,4 +29,13 @@ export type AppContext = {
   devTools: boolean;
   /** Whether the development mailbox answers addresses other than loopback (MAILBOX_FROM_ANY_ADDRESS). */
   mailboxFromAnyAddress: boolean;
+  /** What the app keeps in memory between requests (lib/caches.ts). */
+  caches: AppCaches;
+  /** Background jobs, started by kind (server/jobs.ts says which feature does each). */
+  jobs: JobRunner;
+  /**
+   * Issues an invitation link and queues its mail in the caller's transaction (the account feature's; people use it
+   * when adding a person without a password).
+   */
+  queueInvitation(tx: DbOrTx, user: { id: string; email: string; name: string }): Promise<void>;
 };

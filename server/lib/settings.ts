@@ -1,156 +1,74 @@
-// The settings in force: the newest row of `settings` (append-only versions), defaults until the first save.
+// The settings in force: the newest row of `settings` (append-only versions), defaults until the first save. Every
+// write reads them, so each app keeps the current version a few seconds (createSettingsCache, owned by the app
+// context); the settings feature saves new versions and clears it.
 import { desc, eq } from 'drizzle-orm';
-import type { Db, DbOrTx } from '../../db/client';
-import { settingsVersions, users } from '../../db/schema';
-import { conflict, forbidden } from '../../lib/http-error';
-import type { SessionUser } from '../../lib/session';
-import { can } from '../../../shared/permissions';
-import { DEFAULT_SETTINGS, settingsSchema, type Settings } from '../../../shared/schemas/settings';
-import {
-  changedSections,
-  RECOMPUTING_SECTIONS,
-  SETTINGS_SECTION_LABELS,
-  SETTINGS_SECTION_KEYS,
-  SETTINGS_SECTION_PERMISSION,
-  SETTINGS_SECTION_READ_PERMISSION,
-  SETTINGS_SECTIONS,
-  type SettingsDto,
-  type SettingsHistoryDto,
-  type SettingsSection,
-  type UpdateSettingsInput,
-} from '../../../shared/schemas/settings-api';
+import type { DbOrTx } from '../db/client';
+import { settingsVersions } from '../db/schema';
+import { DEFAULT_SETTINGS, settingsSchema, type Settings } from '../../shared/schemas/settings';
 
-type Current = { settings: Settings; version: number; updatedAt: Date | null; updatedBy: string | null };
-
-// Every write path reads the settings; a short cache keeps that off the database. A save here clears it at once;
-// other API processes behind the balancer see the change within the TTL.
-const CACHE_TTL_MS = 5_000;
-let cache: { value: Current; at: number } | null = null;
-
-export function invalidateSettingsCache(): void {
-  cache = null;
-}
+export type CurrentSettings = { settings: Settings; version: number; updatedAt: Date | null; updatedBy: string | null };
 
 /** Parses a stored version; a row that no longer parses (schema grew a rule) falls back to the defaults per field. */
-function parseStored(data: unknown): Settings {
+export function parseStoredSettings(data: unknown): Settings {
   const parsed = settingsSchema.safeParse(data);
   return parsed.success ? parsed.data : DEFAULT_SETTINGS;
 }
 
-async function readCurrent(db: DbOrTx): Promise<Current> {
+/** The newest version, read now (no cache). */
+export async function readCurrentSettings(db: DbOrTx): Promise<CurrentSettings> {
   const [row] = await db.select().from(settingsVersions).orderBy(desc(settingsVersions.id)).limit(1);
   if (!row) return { settings: DEFAULT_SETTINGS, version: 0, updatedAt: null, updatedBy: null };
-  return { settings: parseStored(row.data), version: row.id, updatedAt: row.updatedAt, updatedBy: row.updatedBy };
+  return {
+    settings: parseStoredSettings(row.data),
+    version: row.id,
+    updatedAt: row.updatedAt,
+    updatedBy: row.updatedBy,
+  };
 }
 
-async function current(db: DbOrTx): Promise<Current> {
-  const now = Date.now();
-  if (cache && now - cache.at < CACHE_TTL_MS) return cache.value;
-  const value = await readCurrent(db);
-  cache = { value, at: now };
-  return value;
-}
-
-/** The settings in force (cached for a few seconds per process). */
+/** The settings in force, read now (scripts and the demo fleet; the API reads them through its cache). */
 export async function getSettings(db: DbOrTx): Promise<Settings> {
-  return (await current(db)).settings;
+  return (await readCurrentSettings(db)).settings;
 }
 
-export async function getSettingsVersion(db: DbOrTx): Promise<{ settings: Settings; version: number }> {
-  const c = await current(db);
-  return { settings: c.settings, version: c.version };
-}
-
-/** The settings in force as `viewer` may read them (sections their role may not read are left out). */
-export async function getSettingsDto(
-  db: Db,
-  recompute: SettingsDto['recompute'],
-  viewer: SessionUser,
-): Promise<SettingsDto> {
-  const c = await readCurrent(db);
-  const hiddenSections = SETTINGS_SECTIONS.filter((s) => {
-    const needs = SETTINGS_SECTION_READ_PERMISSION[s];
-    return needs !== undefined && !can(viewer, needs);
-  });
-  const settings: Record<string, unknown> = { ...c.settings };
-  for (const s of hiddenSections) for (const k of SETTINGS_SECTION_KEYS[s]) delete settings[k];
-  let updatedBy: SettingsDto['updatedBy'] = null;
-  if (c.updatedBy) {
-    const [u] = await db.select({ id: users.id, name: users.name }).from(users).where(eq(users.id, c.updatedBy));
-    updatedBy = u ?? null;
-  }
-  return {
-    settings: settings as SettingsDto['settings'],
-    hiddenSections,
-    version: c.version,
-    updatedAt: c.updatedAt?.toISOString() ?? null,
-    updatedBy,
-    recompute,
-  };
-}
-
-export async function getSettingsHistory(db: Db, limit = 50): Promise<SettingsHistoryDto> {
-  const rows = await db
-    .select({
-      id: settingsVersions.id,
-      updatedAt: settingsVersions.updatedAt,
-      sections: settingsVersions.changedSections,
-      userId: users.id,
-      userName: users.name,
-    })
+/** One saved version (a recompute job applies the version it was started for); the one in force when it is gone. */
+export async function settingsOfVersion(db: DbOrTx, id: number | null): Promise<Settings> {
+  if (!id) return getSettings(db);
+  const [row] = await db
+    .select({ data: settingsVersions.data })
     .from(settingsVersions)
-    .innerJoin(users, eq(users.id, settingsVersions.updatedBy))
-    .orderBy(desc(settingsVersions.id))
-    .limit(limit);
-  return {
-    versions: rows.map((r) => ({
-      version: r.id,
-      updatedAt: r.updatedAt.toISOString(),
-      updatedBy: { id: r.userId, name: r.userName },
-      sections: (r.sections ?? []) as SettingsSection[],
-    })),
-  };
+    .where(eq(settingsVersions.id, id));
+  const parsed = settingsSchema.safeParse(row?.data);
+  return parsed.success ? parsed.data : getSettings(db);
 }
+
+export type SettingsCache = {
+  /** The version in force, kept for a few seconds. */
+  current(db: DbOrTx): Promise<CurrentSettings>;
+  /** The settings in force, kept for a few seconds. */
+  get(db: DbOrTx): Promise<Settings>;
+  /** After a save: the next read goes to the database. */
+  invalidate(): void;
+};
 
 /**
- * Saves a new version when something changed. Each changed section needs its own permission; a version saved by
- * someone else since `baseVersion` is a conflict. Returns whether unit statistics must be recomputed.
+ * A save in this process clears the cache at once; other API processes behind the balancer see the change within the
+ * time limit.
  */
-export async function saveSettings(
-  db: Db,
-  user: SessionUser,
-  input: UpdateSettingsInput,
-  now: Date,
-): Promise<{ version: number; sections: SettingsSection[]; recompute: boolean }> {
-  const result = await db.transaction(async (tx) => {
-    // Serialise saves: the newest row, locked, is the base every concurrent save compares against.
-    const [latest] = await tx.select().from(settingsVersions).orderBy(desc(settingsVersions.id)).limit(1).for('update');
-    const base = latest ? parseStored(latest.data) : DEFAULT_SETTINGS;
-    const baseVersion = latest?.id ?? 0;
-    if ((input.baseVersion ?? 0) !== baseVersion) {
-      throw conflict(
-        'Someone else changed the settings since you opened them. Reload to see their change, then apply yours.',
-      );
-    }
-    const sections = changedSections(base, input.settings);
-    const refused = sections.filter((s) => !can(user, SETTINGS_SECTION_PERMISSION[s]));
-    if (refused.length) {
-      throw forbidden(
-        `Your role cannot change ${refused.map((s) => SETTINGS_SECTION_LABELS[s].toLowerCase()).join(' or ')}.`,
-      );
-    }
-    if (!sections.length) return { version: baseVersion, sections, recompute: false };
-    const [row] = await tx
-      .insert(settingsVersions)
-      .values({
-        data: input.settings as unknown as Record<string, unknown>,
-        changedSections: sections,
-        updatedBy: user.id,
-        updatedAt: now,
-      })
-      .$returningId();
-    return { version: row.id, sections, recompute: sections.some((s) => RECOMPUTING_SECTIONS.includes(s)) };
-  });
-  invalidateSettingsCache();
-  return result;
+export function createSettingsCache(ttlMs = 5_000): SettingsCache {
+  let kept: { value: CurrentSettings; at: number } | null = null;
+  async function current(db: DbOrTx): Promise<CurrentSettings> {
+    const now = Date.now();
+    if (kept && now - kept.at < ttlMs) return kept.value;
+    const value = await readCurrentSettings(db);
+    kept = { value, at: now };
+    return value;
+  }
+  return {
+    current,
+    get: async (db) => (await current(db)).settings,
+    invalidate: () => {
+      kept = null;
+    },
+  };
 }

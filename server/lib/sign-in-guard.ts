@@ -15,7 +15,7 @@ import { HttpError } from './http-error';
 import { addressBucket, clientAddress } from './client-address';
 import type { CounterStore } from './rate-limit-store';
 import { readCookie, setCookie, type CookieSettings } from './session';
-import type { RateLimits } from './app-context';
+import type { RateLimits } from './rate-limits';
 
 const HOUR_S = 3600;
 const DAY_S = 24 * HOUR_S;

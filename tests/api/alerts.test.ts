@@ -6,7 +6,7 @@ import { createApp } from '../../server/app';
 import type { DbOrTx } from '../../server/db/client';
 import { alertSubscriptions, sites, units, unitStats, users } from '../../server/db/schema';
 import { newToken } from '../../server/lib/ids';
-import { queueAlertsForStatsChange, type UnitStatsRow } from '../../server/features/alerts/alerts.service';
+import { queueAlertsForStatsChange, type UnitStatsRow } from '../../server/lib/record/alerts';
 import { queueDailyDigest, queueOverdueLeakAlerts } from '../../server/features/alerts/digest.service';
 import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { containerCheckDigit } from '../../shared/domain/container-number';

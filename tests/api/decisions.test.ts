@@ -4,7 +4,6 @@ import { randomUUID } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { events } from '../../server/db/schema';
-import { waitForJobs } from '../../server/features/jobs/jobs.service';
 import { compareRepairOptions } from '../../shared/domain';
 import type { RetirementCandidatesDto, UnitDecisionDto } from '../../shared/schemas/decisions';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
@@ -15,7 +14,7 @@ import { chronicLeaker, recordVisits, tightUnit } from '../support/visits';
 
 const { db, pool } = openTestDb();
 const now = new Date('2026-06-01T12:00:00Z');
-const { app } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+const { app, ctx } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
 
 type Agent = Awaited<ReturnType<typeof signInAs>>['agent'];
 let owner: Agent;
@@ -44,7 +43,7 @@ beforeAll(async () => {
   await recordVisits(tech.agent, tight, tightUnit());
 });
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 

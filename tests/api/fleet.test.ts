@@ -4,8 +4,7 @@ import { parse } from 'csv-parse/sync';
 import { sql } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { fleetMonthly, unitStats } from '../../server/db/schema';
-import { fleetSize, unitsAdded } from '../../server/lib/fleet-size';
-import { ensureStatsRows, waitForJobs } from '../../server/features/jobs/jobs.service';
+import { createStatsBackfill } from '../../server/features/history/stats-backfill';
 import { co2eTonnes } from '../../shared/domain';
 import { FLEET_SORTS, type FleetPageDto } from '../../shared/schemas/fleet';
 import { openTestDb, resetDb } from '../support/db';
@@ -38,14 +37,14 @@ beforeAll(async () => {
   await make('tightB', 200001, { siteId: siteB.id, nominalChargeKg: 6 });
   // Registered past the API, never visited: the scheduler's backfill gives it figures from its registry record alone.
   await make('fresh', 200002, { siteId: siteB.id, nominalChargeKg: 5 });
-  await ensureStatsRows(ctx);
+  await createStatsBackfill().run(ctx);
   await recordVisits(engineer, ids.leakerA, chronicLeaker());
   await recordVisits(engineer, ids.leakerB, chronicLeaker());
   await recordVisits(engineer, ids.tightA, tightUnit());
   await recordVisits(engineer, ids.tightB, tightUnit());
 });
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 
@@ -330,12 +329,12 @@ describe('the whole fleet count', () => {
     // Two registrations committing out of id order: the later-committed unit has the lower id.
     const last = await createTestUnit(db, { containerNumber: halyardNumber(300010) });
     await createTestUnit(db, { id: last.id + 5, containerNumber: halyardNumber(300011) });
-    const before = await fleetSize(db);
+    const before = await ctx.caches.fleetSize.get(db);
     await createTestUnit(db, { id: last.id + 2, containerNumber: halyardNumber(300012) });
     // The highest id did not move, so the kept count still stands…
-    expect(await fleetSize(db)).toBe(before);
+    expect(await ctx.caches.fleetSize.get(db)).toBe(before);
     // …until registration or import reports the units it added.
-    unitsAdded(db);
-    expect(await fleetSize(db)).toBe(before + 1);
+    ctx.caches.fleetSize.invalidate();
+    expect(await ctx.caches.fleetSize.get(db)).toBe(before + 1);
   });
 });

@@ -5,9 +5,8 @@ import request from 'supertest';
 import { count, desc, eq, sql } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { backgroundJobs, forecastCaseBases, units, unitStats, unitStatsDetail } from '../../server/db/schema';
-import { currentCaseBase, forgetCaseBase } from '../../server/features/forecast/case-base.service';
-import { engineUnit, loadEngineHistory } from '../../server/features/history/stats.service';
-import { refreshForecastIfStale, waitForJobs } from '../../server/features/jobs/jobs.service';
+import { engineUnit, loadEngineHistory } from '../../server/lib/record/stats';
+import { refreshForecastIfStale } from '../../server/features/forecast/forecast-cases.job';
 import { seedDemo } from '../../seed/index';
 import { computeUnitStats, type LearnedForecast } from '../../shared/domain';
 import type { FleetOverviewDto } from '../../shared/schemas/fleet';
@@ -25,13 +24,13 @@ let engineer: Agent;
 
 beforeAll(async () => {
   await resetDb(db);
-  forgetCaseBase();
+  ctx.caches.caseBase.invalidate();
   // A simulated fleet with six years of history each: enough past cut-offs to learn from in the busier situations.
   await seedDemo(db, { units: 80, now, log: () => undefined });
   engineer = (await signInAs(app, db, 'engineer')).agent;
 }, 120_000);
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 
@@ -73,7 +72,7 @@ describe('POST /api/fleet/forecast/refresh', () => {
     expect(job).toMatchObject({ status: 'done' });
     expect(job.processed).toBe(job.total);
     expect(job.message).toMatch(/cases from \d+ units; measured MAE/);
-    await waitForJobs();
+    await ctx.jobs.waitForAll();
 
     const [stored] = await db.select().from(forecastCaseBases).orderBy(desc(forecastCaseBases.id)).limit(1);
     expect(stored.cases).toBeGreaterThan(500);
@@ -97,7 +96,7 @@ describe('POST /api/fleet/forecast/refresh', () => {
       .orderBy(desc(backgroundJobs.id))
       .limit(1);
     expect(recompute).toMatchObject({ status: 'done', message: 'Forecasts from the new case base.' });
-    const caseBase = await currentCaseBase(db);
+    const caseBase = await ctx.caches.caseBase.get(db);
     expect(caseBase?.builtAt).toBe(now.toISOString());
     const forecasted = await db
       .select({ unitId: unitStats.unitId })
@@ -149,7 +148,7 @@ describe('POST /api/fleet/forecast/refresh', () => {
       await loadEngineHistory(db, u.unitId),
       now.toISOString(),
       DEFAULT_SETTINGS,
-      await currentCaseBase(db),
+      await ctx.caches.caseBase.get(db),
     );
     expect(f).toEqual(JSON.parse(JSON.stringify(expected.forecast)));
   });
@@ -168,7 +167,7 @@ describe('the nightly refresh', () => {
       refreshForecastIfStale(ctx, { maxAgeMs: 0 }),
     ]);
     expect(claims.filter(Boolean)).toHaveLength(1);
-    await waitForJobs();
+    await ctx.jobs.waitForAll();
     const after = Number(
       (await db.select({ n: count() }).from(backgroundJobs).where(eq(backgroundJobs.kind, 'forecast_cases')))[0].n,
     );

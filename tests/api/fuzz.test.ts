@@ -15,8 +15,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { accountLinks, units, users } from '../../server/db/schema';
 import { hashToken } from '../../server/features/account/account-links.service';
-import { unsubscribeUrl } from '../../server/features/alerts/unsubscribe-link';
-import { waitForJobs } from '../../server/features/jobs/jobs.service';
+import { unsubscribeUrl } from '../../server/lib/mail/unsubscribe-link';
 import { newToken } from '../../server/lib/ids';
 import { hashPassword } from '../../server/lib/password';
 import { createLocalStorage } from '../../server/lib/storage';
@@ -68,7 +67,7 @@ const now = new Date('2026-06-15T12:00:00Z');
 const uploads = mkdtempSync(path.join(os.tmpdir(), 'tightloop-fuzz-uploads-'));
 const { db, pool } = openTestDb();
 const { smtp, mailer } = await startTestSmtp();
-const { app, routes } = createApp({
+const { app, ctx, routes } = createApp({
   db,
   mailer,
   logger,
@@ -239,7 +238,7 @@ async function seed() {
 
   add('settingsVersion', (await call('admin', 'get', '/api/settings')).version);
   add('jobId', ((await call('engineer', 'post', '/api/fleet/repair-effectiveness/refresh')).job as { id: number }).id);
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
 }
 
 /**
@@ -553,7 +552,7 @@ beforeAll(async () => {
 }, 120_000);
 
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await new Promise((ok) => server.close(ok));
   await smtp.stop();
   await pool.end();
@@ -580,7 +579,7 @@ describe('fuzzing the route table', () => {
         }),
         { seed: SEED, numRuns: Math.max(0, RUNS - sweep.length), endOnFailure: true },
       );
-      await waitForJobs();
+      await ctx.jobs.waitForAll();
       const seconds = ((Date.now() - started) / 1000).toFixed(1);
       const background = logged.filter((l) => l.level >= 50 && !l.requestId?.startsWith('fuzz-'));
       const unknown = failures.filter((f) => !isKnown(f));

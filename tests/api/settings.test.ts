@@ -3,8 +3,7 @@ import request from 'supertest';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { units, unitStats } from '../../server/db/schema';
-import { engineUnit, loadEngineHistory } from '../../server/features/history/stats.service';
-import { waitForJobs } from '../../server/features/jobs/jobs.service';
+import { engineUnit, loadEngineHistory } from '../../server/lib/record/stats';
 import { computeUnitStats } from '../../shared/domain';
 import { DEFAULT_SETTINGS, settingsSchema, type Settings } from '../../shared/schemas/settings';
 import { openTestDb, resetDb } from '../support/db';
@@ -13,11 +12,11 @@ import { chronicLeaker, recordVisits, tightUnit, waitForJob } from '../support/v
 
 const { db, pool } = openTestDb();
 const now = new Date('2026-06-01T12:00:00Z');
-const { app } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+const { app, ctx } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
 
 beforeAll(() => resetDb(db));
 afterAll(async () => {
-  await waitForJobs();
+  await ctx.jobs.waitForAll();
   await pool.end();
 });
 

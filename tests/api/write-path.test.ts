@@ -6,7 +6,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { and, eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { events, unitChanges, units, unitStats } from '../../server/db/schema';
-import { engineUnit, loadEngineHistory } from '../../server/features/history/stats.service';
+import { engineUnit, loadEngineHistory } from '../../server/lib/record/stats';
 import { newToken } from '../../server/lib/ids';
 import { computeUnitStats } from '../../shared/domain';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';

@@ -7,7 +7,7 @@ import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 import { backtestForecast, simulatedCaseBase } from '../../seed/simulator/backtest';
 import { createFleet, simulateFleetUnit } from '../../seed/simulator/fleet';
 import { rowsForUnit } from '../../seed/simulator/rows';
-import { engineUnit } from '../../server/features/history/stats.service';
+import { engineUnit } from '../../server/lib/record/stats';
 
 const now = new Date('2026-12-01T00:00:00Z');
 const train = createFleet({ seed: 7, units: 500, now });

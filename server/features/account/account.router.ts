@@ -1,13 +1,6 @@
-// "Signed-in devices" and the password, for the person themselves; administrators see and end anyone's sessions.
-import { eq } from 'drizzle-orm';
-import {
-  changePasswordSchema,
-  endMySessionsSchema,
-  passwordCheckSchema,
-  sessionParamSchema,
-} from '../../../shared/schemas/account';
-import { idParamSchema } from '../../../shared/schemas/common';
-import { users } from '../../db/schema';
+// "Signed-in devices" and the password, for the person themselves (an administrator ends anyone's sessions from the
+// people feature).
+import { changePasswordSchema, endMySessionsSchema, passwordCheckSchema } from '../../../shared/schemas/account';
 import type { AppContext } from '../../lib/app-context';
 import { badRequest, HttpError, notFound } from '../../lib/http-error';
 import { addressBucket, clientAddress } from '../../lib/client-address';
@@ -16,12 +9,6 @@ import { route } from '../../lib/route';
 import { changePassword, confirmPassword } from './account.service';
 
 export function accountRoutes(ctx: AppContext) {
-  async function userOr404(id: string) {
-    const [u] = await ctx.db.select({ id: users.id, role: users.role }).from(users).where(eq(users.id, id));
-    if (!u) throw notFound('No such user.');
-    return u;
-  }
-
   // The meter asks as the person types; a generous limit per address keeps it from being a free CPU for anyone.
   const checks = ctx.counters('pwcheck_addr', 15 * 60);
   const PASSWORD_CHECKS_PER_ADDRESS = 600;
@@ -61,22 +48,6 @@ export function accountRoutes(ctx: AppContext) {
     route('post', '/api/account/password', 'signed-in', async (req, res) => {
       const input = changePasswordSchema.parse(req.body);
       res.json(await changePassword(ctx, req, req.user!, input.currentPassword, input.newPassword));
-    }),
-    route('get', '/api/users/:id/sessions', 'manage:users', async (req, res) => {
-      const { id } = idParamSchema.parse(req.params);
-      res.json({ sessions: await ctx.sessions.list(await userOr404(id), req.sessionId) });
-    }),
-    route('delete', '/api/users/:id/sessions', 'manage:users', async (req, res) => {
-      const { id } = idParamSchema.parse(req.params);
-      await userOr404(id);
-      await ctx.sessions.endAllFor(id);
-      res.status(204).end();
-    }),
-    route('delete', '/api/users/:id/sessions/:sessionId', 'manage:users', async (req, res) => {
-      const { id, sessionId } = sessionParamSchema.parse(req.params);
-      await userOr404(id);
-      if (!(await ctx.sessions.endOne(id, sessionId))) throw notFound('That session has already ended.');
-      res.status(204).end();
     }),
   ];
 }

@@ -7,7 +7,12 @@ import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail, type MailSection } from '../../lib/mail/layout';
-import { OPEN_LEAK_ALERT_DAYS, queueOpenLeakAlert, subscriptionFooter, type AlertContext } from './alerts.service';
+import {
+  OPEN_LEAK_ALERT_DAYS,
+  queueOpenLeakAlert,
+  subscriptionFooter,
+  type AlertContext,
+} from '../../lib/record/alerts';
 
 export const DIGEST_LEAK_CHECK_DAYS = 30;
 export const DIGEST_FORECAST_DAYS = 14;

@@ -8,11 +8,11 @@ export function decisionsRoutes(ctx: AppContext) {
   return [
     route('get', '/api/decisions/candidates', 'decide:retirement', async (req, res) => {
       const q = candidatesQuerySchema.parse(req.query);
-      res.json(await retirementCandidates(ctx.db, q, ctx.clock.now()));
+      res.json(await retirementCandidates(ctx.db, ctx.caches.settings, q, ctx.clock.now()));
     }),
     route('get', '/api/decisions/units/:id', 'decide:retirement', async (req, res) => {
       const { id } = unitIdParam.parse(req.params);
-      res.json(await getUnitDecision(ctx.db, id, ctx.clock.now()));
+      res.json(await getUnitDecision(ctx.db, ctx.caches.settings, id, ctx.clock.now()));
     }),
     route('post', '/api/decisions/units/:id', 'decide:retirement', async (req, res) => {
       const { id } = unitIdParam.parse(req.params);

@@ -1,6 +1,6 @@
 // Repair or retire (DOMAIN.md §9): the four options of a unit priced from its own history and the fleet's repair
 // record, the fleet's candidates ranked by yearly saving, and recording a decision as a unit event.
-import { writeUnit, type WriteContext } from '../history/write-path';
+import { writeUnit, type WriteContext } from '../../lib/record/write-path';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
@@ -34,7 +34,7 @@ import {
   type UnitDecisionDto,
 } from '../../../shared/schemas/decisions';
 import type { Settings } from '../../../shared/schemas/settings';
-import { getSettingsVersion } from '../settings/settings.service';
+import type { SettingsCache } from '../../lib/settings';
 
 /** How many of the highest-scoring units the candidate list prices. */
 export const CANDIDATE_POOL = 500;
@@ -218,9 +218,14 @@ async function pricing<T>(work: () => Promise<T> | T): Promise<T> {
   }
 }
 
-export async function getUnitDecision(db: Db, unitId: number, now: Date): Promise<UnitDecisionDto> {
+export async function getUnitDecision(
+  db: Db,
+  cache: SettingsCache,
+  unitId: number,
+  now: Date,
+): Promise<UnitDecisionDto> {
   const row = await loadUnit(db, unitId);
-  const { settings } = await getSettingsVersion(db);
+  const { settings } = await cache.current(db);
   const { input, sources } = await pricing(() => engineInputOf(db, row, now));
   const result = await pricing(() => compareRepairOptions(input, settings));
   return {
@@ -291,7 +296,7 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
   try {
     const { result: eventId } = await writeUnit(ctx, unitId, async (tx, _locked, now) => {
       const row = await loadUnit(tx, unitId);
-      const { settings, version } = await getSettingsVersion(tx);
+      const { settings, version } = await ctx.caches.settings.current(tx);
       const { input: facts } = await pricing(() => engineInputOf(tx, row, now));
       const inputs: DecisionInputs = body.inputs;
       const input: RepairOptionsInput = { ...facts, ...inputs };
@@ -347,10 +352,11 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
 
 export async function retirementCandidates(
   db: Db,
+  cache: SettingsCache,
   opts: { siteId?: number; limit: number },
   now: Date,
 ): Promise<RetirementCandidatesDto> {
-  const { settings } = await getSettingsVersion(db);
+  const { settings } = await cache.current(db);
   const where = [ne(units.status, 'retired'), sql`${unitStats.score} >= ${settings.score.watchFrom}`];
   if (opts.siteId) where.push(eq(units.siteId, opts.siteId));
   // The highest scores first (score index); their forecast comes out of the stored engine result.

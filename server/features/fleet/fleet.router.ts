@@ -1,7 +1,6 @@
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { fleetFiltersSchema, fleetOverviewQuerySchema, fleetQuerySchema } from '../../../shared/schemas/fleet';
-import { startRepairEffectiveness } from '../jobs/jobs.service';
 import { sendCsv, streamRows } from '../../lib/csv-stream';
 import { todayOf } from '../../lib/dates';
 import { countFleet, fleetSelect, listFleet, ROW_FIELD_NAMES, shouldForceSortIndex, toFleetRow } from './fleet.service';
@@ -33,17 +32,17 @@ export function fleetRoutes(ctx: AppContext) {
   return [
     route('get', '/api/fleet', 'view:fleet', async (req, res) => {
       const q = fleetQuerySchema.parse(req.query);
-      res.json(await listFleet(ctx.db, q, ctx.clock.now()));
+      res.json(await listFleet(ctx.db, ctx.caches, q, ctx.clock.now()));
     }),
     route('get', '/api/fleet/count', 'view:fleet', async (req, res) => {
       const f = fleetFiltersSchema.parse(req.query);
-      res.json(await countFleet(ctx.db, f, todayOf(ctx.clock.now())));
+      res.json(await countFleet(ctx.db, ctx.caches, f, todayOf(ctx.clock.now())));
     }),
     route('get', '/api/fleet/export.csv', 'view:fleet', async (req, res) => {
       const q = fleetQuerySchema.parse(req.query);
       const today = todayOf(ctx.clock.now());
       const nullable = ['forecast', 'leakCheck', 'pti'].includes(q.sort) && q.dir === 'asc';
-      const force = await shouldForceSortIndex(ctx.db, q);
+      const force = await shouldForceSortIndex(ctx.db, ctx.caches, q);
       const parts = nullable
         ? [fleetSelect(ctx.db, q, today, 'none', force), fleetSelect(ctx.db, q, today, 'only')]
         : [fleetSelect(ctx.db, q, today, undefined, force)];
@@ -81,10 +80,10 @@ export function fleetRoutes(ctx: AppContext) {
     }),
     route('get', '/api/fleet/overview', 'view:fleet', async (req, res) => {
       const q = fleetOverviewQuerySchema.parse(req.query);
-      res.json(await fleetOverview(ctx.db, q, ctx.clock.now(), overviewCache));
+      res.json(await fleetOverview(ctx.db, ctx.caches, q, ctx.clock.now(), overviewCache));
     }),
     route('post', '/api/fleet/repair-effectiveness/refresh', 'view:fleet', async (req, res) => {
-      res.status(202).json({ job: await startRepairEffectiveness(ctx, req.user!.id) });
+      res.status(202).json({ job: await ctx.jobs.start('repair_effectiveness', { userId: req.user!.id }) });
     }),
   ];
 }

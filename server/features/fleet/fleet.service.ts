@@ -16,10 +16,9 @@ import {
   sql,
   type SQL,
 } from 'drizzle-orm';
-import { LRUCache } from 'lru-cache';
 import type { MySqlColumn } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
-import { fleetSize } from '../../lib/fleet-size';
+import type { AppCaches } from '../../lib/caches';
 import { dayPlus, todayOf } from '../../lib/dates';
 import { sites, units, unitStats } from '../../db/schema';
 import {
@@ -237,15 +236,14 @@ const hasStatsFilters = (f: FleetFilters) =>
   f.forecastDays !== undefined;
 const hasUnitFilters = (f: FleetFilters) => Boolean(f.siteId || f.refrigerant || f.status || f.q);
 
-// Share of the fleet a site / refrigerant / status / number-start filter keeps, kept for a few minutes (fleets
-// change slowly); bounded, since every number typed is a key.
-const shareCache = new LRUCache<string, number>({ max: 2000, ttl: 5 * 60_000 });
+/** What the fleet table keeps between requests (the app's caches). */
+export type FleetCaches = Pick<AppCaches, 'fleetSize' | 'filterShares'>;
 /** Below this share, reading the filter's own index and sorting the few rows beats walking the sort index. */
 const WIDE_FILTER_SHARE = 0.02;
 
-async function unitFilterShare(db: Db, f: FleetFilters): Promise<number> {
+async function unitFilterShare(db: Db, shares: FleetCaches['filterShares'], f: FleetFilters): Promise<number> {
   const key = JSON.stringify([f.siteId, f.refrigerant, f.status, f.q]);
-  const hit = shareCache.get(key);
+  const hit = shares.get(key);
   if (hit !== undefined) return hit;
   const w: SQL[] = [];
   if (f.siteId) w.push(eq(units.siteId, f.siteId));
@@ -260,7 +258,7 @@ async function unitFilterShare(db: Db, f: FleetFilters): Promise<number> {
     db.select({ total: count() }).from(units),
   ]);
   const share = Number(total) ? Number(n) / Number(total) : 1;
-  shareCache.set(key, share);
+  shares.set(key, share);
   return share;
 }
 
@@ -269,14 +267,18 @@ async function unitFilterShare(db: Db, f: FleetFilters): Promise<number> {
  * rows and sort them. MariaDB picks the filesort for a site filter or a deep page, which is slow on a big fleet;
  * with only wide filters on the unit, the sort index reaches a page after a few hundred rows.
  */
-export async function shouldForceSortIndex(db: Db, q: Pick<FleetQuery, 'sort'> & FleetFilters): Promise<boolean> {
+export async function shouldForceSortIndex(
+  db: Db,
+  caches: FleetCaches,
+  q: Pick<FleetQuery, 'sort'> & FleetFilters,
+): Promise<boolean> {
   if (!SORT_INDEXES[q.sort] || hasStatsFilters(q)) return false;
   if (!hasUnitFilters(q)) return true;
-  return (await unitFilterShare(db, q)) >= WIDE_FILTER_SHARE;
+  return (await unitFilterShare(db, caches.filterShares, q)) >= WIDE_FILTER_SHARE;
 }
 
-export async function countFleet(db: Db, f: FleetFilters, today: string): Promise<FleetCountDto> {
-  if (!hasFilters(f)) return { total: await fleetSize(db), capped: false };
+export async function countFleet(db: Db, caches: FleetCaches, f: FleetFilters, today: string): Promise<FleetCountDto> {
+  if (!hasFilters(f)) return { total: await caches.fleetSize.get(db), capped: false };
   const where = fleetWhere(f, today);
   // Count at most one past the cap: the screen says "more than 10,000" instead of scanning the whole fleet. Each
   // side's filters alone are counted on that table's own indexes, without the join (every unit has its statistics
@@ -302,11 +304,11 @@ export async function countFleet(db: Db, f: FleetFilters, today: string): Promis
   return total > FLEET_COUNT_CAP ? { total: FLEET_COUNT_CAP, capped: true } : { total, capped: false };
 }
 
-export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<FleetPageDto> {
+export async function listFleet(db: Db, caches: FleetCaches, q: FleetQuery, now: Date): Promise<FleetPageDto> {
   const today = todayOf(now);
   const offset = (q.page - 1) * q.pageSize;
   const limit = q.pageSize + 1;
-  const force = await shouldForceSortIndex(db, q);
+  const force = await shouldForceSortIndex(db, caches, q);
   let rows: RawRow[];
   if (NULLABLE_SORTS.has(q.sort) && q.dir === 'asc') {
     // Ascending, MariaDB puts empty values first; read the filled ones first and the empty ones after them.
@@ -344,6 +346,6 @@ export async function listFleet(db: Db, q: FleetQuery, now: Date): Promise<Fleet
     hasMore,
     asOf: today,
   };
-  if (q.count) page.count = await countFleet(db, q, today);
+  if (q.count) page.count = await countFleet(db, caches, q, today);
   return page;
 }

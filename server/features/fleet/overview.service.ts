@@ -5,11 +5,10 @@ import { LRUCache } from 'lru-cache';
 import type { Db } from '../../db/client';
 import { fleetMonthly, repairEffectivenessRows, sites, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { co2eTonnes, type GwpBasis } from '../../../shared/domain';
-import { fleetMonthlyGeneration } from './fleet-monthly.service';
 import { LEAK_CHECK_DUE_DAYS, type FleetOverviewDto, type FleetOverviewQuery } from '../../../shared/schemas/fleet';
-import { getSettings } from '../settings/settings.service';
+import type { AppCaches } from '../../lib/caches';
 import { dayPlus, todayOf } from '../../lib/dates';
-import { latestForecastAccuracy, type ForecastAccuracyInfo } from '../forecast/case-base.service';
+import { latestForecastAccuracy, type ForecastAccuracyInfo } from '../../lib/record/case-base';
 
 const BIN_PCT = 10;
 /** Sums of doubles carry float dust; the screen shows grams and kilograms of CO2e. */
@@ -45,7 +44,7 @@ type EmissionsContext = {
  * the fleet, so they are kept for a few seconds and shared by every request in that time; requests arriving while
  * they are being read wait for that one read. The answer says when they were taken.
  * The monthly made-up totals are kept until a write changes them: their key carries the count of such writes in
- * this process (fleetMonthlyGeneration), read before the totals are, so an answer is never older than the last
+ * this app (caches.monthlyTotals), read before the totals are, so an answer is never older than the last
  * write that committed before the request; the time limit covers writes made by another process.
  */
 export function createOverviewCache(ttlMs = 15_000) {
@@ -202,12 +201,13 @@ async function readEmissions(db: Db, q: EmissionsContext['q'], fromMonth: string
 
 export async function fleetOverview(
   db: Db,
+  caches: Pick<AppCaches, 'settings' | 'monthlyTotals'>,
   q: FleetOverviewQuery,
   now: Date,
   cache?: OverviewCache,
 ): Promise<FleetOverviewDto> {
   const today = todayOf(now);
-  const settings = await getSettings(db);
+  const settings = await caches.settings.get(db);
   const months = monthsBack(today, q.months);
   const figuresQ = { siteId: q.siteId, refrigerant: q.refrigerant };
   const context: FiguresContext = { db, q: figuresQ, today };
@@ -220,7 +220,7 @@ export async function fleetOverview(
   const basis = settings.gwpBasis;
   const emissionsContext: EmissionsContext = { db, q: figuresQ, fromMonth: months[0], basis };
   const emissionsKey = JSON.stringify([
-    fleetMonthlyGeneration(),
+    caches.monthlyTotals.get(),
     months[0],
     figuresQ.siteId ?? null,
     figuresQ.refrigerant ?? null,

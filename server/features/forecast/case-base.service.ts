@@ -1,9 +1,8 @@
-// The fleet's forecast case base (DOMAIN.md §7b) as this process holds it: loaded from the newest forecast_case_bases
-// row on first use, looked for again at most once a minute (another process may have built a newer one), and
-// swapped at once when this process builds one. Also the build itself: every unit's cut-offs read from the database.
-import { gunzipSync, gzipSync } from 'node:zlib';
-import { and, asc, desc, eq, gt, inArray, lt, sql } from 'drizzle-orm';
-import type { Db, DbOrTx } from '../../db/client';
+// Building the fleet's forecast case base (DOMAIN.md §7b): every unit's cut-offs read from the database, the case base
+// learned from them, stored, and handed to the app's case-base cache (server/lib/record/case-base.ts).
+import { gzipSync } from 'node:zlib';
+import { and, asc, desc, gt, inArray, lt, sql } from 'drizzle-orm';
+import type { Db } from '../../db/client';
 import { events, forecastCaseBases, units } from '../../db/schema';
 import {
   appendCases,
@@ -14,13 +13,12 @@ import {
   learnCaseBaseInSteps,
   unitForecastTimeline,
   type CaseTable,
-  type ForecastAccuracy,
   type ForecastCaseBase,
 } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
-import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent } from '../history/stats.service';
+import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent } from '../../lib/record/stats';
+import type { CaseBaseCache } from '../../lib/record/case-base';
 
-const RECHECK_MS = 60_000;
 /** Rows kept: the newest and one before it (a process may still be loading it). */
 const KEEP_ROWS = 2;
 /** Days between the cut-offs of one unit's record (each unit starts at its own phase). */
@@ -28,60 +26,10 @@ export const CASE_STEP_DAYS = 30;
 const CHUNK_UNITS = 500;
 const DAY_MS = 86_400_000;
 
-let held: { id: number; caseBase: ForecastCaseBase } | null = null;
-let checkedAt = 0;
-let checking: Promise<void> | null = null;
-
-async function loadNewest(db: Db): Promise<void> {
-  const [top] = await db
-    .select({ id: forecastCaseBases.id })
-    .from(forecastCaseBases)
-    .orderBy(desc(forecastCaseBases.id))
-    .limit(1);
-  if (!top) {
-    held = null;
-    return;
-  }
-  if (held?.id === top.id) return;
-  const [row] = await db
-    .select({ id: forecastCaseBases.id, data: forecastCaseBases.data })
-    .from(forecastCaseBases)
-    .where(eq(forecastCaseBases.id, top.id));
-  if (!row) return;
-  held = { id: row.id, caseBase: decodeCaseBase(new Uint8Array(gunzipSync(row.data))) };
-}
-
-/**
- * The case base every forecast of this process uses (null until the first is built). The first call waits for the
- * load; later checks for a newer one run in the background, so a write never waits on them.
- */
-export async function currentCaseBase(db: Db): Promise<ForecastCaseBase | null> {
-  const now = Date.now();
-  if (now - checkedAt >= RECHECK_MS) {
-    const first = checkedAt === 0;
-    checkedAt = now;
-    checking ??= loadNewest(db)
-      .catch(() => {
-        // The forecast falls back to the rhythm until the next check; a failed read must not fail a write.
-        checkedAt = 0;
-      })
-      .finally(() => {
-        checking = null;
-      });
-    if (first) await checking;
-  }
-  return held?.caseBase ?? null;
-}
-
-/** Forgets what this process holds, so the next use reads the table again (tests, after the table is cleared). */
-export function forgetCaseBase(): void {
-  held = null;
-  checkedAt = 0;
-}
-
 /** Stores a newly learned case base, makes it this process's at once, and prunes older rows. */
 export async function storeCaseBase(
   db: Db,
+  cache: CaseBaseCache,
   caseBase: ForecastCaseBase,
   meta: { cases: number; units: number; buildMs: number },
 ): Promise<number> {
@@ -98,8 +46,7 @@ export async function storeCaseBase(
     })
     .$returningId();
   // What this process serves is what another process would read back (the stored form rounds the features).
-  held = { id, caseBase: decodeCaseBase(bytes) };
-  checkedAt = Date.now();
+  cache.set(id, decodeCaseBase(bytes));
   const old = await db
     .select({ id: forecastCaseBases.id })
     .from(forecastCaseBases)
@@ -108,43 +55,6 @@ export async function storeCaseBase(
     .offset(KEEP_ROWS - 1);
   if (old.length) await db.delete(forecastCaseBases).where(lt(forecastCaseBases.id, old[0].id));
   return id;
-}
-
-export type ForecastAccuracyInfo = {
-  builtAt: string;
-  cases: number;
-  units: number;
-  buildMs: number;
-  accuracy: ForecastAccuracy | null;
-};
-
-/** The newest case base's measured accuracy (without its data), for the overview. */
-export async function latestForecastAccuracy(db: Db): Promise<ForecastAccuracyInfo | null> {
-  const [row] = await db
-    .select({
-      builtAt: forecastCaseBases.builtAt,
-      cases: forecastCaseBases.cases,
-      units: forecastCaseBases.units,
-      buildMs: forecastCaseBases.buildMs,
-      accuracy: forecastCaseBases.accuracy,
-    })
-    .from(forecastCaseBases)
-    .orderBy(desc(forecastCaseBases.id))
-    .limit(1);
-  if (!row) return null;
-  return {
-    builtAt: row.builtAt.toISOString(),
-    cases: row.cases,
-    units: row.units,
-    buildMs: row.buildMs,
-    accuracy: (row.accuracy as unknown as ForecastAccuracy) ?? null,
-  };
-}
-
-/** When the newest case base was built (null: never). */
-export async function latestCaseBaseAt(db: DbOrTx): Promise<Date | null> {
-  const [row] = await db.select({ at: sql<Date | null>`MAX(${forecastCaseBases.builtAt})` }).from(forecastCaseBases);
-  return row?.at ? new Date(row.at) : null;
 }
 
 const counted = sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;

@@ -66,7 +66,7 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
     }),
     route('get', '/api/units/:id/timeline', 'view:unit', async (req, res) => {
       const { id } = numericIdParam.parse(req.params);
-      res.json(await getUnitTimeline(ctx.db, id, ctx.clock.now()));
+      res.json(await getUnitTimeline(ctx.db, id, ctx.clock.now(), await ctx.caches.settings.get(ctx.db)));
     }),
   ];
 }

@@ -31,11 +31,11 @@ import {
   type VisitEventInput,
 } from '../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
-import { getSettings } from '../settings/settings.service';
+import type { Settings } from '../../../shared/schemas/settings';
 import { isDuplicateKeyError } from '../../lib/db-errors';
-import { writeUnit } from './write-path';
+import { writeUnit } from '../../lib/record/write-path';
 import { computeUnitStats, REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
-import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent, toStatsDto } from './stats.service';
+import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent, toStatsDto } from '../../lib/record/stats';
 
 type EventInsert = typeof events.$inferInsert;
 
@@ -417,7 +417,7 @@ export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverv
 }
 
 /** Every event of the unit, oldest first, compact; and the pressure snapshots the engine derives from them now. */
-export async function getUnitTimeline(db: Db, unitId: number, now: Date): Promise<UnitTimelineDto> {
+export async function getUnitTimeline(db: Db, unitId: number, now: Date, settings: Settings): Promise<UnitTimelineDto> {
   const [unit] = await db
     .select({
       refrigerant: units.refrigerant,
@@ -440,7 +440,7 @@ export async function getUnitTimeline(db: Db, unitId: number, now: Date): Promis
   const counted = rows.filter((r) => !Number(r.voided)).flatMap((r) => toEngineEvent(r) ?? []);
   let snapshots: UnitTimelineDto['snapshots'] = [];
   try {
-    ({ snapshots } = computeUnitStats(engineUnit(unit), counted, now.toISOString(), await getSettings(db)));
+    ({ snapshots } = computeUnitStats(engineUnit(unit), counted, now.toISOString(), settings));
   } catch {
     // A record the engine cannot compute still has a timeline: its entries, without derived readings (the unit's
     // figures say why).

@@ -50,7 +50,7 @@ export function importsRoutes(ctx: AppContext) {
       async (req, res) => {
         const file = requireFile(req.file);
         const form = importCommitFormSchema.parse(req.body ?? {});
-        const result = await commitImport(ctx.db, ctx.logger, req.user!.id, () => ctx.clock.now(), file, form);
+        const result = await commitImport(ctx, req.user!.id, file, form);
         res.status(201).json({ import: result });
       },
       [csvUpload],

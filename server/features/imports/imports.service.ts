@@ -5,7 +5,6 @@ import { sites, unitImports, units } from '../../db/schema';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { CSV_OPTIONS } from '../../lib/csv';
 import { HttpError, badRequest, conflict, notFound } from '../../lib/http-error';
-import type { Logger } from '../../lib/logger';
 import { containerCheckDigit, formatContainerNumber } from '../../../shared/domain';
 import {
   IMPORT_COLUMNS,
@@ -19,9 +18,9 @@ import {
   type ImportRowErrorDto,
   type UnitImportDto,
 } from '../../../shared/schemas/units';
-import { unitsAdded } from '../../lib/fleet-size';
-import { registerNewUnits } from '../history/write-path';
-import { newUnitRow } from '../units/units.mapper';
+import type { AppContext } from '../../lib/app-context';
+import { registerNewUnits } from '../../lib/record/write-path';
+import { newUnitRow } from '../../lib/record/new-unit';
 import { readFleetCsv, resolveMapping, suggestMapping, type FleetCsv } from './import-csv';
 
 /** Rows per INSERT: large enough to be fast, small enough to stay far below max_allowed_packet. */
@@ -195,13 +194,13 @@ type CommitOptions = { importKey: string; mapping?: ImportMapping; skipExisting?
  * goes to the unit_imports row through other connections of the pool, so a poll sees it while the transaction runs.
  */
 export async function commitImport(
-  db: Db,
-  logger: Logger,
+  ctx: Pick<AppContext, 'db' | 'logger' | 'clock' | 'caches'>,
   actorId: string,
-  now: () => Date,
   file: UploadedFile,
   opts: CommitOptions,
 ): Promise<UnitImportDto> {
+  const { db, logger } = ctx;
+  const now = () => ctx.clock.now();
   const checked = await checkRows(db, file, opts.mapping);
   const total = checked.csv.rows.length;
   try {
@@ -260,6 +259,7 @@ export async function commitImport(
             );
           await registerNewUnits(
             tx,
+            ctx,
             actorId,
             ids.map((r) => r.id),
             at,
@@ -269,7 +269,7 @@ export async function commitImport(
         }
         return rows.length;
       })
-      .finally(() => unitsAdded(db));
+      .finally(() => ctx.caches.fleetSize.invalidate());
     await progress({ status: 'committed', processedRows: total, insertedRows: inserted, finishedAt: now() });
   } catch (err) {
     const refused =

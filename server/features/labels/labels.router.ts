@@ -2,7 +2,7 @@ import type { Response } from 'express';
 import { labelsRequestSchema, unitIdParamSchema } from '../../../shared/schemas/units';
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
-import { unitsForLabels } from '../units/units.service';
+import { unitsForLabels } from './labels.service';
 import { labelUrl, renderLabelSheet, renderSingleLabel, type LabelContent } from './label-sheet';
 
 function sendPdf(res: Response, pdf: Uint8Array, fileName: string) {

@@ -8,7 +8,6 @@ import { assertAcceptablePassword } from '../../lib/password-policy';
 import { newId } from '../../lib/ids';
 import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/users';
 import { toUserDto } from '../../lib/user-dto';
-import { queueInvitation } from '../account/account-links.service';
 import type { AppContext } from '../../lib/app-context';
 
 export async function listUsers(db: Db) {
@@ -16,7 +15,7 @@ export async function listUsers(db: Db) {
   return rows.map(toUserDto);
 }
 
-export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppContext, 'publicUrl' | 'clock'>) {
+export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppContext, 'queueInvitation'>) {
   if (input.password) assertAcceptablePassword(input.password, input);
   const passwordHash = input.password ? await hashPassword(input.password) : null;
   const id = newId();
@@ -34,7 +33,7 @@ export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppCo
         passwordHash,
       });
       const [row] = await tx.select().from(users).where(eq(users.id, id));
-      if (!passwordHash) await queueInvitation(tx, ctx, row);
+      if (!passwordHash) await ctx.queueInvitation(tx, row);
       return toUserDto(row);
     });
   } catch (err) {

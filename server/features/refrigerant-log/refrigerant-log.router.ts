@@ -3,7 +3,6 @@ import { route } from '../../lib/route';
 import { termLabel, LEAK_CHECK_METHODS, LEAK_LOCATIONS } from '../../../shared/domain';
 import { refrigerantLogQuerySchema } from '../../../shared/schemas/refrigerant-log';
 import { sendCsv, streamRows } from '../../lib/csv-stream';
-import { getSettings } from '../settings/settings.service';
 import { LOG_FIELD_NAMES, logEntriesQuery, logTotals, refrigerantLog, toLogEntry } from './refrigerant-log.service';
 
 const KIND_WORDS = {
@@ -36,11 +35,11 @@ export function refrigerantLogRoutes(ctx: AppContext) {
   return [
     route('get', '/api/refrigerant-log', 'view:fleet', async (req, res) => {
       const q = refrigerantLogQuerySchema.parse(req.query);
-      res.json(await refrigerantLog(ctx.db, q, await getSettings(ctx.db)));
+      res.json(await refrigerantLog(ctx.db, q, await ctx.caches.settings.get(ctx.db)));
     }),
     route('get', '/api/refrigerant-log/export.csv', 'view:fleet', async (req, res) => {
       const q = { ...refrigerantLogQuerySchema.parse(req.query), before: undefined };
-      const settings = await getSettings(ctx.db);
+      const settings = await ctx.caches.settings.get(ctx.db);
       const totals = await logTotals(ctx.db, q, settings);
       async function* records() {
         for await (const raw of streamRows(ctx.db, logEntriesQuery(ctx.db, q))) {

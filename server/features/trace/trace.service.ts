@@ -1,7 +1,7 @@
 // Refrigerant traceability (DOMAIN.md §10): every unit charged from a cylinder or lot, or at a site in a date range,
 // and marking those units for inspection with a note event on each, in one transaction.
 import { retryTransaction } from '../../lib/retry';
-import { WRITE_ISOLATION } from '../history/write-path';
+import { WRITE_ISOLATION } from '../../lib/record/write-path';
 import { and, asc, count, desc, eq, gte, inArray, like, lt, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { events, sites, units, users, visits } from '../../db/schema';

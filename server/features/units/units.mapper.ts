@@ -1,5 +1,4 @@
-import type { CreateUnitInput, UnitDto } from '../../../shared/schemas/units';
-import { newToken } from '../../lib/ids';
+import type { UnitDto } from '../../../shared/schemas/units';
 import type { sites, units } from '../../db/schema';
 
 type UnitRow = typeof units.$inferSelect;
@@ -25,31 +24,5 @@ export function toUnitDto(u: UnitRow, site: SiteRow | null): UnitDto {
     qrIssuedAt: iso(u.qrIssuedAt),
     createdAt: iso(u.createdAt),
     updatedAt: iso(u.updatedAt),
-  };
-}
-
-/** The row of a newly registered unit (the register's form and the CSV import), with a fresh label code. */
-export function newUnitRow(
-  d: Omit<CreateUnitInput, 'siteId'>,
-  siteId: number | null,
-  at: Date,
-): typeof units.$inferInsert {
-  return {
-    containerNumber: d.containerNumber,
-    refrigerant: d.refrigerant,
-    nominalChargeKg: d.nominalChargeKg,
-    commissionedOn: d.commissionedOn ?? null,
-    siteId,
-    status: d.status ?? 'in_service',
-    qrToken: newToken(),
-    machinerySerial: d.machinerySerial ?? null,
-    model: d.model ?? null,
-    manufactureYear: d.manufactureYear ?? null,
-    purchaseCost: d.purchaseCost ?? null,
-    residualValue: d.residualValue ?? null,
-    notes: d.notes ?? null,
-    qrIssuedAt: at,
-    createdAt: at,
-    updatedAt: at,
   };
 }

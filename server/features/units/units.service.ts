@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, inArray, like, min, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, like, min, sql, type SQL } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { events, sites, unitChanges, units, users } from '../../db/schema';
 import { BEFORE_COMMISSIONING_MARGIN_DAYS, dayWords } from '../../../shared/schemas/common';
@@ -16,9 +16,9 @@ import {
   type UnitListQuery,
   type UpdateUnitInput,
 } from '../../../shared/schemas/units';
-import { unitsAdded } from '../../lib/fleet-size';
-import { newUnitRow, toUnitDto } from './units.mapper';
-import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../history/write-path';
+import { newUnitRow } from '../../lib/record/new-unit';
+import { toUnitDto } from './units.mapper';
+import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../../lib/record/write-path';
 import { retryTransaction } from '../../lib/retry';
 
 const numberTaken = (containerNumber: string) =>
@@ -107,7 +107,7 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
           .insert(units)
           .values(newUnitRow(input, input.siteId ?? null, now))
           .$returningId();
-        await registerNewUnits(tx, actorId, [id], now, 'Registered in the unit register');
+        await registerNewUnits(tx, ctx, actorId, [id], now, 'Registered in the unit register');
         return getUnit(tx, id);
       }, WRITE_ISOLATION),
     );
@@ -115,7 +115,7 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
     if (isDuplicateKeyError(err)) throw numberTaken(input.containerNumber);
     throw err;
   } finally {
-    unitsAdded(ctx.db);
+    ctx.caches.fleetSize.invalidate();
   }
 }
 
@@ -247,24 +247,4 @@ export async function listUnitChanges(db: Db, id: number): Promise<UnitChangeDto
     after: c.after,
     user: { id: c.userId, name: userName },
   }));
-}
-
-/** Units and their label codes in the order asked for; 404 naming the ids that do not exist. */
-export async function unitsForLabels(db: Db, ids: number[]) {
-  const unique = [...new Set(ids)];
-  const rows = await db
-    .select({
-      id: units.id,
-      containerNumber: units.containerNumber,
-      refrigerant: units.refrigerant,
-      nominalChargeKg: units.nominalChargeKg,
-      qrToken: units.qrToken,
-    })
-    .from(units)
-    .where(unique.length === 1 ? eq(units.id, unique[0]) : inArray(units.id, unique));
-  const byId = new Map(rows.map((r) => [r.id, r]));
-  const missing = unique.filter((id) => !byId.has(id));
-  if (missing.length > 0)
-    throw notFound(`No such unit: ${missing.slice(0, 10).join(', ')}${missing.length > 10 ? ' …' : ''}.`);
-  return unique.map((id) => byId.get(id)!);
 }

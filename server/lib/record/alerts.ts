@@ -1,30 +1,24 @@
-import { and, asc, eq, inArray } from 'drizzle-orm';
-import type { Db, DbOrTx } from '../../db/client';
+// What a unit's new figures set off by mail, inside its write transaction: alerts to the people who follow the unit's
+// site (a crossing into the chronic band or over the leak-rate threshold, a leak left open too long). The daily digest
+// uses the same recipients and footer.
+import { and, eq } from 'drizzle-orm';
+import type { DbOrTx } from '../../db/client';
 import { alertSubscriptions, sites, users, type unitStats } from '../../db/schema';
-import type { AppContext } from '../../lib/app-context';
-import { badRequest, HttpError } from '../../lib/http-error';
-import { retryTransaction } from '../../lib/retry';
+import type { AppContext } from '../app-context';
 import { can } from '../../../shared/permissions';
-import {
-  ALERT_KIND_LABELS,
-  type AlertKind,
-  type PutSubscriptionsInput,
-  type SubscriptionsDto,
-  type UnsubscribeInput,
-} from '../../../shared/schemas/alerts';
+import { ALERT_KIND_LABELS, type AlertKind } from '../../../shared/schemas/alerts';
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
-import { getSettings } from '../settings/settings.service';
-import { enqueueMail } from '../../lib/mail/outbox';
-import { renderMail, type MailContent } from '../../lib/mail/layout';
-import { unsubscribeUrl, verifyUnsubscribe } from './unsubscribe-link';
+import { enqueueMail } from '../mail/outbox';
+import { renderMail, type MailContent } from '../mail/layout';
+import { unsubscribeUrl } from '../mail/unsubscribe-link';
 
 /** Days a found leak may stay unrepaired before the engineers hear about it (policy; not in the settings yet). */
 export const OPEN_LEAK_ALERT_DAYS = 14;
 
 export type UnitStatsRow = typeof unitStats.$inferSelect;
-export type AlertContext = Pick<AppContext, 'publicUrl' | 'clock'>;
+export type AlertContext = Pick<AppContext, 'publicUrl' | 'clock' | 'caches'>;
 export type StatsChange = {
   unitId: number;
   siteId: number | null;
@@ -148,7 +142,7 @@ export async function queueAlertsForStatsChange(tx: DbOrTx, ctx: AlertContext, c
   const shown = formatContainerNumber(change.containerNumber);
   // One crossing per unit, person and day: a band that flaps within a day mails once.
   const day = isoDate(dayOf(after.computedAt.getTime()));
-  const threshold = (await getSettings(tx)).leakRateThresholdPct;
+  const threshold = (await ctx.caches.settings.get(tx)).leakRateThresholdPct;
   let queued = 0;
 
   if (after.scoreBand === 'chronic' && before?.scoreBand !== 'chronic') {
@@ -172,64 +166,4 @@ export async function queueAlertsForStatsChange(tx: DbOrTx, ctx: AlertContext, c
   }
   if (after.openLeakFoundAt) queued += await queueOpenLeakAlert(tx, ctx, unit, after.openLeakFoundAt);
   return queued;
-}
-
-export async function getSubscriptions(db: DbOrTx, userId: string): Promise<SubscriptionsDto> {
-  const [siteRows, subs] = await Promise.all([
-    db.select({ id: sites.id, code: sites.code, name: sites.name }).from(sites).orderBy(asc(sites.name)),
-    db
-      .select({ siteId: alertSubscriptions.siteId, kind: alertSubscriptions.kind })
-      .from(alertSubscriptions)
-      .where(eq(alertSubscriptions.userId, userId))
-      .orderBy(asc(alertSubscriptions.siteId), asc(alertSubscriptions.kind)),
-  ]);
-  return { sites: siteRows, subscriptions: subs };
-}
-
-/** Replaces the person's whole set of subscriptions with the given one. */
-export async function putSubscriptions(
-  db: Db,
-  userId: string,
-  input: PutSubscriptionsInput,
-): Promise<SubscriptionsDto> {
-  const wanted = [...new Map(input.subscriptions.map((s) => [`${s.siteId}:${s.kind}`, s])).values()];
-  await retryTransaction(() =>
-    db.transaction(async (tx) => {
-      // One save of a person's list at a time: two at once (a double click) each delete the list, hold the gap that
-      // leaves in the index, and deadlock inserting into it. A site removed meanwhile can still deadlock; that retries.
-      await tx.select({ id: users.id }).from(users).where(eq(users.id, userId)).for('update');
-      const siteIds = [...new Set(wanted.map((s) => s.siteId))];
-      if (siteIds.length) {
-        const known = new Set(
-          (await tx.select({ id: sites.id }).from(sites).where(inArray(sites.id, siteIds))).map((r) => r.id),
-        );
-        const unknown = wanted.findIndex((s) => !known.has(s.siteId));
-        if (unknown >= 0) {
-          throw badRequest('One of the sites does not exist.', { [`subscriptions.${unknown}.siteId`]: 'No such site' });
-        }
-      }
-      await tx.delete(alertSubscriptions).where(eq(alertSubscriptions.userId, userId));
-      if (wanted.length) await tx.insert(alertSubscriptions).values(wanted.map((s) => ({ userId, ...s })));
-    }),
-  );
-  return getSubscriptions(db, userId);
-}
-
-/** The signed link in a mail: stops one kind of alert at every site, without signing in. */
-export async function unsubscribe(db: Db, input: UnsubscribeInput): Promise<{ kind: AlertKind; removed: number }> {
-  return db.transaction(async (tx) => {
-    if (!(await verifyUnsubscribe(tx, input.user, input.kind, input.sig))) {
-      throw new HttpError(
-        404,
-        'link_invalid',
-        'This unsubscribe link is not valid. Check that you opened the whole link from the e-mail.',
-      );
-    }
-    // After the person's own saves, like every change of their list (see putSubscriptions).
-    await tx.select({ id: users.id }).from(users).where(eq(users.id, input.user)).for('update');
-    const [result] = await tx
-      .delete(alertSubscriptions)
-      .where(and(eq(alertSubscriptions.userId, input.user), eq(alertSubscriptions.kind, input.kind)));
-    return { kind: input.kind, removed: result.affectedRows };
-  });
 }

@@ -29,12 +29,21 @@ function madeUpOf(rows: readonly MovementRow[]): number {
   return groupVisits(evs).reduce((s, v) => s + v.madeUpKg, 0);
 }
 
-let generation = 0;
-/** How many committed writes in this process have changed fleet_monthly: cached monthly totals are keyed by it. */
-export const fleetMonthlyGeneration = () => generation;
-/** Call after (not inside) a transaction that ran applyToFleetMonthly has committed. */
-export function fleetMonthlyChanged() {
-  generation++;
+export type MonthlyTotalsVersion = {
+  /** How many committed writes of this app have changed fleet_monthly: cached monthly totals are keyed by it. */
+  get(): number;
+  /** Call after (not inside) a transaction that ran applyToFleetMonthly has committed. */
+  invalidate(): void;
+};
+
+export function createMonthlyTotalsVersion(): MonthlyTotalsVersion {
+  let generation = 0;
+  return {
+    get: () => generation,
+    invalidate: () => {
+      generation++;
+    },
+  };
 }
 
 /** YYYY-MM of a moment, UTC (the domain's month of a visit). */
@@ -62,7 +71,7 @@ async function addToMonth(
  * Brings fleet_monthly up to date for the given visits after their events changed (a visit recorded, an event of
  * it voided). Call it inside the write's transaction, after the events and voids are inserted. Idempotent: each
  * visit's share is kept in visit_made_up and only the difference is applied. Runs from the unit write path
- * (history/write-path.ts) with the unit row locked.
+ * (write-path.ts) with the unit row locked.
  */
 export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[]): Promise<void> {
   for (const visitId of [...new Set(visitIds)].sort((a, b) => a - b)) {

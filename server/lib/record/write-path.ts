@@ -11,13 +11,12 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { Db, Tx } from '../../db/client';
 import { unitChanges, units } from '../../db/schema';
-import type { Clock } from '../../lib/clock';
-import { notFound } from '../../lib/http-error';
-import { retryTransaction } from '../../lib/retry';
+import type { Clock } from '../clock';
+import { notFound } from '../http-error';
+import { retryTransaction } from '../retry';
 import type { Settings } from '../../../shared/schemas/settings';
-import { getSettings } from '../settings/settings.service';
-import { queueAlertsForStatsChange } from '../alerts/alerts.service';
-import { applyToFleetMonthly, fleetMonthlyChanged } from '../fleet/fleet-monthly.service';
+import { queueAlertsForStatsChange } from './alerts';
+import { applyToFleetMonthly } from './monthly-totals';
 import {
   computeStatsRows,
   lockUnitForHistory,
@@ -25,11 +24,11 @@ import {
   storeStatsRows,
   type UnitStatsRow,
   type UnitStatsRows,
-} from './stats.service';
-import { currentCaseBase } from '../forecast/case-base.service';
+} from './stats';
+import type { AppCaches } from '../caches';
 import type { ForecastCaseBase } from '../../../shared/domain';
 
-export type WriteContext = { db: Db; clock: Clock; publicUrl: string };
+export type WriteContext = { db: Db; clock: Clock; publicUrl: string; caches: AppCaches };
 export type LockedUnit = NonNullable<Awaited<ReturnType<typeof lockUnitForHistory>>>;
 
 /** What the caller's change reports back, so the path knows which derived rows follow. */
@@ -56,7 +55,7 @@ export async function writeUnit<T>(
   opts: { settings?: Settings } = {},
 ): Promise<UnitWriteResult<T>> {
   // Held in memory by the process (loaded once, refreshed by the case-base job): read outside the transaction.
-  const caseBase = await currentCaseBase(ctx.db);
+  const caseBase = await ctx.caches.caseBase.get(ctx.db);
   const outcome = await retryTransaction(() =>
     ctx.db.transaction(async (tx) => {
       const locked = await lockUnitForHistory(tx, unitId);
@@ -70,14 +69,14 @@ export async function writeUnit<T>(
         unit,
         locked.stats,
         now,
-        opts.settings ?? (await getSettings(tx)),
+        opts.settings ?? (await ctx.caches.settings.get(tx)),
         done.movedVisitIds ?? [],
         caseBase,
       );
       return { result: done.result, ...written, monthlyChanged: (done.movedVisitIds ?? []).length > 0 };
     }, WRITE_ISOLATION),
   );
-  if (outcome.monthlyChanged) fleetMonthlyChanged();
+  if (outcome.monthlyChanged) ctx.caches.monthlyTotals.invalidate();
   const { monthlyChanged: _m, ...rest } = outcome;
   return rest;
 }
@@ -85,7 +84,7 @@ export async function writeUnit<T>(
 /** Step 3 of the path for a unit already locked (or just inserted) in `tx`: statistics, monthly totals, alerts. */
 export async function writeEffects(
   tx: Tx,
-  ctx: Pick<WriteContext, 'publicUrl' | 'clock'>,
+  ctx: Pick<WriteContext, 'publicUrl' | 'clock' | 'caches'>,
   unit: typeof units.$inferSelect,
   before: UnitStatsRow | null,
   now: Date,
@@ -115,12 +114,13 @@ const REGISTER_CHUNK = 500;
  */
 export async function registerNewUnits(
   tx: Tx,
+  ctx: Pick<WriteContext, 'caches'>,
   actorId: string,
   unitIds: readonly number[],
   now: Date,
   how: string,
 ): Promise<void> {
-  const settings = await getSettings(tx);
+  const settings = await ctx.caches.settings.get(tx);
   for (let i = 0; i < unitIds.length; i += REGISTER_CHUNK) {
     const chunk = unitIds.slice(i, i + REGISTER_CHUNK);
     const rows = await tx.select().from(units).where(inArray(units.id, chunk));
