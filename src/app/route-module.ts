@@ -55,6 +55,24 @@ export function page(
   return { ...toRoute(module, queryClient, permission), handle: { permission } satisfies RouteHandle };
 }
 
+/**
+ * A page whose data is asked for by the shell but whose code is downloaded on first visit, both at once: the router
+ * runs `data.loader` while it fetches the component, and then renders it with no Suspense fallback in between (React
+ * holds content back for up to 300 ms after a fallback has been on screen).
+ */
+export function splitPage(
+  data: Pick<RouteModule, 'loader'>,
+  load: () => Promise<Pick<RouteModule, 'default'>>,
+  queryClient: QueryClient,
+  permission?: Permission,
+): Pick<RouteObject, 'loader' | 'lazy' | 'handle'> {
+  return {
+    loader: data.loader ? skipWhenOffline(guardLoader(queryClient, data.loader(queryClient), permission)) : undefined,
+    lazy: { Component: async () => (await load()).default },
+    handle: { permission } satisfies RouteHandle,
+  };
+}
+
 /** A page downloaded when first visited (big ones: the scanner, charts). */
 export function lazyPage(
   load: () => Promise<RouteModule>,

@@ -5,17 +5,17 @@ import { FullPageRouteError, RouteError } from '../components/errors/route-error
 import { AppSplash } from '../components/layouts/app-splash';
 import { paths } from '../config/paths';
 import { setUnauthenticatedHandler } from '../lib/query-client';
-import { lazyPage, page } from './route-module';
+import { lazyPage, page, splitPage } from './route-module';
 import * as protectedLayout from './routes/app/layout';
 import * as notFoundRoute from './routes/errors/not-found';
-import * as unitRoute from './routes/units/unit';
+import * as unitData from './routes/units/unit-data';
 import * as labelLinkRoute from './routes/units/label-link';
 
 /**
  * Pages under the protected layout. A new page: add its path (and nav entry) in config/paths.ts, a route module in
  * routes/<area>/, and one line here — `lazyPage(() => import(...))`. Only what a scanned label needs on a phone with one
- * bar of signal is bundled with the shell by `page(...)`: the protected layout, the label link and the unit page (sign-in and its
- * form library load on their own).
+ * bar of signal is bundled with the shell by `page(...)`: the protected layout, the label link and the unit page's data
+ * (its code comes with `splitPage(...)`, downloaded alongside that data; sign-in and its form library load on their own).
  */
 export function createAppRouter(queryClient: QueryClient) {
   return createBrowserRouter([
@@ -58,7 +58,10 @@ export function createAppRouter(queryClient: QueryClient) {
               path: paths.unitImport.path,
               ...lazyPage(() => import('./routes/units/import'), queryClient, paths.unitImport.permission),
             },
-            { path: paths.unit.path, ...page(unitRoute, queryClient, paths.unit.permission) },
+            {
+              path: paths.unit.path,
+              ...splitPage(unitData, () => import('./routes/units/unit'), queryClient, paths.unit.permission),
+            },
             {
               path: paths.editUnit.path,
               ...lazyPage(() => import('./routes/units/edit-unit'), queryClient, paths.editUnit.permission),

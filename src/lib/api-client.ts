@@ -1,4 +1,5 @@
 import { apiErrorDto } from '../../shared/schemas/common';
+import { takeEarlyResponse } from './early-responses';
 
 /** Every failed API call becomes one of these; `status` 0 means the request never reached the server. */
 export class ApiError extends Error {
@@ -77,15 +78,19 @@ async function toApiError(response: Response): Promise<ApiError> {
 async function request<T>(method: string, url: string, body?: unknown, signal?: AbortSignal): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json' };
   if (body !== undefined) headers['Content-Type'] = 'application/json';
-  let response: Response;
-  try {
-    response = await fetch(url, {
+  const send = () =>
+    fetch(url, {
       method,
       headers,
       body: body === undefined ? undefined : JSON.stringify(body),
       credentials: 'include',
       signal,
     });
+  // A label's address: index.html's boot script may have asked for this already, before the app had started.
+  const early = method === 'GET' ? takeEarlyResponse(url) : undefined;
+  let response: Response;
+  try {
+    response = await (early ? early.catch(send) : send());
   } catch (error) {
     if (signal?.aborted) throw error;
     throw new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');

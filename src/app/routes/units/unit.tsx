@@ -1,12 +1,10 @@
-import type { QueryClient } from '@tanstack/react-query';
-import { lazy, Suspense } from 'react';
-import { useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { useParams } from 'react-router-dom';
 import { NotFound } from '../../../components/errors/not-found';
 import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
-import { overviewQuery } from '../../../features/history/api/get-overview';
-import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
+import { ServiceHistory } from '../../../features/history/components/service-history';
+import { useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
 import { UnitChanges } from '../../../features/units/components/unit-changes';
 import { UnitIdentity } from '../../../features/units/components/unit-identity';
@@ -14,29 +12,14 @@ import { UnitLabelActions } from '../../../features/labels/components/unit-label
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
 import { LoadError } from '../../../components/ui/query-state';
+import { unitIdOf } from './unit-data';
 
-// The history (and after it the charts) loads apart from the app shell; the loader starts it alongside the data.
-const loadServiceHistory = () => import('../../../features/history/components/service-history');
-const ServiceHistory = lazy(() => loadServiceHistory().then((m) => ({ default: m.ServiceHistory })));
 // A visit or a void can change the unit's own record (its status), so the registry's copy is refreshed too.
 const historyChangesUnit = (unitId: number) => [unitKeys.detail(unitId)];
 
-const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
-
-export const loader =
-  (queryClient: QueryClient) =>
-  async ({ params }: LoaderFunctionArgs) => {
-    const id = idOf(params.id);
-    if (id === null) return null;
-    // The figures' data and code are fetched at the same time as the unit, not one after the other.
-    void loadServiceHistory();
-    void queryClient.prefetchQuery(overviewQuery(id));
-    await queryClient.prefetchQuery(unitQuery(id));
-    return null;
-  };
-
+/** Loaded on first visit by the router, alongside its data (unit-data.ts): no Suspense fallback in between. */
 export default function UnitPage() {
-  const id = idOf(useParams().id);
+  const id = unitIdOf(useParams().id);
   return id === null ? <NotFound /> : <UnitRecord id={id} />;
 }
 
@@ -84,14 +67,12 @@ function UnitRecord({ id }: { id: number }) {
         registry actions below. `unit.data` carries id and commissionedOn.
         ──────────────────────────────────────────────────────────────────────────────────────────────────────
       */}
-      <Suspense fallback={<Spinner />}>
-        <ServiceHistory
-          unitId={unit.data.id}
-          commissionedOn={unit.data.commissionedOn}
-          recordHref={paths.unitVisit.getHref(unit.data.id)}
-          alsoInvalidate={historyChangesUnit}
-        />
-      </Suspense>
+      <ServiceHistory
+        unitId={unit.data.id}
+        commissionedOn={unit.data.commissionedOn}
+        recordHref={paths.unitVisit.getHref(unit.data.id)}
+        alsoInvalidate={historyChangesUnit}
+      />
 
       <Can permission="manage:units">
         <UnitLabelActions unit={unit.data} />
