@@ -62,157 +62,170 @@ function Detail({ label, children }: { label: string; children: ReactNode }) {
   );
 }
 
-/** The facts of one entry, in the trade's words, from the fixed vocabularies. */
-function EntryDetails({ e }: { e: EventDto }) {
-  const d = (e.details ?? {}) as Record<string, unknown>;
-  const other = (k: string) => (typeof d[k] === 'string' && d[k] ? ` (${String(d[k])})` : '');
-  const rows: ReactNode[] = [];
+type Rows = ReactNode[];
+type Details = Record<string, unknown>;
+const otherOf = (d: Details) => (k: string) => (typeof d[k] === 'string' && d[k] ? ` (${String(d[k])})` : '');
+
+function refrigerantRows(e: EventDto): Rows {
+  const rows: Rows = [];
+  const typed = enteredAs(e) as { value: number; unit: MassUnit } | undefined;
+  if (e.kg !== null) {
+    rows.push(
+      <Detail key="kg" label={e.kind === 'recovery' ? 'Recovered' : e.kind === 'recharge' ? 'Charged' : 'Added'}>
+        {typed && typed.unit === 'lb'
+          ? `${fmtNumber(typed.value, 2)} lb (${fmtKg(convertMass(typed.value, 'lb', 'kg'))})`
+          : fmtKg(e.kg)}
+      </Detail>,
+    );
+  }
+  if (e.cylinder)
+    rows.push(
+      <Detail key="cyl" label="Cylinder">
+        {e.cylinder}
+      </Detail>,
+    );
+  if (e.reusedRecovered)
+    rows.push(
+      <Detail key="reused" label="Gas">
+        Recovered refrigerant put back
+      </Detail>,
+    );
+  if (e.excludedFromLeakRate)
+    rows.push(
+      <Detail key="excl" label="Counted">
+        First fill or retrofit: not counted as leaked
+      </Detail>,
+    );
+  return rows;
+}
+
+function leakCheckRows(e: EventDto, d: Details): Rows {
+  const rows: Rows = [];
+  if (e.method)
+    rows.push(
+      <Detail key="m" label="Method">
+        {termLabel(LEAK_CHECK_METHODS, e.method)}
+      </Detail>,
+    );
+  rows.push(
+    <Detail key="r" label="Result">
+      {e.leakFound ? (
+        <span className="text-alarm-700">
+          Leak found
+          {e.location
+            ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}${otherOf(d)('locationOther')}`
+            : ''}
+        </span>
+      ) : (
+        'No leak found'
+      )}
+    </Detail>,
+  );
+  return rows;
+}
+
+function repairRows(e: EventDto, d: Details): Rows {
+  const rows: Rows = [];
+  const other = otherOf(d);
+  if (e.location)
+    rows.push(
+      <Detail key="l" label="Where">
+        {termLabel(LEAK_LOCATIONS, e.location)}
+        {other('locationOther')}
+      </Detail>,
+    );
+  if (e.action)
+    rows.push(
+      <Detail key="a" label="Done">
+        {termLabel(REPAIR_ACTIONS, e.action)}
+        {other('actionOther')}
+      </Detail>,
+    );
+  rows.push(
+    <Detail key="v" label="Verified">
+      {e.verified ? 'Yes, tested tight' : 'No'}
+    </Detail>,
+  );
+  return rows;
+}
+
+/** Pressures and temperatures in the units they were typed in (with kPa beside another pressure unit). */
+function pressureRows(e: EventDto): Rows {
+  const rows: Rows = [];
+  const as = (enteredAs(e) ?? {}) as EnteredPressure;
+  const t = (v: number | null) => temperature(v, as.temperatureUnit);
+  const pair = (a: string | null, b: string | null) => [a, b].filter(Boolean).join(' · ');
+  const add = (key: string, label: string, value: string | null) =>
+    value &&
+    rows.push(
+      <Detail key={key} label={label}>
+        {value}
+      </Detail>,
+    );
+  if (e.suctionKPaG !== null) add('s', 'Suction', pressure(e.suctionKPaG, as.pressureUnit));
+  if (e.dischargeKPaG !== null) add('d', 'Discharge', pressure(e.dischargeKPaG, as.pressureUnit));
+  add(
+    'a',
+    'Temps',
+    pair(
+      e.ambientC !== null ? `ambient ${t(e.ambientC)}` : null,
+      e.setPointC !== null ? `set point ${t(e.setPointC)}` : null,
+    ),
+  );
+  add(
+    'sr',
+    'Air',
+    pair(
+      e.supplyAirC !== null ? `supply ${t(e.supplyAirC)}` : null,
+      e.returnAirC !== null ? `return ${t(e.returnAirC)}` : null,
+    ),
+  );
+  if (e.sightGlass) add('g', 'Sight glass', termLabel(SIGHT_GLASS_STATES, e.sightGlass));
+  return rows;
+}
+
+function detailRows(e: EventDto, d: Details): Rows {
   switch (e.kind) {
     case 'top_up':
     case 'recovery':
-    case 'recharge': {
-      const typed = enteredAs(e) as { value: number; unit: MassUnit } | undefined;
-      if (e.kg !== null) {
-        rows.push(
-          <Detail key="kg" label={e.kind === 'recovery' ? 'Recovered' : e.kind === 'recharge' ? 'Charged' : 'Added'}>
-            {typed && typed.unit === 'lb'
-              ? `${fmtNumber(typed.value, 2)} lb (${fmtKg(convertMass(typed.value, 'lb', 'kg'))})`
-              : fmtKg(e.kg)}
-          </Detail>,
-        );
-      }
-      if (e.cylinder)
-        rows.push(
-          <Detail key="cyl" label="Cylinder">
-            {e.cylinder}
-          </Detail>,
-        );
-      if (e.reusedRecovered)
-        rows.push(
-          <Detail key="reused" label="Gas">
-            Recovered refrigerant put back
-          </Detail>,
-        );
-      if (e.excludedFromLeakRate)
-        rows.push(
-          <Detail key="excl" label="Counted">
-            First fill or retrofit: not counted as leaked
-          </Detail>,
-        );
-      break;
-    }
+    case 'recharge':
+      return refrigerantRows(e);
     case 'leak_check':
-      if (e.method)
-        rows.push(
-          <Detail key="m" label="Method">
-            {termLabel(LEAK_CHECK_METHODS, e.method)}
-          </Detail>,
-        );
-      rows.push(
-        <Detail key="r" label="Result">
-          {e.leakFound ? (
-            <span className="text-alarm-700">
-              Leak found
-              {e.location
-                ? ` at the ${termLabel(LEAK_LOCATIONS, e.location).toLowerCase()}${other('locationOther')}`
-                : ''}
-            </span>
-          ) : (
-            'No leak found'
-          )}
-        </Detail>,
-      );
-      break;
+      return leakCheckRows(e, d);
     case 'repair':
-      if (e.location)
-        rows.push(
-          <Detail key="l" label="Where">
-            {termLabel(LEAK_LOCATIONS, e.location)}
-            {other('locationOther')}
-          </Detail>,
-        );
-      if (e.action)
-        rows.push(
-          <Detail key="a" label="Done">
-            {termLabel(REPAIR_ACTIONS, e.action)}
-            {other('actionOther')}
-          </Detail>,
-        );
-      rows.push(
-        <Detail key="v" label="Verified">
-          {e.verified ? 'Yes, tested tight' : 'No'}
-        </Detail>,
-      );
-      break;
-    case 'pressure': {
-      const as = (enteredAs(e) ?? {}) as EnteredPressure;
-      const p = (v: number | null) => pressure(v, as.pressureUnit);
-      const t = (v: number | null) => temperature(v, as.temperatureUnit);
-      const pair = (a: string | null, b: string | null) => [a, b].filter(Boolean).join(' · ');
-      if (e.suctionKPaG !== null)
-        rows.push(
-          <Detail key="s" label="Suction">
-            {p(e.suctionKPaG)}
-          </Detail>,
-        );
-      if (e.dischargeKPaG !== null)
-        rows.push(
-          <Detail key="d" label="Discharge">
-            {p(e.dischargeKPaG)}
-          </Detail>,
-        );
-      const air = pair(
-        e.ambientC !== null ? `ambient ${t(e.ambientC)}` : null,
-        e.setPointC !== null ? `set point ${t(e.setPointC)}` : null,
-      );
-      if (air)
-        rows.push(
-          <Detail key="a" label="Temps">
-            {air}
-          </Detail>,
-        );
-      const sr = pair(
-        e.supplyAirC !== null ? `supply ${t(e.supplyAirC)}` : null,
-        e.returnAirC !== null ? `return ${t(e.returnAirC)}` : null,
-      );
-      if (sr)
-        rows.push(
-          <Detail key="sr" label="Air">
-            {sr}
-          </Detail>,
-        );
-      if (e.sightGlass)
-        rows.push(
-          <Detail key="g" label="Sight glass">
-            {termLabel(SIGHT_GLASS_STATES, e.sightGlass)}
-          </Detail>,
-        );
-      break;
-    }
+      return repairRows(e, d);
+    case 'pressure':
+      return pressureRows(e);
     case 'pti':
-      rows.push(
+      return [
         <Detail key="p" label="Result">
           <span className={e.passed ? 'text-okay-700' : 'text-alarm-700'}>{e.passed ? 'Passed' : 'Failed'}</span>
         </Detail>,
-      );
-      break;
+      ];
     case 'component_replacement':
-      if (typeof d.component === 'string')
-        rows.push(
-          <Detail key="c" label="Part">
-            {d.component}
-          </Detail>,
-        );
-      break;
+      return typeof d.component === 'string'
+        ? [
+            <Detail key="c" label="Part">
+              {d.component}
+            </Detail>,
+          ]
+        : [];
     case 'status_change':
-      if (typeof d.status === 'string')
-        rows.push(
-          <Detail key="s" label="Now">
-            {(UNIT_STATUS_LABELS as Record<string, string>)[d.status] ?? d.status}
-          </Detail>,
-        );
-      break;
+      return typeof d.status === 'string'
+        ? [
+            <Detail key="s" label="Now">
+              {(UNIT_STATUS_LABELS as Record<string, string>)[d.status] ?? d.status}
+            </Detail>,
+          ]
+        : [];
+    default:
+      return [];
   }
+}
+
+/** The facts of one entry, in the trade's words, from the fixed vocabularies. */
+function EntryDetails({ e }: { e: EventDto }) {
+  const rows = detailRows(e, (e.details ?? {}) as Details);
   return (
     <>
       {rows.length > 0 && <dl className="flex flex-col gap-0.5 text-base">{rows}</dl>}

@@ -2,26 +2,17 @@ import { AxisBottom, AxisLeft } from '@visx/axis';
 import { Group } from '@visx/group';
 import { useParentSize } from '@visx/responsive';
 import { scaleLinear, scaleTime } from '@visx/scale';
-import { LinePath } from '@visx/shape';
 import { useTooltip } from '@visx/tooltip';
 import { parseISO } from 'date-fns';
 import { useMemo, type PointerEvent as ReactPointerEvent } from 'react';
 import type { PressureSnapshot } from '../../../../shared/domain';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { statsDetail } from '../utils/stats-detail';
-import { fmtC, fmtDateTime, fmtK, timeTick } from '../../../lib/format';
-
-const C = {
-  ink: '#0b161d',
-  ink600: '#435762',
-  ink300: '#a9b6bc',
-  ink100: '#e3e8e8',
-  fjord: '#005264',
-  heed: '#7a4300',
-  alarm: '#a3190f',
-};
-
-type Point = PressureSnapshot & { t: number };
+import { C } from '../../../components/ui/chart-colours';
+import { fmtK, timeTick } from '../../../lib/format';
+import { TrendKey } from './pressure-trend/trend-key';
+import { TrendLines, type TrendPoint as Point } from './pressure-trend/trend-lines';
+import { TrendTooltip } from './pressure-trend/trend-tooltip';
 
 /**
  * Condensing (from discharge) and evaporating (from suction) temperatures over time, with the condensing temperature
@@ -71,6 +62,7 @@ export function PressureTrend({
   const x = scaleTime({ domain: [new Date(t0), new Date(t1)], range: [0, innerW] });
   const y = scaleLinear({ domain: [lo, hi], range: [innerH, 0], nice: true });
   const spanDays = (t1 - t0) / 86_400_000;
+  const xOf = (t: number) => x(new Date(t));
 
   const onMove = (e: ReactPointerEvent<SVGRectElement>) => {
     const box = e.currentTarget.getBoundingClientRect();
@@ -79,32 +71,10 @@ export function PressureTrend({
     for (const p of usable) if (Math.abs(x(new Date(p.t)) - px) < Math.abs(x(new Date(best.t)) - px)) best = p;
     showTooltip({ tooltipData: best, tooltipLeft: x(new Date(best.t)) + m.left, tooltipTop: 0 });
   };
-  const tipW = Math.min(240, width - 16);
 
   return (
     <div className="flex flex-col gap-2" data-testid="pressure-trend">
-      <ul className="flex flex-wrap gap-x-4 gap-y-1 text-sm text-ink-700" aria-label="Key">
-        <li className="flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true">
-            <line x1="0" y1="5" x2="22" y2="5" stroke={C.alarm} strokeWidth="3" />
-          </svg>
-          Condensing (discharge)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <svg width="22" height="10" aria-hidden="true">
-            <line x1="0" y1="5" x2="22" y2="5" stroke={C.fjord} strokeWidth="3" strokeDasharray="6 3" />
-          </svg>
-          Evaporating (suction)
-        </li>
-        {baseline !== null && (
-          <li className="flex items-center gap-1.5">
-            <svg width="22" height="10" aria-hidden="true">
-              <line x1="0" y1="5" x2="22" y2="5" stroke={C.ink600} strokeWidth="2" strokeDasharray="2 3" />
-            </svg>
-            Expected condensing (ambient + baseline)
-          </li>
-        )}
-      </ul>
+      <TrendKey withBaseline={baseline !== null} />
       <div ref={parentRef} className="relative w-full">
         <svg
           width={width}
@@ -117,47 +87,7 @@ export function PressureTrend({
             {y.ticks(5).map((v) => (
               <line key={v} x1={0} x2={innerW} y1={y(v)} y2={y(v)} stroke={C.ink100} />
             ))}
-            {baseline !== null && (
-              <LinePath<Point>
-                data={usable.filter((p) => expected(p) !== null)}
-                x={(p) => x(new Date(p.t))}
-                y={(p) => y(expected(p) ?? 0)}
-                stroke={C.ink600}
-                strokeWidth={2}
-                strokeDasharray="2 3"
-              />
-            )}
-            <LinePath<Point>
-              data={usable.filter((p) => p.condensingC !== null)}
-              x={(p) => x(new Date(p.t))}
-              y={(p) => y(p.condensingC ?? 0)}
-              stroke={C.alarm}
-              strokeWidth={3}
-            />
-            <LinePath<Point>
-              data={usable.filter((p) => p.evaporatingC !== null)}
-              x={(p) => x(new Date(p.t))}
-              y={(p) => y(p.evaporatingC ?? 0)}
-              stroke={C.fjord}
-              strokeWidth={3}
-              strokeDasharray="6 3"
-            />
-            {/* Two readings of one visit share a time: the index keeps their keys apart. */}
-            {usable.map((p, i) => (
-              <g key={`${p.at}#${i}`}>
-                {p.condensingC !== null && <circle cx={x(new Date(p.t))} cy={y(p.condensingC)} r={4} fill={C.alarm} />}
-                {p.evaporatingC !== null && (
-                  <circle
-                    cx={x(new Date(p.t))}
-                    cy={y(p.evaporatingC)}
-                    r={4}
-                    fill="#fff"
-                    stroke={C.fjord}
-                    strokeWidth={2}
-                  />
-                )}
-              </g>
-            ))}
+            <TrendLines points={usable} xOf={xOf} y={y} expected={baseline !== null ? expected : null} />
             {tooltipOpen && tooltipData && (
               <line
                 x1={x(new Date(tooltipData.t))}
@@ -204,25 +134,7 @@ export function PressureTrend({
           </Group>
         </svg>
         {tooltipOpen && tooltipData && tooltipLeft !== undefined && (
-          <div
-            role="status"
-            className="pointer-events-none absolute top-2 z-10 rounded-md border-2 border-ink-950 bg-white px-3 py-2 text-sm shadow-raised"
-            style={{
-              width: tipW,
-              left: Math.max(
-                0,
-                Math.min(width - tipW, tooltipLeft + 12 > width - tipW ? tooltipLeft - tipW - 12 : tooltipLeft + 12),
-              ),
-            }}
-          >
-            <p className="font-bold">{fmtDateTime(tooltipData.at)}</p>
-            {tooltipData.condensingC !== null && <p>Condensing {fmtC(tooltipData.condensingC)}</p>}
-            {tooltipData.dischargeOutOfRange && <p>Discharge outside the saturation data</p>}
-            {tooltipData.evaporatingC !== null && <p>Evaporating {fmtC(tooltipData.evaporatingC)}</p>}
-            {tooltipData.ambientC !== null && <p>Ambient {fmtC(tooltipData.ambientC)}</p>}
-            {tooltipData.approachK !== null && <p>Approach {fmtK(tooltipData.approachK)}</p>}
-            {tooltipData.driftK !== null && <p className="font-semibold">Drift {fmtK(tooltipData.driftK)}</p>}
-          </div>
+          <TrendTooltip p={tooltipData} left={tooltipLeft} width={width} />
         )}
       </div>
       <p className="text-sm text-ink-700">
