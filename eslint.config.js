@@ -73,17 +73,21 @@ export default tseslint.config(
     files: ['{src,server,shared,seed,scripts}/**/*.{ts,tsx}'],
     plugins: { 'import-x': importX },
     settings: {
-      // Which files the import rules read to follow an import (the cycle rule reads the whole graph).
-      'import-x/extensions': ['.ts', '.tsx', '.js', '.mjs'],
+      // Which files the import rules read to follow an import: the cycle rule reads the project's own graph, never
+      // a package's files (reading them tripled lint time).
+      'import-x/extensions': ['.ts', '.tsx'],
       'import-x/parsers': { '@typescript-eslint/parser': ['.ts', '.tsx'] },
+      'import-x/ignore': ['node_modules'],
+      // A module read once is kept for the whole run (the default forgets it after 30 s and reads it again).
+      'import-x/cache': { lifetime: Infinity },
       'import-x/resolver-next': [createTypeScriptImportResolver({ project: 'tsconfig.json' })],
     },
   },
   // Type-only imports are not counted: they leave no edge at run time.
-  { files: ['src/**/*.{ts,tsx}'], rules: { 'import-x/no-cycle': [LEVEL.clientCycles, { ignoreExternal: true }] } },
+  { files: ['src/**/*.{ts,tsx}'], rules: { 'import-x/no-cycle': LEVEL.clientCycles } },
   {
     files: ['{server,shared,seed,scripts}/**/*.ts'],
-    rules: { 'import-x/no-cycle': [LEVEL.serverCycles, { ignoreExternal: true }] },
+    rules: { 'import-x/no-cycle': LEVEL.serverCycles },
   },
   {
     files: ['server/features/**/*.ts'],
