@@ -7,6 +7,7 @@ import { accountLinkRoutes } from './features/account/account-links.router';
 import { accountRoutes } from './features/account/account.router';
 import { authRoutes } from './features/account/auth.router';
 import { alertRoutes } from './features/alerts/alerts.router';
+import { cylindersRoutes } from './features/cylinders/cylinders.router';
 import { decisionsRoutes } from './features/decisions/decisions.router';
 import { fleetRoutes } from './features/fleet/fleet.router';
 import { forecastRoutes } from './features/forecast/forecast.router';
@@ -49,6 +50,7 @@ export function allRoutes(ctx: AppContext): RouteSpec[] {
     ...fleetRoutes(ctx),
     ...forecastRoutes(ctx),
     ...traceRoutes(ctx),
+    ...cylindersRoutes(ctx),
     ...refrigerantLogRoutes(ctx),
     ...decisionsRoutes(ctx),
     ...settingsRoutes(ctx),

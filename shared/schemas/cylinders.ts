@@ -126,7 +126,7 @@ function crossCheck(c: FieldsOut, ctx: Ctx) {
   if (c.grossKg != null && c.grossKg < c.tareKg) {
     ctx.addIssue({ code: 'custom', message: 'The gross weight is below the tare weight', path: ['grossKg'] });
   }
-  if (c.grossKg != null && c.grossKg - c.tareKg > c.capacityKg) {
+  if (c.grossKg != null && c.grossKg - c.tareKg > c.capacityKg + 0.001) {
     ctx.addIssue({
       code: 'custom',
       message: "The weight says it holds more than the maker's marked maximum fill",
