@@ -11,7 +11,7 @@ import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite, halyardNumber } from '../support/units';
 
 const { db, pool } = openTestDb();
-let clockNow = new Date('2026-06-01T12:00:00Z');
+const clockNow = new Date('2026-06-01T12:00:00Z');
 const { app } = createApp({ db, clock: { now: () => clockNow }, rateLimits: { signInPerIp: 1000 } });
 
 type Agent = Awaited<ReturnType<typeof signInAs>>['agent'];

@@ -2,7 +2,7 @@
 // every charge from it), status changes, and quarantine, which marks every unit charged from the cylinder.
 import { randomBytes } from 'node:crypto';
 import { and, asc, desc, eq, inArray, like, or, sql, type SQL } from 'drizzle-orm';
-import type { Db, DbOrTx, Tx } from '../../db/client';
+import type { DbOrTx, Tx } from '../../db/client';
 import { cylinderMoves, cylinders, cylinderWeighings, events, sites, units, users, visits } from '../../db/schema';
 import { badRequest, conflict, notFound } from '../../lib/http-error';
 import { isDuplicateKeyError } from '../../lib/db-errors';
