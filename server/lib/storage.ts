@@ -4,7 +4,9 @@ import { createHash, randomBytes } from 'node:crypto';
 import { createReadStream, existsSync } from 'node:fs';
 import { mkdir, open, rename, rm, stat, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import type { ServerResponse } from 'node:http';
 import type { Readable } from 'node:stream';
+import { pipeline } from 'node:stream/promises';
 
 export interface Storage {
   /**
@@ -28,6 +30,20 @@ export type Stored = { key: string; created: boolean };
 export type StoredFile = { stream: Readable; size: number };
 
 export const STORAGE_KEY = /^[a-f0-9]{64}$/;
+
+/**
+ * Streams a stored file as the response body (the caller has set the other headers). Once bytes have gone out no
+ * error answer is possible: a failed read, or a client that went away, ends the response where it is.
+ */
+export async function sendStoredFile(res: ServerResponse, file: StoredFile): Promise<void> {
+  res.setHeader('Content-Length', String(file.size));
+  try {
+    await pipeline(file.stream, res);
+  } catch {
+    file.stream.destroy();
+    res.destroy();
+  }
+}
 
 /** A whole stored file in memory: for small ones only (tests, thumbnails); serve files with `open`. */
 export async function readStored(storage: Pick<Storage, 'open'>, key: string): Promise<Buffer | null> {

@@ -3,7 +3,9 @@ import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { randomBytes } from 'node:crypto';
-import { readStored } from '../../server/lib/storage';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import { readStored, sendStoredFile } from '../../server/lib/storage';
 import { openTestStorage, STORAGE_DRIVERS, type TestStorage } from '../support/storage-drivers';
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
@@ -65,6 +67,32 @@ describe.each(STORAGE_DRIVERS)('storage on %s', (driver) => {
     expect(await t.keys()).not.toContain(stored.key);
     await expect(t.storage.remove(stored.key)).resolves.toBeUndefined();
     await expect(t.storage.remove('not-a-key')).resolves.toBeUndefined();
+  });
+
+  it('serves a stored file as a response body with its length, and survives a client that leaves halfway', async () => {
+    const bytes = randomBytes(3 * 1024 * 1024);
+    const { key } = await t.storage.put(bytes);
+    const server = http.createServer((_req, res) => {
+      void t.storage.open(key).then((file) => sendStoredFile(res, file!));
+    });
+    await new Promise<void>((r) => server.listen(0, '127.0.0.1', r));
+    const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}/`;
+    try {
+      const res = await fetch(url);
+      expect(res.headers.get('content-length')).toBe(String(bytes.length));
+      // Compared by hash: a deep comparison of two 3 MB buffers takes Vitest tens of seconds.
+      expect(sha256(Buffer.from(await res.arrayBuffer()))).toBe(key);
+      // A client that reads a little and goes away.
+      const cut = new AbortController();
+      const partial = await fetch(url, { signal: cut.signal });
+      await partial.body!.getReader().read();
+      cut.abort();
+      // The server goes on serving.
+      expect((await fetch(url)).status).toBe(200);
+    } finally {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
+    }
   });
 
   it('streams a 40 MB file in and out without holding it in memory', { timeout: 60_000 }, async () => {
