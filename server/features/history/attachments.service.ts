@@ -9,7 +9,7 @@ import { sniffFile, type SniffedType } from '../../lib/storage';
 import { activePdfContent } from '../../lib/pdf-active-content';
 import type { SessionUser } from '../../lib/session';
 import { MAX_PHOTOS_PER_EVENT } from '../../../shared/schemas/history';
-import { attachmentDto } from './history.service';
+import { attachmentDto } from './history.mapper';
 
 /** An upload streamed to a temporary file (middleware/upload.ts); its SHA-256 when the upload computed it. */
 export type UploadedFile = { path: string; originalname: string; size: number; sha256?: string };

@@ -4,7 +4,8 @@ import { numericIdParam } from '../../lib/id-params';
 import type { Storage } from '../../lib/storage';
 import { attachmentUpload } from '../../middleware/upload';
 import { historyQuerySchema, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
-import { getUnitHistory, getUnitOverview, getUnitTimeline, recordVisit, voidEvent } from './history.service';
+import { getUnitHistory, getUnitOverview, getUnitTimeline } from './history.queries';
+import { recordVisit, voidEvent } from './visits.service';
 import { addAttachments, readAttachment } from './attachments.service';
 
 export function historyRoutes(ctx: AppContext & { storage: Storage }) {
