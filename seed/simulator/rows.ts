@@ -83,19 +83,35 @@ const NULL_EVENT = {
   voidsEventId: null,
 };
 
-export function rowsForUnit(
-  fleet: Fleet,
-  sim: UnitSim,
-  siteIds: readonly number[],
-  ids: IdCursor,
-  settings: Settings,
-): UnitRows {
-  const now = new Date(fleet.ctx.nowMs);
-  const people = fleet.people;
+/** The entry's own columns, as the server would write them (absent fields NULL). */
+function entryColumns(e: SimEvent) {
+  return {
+    kg: e.kg ?? null,
+    cylinder: e.cylinder ?? null,
+    reusedRecovered: e.reusedRecovered ?? null,
+    excludedFromLeakRate: e.excludedFromLeakRate ?? null,
+    method: e.method ?? null,
+    leakFound: e.leakFound ?? null,
+    location: e.location ?? null,
+    action: e.action ?? null,
+    verified: e.verified ?? null,
+    passed: e.passed ?? null,
+    suctionKPaG: e.suctionKPaG ?? null,
+    dischargeKPaG: e.dischargeKPaG ?? null,
+    ambientC: e.ambientC ?? null,
+    setPointC: e.setPointC ?? null,
+    supplyAirC: e.supplyAirC ?? null,
+    returnAirC: e.returnAirC ?? null,
+    sightGlass: e.sightGlass ?? null,
+    details: e.details ?? null,
+    note: e.note ?? null,
+  };
+}
+
+function unitRowOf(sim: UnitSim, unitId: number, siteIds: readonly number[]): UnitRow {
   const u = sim.unit;
-  const unitId = ids.unit++;
   const createdAt = new Date(u.createdMs);
-  const unit: UnitRow = {
+  return {
     id: unitId,
     containerNumber: u.containerNumber,
     refrigerant: u.refrigerant,
@@ -114,7 +130,12 @@ export function rowsForUnit(
     createdAt,
     updatedAt: new Date(u.updatedMs),
   };
+}
 
+/** Visits, their entries and the void markers; and the engine's view of the entries that stand. */
+function historyRows(fleet: Fleet, sim: UnitSim, unit: UnitRow, siteIds: readonly number[], ids: IdCursor) {
+  const people = fleet.people;
+  const unitId = unit.id!;
   const visitRows: VisitRow[] = [];
   const eventRows: EventRow[] = [];
   const idOf = new Map<SimEvent, number>();
@@ -142,7 +163,8 @@ export function rowsForUnit(
     for (const e of v.events) {
       const id = ids.event++;
       idOf.set(e, id);
-      const row: EventRow = {
+      const columns = entryColumns(e);
+      eventRows.push({
         id,
         unitId,
         visitId,
@@ -151,46 +173,12 @@ export function rowsForUnit(
         kind: e.kind,
         occurredAt,
         enteredAt,
-        kg: e.kg ?? null,
-        cylinder: e.cylinder ?? null,
-        reusedRecovered: e.reusedRecovered ?? null,
-        excludedFromLeakRate: e.excludedFromLeakRate ?? null,
-        method: e.method ?? null,
-        leakFound: e.leakFound ?? null,
-        location: e.location ?? null,
-        action: e.action ?? null,
-        verified: e.verified ?? null,
-        passed: e.passed ?? null,
-        suctionKPaG: e.suctionKPaG ?? null,
-        dischargeKPaG: e.dischargeKPaG ?? null,
-        ambientC: e.ambientC ?? null,
-        setPointC: e.setPointC ?? null,
-        supplyAirC: e.supplyAirC ?? null,
-        returnAirC: e.returnAirC ?? null,
-        sightGlass: e.sightGlass ?? null,
-        details: e.details ?? null,
-        note: e.note ?? null,
+        ...columns,
         voidsEventId: null,
         createdAt: enteredAt,
-      };
-      eventRows.push(row);
+      });
       if (!voided.has(e)) {
-        const ee = toEngineEvent({
-          kind: e.kind,
-          occurredAt,
-          visitId,
-          kg: e.kg ?? null,
-          excludedFromLeakRate: e.excludedFromLeakRate ?? null,
-          leakFound: e.leakFound ?? null,
-          location: e.location ?? null,
-          action: e.action ?? null,
-          verified: e.verified ?? null,
-          passed: e.passed ?? null,
-          suctionKPaG: e.suctionKPaG ?? null,
-          dischargeKPaG: e.dischargeKPaG ?? null,
-          ambientC: e.ambientC ?? null,
-          sightGlass: e.sightGlass ?? null,
-        });
+        const ee = toEngineEvent({ ...columns, kind: e.kind, occurredAt, visitId });
         if (ee) engineEvents.push(ee);
       }
     }
@@ -212,6 +200,21 @@ export function rowsForUnit(
       createdAt: at,
     });
   }
+  return { visitRows, eventRows, engineEvents };
+}
+
+export function rowsForUnit(
+  fleet: Fleet,
+  sim: UnitSim,
+  siteIds: readonly number[],
+  ids: IdCursor,
+  settings: Settings,
+): UnitRows {
+  const now = new Date(fleet.ctx.nowMs);
+  const u = sim.unit;
+  const unitId = ids.unit++;
+  const unit = unitRowOf(sim, unitId, siteIds);
+  const { visitRows, eventRows, engineEvents } = historyRows(fleet, sim, unit, siteIds, ids);
 
   // Exactly what recomputeUnitStats does after a write, on the same events in the same order.
   const result = computeUnitStats(
@@ -219,7 +222,7 @@ export function rowsForUnit(
       refrigerant: u.refrigerant,
       nominalChargeKg: u.nominalChargeKg,
       commissionedOn: u.commissionedOn,
-      createdAt,
+      createdAt: unit.createdAt!,
     }),
     engineEvents,
     now.toISOString(),
