@@ -129,6 +129,13 @@ const forecastSchema = z.object({
   neighbours: z.number().int().min(10).max(1000).default(100),
 });
 
+const rechecksSchema = z.object({
+  /** Days after a top-up without a found and repaired leak (common practice, no published source: the next day). */
+  afterTopUpDays: z.number().int().min(0).max(60).default(1),
+  /** Days after a repair; Source: Regulation (EU) 2024/573, a re-check within one month of a repair. */
+  afterRepairDays: z.number().int().min(1).max(60).default(30),
+});
+
 export const settingsSchema = z.object({
   /** EU: Reg. (EU) 2024/573 intervals (default); US: 40 CFR 82 reference thresholds; custom: the bands below. */
   policy: z.enum(['EU', 'US', 'custom']).default('EU'),
@@ -143,6 +150,7 @@ export const settingsSchema = z.object({
   pressure: pressureSchema.prefault({}),
   economics: economicsSchema.prefault({}),
   forecast: forecastSchema.prefault({}),
+  rechecks: rechecksSchema.prefault({}),
 });
 
 export type Settings = z.infer<typeof settingsSchema>;
