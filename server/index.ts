@@ -6,7 +6,7 @@ import { publicUrl, readEnv } from './env';
 import { createLogger } from './lib/logger';
 import { createOutboxWorker } from './lib/mail/sender';
 import { startSchedules } from './scheduler';
-import { createLocalStorage } from './lib/storage';
+import { createStorage } from './lib/storage-config';
 import { createHttpServer } from './lib/http-server';
 
 const HOUR_MS = 3600_000;
@@ -28,7 +28,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
       idleMs: env.SESSION_IDLE_HOURS * HOUR_MS,
       idleTechnicianMs: env.SESSION_IDLE_HOURS_TECHNICIAN * HOUR_MS,
     },
-    storage: createLocalStorage(path.resolve(env.STORAGE_DIR)),
+    storage: await createStorage(env),
     clientDir: path.resolve(path.dirname(new URL(import.meta.url).pathname), '../dist'),
   });
   const mailWorker = createOutboxWorker(ctx);
