@@ -11,3 +11,4 @@ export * from './jobs';
 export * from './mail';
 export * from './alerts';
 export * from './cylinders';
+export * from './day';
