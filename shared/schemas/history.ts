@@ -182,6 +182,17 @@ export const voidEventSchema = z.object({
 });
 export type VoidEventInput = z.infer<typeof voidEventSchema>;
 
+/** A depot's units per answer when a phone keeps them for offline use (GET /api/overviews). */
+export const OVERVIEWS_PAGE_SIZE = 50;
+export const overviewsQuerySchema = z.object({
+  siteId: z.coerce.number().int().positive().max(2_147_483_647),
+  /** The last unit id of the previous page. */
+  after: z.coerce.number().int().min(0).max(2_147_483_647).default(0),
+});
+/** A unit's first read with its label's token, so a phone can open it by its label with no signal. */
+export type DepotUnitDto = { unitId: number; qrToken: string; overview: UnitOverviewDto };
+export type DepotPageDto = { units: DepotUnitDto[]; nextAfter: number | null };
+
 export const historyQuerySchema = z.object({
   before: z.coerce.number().int().positive().optional(),
   limit: z.coerce.number().int().min(1).max(200).default(HISTORY_PAGE_SIZE),

@@ -8,7 +8,10 @@ import { engineUnit, ENGINE_EVENT_COLUMNS, toEngineEvent, toStatsDto } from '../
 import { computeUnitStats } from '../../../shared/domain';
 import {
   HISTORY_PAGE_SIZE,
+  OVERVIEWS_PAGE_SIZE,
   type AttachmentDto,
+  type DepotPageDto,
+  type DepotUnitDto,
   type EventDto,
   type UnitHistoryDto,
   type UnitOverviewDto,
@@ -129,6 +132,13 @@ async function historyPage(db: Db, unitId: number, before: number | undefined, l
   return { events: page, nextBefore: more ? page[page.length - 1].id : null };
 }
 
+/** The unit a label's token belongs to (units are locked and read by id; the token only finds which). */
+export async function unitIdByToken(db: DbOrTx, token: string): Promise<number> {
+  const [found] = await db.select({ id: units.id }).from(units).where(eq(units.qrToken, token));
+  if (!found) throw notFound('This label is not linked to any unit. It may have been replaced by a newer label.');
+  return found.id;
+}
+
 /** The unit page's first read: the figures and the first page of the history. */
 export async function getUnitOverview(db: Db, unitId: number): Promise<UnitOverviewDto> {
   const [found] = await reads(db).unitWithStats.execute({ unitId });
@@ -185,4 +195,22 @@ export async function getUnitTimeline(db: Db, unitId: number, now: Date, setting
     })),
     snapshots,
   };
+}
+
+/**
+ * A page of a depot's units with their first read and their label's token, by unit id, for a phone that keeps them
+ * for offline use (the phone is signed in with view:unit, which opens any of them by id or label anyway).
+ */
+export async function getDepotPage(db: Db, siteId: number, after: number): Promise<DepotPageDto> {
+  const rows = await db
+    .select({ id: units.id, qrToken: units.qrToken })
+    .from(units)
+    .where(and(eq(units.siteId, siteId), sql`${units.id} > ${after}`))
+    .orderBy(units.id)
+    .limit(OVERVIEWS_PAGE_SIZE + 1);
+  const page = rows.slice(0, OVERVIEWS_PAGE_SIZE);
+  const out: DepotUnitDto[] = [];
+  for (const row of page)
+    out.push({ unitId: row.id, qrToken: row.qrToken, overview: await getUnitOverview(db, row.id) });
+  return { units: out, nextAfter: rows.length > OVERVIEWS_PAGE_SIZE ? page[page.length - 1].id : null };
 }

@@ -3,16 +3,26 @@ import { route } from '../../lib/route';
 import { numericIdParam } from '../../lib/id-params';
 import type { Storage } from '../../lib/storage';
 import { attachmentUpload } from '../../middleware/upload';
-import { historyQuerySchema, recordVisitSchema, voidEventSchema } from '../../../shared/schemas/history';
-import { getUnitHistory, getUnitOverview, getUnitTimeline } from './history.queries';
-import { recordVisit, voidEvent } from './visits.service';
+import {
+  historyQuerySchema,
+  overviewsQuerySchema,
+  recordVisitByLabelSchema,
+  recordVisitSchema,
+  voidEventSchema,
+} from '../../../shared/schemas/history';
+import { qrTokenParamSchema } from '../../../shared/schemas/labels';
+import { getDepotPage, getUnitHistory, getUnitOverview, getUnitTimeline, unitIdByToken } from './history.queries';
+import { recordVisit, recordVisitByLabel, voidEvent } from './visits.service';
 import { addAttachments, readAttachment } from './attachments.service';
 
 export function historyRoutes(ctx: AppContext & { storage: Storage }) {
   return [
     route('post', '/api/visits', 'record:event', async (req, res) => {
-      const input = recordVisitSchema.parse(req.body);
-      const result = await recordVisit(ctx, req.user!, input);
+      // A visit names its unit, or (recorded offline at a label the phone had never opened) the label's token.
+      const byLabel = typeof req.body === 'object' && req.body !== null && 'qrToken' in req.body;
+      const result = byLabel
+        ? await recordVisitByLabel(ctx, req.user!, recordVisitByLabelSchema.parse(req.body))
+        : await recordVisit(ctx, req.user!, recordVisitSchema.parse(req.body));
       res.status(result.replayed ? 200 : 201).json(result);
     }),
     // Every role may void something: technicians and engineers their own recent entries, engineers, owners and admins
@@ -55,6 +65,16 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       res.setHeader('Content-Type', f.mimeType);
       res.setHeader('Cache-Control', 'private, no-store');
       res.send(f.bytes);
+    }),
+    // A scanned label's figures, asked for alongside the unit itself (/api/units/by-token/:token): one round trip.
+    route('get', '/api/units/by-token/:token/overview', 'view:unit', async (req, res) => {
+      const { token } = qrTokenParamSchema.parse(req.params);
+      res.json(await getUnitOverview(ctx.db, await unitIdByToken(ctx.db, token)));
+    }),
+    // A depot's units, a page at a time, for a phone keeping them for offline use.
+    route('get', '/api/overviews', 'view:unit', async (req, res) => {
+      const { siteId, after } = overviewsQuerySchema.parse(req.query);
+      res.json(await getDepotPage(ctx.db, siteId, after));
     }),
     route('get', '/api/units/:id/overview', 'view:unit', async (req, res) => {
       const { id } = numericIdParam.parse(req.params);

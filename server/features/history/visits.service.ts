@@ -11,10 +11,15 @@ import { writeUnit } from '../../lib/record/write-path';
 import type { SessionUser } from '../../lib/session';
 import { REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
 import { can } from '../../../shared/permissions';
-import { VOID_WINDOW_HOURS, type RecordVisitInput, type RecordVisitResultDto } from '../../../shared/schemas/history';
+import {
+  VOID_WINDOW_HOURS,
+  type RecordVisitByLabelInput,
+  type RecordVisitInput,
+  type RecordVisitResultDto,
+} from '../../../shared/schemas/history';
 import { visitPlausibilityIssues } from '../../../shared/schemas/visit-rules';
 import { eventRow } from './history.mapper';
-import { eventDtos, eventQuery, reads } from './history.queries';
+import { eventDtos, eventQuery, reads, unitIdByToken } from './history.queries';
 /** SHA-256 of what a submission says (everything but its key): a key sent again must come with the same content. */
 export function submissionHash(input: RecordVisitInput): string {
   const { idempotencyKey: _key, ...content } = input;
@@ -42,6 +47,15 @@ async function replay(db: Db, user: SessionUser, input: RecordVisitInput): Promi
 }
 
 const isMovement = (kind: string) => (REFRIGERANT_MOVEMENT_KINDS as readonly string[]).includes(kind);
+
+/**
+ * A visit recorded offline at a label the phone had never opened: the label's unit, then the same path as any visit
+ * (its key, content hash and replay are those of the visit with the unit's id).
+ */
+export async function recordVisitByLabel(ctx: AppContext, user: SessionUser, input: RecordVisitByLabelInput) {
+  const { qrToken, ...visit } = input;
+  return recordVisit(ctx, user, { ...visit, unitId: await unitIdByToken(ctx.db, qrToken) });
+}
 
 export async function recordVisit(ctx: AppContext, user: SessionUser, input: RecordVisitInput) {
   const earlier = await replay(ctx.db, user, input);
