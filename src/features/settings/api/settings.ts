@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { SettingsDto, SettingsHistoryDto, UpdateSettingsBody } from '../../../../shared/schemas/settings-api';
+import type { SettingsDto, SettingsHistoryDto, UpdateSettingsBody } from '../../../../shared/schemas/settings';
 import { apiClient } from '../../../lib/api-client';
 import { settingsKeys } from './keys';
 
