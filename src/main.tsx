@@ -6,6 +6,8 @@ import { createRoot } from 'react-dom/client';
 import { AppProvider } from './app/provider';
 import { AppRouter } from './app/router';
 import { registerServiceWorker } from './lib/app-update';
+import { authKeys } from './lib/auth';
+import { refreshDepotCopyIfDue } from './lib/depot-copy';
 import { restorePersistedQueries } from './lib/persist-queries';
 import { createQueryClient } from './lib/query-client';
 
@@ -42,5 +44,9 @@ void restorePersistedQueries(queryClient).then(() => {
       </AppProvider>
     </StrictMode>,
   );
-  afterFirstPage(queryClient, registerServiceWorker);
+  afterFirstPage(queryClient, () => {
+    registerServiceWorker();
+    const me = queryClient.getQueryData<{ id: string }>(authKeys.me());
+    if (me) void refreshDepotCopyIfDue(me.id);
+  });
 });

@@ -8,6 +8,7 @@ import {
   type Persister,
 } from '@tanstack/react-query-persist-client';
 import { createStore, del, get, set } from 'idb-keyval';
+import { forgetDepotCopy } from './depot-copy';
 
 /** How long a unit seen on this phone stays readable offline; the query cache keeps entries as long (query-client). */
 export const PERSIST_MAX_AGE_MS = 14 * 24 * 3600_000;
@@ -64,6 +65,8 @@ export async function forgetPersistedQueries(): Promise<void> {
   } catch {
     // A blocked store has nothing to forget.
   }
+  // The depot's units kept for offline use are the session's too.
+  await forgetDepotCopy();
 }
 
 export async function restorePersistedQueries(queryClient: QueryClient): Promise<void> {

@@ -1,4 +1,4 @@
-import type { QueryClient } from '@tanstack/react-query';
+import { useQueryClient, type QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense, useEffect, useState } from 'react';
 import { redirect, useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { Alert } from '../../../components/ui/alert';
@@ -7,10 +7,13 @@ import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { overviewQuery } from '../../../features/history/api/get-overview';
+import { historyKeys } from '../../../features/history/api/keys';
 import { getOverviewByToken, unitByTokenQuery, useUnitByToken } from '../../../features/labels/api/get-unit-by-token';
+import { labelKeys } from '../../../features/labels/api/keys';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
+import { findByLabel, type KeptUnit } from '../../../lib/depot-copy';
 import { useOnline } from '../../../lib/online';
 import { Can } from '../../../lib/can';
 
@@ -62,6 +65,16 @@ function VisitByLabel({ token }: { token: string }) {
   );
 }
 
+/** A unit of the depot this phone keeps, put where its page reads it; marked as of the copy, so it is refreshed online. */
+function openKept(queryClient: QueryClient, token: string, kept: KeptUnit) {
+  const id = kept.unit.id;
+  const at = { updatedAt: kept.keptAt };
+  queryClient.setQueryData(unitKeys.detail(id), kept.unit, at);
+  queryClient.setQueryData(historyKeys.overview(id), kept.overview, at);
+  queryClient.setQueryData(historyKeys.events(id), { pages: [kept.overview.history], pageParams: [null] }, at);
+  queryClient.setQueryData(labelKeys.byToken(token), kept.unit, at);
+}
+
 /** Where a label scanned with the phone's own camera app lands: find the unit, then open its page in place. */
 export default function LabelLinkPage() {
   const token = useParams().token ?? '';
@@ -69,6 +82,20 @@ export default function LabelLinkPage() {
   const unit = useUnitByToken(token);
   const online = useOnline();
   const [recording, setRecording] = useState(false);
+  const queryClient = useQueryClient();
+  const user = useUser();
+
+  useEffect(() => {
+    // No signal and not in the cache: the depot this phone keeps may have it.
+    if (online || !unit.isPending) return;
+    let cancelled = false;
+    void findByLabel(user.id, token).then((kept) => {
+      if (kept && !cancelled) openKept(queryClient, token, kept);
+    });
+    return () => {
+      cancelled = true;
+    };
+  }, [online, unit.isPending, user.id, token, queryClient]);
 
   useEffect(() => {
     // Not from under a visit being recorded when the signal comes back: it is sent from here, by the label.

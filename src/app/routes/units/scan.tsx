@@ -1,16 +1,21 @@
-// Loaded lazily: the camera scanner brings @zxing/browser with it.
+// Loaded lazily; the camera scanner fetches zxing only where the browser has no barcode detector of its own.
 import { useQueryClient } from '@tanstack/react-query';
 import { useNavigate } from 'react-router-dom';
 import type { UnitDto } from '../../../../shared/schemas/units';
 import { PageHeader } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
+import { KeepDepot } from '../../../features/labels/components/keep-depot';
 import { QrScanner } from '../../../features/labels/components/qr-scanner';
+import { useSites } from '../../../features/sites/api/get-sites';
+import { useUser } from '../../../lib/auth';
 import { LookupMessage, ManualLookup, useUnitLookup } from '../../../features/labels/components/unit-lookup';
 import { unitByNumberQuery } from '../../../features/units/api/get-unit-by-number';
 
 export default function ScanPage() {
   const navigate = useNavigate();
   const queryClient = useQueryClient();
+  const user = useUser();
+  const sites = useSites();
   const lookup = useUnitLookup(
     (unit: UnitDto) => void navigate(paths.unit.getHref(unit.id)),
     (containerNumber) => queryClient.fetchQuery(unitByNumberQuery(containerNumber)),
@@ -38,6 +43,7 @@ export default function ScanPage() {
           <ManualLookup onLookup={lookup.byNumber} busy={lookup.state.kind === 'looking'} />
         </section>
       </div>
+      <KeepDepot userId={user.id} sites={sites.data} />
     </div>
   );
 }
