@@ -12,3 +12,4 @@ export * from './mail';
 export * from './alerts';
 export * from './cylinders';
 export * from './day';
+export * from './cluster';
