@@ -13,12 +13,23 @@ export const PERMISSIONS = [
   'manage:costs', // cost settings
   'manage:users', // users and roles
   'manage:settings', // thresholds and policy settings
+  'lift:quarantine', // end a unit's quarantine with a recorded result (engineers)
+  'override:pti', // record a PTI as passed in spite of what stands in the way, with a reason (engineers)
 ] as const;
 export type Permission = (typeof PERMISSIONS)[number];
 
 const GRANTS: Record<Role, readonly Permission[]> = {
   technician: ['view:unit', 'record:event', 'void:event:own'],
-  engineer: ['view:unit', 'record:event', 'void:event:own', 'manage:units', 'view:fleet', 'void:event:any'],
+  engineer: [
+    'view:unit',
+    'record:event',
+    'void:event:own',
+    'manage:units',
+    'view:fleet',
+    'void:event:any',
+    'lift:quarantine',
+    'override:pti',
+  ],
   owner: ['view:unit', 'view:fleet', 'void:event:any', 'decide:retirement', 'manage:costs'],
   admin: [
     'view:unit',

@@ -36,7 +36,7 @@ const reasonOf = (mark: unknown): string => {
 
 /** The unit's quarantine from its notes in time order (voided ones left out), or null when it is not in quarantine. */
 export function quarantineFromHistory(notes: readonly QuarantineNote[]): QuarantineState | null {
-  let state: QuarantineState | null = null;
+  let state = null as QuarantineState | null;
   for (const n of notes) {
     if (!n.details) continue;
     if (n.details.quarantineLifted) state = null;

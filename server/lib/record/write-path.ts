@@ -3,7 +3,7 @@
 //   1. lock the unit row (SELECT … FOR UPDATE) before any other read, so writers of one unit queue here;
 //   2. the caller's change (events, voids, unit fields), reading the history after the lock;
 //   3. what every write sets off, always in this order (writeEffects): statistics, monthly made-up totals,
-//      alerts; and after the commit, this process's cache versions.
+//      alerts, the depot state (re-checks, quarantine); and after the commit, this process's cache versions.
 // Derived rows are upserts keyed by the locked unit or its visits, never locks on rows that may not exist. READ
 // COMMITTED: each read after the lock sees what the writers before it committed, and inserts take no gap locks.
 // A deadlock or lock-wait timeout runs the attempt again (retryTransaction); each write is idempotent by its
@@ -17,6 +17,7 @@ import { retryTransaction } from '../retry';
 import type { Settings } from '../../../shared/schemas/settings';
 import { queueAlertsForStatsChange } from './alerts';
 import { applyToFleetMonthly } from './monthly-totals';
+import { applyDepotState } from './depot-state';
 import {
   computeStatsRows,
   lockUnitForHistory,
@@ -81,7 +82,10 @@ export async function writeUnit<T>(
   return rest;
 }
 
-/** Step 3 of the path for a unit already locked (or just inserted) in `tx`: statistics, monthly totals, alerts. */
+/**
+ * Step 3 of the path for a unit already locked (or just inserted) in `tx`: statistics, monthly totals, alerts, depot
+ * state.
+ */
 export async function writeEffects(
   tx: Tx,
   ctx: Pick<WriteContext, 'publicUrl' | 'clock' | 'caches'>,
@@ -101,6 +105,7 @@ export async function writeEffects(
     before,
     after,
   });
+  await applyDepotState(tx, unit, now, settings);
   return { before, stats: after, detail };
 }
 
