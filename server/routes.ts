@@ -8,6 +8,7 @@ import { accountRoutes } from './features/account/account.router';
 import { authRoutes } from './features/account/auth.router';
 import { alertRoutes } from './features/alerts/alerts.router';
 import { cylindersRoutes } from './features/cylinders/cylinders.router';
+import { dayRoutes } from './features/day/day.router';
 import { decisionsRoutes } from './features/decisions/decisions.router';
 import { fleetRoutes } from './features/fleet/fleet.router';
 import { forecastRoutes } from './features/forecast/forecast.router';
@@ -17,7 +18,9 @@ import { jobsRoutes } from './features/jobs/jobs.router';
 import { labelsRoutes } from './features/labels/labels.router';
 import { mailRoutes } from './features/mail/mail.router';
 import { peopleRoutes } from './features/people/people.router';
+import { quarantineRoutes } from './features/quarantine/quarantine.router';
 import { refrigerantLogRoutes } from './features/refrigerant-log/refrigerant-log.router';
+import { releaseRoutes } from './features/release/release.router';
 import { settingsRoutes } from './features/settings/settings.router';
 import { sitesRoutes } from './features/sites/sites.router';
 import { traceRoutes } from './features/trace/trace.router';
@@ -55,5 +58,8 @@ export function allRoutes(ctx: AppContext): RouteSpec[] {
     ...decisionsRoutes(ctx),
     ...settingsRoutes(ctx),
     ...jobsRoutes(ctx),
+    ...dayRoutes(ctx),
+    ...quarantineRoutes(ctx),
+    ...releaseRoutes(ctx),
   ];
 }
