@@ -12,6 +12,7 @@ import { dayRoutes } from './features/day/day.router';
 import { decisionsRoutes } from './features/decisions/decisions.router';
 import { fleetRoutes } from './features/fleet/fleet.router';
 import { forecastRoutes } from './features/forecast/forecast.router';
+import { handoverRoutes } from './features/handover/handover.router';
 import { historyRoutes } from './features/history/history.router';
 import { importsRoutes } from './features/imports/imports.router';
 import { jobsRoutes } from './features/jobs/jobs.router';
@@ -54,6 +55,7 @@ export function allRoutes(ctx: AppContext): RouteSpec[] {
     ...forecastRoutes(ctx),
     ...traceRoutes(ctx),
     ...cylindersRoutes(ctx),
+    ...handoverRoutes(ctx),
     ...refrigerantLogRoutes(ctx),
     ...decisionsRoutes(ctx),
     ...settingsRoutes(ctx),
