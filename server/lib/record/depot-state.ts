@@ -8,6 +8,8 @@ import { events, unitDepotState, units } from '../../db/schema';
 import { rechecksFromHistory, type DepotEvent, type RecheckSummary } from '../../../shared/domain/rechecks';
 import { quarantineFromHistory, type QuarantineNote, type QuarantineState } from '../../../shared/domain/quarantine';
 import type { SightGlassState } from '../../../shared/domain';
+import { ptiBlockers } from '../../../shared/domain/pti';
+import { HttpError } from '../http-error';
 import type { Settings } from '../../../shared/schemas/settings';
 
 const DEPOT_KINDS = ['top_up', 'recharge', 'repair', 'leak_check', 'pressure', 'note'] as const;
@@ -160,4 +162,34 @@ export async function rebuildDepotStates(db: DbOrTx, now: Date, settings: Settin
 export async function storedDepotState(db: DbOrTx, unitId: number) {
   const [row = null] = await db.select().from(unitDepotState).where(eq(unitDepotState.unitId, unitId));
   return row;
+}
+
+/**
+ * For a visit that records a PTI as passed (the visit form's bare passed/failed): refused with 409 when the unit has
+ * an open leak, a possible low charge at its latest reading, or is in quarantine. Call it inside writeUnit's change,
+ * after the lock, before inserting the visit. The structured PTI (POST /api/units/:id/pti) has the override.
+ */
+export async function assertPtiMayPass(
+  tx: DbOrTx,
+  locked: {
+    unit: DepotUnit;
+    stats: { openLeakFoundAt: Date | null; pressureFlag: 'ok' | 'possible_low_charge' | 'unknown' } | null;
+  },
+  entries: readonly { kind: string; passed?: boolean }[],
+): Promise<void> {
+  if (!entries.some((e) => e.kind === 'pti' && e.passed)) return;
+  const { unit, stats } = locked;
+  const quarantine = quarantineFromHistory((await loadDepotHistory(tx, unit.id)).notes);
+  const blockers = ptiBlockers({
+    openLeakFoundAt: stats?.openLeakFoundAt ? stats.openLeakFoundAt.toISOString() : null,
+    pressureFlag: stats?.pressureFlag ?? 'unknown',
+    quarantined: quarantine != null,
+  });
+  if (blockers.length)
+    throw new HttpError(
+      409,
+      'pti_blocked',
+      `This PTI cannot be recorded as passed: ${blockers.map((b) => b.words).join(' ')} Record it as failed, or an engineer can override on the PTI checklist.`,
+      { events: blockers.map((b) => b.words).join(' ') },
+    );
 }
