@@ -6,7 +6,7 @@ import { ZxcvbnFactory } from '@zxcvbn-ts/core';
 import * as common from '@zxcvbn-ts/language-common';
 import * as english from '@zxcvbn-ts/language-en';
 import { badRequest } from './http-error';
-import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from '../../shared/schemas/auth';
+import { MAX_PASSWORD_LENGTH, MIN_PASSWORD_LENGTH } from '../../shared/schemas/account';
 
 /** zxcvbn's score 3: at least 10^8 guesses, "safely unguessable" against online guessing with throttling. */
 const MIN_SCORE = 3;

@@ -1,4 +1,4 @@
-import type { UserDto } from '../../shared/schemas/auth';
+import type { UserDto } from '../../shared/schemas/account';
 import type { users } from '../db/schema';
 
 type UserRow = typeof users.$inferSelect;

@@ -11,6 +11,14 @@ export const apiErrorDto = z.object({
 });
 export type ApiErrorDto = z.infer<typeof apiErrorDto>;
 
+/** A numeric id in a query string or a route parameter. */
+export const positiveId = (what: string) =>
+  z.coerce
+    .number({ message: `Not a valid ${what}` })
+    .int()
+    .positive()
+    .max(2_147_483_647);
+
 export const idParamSchema = z.object({ id: z.string().min(1).max(64) });
 
 // ---- The date rule: one place for every date the product accepts (forms, API, CSV import, query ranges) ----

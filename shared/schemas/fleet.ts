@@ -1,7 +1,8 @@
 // Fleet views: the fleet table (filters, sorting, pages), the overview charts, cylinder traceability.
 import { z } from 'zod';
-import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES, type ForecastSituation } from '../domain';
-import { daySchema } from './common';
+import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
+import { positiveId } from './common';
+import type { ForecastAccuracyDto } from './forecast';
 import { UNIT_STATUS_VALUES } from './history';
 
 export const FLEET_SORTS = ['score', 'rate', 'forecast', 'leakCheck', 'pti', 'containerNumber', 'co2e'] as const;
@@ -29,13 +30,6 @@ export const refrigerantCodeSchema = z.string().transform((v, ctx) => {
   }
   return r.code;
 });
-
-const positiveId = (what: string) =>
-  z.coerce
-    .number({ message: `Not a valid ${what}` })
-    .int()
-    .positive()
-    .max(2_147_483_647);
 
 export const fleetFiltersSchema = z.object({
   siteId: positiveId('site').optional(),
@@ -184,100 +178,3 @@ export type FleetOverviewDto = {
   /** The next top-up forecast's accuracy on this fleet's own record (DOMAIN.md §7b); null before the first case base. */
   forecastAccuracy: ForecastAccuracyDto | null;
 };
-
-/** Accuracy of one situation (or of all): cases judged, those still open, MAE, 80 % range coverage, pinball loss. */
-export type ForecastAccuracyRowDto = {
-  situation: ForecastSituation | null;
-  cases: number;
-  open: number;
-  maeDays: number | null;
-  coveragePct: number | null;
-  pinballDays: number | null;
-};
-export type ForecastAccuracyDto = {
-  /** When the case base was learned and measured. */
-  builtAt: string;
-  /** Past cut-offs with a known next top-up it learned from, and the units they came from. */
-  cases: number;
-  units: number;
-  k: number;
-  all: ForecastAccuracyRowDto;
-  bySituation: ForecastAccuracyRowDto[];
-};
-
-// --- traceability ---------------------------------------------------------------------------------------------
-
-export const MAX_TRACE_ROWS = 2000;
-export const MAX_TRACE_DAYS = 731;
-export const MAX_MARK_UNITS = 5000;
-
-const isoDay = (label: string) => daySchema({ format: `Enter the ${label} as a date, e.g. 2026-03-31` });
-
-export const traceQuerySchema = z
-  .object({
-    cylinder: z.string().trim().min(2, 'Type at least 2 characters of the cylinder or lot').max(64).optional(),
-    siteId: positiveId('site').optional(),
-    from: isoDay('first day').optional(),
-    to: isoDay('last day').optional(),
-  })
-  .superRefine((q, ctx) => {
-    if (!q.cylinder && !q.siteId) {
-      ctx.addIssue({ code: 'custom', message: 'Search by cylinder or lot, or by site and dates', path: ['cylinder'] });
-    }
-    if (q.siteId && !q.cylinder && (!q.from || !q.to)) {
-      ctx.addIssue({
-        code: 'custom',
-        message: 'Give the first and last day for a search by site',
-        path: [q.from ? 'to' : 'from'],
-      });
-    }
-    if (q.from && q.to) {
-      if (q.to < q.from) ctx.addIssue({ code: 'custom', message: 'The last day is before the first', path: ['to'] });
-      else if ((Date.parse(q.to) - Date.parse(q.from)) / 86_400_000 > MAX_TRACE_DAYS) {
-        ctx.addIssue({ code: 'custom', message: 'Search at most two years at a time', path: ['to'] });
-      }
-    }
-  });
-export type TraceQuery = z.output<typeof traceQuerySchema>;
-
-export type TraceChargeDto = {
-  eventId: number;
-  unitId: number;
-  containerNumber: string;
-  refrigerant: string;
-  kind: 'top_up' | 'recharge';
-  kg: number;
-  cylinder: string | null;
-  occurredAt: string;
-  site: { id: number; name: string } | null;
-  technician: { id: string; name: string };
-};
-
-export type TraceResultDto = {
-  charges: TraceChargeDto[];
-  /** All matching charges (the list stops at MAX_TRACE_ROWS). */
-  totalCharges: number;
-  units: { unitId: number; containerNumber: string; charges: number; kg: number; markedAt: string | null }[];
-  totalKg: number;
-  /** Voided charges are left out; this many matched. */
-  voidedExcluded: number;
-};
-
-export const markForInspectionSchema = z.object({
-  query: z.object({
-    cylinder: z.string().optional(),
-    siteId: z.number().int().positive().optional(),
-    from: z.string().optional(),
-    to: z.string().optional(),
-  }),
-  reason: z.string().trim().min(3, 'Say why these units are marked').max(500),
-  /** Chosen by the client: a retried request marks nothing twice. */
-  idempotencyKey: z
-    .string()
-    .min(8)
-    .max(40)
-    .regex(/^[\w-]+$/, 'Bad idempotency key'),
-});
-export type MarkForInspectionInput = z.infer<typeof markForInspectionSchema>;
-
-export type MarkForInspectionResultDto = { marked: number; replayed: boolean; eventIds: number[] };

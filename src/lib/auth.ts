@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useNavigate } from 'react-router-dom';
-import { meDto, type SignInInput, type UserDto } from '../../shared/schemas/auth';
+import { meDto, type SignInInput, type UserDto } from '../../shared/schemas/account';
 import { paths } from '../config/paths';
 import { apiClient } from './api-client';
 import { forgetPersistedQueries } from './persist-queries';

@@ -6,7 +6,7 @@ import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { createApp } from '../../server/app';
 import { createHttpServer } from '../../server/lib/http-server';
-import { MAX_IMPORT_BYTES } from '../../shared/schemas/units';
+import { MAX_IMPORT_BYTES } from '../../shared/schemas/imports';
 import { units } from '../../server/db/schema';
 import { newToken } from '../../server/lib/ids';
 import { openTestDb, resetDb } from '../support/db';

@@ -5,7 +5,7 @@ import { parse } from 'csv-parse/sync';
 import { and, eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { events } from '../../server/db/schema';
-import type { TraceResultDto } from '../../shared/schemas/fleet';
+import type { TraceResultDto } from '../../shared/schemas/trace';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite, halyardNumber } from '../support/units';

@@ -13,7 +13,7 @@ import { createHttpServer } from '../../server/lib/http-server';
 import { createLocalStorage } from '../../server/lib/storage';
 import type { Express } from 'express';
 import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES } from '../../shared/schemas/history';
-import { MAX_IMPORT_BYTES } from '../../shared/schemas/units';
+import { MAX_IMPORT_BYTES } from '../../shared/schemas/imports';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN, TEST_PASSWORD } from '../support/factories';
 import { openTestStorage, STORAGE_DRIVERS, type TestStorage } from '../support/storage-drivers';

@@ -14,7 +14,8 @@ import { DECISION_CHOICES } from '../../shared/schemas/decisions';
 import { FLEET_SORTS, SCORE_BANDS } from '../../shared/schemas/fleet';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 import { SITE_KINDS } from '../../shared/schemas/sites';
-import { IMPORT_COLUMNS, UNIT_SORTS, UNIT_STATUSES } from '../../shared/schemas/units';
+import { IMPORT_COLUMNS } from '../../shared/schemas/imports';
+import { UNIT_SORTS, UNIT_STATUSES } from '../../shared/schemas/units';
 import { TEST_PASSWORD } from './factories';
 import { halyardNumber } from './units';
 

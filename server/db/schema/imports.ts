@@ -1,7 +1,7 @@
 // CSV imports of units.
 import { sql } from 'drizzle-orm';
 import { datetime, index, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
-import { IMPORT_STATUSES } from '../../../shared/schemas/units';
+import { IMPORT_STATUSES } from '../../../shared/schemas/imports';
 import { users } from './people';
 
 /** A fleet CSV import: who ran it, and its progress while the one transaction runs (read from other connections). */

@@ -2,10 +2,9 @@
 import { sql } from 'drizzle-orm';
 import { datetime, index, int, mysqlEnum, mysqlTable, varchar } from 'drizzle-orm/mysql-core';
 import { users } from './people';
+import { JOB_KINDS, JOB_STATUSES } from '../../../shared/schemas/jobs';
 
-export const JOB_KINDS = ['stats_recompute', 'repair_effectiveness', 'forecast_cases'] as const;
-
-export const JOB_STATUSES = ['running', 'done', 'failed', 'superseded'] as const;
+export { JOB_KINDS, JOB_STATUSES };
 
 /** A background job and its progress (read by other requests while it runs). */
 export const backgroundJobs = mysqlTable(

@@ -15,7 +15,8 @@ import {
 import { sql } from 'drizzle-orm';
 import { sites } from './sites';
 import { users } from './people';
-import { IMPORT_STATUSES, UNIT_STATUSES } from '../../../shared/schemas/units';
+import { IMPORT_STATUSES } from '../../../shared/schemas/imports';
+import { UNIT_STATUSES } from '../../../shared/schemas/units';
 
 export { IMPORT_STATUSES, UNIT_STATUSES };
 

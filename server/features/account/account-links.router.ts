@@ -1,10 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import { idParamSchema } from '../../../shared/schemas/common';
-import {
-  linkTokenParamSchema,
-  requestPasswordResetSchema,
-  setPasswordSchema,
-} from '../../../shared/schemas/account-links';
+import { linkTokenParamSchema, requestPasswordResetSchema, setPasswordSchema } from '../../../shared/schemas/account';
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { HttpError } from '../../lib/http-error';

@@ -9,7 +9,7 @@ import { conflict, HttpError, notFound } from '../../lib/http-error';
 import { newToken } from '../../lib/ids';
 import { hashPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';
-import { INVITATION_HOURS, PASSWORD_RESET_HOURS, type AccountLinkDto } from '../../../shared/schemas/account-links';
+import { INVITATION_HOURS, PASSWORD_RESET_HOURS, type AccountLinkDto } from '../../../shared/schemas/account';
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail } from '../../lib/mail/layout';

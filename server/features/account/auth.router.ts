@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto';
-import { signInSchema } from '../../../shared/schemas/auth';
+import { signInSchema } from '../../../shared/schemas/account';
 import { HttpError } from '../../lib/http-error';
 import { clientAddress } from '../../lib/client-address';
 import type { AppContext } from '../../lib/app-context';

@@ -4,7 +4,7 @@ import type { Db } from '../../db/client';
 import { users } from '../../db/schema';
 import { burnPasswordCheck, verifyPassword } from '../../lib/password';
 import { HttpError } from '../../lib/http-error';
-import type { SignInInput } from '../../../shared/schemas/auth';
+import type { SignInInput } from '../../../shared/schemas/account';
 import type { SignInGuard } from '../../lib/sign-in-guard';
 
 // One answer for an unknown e-mail, a wrong password, an account without a password and a deactivated account.

@@ -13,7 +13,7 @@ import {
 } from '../../lib/jobs/runner';
 import { latestCaseBaseAt } from '../../lib/record/case-base';
 import { retryTransaction } from '../../lib/retry';
-import type { JobDto } from '../../../shared/schemas/settings-api';
+import type { JobDto } from '../../../shared/schemas/jobs';
 import { collectFleetCases, learnFromTable, storeCaseBase } from './case-base.service';
 
 /** The case base is rebuilt when older than this (the nightly refresh, and the scheduler's regular check). */

@@ -1,7 +1,7 @@
 // Reading a fleet CSV: the file itself is read by server/lib/csv-read.ts; here the fleet columns are matched to fields.
 import { badRequest } from '../../lib/http-error';
 import { readCsvTable, type CsvTable } from '../../lib/csv-read';
-import { IMPORT_COLUMNS, MAX_IMPORT_ROWS, type ImportField, type ImportMapping } from '../../../shared/schemas/units';
+import { IMPORT_COLUMNS, MAX_IMPORT_ROWS, type ImportField, type ImportMapping } from '../../../shared/schemas/imports';
 
 export type FleetCsv = CsvTable;
 export { acceptCsvHead, acceptCsvUpload } from '../../lib/csv-read';

@@ -3,7 +3,7 @@ import {
   importKeyParamSchema,
   importPreviewFormSchema,
   MAX_IMPORT_BYTES,
-} from '../../../shared/schemas/units';
+} from '../../../shared/schemas/imports';
 import type { AppContext } from '../../lib/app-context';
 import { badRequest } from '../../lib/http-error';
 import { singleFileUpload } from '../../middleware/upload';

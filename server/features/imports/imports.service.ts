@@ -17,7 +17,7 @@ import {
   type ImportRow,
   type ImportRowErrorDto,
   type UnitImportDto,
-} from '../../../shared/schemas/units';
+} from '../../../shared/schemas/imports';
 import type { AppContext } from '../../lib/app-context';
 import { registerNewUnits } from '../../lib/record/write-path';
 import { newUnitRow } from '../../lib/record/new-unit';

@@ -1,5 +1,6 @@
 import type { Response } from 'express';
-import { labelsRequestSchema, unitIdParamSchema } from '../../../shared/schemas/units';
+import { labelsRequestSchema } from '../../../shared/schemas/labels';
+import { unitIdParamSchema } from '../../../shared/schemas/units';
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { unitsForLabels } from './labels.service';

@@ -1,7 +1,7 @@
 // The administrator's list of people: adding, changing roles, deactivating, and ending their sessions.
 import { eq } from 'drizzle-orm';
 import { sessionParamSchema } from '../../../shared/schemas/account';
-import { createUserSchema, updateUserSchema } from '../../../shared/schemas/users';
+import { createUserSchema, updateUserSchema } from '../../../shared/schemas/people';
 import { idParamSchema } from '../../../shared/schemas/common';
 import { users } from '../../db/schema';
 import type { AppContext } from '../../lib/app-context';

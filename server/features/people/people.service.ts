@@ -6,7 +6,7 @@ import { conflict, notFound } from '../../lib/http-error';
 import { hashPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';
 import { newId } from '../../lib/ids';
-import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/users';
+import type { CreateUserInput, UpdateUserInput } from '../../../shared/schemas/people';
 import { toUserDto } from '../../lib/user-dto';
 import type { AppContext } from '../../lib/app-context';
 

@@ -1,6 +1,6 @@
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
-import { updateSettingsSchema } from '../../../shared/schemas/settings-api';
+import { updateSettingsSchema } from '../../../shared/schemas/settings';
 import { latestJob } from '../../lib/jobs/runner';
 import { getSettingsDto, getSettingsHistory, saveSettings } from './settings.service';
 

@@ -6,8 +6,8 @@ import { conflict, forbidden } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import { parseStoredSettings, readCurrentSettings, type SettingsCache } from '../../lib/settings';
 import { can } from '../../../shared/permissions';
-import { DEFAULT_SETTINGS } from '../../../shared/schemas/settings';
 import {
+  DEFAULT_SETTINGS,
   changedSections,
   RECOMPUTING_SECTIONS,
   SETTINGS_SECTION_LABELS,
@@ -19,7 +19,7 @@ import {
   type SettingsHistoryDto,
   type SettingsSection,
   type UpdateSettingsInput,
-} from '../../../shared/schemas/settings-api';
+} from '../../../shared/schemas/settings';
 
 /** The settings in force as `viewer` may read them (sections their role may not read are left out). */
 export async function getSettingsDto(

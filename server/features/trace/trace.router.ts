@@ -2,7 +2,7 @@ import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { sendCsv, streamRows } from '../../lib/csv-stream';
 import { dayText } from '../../lib/dates';
-import { markForInspectionSchema, traceQuerySchema } from '../../../shared/schemas/fleet';
+import { markForInspectionSchema, traceQuerySchema } from '../../../shared/schemas/trace';
 import { markForInspection, traceCharges, traceChargesQuery } from './trace.service';
 
 const TRACE_CSV_COLUMNS = [

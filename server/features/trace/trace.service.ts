@@ -15,7 +15,7 @@ import {
   type MarkForInspectionResultDto,
   type TraceQuery,
   type TraceResultDto,
-} from '../../../shared/schemas/fleet';
+} from '../../../shared/schemas/trace';
 import { MAX_NOTE_LENGTH } from '../../../shared/schemas/history';
 import { dayPlus } from '../../lib/dates';
 

@@ -2,11 +2,11 @@ import { parseContainerNumber } from '../../../shared/domain';
 import {
   containerNumberParamSchema,
   createUnitSchema,
-  qrTokenParamSchema,
   unitIdParamSchema,
   unitListQuerySchema,
   updateUnitSchema,
 } from '../../../shared/schemas/units';
+import { qrTokenParamSchema } from '../../../shared/schemas/labels';
 import type { AppContext } from '../../lib/app-context';
 import { HttpError } from '../../lib/http-error';
 import { route } from '../../lib/route';

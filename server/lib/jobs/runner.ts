@@ -7,7 +7,7 @@ import { backgroundJobs, type JOB_KINDS } from '../../db/schema';
 import type { AppCaches } from '../caches';
 import type { Clock } from '../clock';
 import type { Logger } from '../logger';
-import type { JobDto } from '../../../shared/schemas/settings-api';
+import type { JobDto } from '../../../shared/schemas/jobs';
 
 export type JobKind = (typeof JOB_KINDS)[number];
 export type JobRow = typeof backgroundJobs.$inferSelect;

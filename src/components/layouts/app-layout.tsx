@@ -1,7 +1,7 @@
 import { useEffect, useRef, type ReactNode } from 'react';
 import { Link, NavLink, useLocation, useNavigation } from 'react-router-dom';
 import { can, ROLE_LABELS } from '../../../shared/permissions';
-import type { UserDto } from '../../../shared/schemas/auth';
+import type { UserDto } from '../../../shared/schemas/account';
 import { navEntries, paths } from '../../config/paths';
 import { updateIfSafe } from '../../lib/app-update';
 import { useSignOut } from '../../lib/auth';

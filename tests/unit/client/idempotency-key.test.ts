@@ -1,8 +1,8 @@
 import { describe, expect, it, vi } from 'vitest';
-import { markForInspectionSchema } from '../../../shared/schemas/fleet';
+import { markForInspectionSchema } from '../../../shared/schemas/trace';
 import { recordVisitSchema } from '../../../shared/schemas/history';
 import { recordDecisionSchema } from '../../../shared/schemas/decisions';
-import { importCommitFormSchema } from '../../../shared/schemas/units';
+import { importCommitFormSchema } from '../../../shared/schemas/imports';
 import { newIdempotencyKey } from '../../../src/lib/idempotency-key';
 
 describe('newIdempotencyKey', () => {

@@ -1,5 +1,5 @@
 import { useNavigate, useParams } from 'react-router-dom';
-import { INVITATION_HOURS } from '../../../../shared/schemas/account-links';
+import { INVITATION_HOURS } from '../../../../shared/schemas/account';
 import { AuthLayout } from '../../../components/layouts/auth-layout';
 import { ButtonLink } from '../../../components/ui/button';
 import { Spinner } from '../../../components/ui/spinner';

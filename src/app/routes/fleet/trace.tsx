@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { traceQuerySchema, type TraceQuery } from '../../../../shared/schemas/fleet';
+import { traceQuerySchema, type TraceQuery } from '../../../../shared/schemas/trace';
 import { Alert } from '../../../components/ui/alert';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { TextField, SelectField } from '../../../components/ui/field';

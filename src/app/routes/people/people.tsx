@@ -1,7 +1,7 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useEffect, useRef, useState } from 'react';
 import { ROLE_LABELS } from '../../../../shared/permissions';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PeopleIcon, PlusIcon } from '../../../components/ui/icons';

@@ -3,7 +3,7 @@ import {
   SETTINGS_SECTION_LABELS,
   SETTINGS_SECTION_PERMISSION,
   SETTINGS_SECTIONS,
-} from '../../../../shared/schemas/settings-api';
+} from '../../../../shared/schemas/settings';
 import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { settingsQuery, useSettings, useSettingsHistory } from '../../../features/settings/api/settings';

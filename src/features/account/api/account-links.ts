@@ -1,6 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { accountLinkDto, type AccountLinkDto } from '../../../../shared/schemas/account-links';
-import { meDto, type UserDto } from '../../../../shared/schemas/auth';
+import { accountLinkDto, type AccountLinkDto, meDto, type UserDto } from '../../../../shared/schemas/account';
 import { apiClient } from '../../../lib/api-client';
 import { meQuery } from '../../../lib/auth';
 import { accountKeys, type AccountLinkPurpose } from './keys';

@@ -1,8 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
-import { changePasswordSchema } from '../../../../shared/schemas/account';
-import { PASSWORD_RULE_HINT } from '../../../../shared/schemas/auth';
+import { changePasswordSchema, PASSWORD_RULE_HINT } from '../../../../shared/schemas/account';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField } from '../../../components/ui/field';

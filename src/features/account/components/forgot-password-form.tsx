@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { PASSWORD_RESET_HOURS, requestPasswordResetSchema } from '../../../../shared/schemas/account-links';
+import { PASSWORD_RESET_HOURS, requestPasswordResetSchema } from '../../../../shared/schemas/account';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';

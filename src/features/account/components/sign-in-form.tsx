@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { signInSchema } from '../../../../shared/schemas/auth';
+import { signInSchema } from '../../../../shared/schemas/account';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField, TextField } from '../../../components/ui/field';

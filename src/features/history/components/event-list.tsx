@@ -13,7 +13,7 @@ import {
   type MassUnit,
 } from '../../../../shared/domain';
 import { can } from '../../../../shared/permissions';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { VOID_WINDOW_HOURS, type EventDto } from '../../../../shared/schemas/history';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';

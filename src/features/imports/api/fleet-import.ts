@@ -6,7 +6,7 @@ import {
   type ImportMapping,
   type ImportPreviewDto,
   type UnitImportDto,
-} from '../../../../shared/schemas/units';
+} from '../../../../shared/schemas/imports';
 import { apiClient } from '../../../lib/api-client';
 import { uploadForm, type TransferProgress } from '../../../lib/transfer';
 import { queryRoots } from '../../../lib/query-roots';

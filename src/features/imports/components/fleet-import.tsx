@@ -7,7 +7,7 @@ import {
   type ImportMapping,
   type ImportPreviewDto,
   type UnitImportDto,
-} from '../../../../shared/schemas/units';
+} from '../../../../shared/schemas/imports';
 import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink, buttonClasses } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';

@@ -1,5 +1,5 @@
 import { useQuery, useQueryClient, type QueryKey } from '@tanstack/react-query';
-import type { JobDto } from '../../../../shared/schemas/settings-api';
+import type { JobDto } from '../../../../shared/schemas/jobs';
 import { apiClient } from '../../../lib/api-client';
 import { jobKeys } from './keys';
 

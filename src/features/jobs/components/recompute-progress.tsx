@@ -1,5 +1,5 @@
 import type { QueryKey } from '@tanstack/react-query';
-import type { JobDto } from '../../../../shared/schemas/settings-api';
+import type { JobDto } from '../../../../shared/schemas/jobs';
 import { Alert } from '../../../components/ui/alert';
 import { useJob } from '../api/get-job';
 import { fmtCount } from '../../../lib/format';

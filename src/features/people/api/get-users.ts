@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { UserDto } from '../../../../shared/schemas/auth';
-import { usersListDto } from '../../../../shared/schemas/users';
+import type { UserDto } from '../../../../shared/schemas/account';
+import { usersListDto } from '../../../../shared/schemas/people';
 import { apiClient } from '../../../lib/api-client';
 import { peopleKeys } from './keys';
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { meDto, type UserDto } from '../../../../shared/schemas/auth';
-import type { UpdateUserInput } from '../../../../shared/schemas/users';
+import { meDto, type UserDto } from '../../../../shared/schemas/account';
+import type { UpdateUserInput } from '../../../../shared/schemas/people';
 import { apiClient } from '../../../lib/api-client';
 import { authKeys } from '../../../lib/auth';
 import { peopleKeys } from './keys';

@@ -1,5 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { Button } from '../../../components/ui/button';
 import { useUpdateUser } from '../api/update-user';
 

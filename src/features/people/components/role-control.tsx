@@ -1,6 +1,6 @@
 import { useId, useState } from 'react';
 import { ROLE_LABELS, ROLES, type Role } from '../../../../shared/permissions';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { useUpdateUser } from '../api/update-user';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { Button } from '../../../components/ui/button';
 import { useEndUserSessions, useUserSessions } from '../api/user-sessions';
 import { DeviceList } from '../../../components/sessions/device-list';

@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import type { UserDto } from '../../../../shared/schemas/auth';
+import type { UserDto } from '../../../../shared/schemas/account';
 import { cx } from '../../../components/ui/cx';
 import { Badge } from '../../../components/ui/page';
 import { ActiveControl } from './active-control';

@@ -1,4 +1,4 @@
-import type { TraceQuery } from '../../../../shared/schemas/fleet';
+import type { TraceQuery } from '../../../../shared/schemas/trace';
 import { queryRoots } from '../../../lib/query-roots';
 
 export const traceKeys = {

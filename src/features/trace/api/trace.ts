@@ -4,7 +4,7 @@ import type {
   MarkForInspectionResultDto,
   TraceQuery,
   TraceResultDto,
-} from '../../../../shared/schemas/fleet';
+} from '../../../../shared/schemas/trace';
 import { apiClient } from '../../../lib/api-client';
 import { toSearch } from '../../../lib/query-string';
 import { traceKeys } from './keys';

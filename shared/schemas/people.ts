@@ -1,6 +1,7 @@
+// The administrator's list of people: who may sign in, with which role.
 import { z } from 'zod';
 import { ROLES } from '../permissions';
-import { emailSchema, passwordSchema, userDto } from './auth';
+import { emailSchema, passwordSchema, userDto } from './account';
 
 export const MAX_NAME_LENGTH = 120;
 export const MAX_CERTIFICATE_LENGTH = 64;
