@@ -30,6 +30,8 @@ const kg = z
   .positive('The mass must be more than 0')
   .max(1000, 'That mass is not plausible for a reefer unit');
 const cylinder = z.string().trim().min(1, 'Enter the cylinder or lot number').max(MAX_CYLINDER_LENGTH);
+/** The register's cylinder (cylinders feature); the API checks refrigerant, kind, status and capacity. */
+const registerCylinder = z.number().int().positive().optional();
 const massEntered = z.object({ value: z.number(), unit: z.enum(MASS_UNITS) }).optional();
 const celsius = (label: string) =>
   z
@@ -90,6 +92,7 @@ const topUpEvent = z.object({
   kg,
   enteredAs: massEntered,
   cylinder,
+  cylinderId: registerCylinder,
   reusedRecovered: z.boolean().optional(),
   note: optionalNote,
 });
@@ -98,6 +101,7 @@ const recoveryEvent = z.object({
   kg,
   enteredAs: massEntered,
   cylinder: cylinder.describe('recovery cylinder'),
+  cylinderId: registerCylinder,
   note: optionalNote,
 });
 const rechargeEvent = z.object({
@@ -105,6 +109,7 @@ const rechargeEvent = z.object({
   kg,
   enteredAs: massEntered,
   cylinder,
+  cylinderId: registerCylinder,
   reusedRecovered: z.boolean().optional(),
   // A first fill or a retrofit charge is not made-up refrigerant (40 CFR 82.157(b)).
   excludedFromLeakRate: z.boolean().optional(),
@@ -200,98 +205,119 @@ export const historyQuerySchema = z.object({
 
 // --- responses ---------------------------------------------------------------------------------------------
 
-export type AttachmentDto = {
-  id: number;
-  mimeType: string;
-  sizeBytes: number;
-  originalName: string;
-  url: string;
-  thumbnailUrl: string | null;
-};
+const attachmentDto = z.object({
+  id: z.number(),
+  mimeType: z.string(),
+  sizeBytes: z.number(),
+  originalName: z.string(),
+  url: z.string(),
+  thumbnailUrl: z.string().nullable(),
+});
+export type AttachmentDto = z.infer<typeof attachmentDto>;
+export const attachmentsDto = z.object({ attachments: z.array(attachmentDto) });
+export type AttachmentsDto = z.infer<typeof attachmentsDto>;
 
-export type EventDto = {
-  id: number;
-  unitId: number;
-  visitId: number | null;
-  kind: string;
-  occurredAt: string;
-  enteredAt: string;
-  site: { id: number; name: string } | null;
-  recordedBy: { id: string; name: string };
-  kg: number | null;
-  cylinder: string | null;
-  reusedRecovered: boolean | null;
-  excludedFromLeakRate: boolean | null;
-  method: string | null;
-  leakFound: boolean | null;
-  location: string | null;
-  action: string | null;
-  verified: boolean | null;
-  passed: boolean | null;
-  suctionKPaG: number | null;
-  dischargeKPaG: number | null;
-  ambientC: number | null;
-  setPointC: number | null;
-  supplyAirC: number | null;
-  returnAirC: number | null;
-  sightGlass: string | null;
-  details: Record<string, unknown> | null;
-  note: string | null;
-  voidsEventId: number | null;
-  voided: { by: { id: string; name: string }; at: string; reason: string; eventId: number } | null;
-  attachments: AttachmentDto[];
-};
+const person = z.object({ id: z.string(), name: z.string() });
 
-export type UnitStatsDto = {
-  computedAt: string;
-  rollingLeakRatePct: number;
-  calendarYearSharePct: number;
-  score: number;
-  scoreBand: 'tight' | 'watch' | 'chronic';
-  co2eTonnes: number;
-  leakCheckIntervalMonths: number | null;
-  lastLeakCheckAt: string | null;
-  nextLeakCheckDue: string | null;
-  ptiValidUntil: string | null;
-  ptiPassed: boolean | null;
-  pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
-  forecast: { date: string; earliest: string | null; latest: string | null; overdue: boolean } | null;
-  /** The engine's result without its per-visit and per-snapshot series (those come with the timeline). */
-  detail: UnitStatsSummary | null;
-  /** Why the figures could not be computed from this unit's record (then the figures above are placeholders). */
-  computeError: string | null;
-};
+export const eventDto = z.object({
+  id: z.number(),
+  unitId: z.number(),
+  visitId: z.number().nullable(),
+  kind: z.string(),
+  occurredAt: z.string(),
+  enteredAt: z.string(),
+  site: z.object({ id: z.number(), name: z.string() }).nullable(),
+  recordedBy: person,
+  kg: z.number().nullable(),
+  cylinder: z.string().nullable(),
+  reusedRecovered: z.boolean().nullable(),
+  excludedFromLeakRate: z.boolean().nullable(),
+  method: z.string().nullable(),
+  leakFound: z.boolean().nullable(),
+  location: z.string().nullable(),
+  action: z.string().nullable(),
+  verified: z.boolean().nullable(),
+  passed: z.boolean().nullable(),
+  suctionKPaG: z.number().nullable(),
+  dischargeKPaG: z.number().nullable(),
+  ambientC: z.number().nullable(),
+  setPointC: z.number().nullable(),
+  supplyAirC: z.number().nullable(),
+  returnAirC: z.number().nullable(),
+  sightGlass: z.string().nullable(),
+  details: z.record(z.string(), z.unknown()).nullable(),
+  note: z.string().nullable(),
+  voidsEventId: z.number().nullable(),
+  voided: z.object({ by: person, at: z.string(), reason: z.string(), eventId: z.number() }).nullable(),
+  attachments: z.array(attachmentDto),
+});
+export type EventDto = z.infer<typeof eventDto>;
 
 /** What the statistics row keeps of `computeUnitStats`: every figure and reason, not the series. */
 export type UnitStatsSummary = Omit<UnitStats, 'visits' | 'snapshots'>;
 
-export type RecordVisitResultDto = {
-  visitId: number;
-  replayed: boolean;
-  events: EventDto[];
-  stats: UnitStatsDto;
-};
+export const unitStatsDto = z.object({
+  computedAt: z.string(),
+  rollingLeakRatePct: z.number(),
+  calendarYearSharePct: z.number(),
+  score: z.number(),
+  scoreBand: z.enum(['tight', 'watch', 'chronic']),
+  co2eTonnes: z.number(),
+  leakCheckIntervalMonths: z.number().nullable(),
+  lastLeakCheckAt: z.string().nullable(),
+  nextLeakCheckDue: z.string().nullable(),
+  ptiValidUntil: z.string().nullable(),
+  ptiPassed: z.boolean().nullable(),
+  pressureFlag: z.enum(['ok', 'possible_low_charge', 'unknown']),
+  forecast: z
+    .object({ date: z.string(), earliest: z.string().nullable(), latest: z.string().nullable(), overdue: z.boolean() })
+    .nullable(),
+  /** The engine's result without its per-visit and per-snapshot series (those come with the timeline). */
+  detail: z.custom<UnitStatsSummary>().nullable(),
+  /** Why the figures could not be computed from this unit's record (then the figures above are placeholders). */
+  computeError: z.string().nullable(),
+});
+export type UnitStatsDto = z.infer<typeof unitStatsDto>;
 
-export type UnitHistoryDto = { events: EventDto[]; nextBefore: number | null };
+export const recordVisitResultDto = z.object({
+  visitId: z.number(),
+  replayed: z.boolean(),
+  events: z.array(eventDto),
+  stats: unitStatsDto,
+});
+export type RecordVisitResultDto = z.infer<typeof recordVisitResultDto>;
 
-export type TimelineEventDto = Pick<
-  EventDto,
-  | 'id'
-  | 'visitId'
-  | 'kind'
-  | 'occurredAt'
-  | 'kg'
-  | 'leakFound'
-  | 'location'
-  | 'verified'
-  | 'passed'
-  | 'suctionKPaG'
-  | 'dischargeKPaG'
-  | 'ambientC'
-  | 'sightGlass'
-> & { voided: boolean };
+export const voidEventResultDto = z.object({ event: eventDto, stats: unitStatsDto });
+export type VoidEventResultDto = z.infer<typeof voidEventResultDto>;
+
+export const unitHistoryDto = z.object({ events: z.array(eventDto), nextBefore: z.number().nullable() });
+export type UnitHistoryDto = z.infer<typeof unitHistoryDto>;
+
+export const timelineEventDto = eventDto
+  .pick({
+    id: true,
+    visitId: true,
+    kind: true,
+    occurredAt: true,
+    kg: true,
+    leakFound: true,
+    location: true,
+    verified: true,
+    passed: true,
+    suctionKPaG: true,
+    dischargeKPaG: true,
+    ambientC: true,
+    sightGlass: true,
+  })
+  .extend({ voided: z.boolean() });
+export type TimelineEventDto = z.infer<typeof timelineEventDto>;
 
 /** The timeline's events, and the pressure snapshots with saturation temperatures the engine derives from them. */
-export type UnitTimelineDto = { events: TimelineEventDto[]; snapshots: PressureSnapshot[] };
+export const unitTimelineDto = z.object({
+  events: z.array(timelineEventDto),
+  snapshots: z.array(z.custom<PressureSnapshot>()),
+});
+export type UnitTimelineDto = z.infer<typeof unitTimelineDto>;
 
-export type UnitOverviewDto = { stats: UnitStatsDto | null; history: UnitHistoryDto };
+export const unitOverviewDto = z.object({ stats: unitStatsDto.nullable(), history: unitHistoryDto });
+export type UnitOverviewDto = z.infer<typeof unitOverviewDto>;

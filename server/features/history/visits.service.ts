@@ -1,4 +1,5 @@
 // Recording visits and voids: append-only, through the unit write path.
+import { recordCylinderMoves } from '../../lib/record/cylinder-moves';
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
@@ -96,6 +97,13 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
           enteredAt: now,
         })),
       );
+      await recordCylinderMoves(tx, {
+        unit,
+        visitId: inserted.id,
+        occurredAt,
+        entries: input.events,
+        settings: () => ctx.caches.settings.get(tx),
+      });
       const statusChange = input.events.findLast((e) => e.kind === 'status_change');
       const newStatus =
         statusChange?.kind === 'status_change' && statusChange.status !== unit.status ? statusChange.status : null;

@@ -66,11 +66,13 @@ export async function recordCylinderMoves(
     visitId: number;
     occurredAt: Date;
     entries: readonly Movement[];
-    settings: object;
+    /** The settings in force, read only when a movement names a cylinder. */
+    settings: () => Promise<object>;
   },
 ): Promise<void> {
   const named = args.entries.flatMap((e, i) => (e.cylinderId != null && e.kg != null ? [{ ...e, i }] : []));
   if (!named.length) return;
+  const settings = await args.settings();
   const locked = await lockCylinders(
     tx,
     named.map((e) => e.cylinderId!),
@@ -79,7 +81,7 @@ export async function recordCylinderMoves(
   const ledgers = new Map<number, Awaited<ReturnType<typeof ledgerOf>>>();
   // Kilograms this visit already put into / took out of each cylinder, for several entries on one cylinder.
   const pending = new Map<number, number>();
-  const { toleranceKg } = cylinderSettingsOf(args.settings);
+  const { toleranceKg } = cylinderSettingsOf(settings);
   for (const e of named) {
     const at = `events.${e.i}.cylinderId`;
     const c = locked.get(e.cylinderId!);
@@ -109,7 +111,7 @@ export async function recordCylinderMoves(
       continue;
     }
     let ledger = ledgers.get(c.id);
-    if (!ledger) ledgers.set(c.id, (ledger = await ledgerOf(tx, c, args.settings)));
+    if (!ledger) ledgers.set(c.id, (ledger = await ledgerOf(tx, c, settings)));
     const already = pending.get(c.id) ?? 0;
     if (recovery) {
       const room = recoveryRoomKg(ledger, c.capacityKg) - already;
