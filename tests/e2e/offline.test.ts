@@ -1,16 +1,15 @@
 // Issue 19: a technician with no signal. The app shell comes from the service worker, units seen before from the
 // query cache kept in IndexedDB, and visits (with their photos) wait in IndexedDB until the connection is back.
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync } from 'node:fs';
-import os from 'node:os';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import path from 'node:path';
 import { count, eq } from 'drizzle-orm';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import sharp from 'sharp';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { attachments, visits } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { CHROMIUM_ARGS, PHONE, signInThroughForm } from '../support/browser';
+import { signInThroughForm } from '../support/browser';
+import { phoneProfile, readyForOffline } from '../support/offline-phone';
 import { createHistoryUnit, recordVisits } from '../support/history';
 import { PROJECT_ROOT } from '../../scripts/lib/mariadb';
 
@@ -24,47 +23,6 @@ const DAY = 86_400_000;
 const at = (msAgo: number) => new Date(Date.now() - msAgo).toISOString();
 const countOf = async (table: typeof visits | typeof attachments, unitId: number) =>
   Number((await db.select({ n: count() }).from(table).where(eq(table.unitId, unitId)))[0].n);
-
-/** A phone whose browser can be closed and opened again on the same profile (same IndexedDB, same service worker). */
-function phoneProfile() {
-  const tmp = path.join(os.tmpdir(), 'tightloop-e2e');
-  mkdirSync(tmp, { recursive: true });
-  process.env.TMPDIR = tmp;
-  const dir = mkdtempSync(path.join(tmp, 'profile-'));
-  const errors: string[] = [];
-  return {
-    errors,
-    async open(): Promise<{ context: BrowserContext; page: Page }> {
-      const context = await chromium.launchPersistentContext(dir, {
-        executablePath: '/usr/bin/chromium',
-        args: CHROMIUM_ARGS,
-        viewport: PHONE,
-        baseURL: baseUrl,
-      });
-      const page = context.pages()[0] ?? (await context.newPage());
-      page.on('pageerror', (e) => errors.push(e.message));
-      page.on('console', (m) => {
-        // Offline, the browser itself logs every refused request; only the app's own errors count.
-        if (m.type() === 'error' && !/^Failed to load resource|ERR_INTERNET_DISCONNECTED/.test(m.text()))
-          errors.push(m.text());
-      });
-      return { context, page };
-    },
-    remove: () => rmSync(dir, { recursive: true, force: true }),
-  };
-}
-
-/** Until the service worker controls the page and the query cache has been written to IndexedDB. */
-async function readyForOffline(page: Page) {
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-  });
-  await page.waitForTimeout(1500);
-  // Controlled from the next navigation on; the cache is written at most once a second.
-  await page.reload();
-  await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
-  await page.waitForTimeout(1500);
-}
 
 describe('working with no signal', () => {
   it('opens a unit seen before by its label offline, keeps a visit with a photo through a browser restart, and sends it exactly once', async () => {
@@ -110,8 +68,7 @@ describe('working with no signal', () => {
 
       // The browser is closed and opened again, still with no signal: the visit and its photo are still there.
       await session.context.close();
-      session = await phone.open();
-      await session.context.setOffline(true);
+      session = await phone.open({ offline: true });
       await session.page.goto(`/units/${unit.id}`);
       await session.page.getByTestId('unit-figures').waitFor();
       await expect.poll(() => session.page.getByTestId('connection-status').getAttribute('data-waiting')).toBe('1');
@@ -206,12 +163,12 @@ describe('first load of a unit page (budget)', () => {
       return seen;
     };
     const entryKey = Object.keys(manifest).find((k) => manifest[k].isEntry)!;
-    // The unit page is in the entry; its history (with the figures) is the one chunk it loads at once.
-    const keys = new Set([...closure(entryKey), ...closure('src/features/history/components/service-history.tsx')]);
+    // The unit page's data is in the entry; its code (page, history and figures) is the one chunk it loads at once.
+    const keys = new Set([...closure(entryKey), ...closure('src/app/routes/units/unit.tsx')]);
     const files = new Set([...keys].flatMap((k) => [manifest[k].file, ...(manifest[k].css ?? [])]));
-    // The weights the app uses (font-normal, font-semibold, font-bold), latin only.
+    // The three preloaded core faces (scripts/subset-fonts.ts), and the label's boot script (vite.config.ts).
     for (const f of readdirSync(path.join(DIST, 'assets')))
-      if (/^work-sans-latin-(400|600|700)-normal-.+\.woff2$/.test(f)) files.add(`assets/${f}`);
+      if (/^(work-sans-(400|600|700)-core|label-boot)-.+\.(woff2|js)$/.test(f)) files.add(`assets/${f}`);
     files.add('index.html');
     const wire = (f: string) => {
       const br = path.join(DIST, `${f}.br`);
