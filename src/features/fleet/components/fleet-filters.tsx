@@ -34,14 +34,133 @@ function Labelled({
   );
 }
 
+/** A select of one filter: "any" first (empty), then the choices. */
+function SelectFilter({
+  label,
+  value,
+  any,
+  options,
+  onChange,
+}: {
+  label: string;
+  value: string;
+  any: string;
+  options: readonly (readonly [string, string])[];
+  onChange: (value: string) => void;
+}) {
+  return (
+    <Labelled label={label}>
+      {(id) => (
+        <select id={id} className={control} value={value} onChange={(e) => onChange(e.target.value)}>
+          <option value="">{any}</option>
+          {options.map(([v, l]) => (
+            <option key={v} value={v}>
+              {l}
+            </option>
+          ))}
+        </select>
+      )}
+    </Labelled>
+  );
+}
+
+function CheckFilter({
+  label,
+  checked,
+  onChange,
+}: {
+  label: string;
+  checked: boolean;
+  onChange: (on: boolean) => void;
+}) {
+  return (
+    <label className="flex min-h-touch items-center gap-3 self-end text-base font-semibold">
+      <input
+        type="checkbox"
+        className="size-6 accent-fjord-700"
+        checked={checked}
+        onChange={(e) => onChange(e.target.checked)}
+      />
+      {label}
+    </label>
+  );
+}
+
+/** The container-number search: spaces and dashes dropped, upper case. */
+function NumberSearch({ value, onSearch }: { value: string | undefined; onSearch: (q: string | undefined) => void }) {
+  const [q, setQ] = useState(value ?? '');
+  useEffect(() => setQ(value ?? ''), [value]);
+  return (
+    <form
+      role="search"
+      className="flex gap-2"
+      onSubmit={(e) => {
+        e.preventDefault();
+        onSearch(q.trim() ? q.replace(/[\s-]/g, '').toUpperCase() : undefined);
+      }}
+    >
+      <label htmlFor="fleet-q" className="sr-only">
+        Container number starts with
+      </label>
+      <input
+        id="fleet-q"
+        value={q}
+        onChange={(e) => setQ(e.target.value)}
+        placeholder="Container number, e.g. HRLU 30"
+        autoCapitalize="characters"
+        autoCorrect="off"
+        spellCheck={false}
+        maxLength={20}
+        className={cx(control, 'min-h-touch-lg flex-1')}
+      />
+      <Button type="submit" size="lg" className="px-4">
+        <SearchIcon className="size-5" />
+        <span className="sr-only sm:not-sr-only">Find</span>
+      </Button>
+    </form>
+  );
+}
+
+/** A leak rate typed with a point or a comma, taken when the field is left (or Enter). */
+function RateFilter({ value, onChange }: { value: number | undefined; onChange: (v: number | undefined) => void }) {
+  const [rate, setRate] = useState(value === undefined ? '' : String(value));
+  useEffect(() => setRate(value === undefined ? '' : String(value)), [value]);
+  return (
+    <Labelled label="Leak rate above (%)">
+      {(id) => (
+        <input
+          id={id}
+          className={control}
+          inputMode="decimal"
+          value={rate}
+          placeholder="e.g. 20"
+          onChange={(e) => setRate(e.target.value)}
+          onBlur={() => {
+            const v = Number(rate.replace(',', '.'));
+            onChange(rate.trim() !== '' && Number.isFinite(v) && v >= 0 ? v : undefined);
+          }}
+          onKeyDown={(e) => {
+            if (e.key === 'Enter') (e.target as HTMLInputElement).blur();
+          }}
+        />
+      )}
+    </Labelled>
+  );
+}
+
+const REFRIGERANT_OPTIONS = REFRIGERANT_CODES.map((r) => [r, r] as const);
+const STATUS_OPTIONS = UNIT_STATUS_VALUES.map((s) => [s, UNIT_STATUS_LABELS[s]] as const);
+const BAND_OPTIONS = SCORE_BANDS.map((b) => [b, SCORE_BAND_WORDS[b].label] as const);
+const FORECAST_OPTIONS = [
+  ['overdue', 'Overdue'],
+  ['30', 'Within 30 days or overdue'],
+  ['90', 'Within 90 days or overdue'],
+] as const;
+
 type Props = { filters: FleetFilters; sites: SiteOption[]; onChange: (next: FleetFilters) => void };
 
 /** Every filter of the fleet table; on phones folded under one "Filters" button. */
 export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
-  const [q, setQ] = useState(filters.q ?? '');
-  const [rate, setRate] = useState(filters.rateAbove === undefined ? '' : String(filters.rateAbove));
-  useEffect(() => setQ(filters.q ?? ''), [filters.q]);
-  useEffect(() => setRate(filters.rateAbove === undefined ? '' : String(filters.rateAbove)), [filters.rateAbove]);
   const set = (patch: Partial<FleetFilters>) => onChange({ ...filters, ...patch });
   const active = activeFilterCount(filters);
   const forecastValue = filters.forecastOverdue
@@ -52,33 +171,7 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
 
   return (
     <div className="flex flex-col gap-3">
-      <form
-        role="search"
-        className="flex gap-2"
-        onSubmit={(e) => {
-          e.preventDefault();
-          set({ q: q.trim() ? q.replace(/[\s-]/g, '').toUpperCase() : undefined });
-        }}
-      >
-        <label htmlFor="fleet-q" className="sr-only">
-          Container number starts with
-        </label>
-        <input
-          id="fleet-q"
-          value={q}
-          onChange={(e) => setQ(e.target.value)}
-          placeholder="Container number, e.g. HRLU 30"
-          autoCapitalize="characters"
-          autoCorrect="off"
-          spellCheck={false}
-          maxLength={20}
-          className={cx(control, 'min-h-touch-lg flex-1')}
-        />
-        <Button type="submit" size="lg" className="px-4">
-          <SearchIcon className="size-5" />
-          <span className="sr-only sm:not-sr-only">Find</span>
-        </Button>
-      </form>
+      <NumberSearch value={filters.q} onSearch={(q) => set({ q })} />
       <details
         className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1"
         open={active > 0 ? true : undefined}
@@ -95,132 +188,57 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
           </span>
         </summary>
         <div className="grid grid-cols-1 gap-3 px-4 pb-4 sm:grid-cols-2 lg:grid-cols-4">
-          <Labelled label="Site">
-            {(id) => (
-              <select
-                id={id}
-                className={control}
-                value={filters.siteId ?? ''}
-                onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
-              >
-                <option value="">All sites</option>
-                {sites.map((s) => (
-                  <option key={s.id} value={s.id}>
-                    {s.name}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Labelled>
-          <Labelled label="Refrigerant">
-            {(id) => (
-              <select
-                id={id}
-                className={control}
-                value={filters.refrigerant ?? ''}
-                onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetFilters['refrigerant'] })}
-              >
-                <option value="">All refrigerants</option>
-                {REFRIGERANT_CODES.map((r) => (
-                  <option key={r} value={r}>
-                    {r}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Labelled>
-          <Labelled label="Status">
-            {(id) => (
-              <select
-                id={id}
-                className={control}
-                value={filters.status ?? ''}
-                onChange={(e) => set({ status: (e.target.value || undefined) as FleetFilters['status'] })}
-              >
-                <option value="">Any status</option>
-                {UNIT_STATUS_VALUES.map((s) => (
-                  <option key={s} value={s}>
-                    {UNIT_STATUS_LABELS[s]}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Labelled>
-          <Labelled label="Score band">
-            {(id) => (
-              <select
-                id={id}
-                className={control}
-                value={filters.band ?? ''}
-                onChange={(e) => set({ band: (e.target.value || undefined) as FleetFilters['band'] })}
-              >
-                <option value="">Any band</option>
-                {SCORE_BANDS.map((b) => (
-                  <option key={b} value={b}>
-                    {SCORE_BAND_WORDS[b].label}
-                  </option>
-                ))}
-              </select>
-            )}
-          </Labelled>
-          <Labelled label="Leak rate above (%)">
-            {(id) => (
-              <input
-                id={id}
-                className={control}
-                inputMode="decimal"
-                value={rate}
-                placeholder="e.g. 20"
-                onChange={(e) => setRate(e.target.value)}
-                onBlur={() => {
-                  const v = Number(rate.replace(',', '.'));
-                  set({ rateAbove: rate.trim() !== '' && Number.isFinite(v) && v >= 0 ? v : undefined });
-                }}
-                onKeyDown={(e) => {
-                  if (e.key === 'Enter') (e.target as HTMLInputElement).blur();
-                }}
-              />
-            )}
-          </Labelled>
-          <Labelled label="Next top-up">
-            {(id) => (
-              <select
-                id={id}
-                className={control}
-                value={forecastValue}
-                onChange={(e) => {
-                  const v = e.target.value;
-                  set({
-                    forecastOverdue: v === 'overdue' || undefined,
-                    forecastDays: v && v !== 'overdue' ? Number(v) : undefined,
-                  });
-                }}
-              >
-                <option value="">Any time</option>
-                <option value="overdue">Overdue</option>
-                <option value="30">Within 30 days or overdue</option>
-                <option value="90">Within 90 days or overdue</option>
-              </select>
-            )}
-          </Labelled>
-          <label className="flex min-h-touch items-center gap-3 self-end text-base font-semibold">
-            <input
-              type="checkbox"
-              className="size-6 accent-fjord-700"
-              checked={Boolean(filters.leakCheckOverdue)}
-              onChange={(e) => set({ leakCheckOverdue: e.target.checked || undefined })}
-            />
-            Leak check overdue
-          </label>
-          <label className="flex min-h-touch items-center gap-3 self-end text-base font-semibold">
-            <input
-              type="checkbox"
-              className="size-6 accent-fjord-700"
-              checked={Boolean(filters.ptiExpired)}
-              onChange={(e) => set({ ptiExpired: e.target.checked || undefined })}
-            />
-            No valid PTI
-          </label>
+          <SelectFilter
+            label="Site"
+            any="All sites"
+            value={String(filters.siteId ?? '')}
+            options={sites.map((s) => [String(s.id), s.name] as const)}
+            onChange={(v) => set({ siteId: v ? Number(v) : undefined })}
+          />
+          <SelectFilter
+            label="Refrigerant"
+            any="All refrigerants"
+            value={filters.refrigerant ?? ''}
+            options={REFRIGERANT_OPTIONS}
+            onChange={(v) => set({ refrigerant: (v || undefined) as FleetFilters['refrigerant'] })}
+          />
+          <SelectFilter
+            label="Status"
+            any="Any status"
+            value={filters.status ?? ''}
+            options={STATUS_OPTIONS}
+            onChange={(v) => set({ status: (v || undefined) as FleetFilters['status'] })}
+          />
+          <SelectFilter
+            label="Score band"
+            any="Any band"
+            value={filters.band ?? ''}
+            options={BAND_OPTIONS}
+            onChange={(v) => set({ band: (v || undefined) as FleetFilters['band'] })}
+          />
+          <RateFilter value={filters.rateAbove} onChange={(rateAbove) => set({ rateAbove })} />
+          <SelectFilter
+            label="Next top-up"
+            any="Any time"
+            value={forecastValue}
+            options={FORECAST_OPTIONS}
+            onChange={(v) =>
+              set({
+                forecastOverdue: v === 'overdue' || undefined,
+                forecastDays: v && v !== 'overdue' ? Number(v) : undefined,
+              })
+            }
+          />
+          <CheckFilter
+            label="Leak check overdue"
+            checked={Boolean(filters.leakCheckOverdue)}
+            onChange={(on) => set({ leakCheckOverdue: on || undefined })}
+          />
+          <CheckFilter
+            label="No valid PTI"
+            checked={Boolean(filters.ptiExpired)}
+            onChange={(on) => set({ ptiExpired: on || undefined })}
+          />
         </div>
         {active > 0 && (
           <div className="px-4 pb-3">

@@ -105,33 +105,83 @@ export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate']
 type Measure = 'kg' | 'co2e';
 type GroupBy = 'site' | 'refrigerant';
 
+type Stacked = { keys: string[]; byMonth: Map<string, Map<string, number>>; totals: Map<string, number> };
+
+/** Each month's amounts per site or refrigerant; the series ordered largest first, so the biggest sits at the bottom. */
+function stackEmissions(data: FleetOverviewDto['emissions'], measure: Measure, groupBy: GroupBy): Stacked {
+  const byMonth = new Map<string, Map<string, number>>(data.months.map((m) => [m, new Map()]));
+  const keyTotals = new Map<string, number>();
+  const rows =
+    groupBy === 'site'
+      ? data.bySite.map((r) => ({ ...r, key: r.site?.name ?? 'No site' }))
+      : data.byRefrigerant.map((r) => ({ ...r, key: r.refrigerant }));
+  for (const r of rows) {
+    const key = r.key;
+    const v = measure === 'kg' ? r.madeUpKg : r.co2eTonnes;
+    const row = byMonth.get(r.month);
+    if (!row) continue;
+    row.set(key, (row.get(key) ?? 0) + v);
+    keyTotals.set(key, (keyTotals.get(key) ?? 0) + v);
+  }
+  const keys = [...keyTotals.entries()].sort((a, b) => b[1] - a[1]).map(([k]) => k);
+  const totals = new Map(data.months.map((m) => [m, [...(byMonth.get(m)?.values() ?? [])].reduce((s, v) => s + v, 0)]));
+  return { keys, byMonth, totals };
+}
+
+/** The chart's figures as a table, for reading exact amounts and for screen readers. */
+function EmissionsTable({
+  months,
+  stacked,
+  amount,
+}: {
+  months: string[];
+  stacked: Stacked;
+  amount: (v: number) => string;
+}) {
+  const { keys, byMonth, totals } = stacked;
+  return (
+    <details className="text-sm">
+      <summary className="min-h-touch cursor-pointer py-3 font-semibold text-fjord-700">The figures as a table</summary>
+      <div className="overflow-x-auto">
+        <table className="w-full text-left text-sm">
+          <thead>
+            <tr>
+              <th className="py-1 pr-3">Month</th>
+              {keys.map((k) => (
+                <th key={k} className="py-1 pr-3">
+                  {k}
+                </th>
+              ))}
+              <th className="py-1">Total</th>
+            </tr>
+          </thead>
+          <tbody>
+            {months.map((month) => (
+              <tr key={month} className="border-t border-ink-100">
+                <td className="py-1 pr-3 tabular-nums">{month}</td>
+                {keys.map((k) => (
+                  <td key={k} className="py-1 pr-3 tabular-nums">
+                    {amount(byMonth.get(month)?.get(k) ?? 0)}
+                  </td>
+                ))}
+                <td className="py-1 tabular-nums">{amount(totals.get(month) ?? 0)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </details>
+  );
+}
+
 /** Made-up refrigerant per month, stacked by site or refrigerant, in kg or t CO2e. */
 export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }) {
   const [measure, setMeasure] = useState<Measure>('co2e');
   const [groupBy, setGroupBy] = useState<GroupBy>('site');
   const { parentRef, width } = useParentSize({ debounceTime: 50, initialSize: { width: 360 } });
 
-  const { keys, byMonth, totals } = useMemo(() => {
-    const byMonth = new Map<string, Map<string, number>>(data.months.map((m) => [m, new Map()]));
-    const keyTotals = new Map<string, number>();
-    const rows =
-      groupBy === 'site'
-        ? data.bySite.map((r) => ({ ...r, key: r.site?.name ?? 'No site' }))
-        : data.byRefrigerant.map((r) => ({ ...r, key: r.refrigerant }));
-    for (const r of rows) {
-      const key = r.key;
-      const v = measure === 'kg' ? r.madeUpKg : r.co2eTonnes;
-      const row = byMonth.get(r.month);
-      if (!row) continue;
-      row.set(key, (row.get(key) ?? 0) + v);
-      keyTotals.set(key, (keyTotals.get(key) ?? 0) + v);
-    }
-    const keys = [...keyTotals.entries()].sort((a, b) => b[1] - a[1]).map(([k]) => k);
-    const totals = new Map(
-      data.months.map((m) => [m, [...(byMonth.get(m)?.values() ?? [])].reduce((s, v) => s + v, 0)]),
-    );
-    return { keys, byMonth, totals };
-  }, [data, measure, groupBy]);
+  const stacked = useMemo(() => stackEmissions(data, measure, groupBy), [data, measure, groupBy]);
+  const { keys, byMonth, totals } = stacked;
 
   const height = 280;
   const m = { top: 16, right: 12, bottom: 40, left: 56 };
@@ -237,39 +287,7 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
           ))}
         </ul>
       )}
-      <details className="text-sm">
-        <summary className="min-h-touch cursor-pointer py-3 font-semibold text-fjord-700">
-          The figures as a table
-        </summary>
-        <div className="overflow-x-auto">
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th className="py-1 pr-3">Month</th>
-                {keys.map((k) => (
-                  <th key={k} className="py-1 pr-3">
-                    {k}
-                  </th>
-                ))}
-                <th className="py-1">Total</th>
-              </tr>
-            </thead>
-            <tbody>
-              {data.months.map((month) => (
-                <tr key={month} className="border-t border-ink-100">
-                  <td className="py-1 pr-3 tabular-nums">{month}</td>
-                  {keys.map((k) => (
-                    <td key={k} className="py-1 pr-3 tabular-nums">
-                      {amount(byMonth.get(month)?.get(k) ?? 0)}
-                    </td>
-                  ))}
-                  <td className="py-1 tabular-nums">{amount(totals.get(month) ?? 0)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
-      </details>
+      <EmissionsTable months={data.months} stacked={stacked} amount={amount} />
     </div>
   );
 }

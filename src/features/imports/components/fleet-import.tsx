@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { formatContainerNumber } from '../../../../shared/domain';
 import {
   IMPORT_COLUMNS,
@@ -12,9 +11,8 @@ import { Alert } from '../../../components/ui/alert';
 import { Button, ButtonLink, buttonClasses } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { isApiError } from '../../../lib/api-client';
-import { newIdempotencyKey } from '../../../lib/idempotency-key';
-import type { TransferProgress } from '../../../lib/transfer';
-import { IMPORT_TEMPLATE_HREF, useCommitImport, useImportProgress, usePreviewImport } from '../api/fleet-import';
+import { IMPORT_TEMPLATE_HREF } from '../api/fleet-import';
+import { useFleetImport, type FleetImportState } from '../hooks/use-fleet-import';
 import { fmtCount } from '../../../lib/format';
 
 function ProgressBar({ label, value, max }: { label: string; value: number; max: number }) {
@@ -154,225 +152,208 @@ function Problems({ preview }: { preview: ImportPreviewDto }) {
   );
 }
 
+type StepProps = { s: FleetImportState };
+
+function ImportDone({
+  done,
+  unitsHref,
+  onStartOver,
+}: {
+  done: UnitImportDto;
+  unitsHref: string;
+  onStartOver: () => void;
+}) {
+  return (
+    <Alert tone="okay" title={`${fmtCount(done.insertedRows)} units imported`}>
+      <p>
+        From {done.fileName}
+        {done.totalRows > done.insertedRows
+          ? `; ${fmtCount(done.totalRows - done.insertedRows)} already registered were skipped`
+          : ''}
+        .
+      </p>
+      <div className="mt-3 flex flex-wrap gap-3">
+        <ButtonLink to={unitsHref}>See the units</ButtonLink>
+        <Button variant="secondary" onClick={onStartOver}>
+          Import another file
+        </Button>
+      </div>
+    </Alert>
+  );
+}
+
+/** 1 · Choose the file (checked at once) or download the template. */
+function ChooseFileStep({ s }: StepProps) {
+  return (
+    <section
+      className="flex flex-col gap-3 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6"
+      aria-labelledby="import-file-title"
+    >
+      <h2 id="import-file-title" className="text-xl font-bold">
+        1 · Choose the CSV file
+      </h2>
+      <p className="text-base text-ink-600">
+        One unit per row, with a header row. Up to {fmtCount(MAX_IMPORT_ROWS)} rows and {MAX_IMPORT_BYTES / 1024 / 1024}{' '}
+        MB. Spreadsheets: save as “CSV UTF-8” first.
+      </p>
+      <div className="flex flex-wrap gap-3">
+        <label className={cx(buttonClasses({ variant: 'primary', size: 'lg' }), 'cursor-pointer')}>
+          {s.file ? 'Choose another file' : 'Choose CSV file'}
+          <input
+            type="file"
+            accept=".csv,text/csv"
+            className="sr-only"
+            onChange={(e) => {
+              s.choose(e.target.files?.[0]);
+              e.target.value = '';
+            }}
+          />
+        </label>
+        <a href={IMPORT_TEMPLATE_HREF} download className={buttonClasses({ variant: 'secondary', size: 'lg' })}>
+          Download the template
+        </a>
+      </div>
+      {s.file && <p className="text-base font-semibold">{s.file.name}</p>}
+      {s.preview.isPending && s.upload && (
+        <ProgressBar label="Uploading to check" value={s.upload.loaded} max={s.upload.total} />
+      )}
+      {s.preview.isPending && (!s.upload || s.upload.loaded >= s.upload.total) && (
+        <p className="text-base text-ink-700">Checking every row…</p>
+      )}
+      {s.preview.isError && (
+        <Alert tone="alarm" title="The file could not be checked">
+          {s.preview.error.message}
+          {isApiError(s.preview.error) && s.preview.error.fields && (
+            <ul className="mt-2 list-disc pl-5">
+              {Object.values(s.preview.error.fields).map((m) => (
+                <li key={m}>{m}</li>
+              ))}
+            </ul>
+          )}
+        </Alert>
+      )}
+    </section>
+  );
+}
+
+/** 2 · What the check found: counts, column mapping, sample rows, problems and units already registered. */
+function CheckRowsStep({ s, p }: StepProps & { p: ImportPreviewDto }) {
+  return (
+    <section
+      className="flex flex-col gap-5 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+      aria-labelledby="import-check-title"
+    >
+      <h2 id="import-check-title" className="text-xl font-bold">
+        2 · Check the rows
+      </h2>
+      <dl className="grid grid-cols-2 gap-3 md:grid-cols-4" data-testid="import-summary">
+        {[
+          ['Rows', p.totalRows],
+          ['Ready to import', p.readyCount],
+          ['To fix', p.rowsWithErrors],
+          ['Already registered', p.existingCount],
+        ].map(([label, n]) => (
+          <div key={label} className="rounded-md bg-ink-50 px-3 py-2">
+            <dt className="text-sm font-semibold text-ink-600">{label}</dt>
+            <dd className="text-figure font-bold tabular-nums">{fmtCount(Number(n))}</dd>
+          </div>
+        ))}
+      </dl>
+      <MappingForm preview={p} busy={s.preview.isPending} onChange={(m) => s.file && s.check(s.file, m)} />
+      <SampleTable preview={p} />
+      <Problems preview={p} />
+      {p.existingCount > 0 && (
+        <div className="flex flex-col gap-2 rounded-md border-2 border-heed-800 bg-heed-50 p-4">
+          <p className="font-semibold">
+            {fmtCount(p.existingCount)} unit{p.existingCount === 1 ? ' is' : 's are'} already registered:{' '}
+            {p.existing
+              .slice(0, 5)
+              .map((e) => `${formatContainerNumber(e.containerNumber)} (row ${e.row})`)
+              .join(', ')}
+            {p.existingCount > 5 ? ', …' : ''}
+          </p>
+          <label className="flex min-h-touch cursor-pointer items-center gap-3 text-base font-semibold">
+            <input
+              type="checkbox"
+              className="size-6 accent-fjord-700"
+              checked={s.skipExisting}
+              onChange={(e) => s.setSkipExisting(e.target.checked)}
+            />
+            Skip them and import the rest
+          </label>
+        </div>
+      )}
+    </section>
+  );
+}
+
+/** 3 · Import every row or none, with the upload and the server's progress. */
+function ImportStep({ s, p }: StepProps & { p: ImportPreviewDto }) {
+  return (
+    <section
+      className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
+      aria-labelledby="import-go-title"
+    >
+      <h2 id="import-go-title" className="text-xl font-bold">
+        3 · Import
+      </h2>
+      <p className="text-base text-ink-600">
+        Every row goes in, or none does: if anything fails, the registry stays as it was.
+      </p>
+      {s.commit.isPending && s.upload && s.upload.loaded < s.upload.total && (
+        <ProgressBar label="Uploading" value={s.upload.loaded} max={s.upload.total} />
+      )}
+      {s.commit.isPending && (!s.upload || s.upload.loaded >= s.upload.total) && (
+        <div aria-live="polite">
+          {s.server && s.server.processedRows > 0 ? (
+            <ProgressBar
+              label={`Saving units: ${fmtCount(s.server.processedRows)} of ${fmtCount(s.server.totalRows)}`}
+              value={s.server.processedRows}
+              max={s.server.totalRows}
+            />
+          ) : (
+            <p className="text-base font-semibold text-ink-700">Checking every row before saving…</p>
+          )}
+        </div>
+      )}
+      {s.commit.isError && (
+        <Alert tone="alarm" title="Nothing was imported">
+          {s.commit.error.message}
+        </Alert>
+      )}
+      <Button
+        size="lg"
+        disabled={s.blocked || s.preview.isPending}
+        pending={s.commit.isPending}
+        pendingLabel="Importing…"
+        onClick={s.startImport}
+        className="self-start"
+      >
+        Import {p ? fmtCount(p.readyCount) : ''} units
+      </Button>
+      {s.blocked && !s.commit.isPending && (
+        <p className="text-base text-ink-600">
+          {p.errorCount > 0
+            ? 'Fix the rows listed above in the s.file, then choose it again.'
+            : p.existingCount > 0 && !s.skipExisting
+              ? 'Some units are already registered: skip them, or take them out of the file.'
+              : 'There is nothing new to import.'}
+        </p>
+      )}
+    </section>
+  );
+}
+
 /** Upload a fleet CSV, match its columns, see what would go wrong, then import every row or none. */
 export function FleetImport({ unitsHref }: { unitsHref: string }) {
-  const [file, setFile] = useState<File | null>(null);
-  const [skipExisting, setSkipExisting] = useState(false);
-  const [upload, setUpload] = useState<TransferProgress | null>(null);
-  const [importKey, setImportKey] = useState<string | null>(null);
-  const [done, setDone] = useState<UnitImportDto | null>(null);
-  const preview = usePreviewImport();
-  const commit = useCommitImport();
-  const progress = useImportProgress(commit.isPending ? importKey : null);
-
-  const check = (f: File, mapping?: ImportMapping) => {
-    setDone(null);
-    commit.reset();
-    setUpload(null);
-    preview.mutate({ file: f, mapping, onProgress: setUpload });
-  };
-
-  const choose = (f: File | undefined) => {
-    if (!f) return;
-    setFile(f);
-    setSkipExisting(false);
-    check(f);
-  };
-
-  const p = preview.data;
-  const blocked = !p || p.errorCount > 0 || (p.existingCount > 0 && !skipExisting) || p.readyCount === 0;
-
-  const startImport = () => {
-    if (!file || !p) return;
-    const key = newIdempotencyKey();
-    setImportKey(key);
-    setUpload(null);
-    commit.mutate(
-      { file, mapping: p.mapping, importKey: key, skipExisting, onProgress: setUpload },
-      { onSuccess: (result) => setDone(result) },
-    );
-  };
-
-  if (done) {
-    return (
-      <Alert tone="okay" title={`${fmtCount(done.insertedRows)} units imported`}>
-        <p>
-          From {done.fileName}
-          {done.totalRows > done.insertedRows
-            ? `; ${fmtCount(done.totalRows - done.insertedRows)} already registered were skipped`
-            : ''}
-          .
-        </p>
-        <div className="mt-3 flex flex-wrap gap-3">
-          <ButtonLink to={unitsHref}>See the units</ButtonLink>
-          <Button
-            variant="secondary"
-            onClick={() => {
-              setDone(null);
-              setFile(null);
-              preview.reset();
-            }}
-          >
-            Import another file
-          </Button>
-        </div>
-      </Alert>
-    );
-  }
-
-  const server = progress.data;
+  const s = useFleetImport();
+  const p = s.preview.data;
+  if (s.done) return <ImportDone done={s.done} unitsHref={unitsHref} onStartOver={s.startOver} />;
   return (
     <div className="flex flex-col gap-6">
-      <section
-        className="flex flex-col gap-3 rounded-lg border-2 border-ink-950 bg-white p-4 md:p-6"
-        aria-labelledby="import-file-title"
-      >
-        <h2 id="import-file-title" className="text-xl font-bold">
-          1 · Choose the CSV file
-        </h2>
-        <p className="text-base text-ink-600">
-          One unit per row, with a header row. Up to {fmtCount(MAX_IMPORT_ROWS)} rows and{' '}
-          {MAX_IMPORT_BYTES / 1024 / 1024} MB. Spreadsheets: save as “CSV UTF-8” first.
-        </p>
-        <div className="flex flex-wrap gap-3">
-          <label className={cx(buttonClasses({ variant: 'primary', size: 'lg' }), 'cursor-pointer')}>
-            {file ? 'Choose another file' : 'Choose CSV file'}
-            <input
-              type="file"
-              accept=".csv,text/csv"
-              className="sr-only"
-              onChange={(e) => {
-                choose(e.target.files?.[0]);
-                e.target.value = '';
-              }}
-            />
-          </label>
-          <a href={IMPORT_TEMPLATE_HREF} download className={buttonClasses({ variant: 'secondary', size: 'lg' })}>
-            Download the template
-          </a>
-        </div>
-        {file && <p className="text-base font-semibold">{file.name}</p>}
-        {preview.isPending && upload && (
-          <ProgressBar label="Uploading to check" value={upload.loaded} max={upload.total} />
-        )}
-        {preview.isPending && (!upload || upload.loaded >= upload.total) && (
-          <p className="text-base text-ink-700">Checking every row…</p>
-        )}
-        {preview.isError && (
-          <Alert tone="alarm" title="The file could not be checked">
-            {preview.error.message}
-            {isApiError(preview.error) && preview.error.fields && (
-              <ul className="mt-2 list-disc pl-5">
-                {Object.values(preview.error.fields).map((m) => (
-                  <li key={m}>{m}</li>
-                ))}
-              </ul>
-            )}
-          </Alert>
-        )}
-      </section>
-
-      {p && (
-        <section
-          className="flex flex-col gap-5 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
-          aria-labelledby="import-check-title"
-        >
-          <h2 id="import-check-title" className="text-xl font-bold">
-            2 · Check the rows
-          </h2>
-          <dl className="grid grid-cols-2 gap-3 md:grid-cols-4" data-testid="import-summary">
-            {[
-              ['Rows', p.totalRows],
-              ['Ready to import', p.readyCount],
-              ['To fix', p.rowsWithErrors],
-              ['Already registered', p.existingCount],
-            ].map(([label, n]) => (
-              <div key={label} className="rounded-md bg-ink-50 px-3 py-2">
-                <dt className="text-sm font-semibold text-ink-600">{label}</dt>
-                <dd className="text-figure font-bold tabular-nums">{fmtCount(Number(n))}</dd>
-              </div>
-            ))}
-          </dl>
-          <MappingForm preview={p} busy={preview.isPending} onChange={(m) => file && check(file, m)} />
-          <SampleTable preview={p} />
-          <Problems preview={p} />
-          {p.existingCount > 0 && (
-            <div className="flex flex-col gap-2 rounded-md border-2 border-heed-800 bg-heed-50 p-4">
-              <p className="font-semibold">
-                {fmtCount(p.existingCount)} unit{p.existingCount === 1 ? ' is' : 's are'} already registered:{' '}
-                {p.existing
-                  .slice(0, 5)
-                  .map((e) => `${formatContainerNumber(e.containerNumber)} (row ${e.row})`)
-                  .join(', ')}
-                {p.existingCount > 5 ? ', …' : ''}
-              </p>
-              <label className="flex min-h-touch cursor-pointer items-center gap-3 text-base font-semibold">
-                <input
-                  type="checkbox"
-                  className="size-6 accent-fjord-700"
-                  checked={skipExisting}
-                  onChange={(e) => setSkipExisting(e.target.checked)}
-                />
-                Skip them and import the rest
-              </label>
-            </div>
-          )}
-        </section>
-      )}
-
-      {p && (
-        <section
-          className="flex flex-col gap-4 rounded-lg border-2 border-ink-200 bg-white p-4 md:p-6"
-          aria-labelledby="import-go-title"
-        >
-          <h2 id="import-go-title" className="text-xl font-bold">
-            3 · Import
-          </h2>
-          <p className="text-base text-ink-600">
-            Every row goes in, or none does: if anything fails, the registry stays as it was.
-          </p>
-          {commit.isPending && upload && upload.loaded < upload.total && (
-            <ProgressBar label="Uploading" value={upload.loaded} max={upload.total} />
-          )}
-          {commit.isPending && (!upload || upload.loaded >= upload.total) && (
-            <div aria-live="polite">
-              {server && server.processedRows > 0 ? (
-                <ProgressBar
-                  label={`Saving units: ${fmtCount(server.processedRows)} of ${fmtCount(server.totalRows)}`}
-                  value={server.processedRows}
-                  max={server.totalRows}
-                />
-              ) : (
-                <p className="text-base font-semibold text-ink-700">Checking every row before saving…</p>
-              )}
-            </div>
-          )}
-          {commit.isError && (
-            <Alert tone="alarm" title="Nothing was imported">
-              {commit.error.message}
-            </Alert>
-          )}
-          <Button
-            size="lg"
-            disabled={blocked || preview.isPending}
-            pending={commit.isPending}
-            pendingLabel="Importing…"
-            onClick={startImport}
-            className="self-start"
-          >
-            Import {p ? fmtCount(p.readyCount) : ''} units
-          </Button>
-          {blocked && !commit.isPending && (
-            <p className="text-base text-ink-600">
-              {p.errorCount > 0
-                ? 'Fix the rows listed above in the file, then choose it again.'
-                : p.existingCount > 0 && !skipExisting
-                  ? 'Some units are already registered: skip them, or take them out of the file.'
-                  : 'There is nothing new to import.'}
-            </p>
-          )}
-        </section>
-      )}
+      <ChooseFileStep s={s} />
+      {p && <CheckRowsStep s={s} p={p} />}
+      {p && <ImportStep s={s} p={p} />}
     </div>
   );
 }
