@@ -334,7 +334,7 @@ function ImportStep({ s, p }: StepProps & { p: ImportPreviewDto }) {
       {s.blocked && !s.commit.isPending && (
         <p className="text-base text-ink-600">
           {p.errorCount > 0
-            ? 'Fix the rows listed above in the s.file, then choose it again.'
+            ? 'Fix the rows listed above in the file, then choose it again.'
             : p.existingCount > 0 && !s.skipExisting
               ? 'Some units are already registered: skip them, or take them out of the file.'
               : 'There is nothing new to import.'}
