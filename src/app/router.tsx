@@ -119,6 +119,22 @@ export function createAppRouter(queryClient: QueryClient) {
               path: paths.unitDecision.path,
               ...lazyPage(() => import('./routes/decisions/unit-decision'), queryClient, paths.unitDecision.permission),
             },
+            {
+              path: paths.cylinders.path,
+              ...lazyPage(() => import('./routes/cylinders/cylinders'), queryClient, paths.cylinders.permission),
+            },
+            {
+              path: paths.cylinder.path,
+              ...lazyPage(() => import('./routes/cylinders/cylinder'), queryClient, paths.cylinder.permission),
+            },
+            {
+              path: paths.cylinderLabel.path,
+              ...lazyPage(
+                () => import('./routes/cylinders/cylinder-label'),
+                queryClient,
+                paths.cylinderLabel.permission,
+              ),
+            },
             { path: paths.account.path, ...lazyPage(() => import('./routes/account/account'), queryClient) },
             {
               path: paths.settings.path,

@@ -149,6 +149,22 @@ export const paths = {
     getHref: () => '/settings',
     permission: 'view:fleet',
   },
+  cylinders: {
+    path: '/cylinders',
+    getHref: () => '/cylinders',
+    permission: 'view:unit',
+  },
+  cylinder: {
+    path: '/cylinders/:id',
+    getHref: (id: number) => `/cylinders/${id}`,
+    permission: 'view:unit',
+  },
+  // A cylinder label's QR code points here.
+  cylinderLabel: {
+    path: '/c/:code',
+    getHref: (code: string) => `/c/${encodeURIComponent(code)}`,
+    permission: 'view:unit',
+  },
 } as const satisfies Record<string, PathEntry>;
 
 export type NavIcon =
@@ -187,6 +203,7 @@ export const navEntries: readonly NavEntry[] = [
   { label: 'People', href: paths.people.getHref(), icon: 'people', permission: paths.people.permission },
   { label: 'Alerts', href: paths.alertSettings.getHref(), icon: 'alerts', permission: paths.alertSettings.permission },
   { label: 'Log', href: paths.refrigerantLog.getHref(), icon: 'log', permission: paths.refrigerantLog.permission },
+  { label: 'Cylinders', href: paths.cylinders.getHref(), icon: 'log', permission: paths.cylinders.permission },
   { label: 'Decisions', href: paths.decisions.getHref(), icon: 'decisions', permission: paths.decisions.permission },
   { label: 'Settings', href: paths.settings.getHref(), icon: 'settings', permission: paths.settings.permission },
   {

@@ -6,6 +6,7 @@
 export const queryRoots = {
   account: ['account'],
   alerts: ['alerts'],
+  cylinders: ['cylinders'],
   decisions: ['decisions'],
   fleet: ['fleet'],
   history: ['history'],
