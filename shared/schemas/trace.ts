@@ -11,15 +11,17 @@ const isoDay = (label: string) => daySchema({ format: `Enter the ${label} as a d
 export const traceQuerySchema = z
   .object({
     cylinder: z.string().trim().min(2, 'Type at least 2 characters of the cylinder or lot').max(64).optional(),
+    /** A cylinder of the register: every charge linked to it, whatever was typed beside it. */
+    cylinderId: positiveId('cylinder').optional(),
     siteId: positiveId('site').optional(),
     from: isoDay('first day').optional(),
     to: isoDay('last day').optional(),
   })
   .superRefine((q, ctx) => {
-    if (!q.cylinder && !q.siteId) {
+    if (!q.cylinder && !q.siteId && !q.cylinderId) {
       ctx.addIssue({ code: 'custom', message: 'Search by cylinder or lot, or by site and dates', path: ['cylinder'] });
     }
-    if (q.siteId && !q.cylinder && (!q.from || !q.to)) {
+    if (q.siteId && !q.cylinder && !q.cylinderId && (!q.from || !q.to)) {
       ctx.addIssue({
         code: 'custom',
         message: 'Give the first and last day for a search by site',

@@ -2,9 +2,9 @@
 // and marking those units for inspection with a note event on each, in one transaction.
 import { retryTransaction } from '../../lib/retry';
 import { WRITE_ISOLATION } from '../../lib/record/write-path';
-import { and, asc, count, desc, eq, gte, inArray, like, lt, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, like, lt, or, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { events, sites, units, users, visits } from '../../db/schema';
+import { cylinderMoves, cylinders, events, sites, units, users, visits } from '../../db/schema';
 import { badRequest } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import {
@@ -27,7 +27,22 @@ const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 /** The search without the voided test: cylinder prefix (the lot is the start of the number), site, days. */
 export function traceWhere(q: TraceQuery): SQL[] {
   const w: SQL[] = [inArray(events.kind, [...CHARGES])];
-  if (q.cylinder) w.push(like(events.cylinder, `${escapeLike(q.cylinder)}%`));
+  if (q.cylinder) {
+    // The typed cylinder/lot text, or a register cylinder whose number or lot starts so (the technician may have
+    // typed only the cylinder's number: the register knows its lot).
+    const prefix = `${escapeLike(q.cylinder)}%`;
+    w.push(
+      or(
+        like(events.cylinder, prefix),
+        sql`EXISTS (SELECT 1 FROM ${cylinderMoves} m JOIN ${cylinders} c ON c.id = m.cylinder_id WHERE m.event_id = ${events.id} AND (c.code LIKE ${prefix} OR c.lot LIKE ${prefix}))`,
+      )!,
+    );
+  }
+  if (q.cylinderId) {
+    w.push(
+      sql`EXISTS (SELECT 1 FROM ${cylinderMoves} m WHERE m.event_id = ${events.id} AND m.cylinder_id = ${q.cylinderId})`,
+    );
+  }
   if (q.siteId) w.push(eq(events.siteId, q.siteId));
   if (q.from) w.push(gte(events.occurredAt, new Date(`${q.from}T00:00:00Z`)));
   if (q.to) w.push(lt(events.occurredAt, new Date(`${dayPlus(q.to, 1)}T00:00:00Z`)));
@@ -139,6 +154,7 @@ export async function traceCharges(db: Db, q: TraceQuery): Promise<TraceResultDt
 function describeSearch(q: TraceQuery, siteName: string | null): string {
   const parts: string[] = [];
   if (q.cylinder) parts.push(`from cylinder or lot ${q.cylinder}`);
+  if (q.cylinderId) parts.push(`from register cylinder #${q.cylinderId}`);
   if (q.siteId) parts.push(`at ${siteName ?? `site ${q.siteId}`}`);
   if (q.from && q.to) parts.push(`between ${q.from} and ${q.to}`);
   else if (q.from) parts.push(`from ${q.from}`);
