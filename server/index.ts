@@ -65,7 +65,7 @@ export async function startServer(opts: { databaseUrl: string; port?: number; ho
       const force = setTimeout(() => server.closeAllConnections(), 5000);
       force.unref();
       await new Promise((r) => server.once('close', r));
-      schedules.stop();
+      await schedules.stop();
       await mailWorker.stop();
       await pool.end();
     })());

@@ -1,6 +1,9 @@
 // Everything the API process does on a timer rather than on a request: reads never start jobs or fill anything in.
-// Started by server/index.ts next to the mail sender; timers do not keep the process alive.
+// Started by server/index.ts next to the mail sender; timers do not keep the process alive. Every API process runs
+// the timers, but each task runs under a lease (server/lib/leases.ts): one process at a time does it, and when that
+// process dies its lease runs out and the next process whose timer fires takes over.
 import type { AppContext } from './lib/app-context';
+import { PROCESS_HOLDER, releaseLease, runUnderLease } from './lib/leases';
 import { runDailyMailJobs } from './features/alerts/digest.service';
 import { refreshRepairEffectivenessIfStale } from './features/fleet/repair-effectiveness.job';
 import { FORECAST_CASES_MAX_AGE_MS, refreshForecastIfStale } from './features/forecast/forecast-cases.job';
@@ -15,17 +18,35 @@ const FIRST_CHECK_MS = 30_000;
 /** How often stale jobs are picked up, old derived tables rebuilt and units without figures filled in. */
 const MAINTENANCE_MS = 60_000;
 
+/** How long each task's lease lasts without renewal: longer than its timer's period, so the holder keeps it. */
+export const SCHEDULE_LEASES = {
+  forecast_refresh: 5 * 60_000,
+  daily_mail: 90 * 60_000,
+  maintenance: 2.5 * MAINTENANCE_MS,
+} as const;
+
 type Stop = { stop(): void };
+type Options = { holder?: string };
+
+/** Runs a scheduled task here if this process holds (or can take) its lease. */
+function leased(ctx: AppContext, opts: Options, name: keyof typeof SCHEDULE_LEASES, task: () => Promise<void>) {
+  return runUnderLease(
+    { db: ctx.db, clock: ctx.clock, holder: opts.holder ?? PROCESS_HOLDER },
+    name,
+    SCHEDULE_LEASES[name],
+    task,
+  );
+}
 
 /**
  * The nightly refresh of the forecast's case base (and with it every unit's forecast), at 02:00 UTC plus a few random
  * minutes per process; and one check shortly after start-up, so a new installation gets its first case base.
  */
-export function scheduleForecastRefresh(ctx: AppContext): Stop {
+export function scheduleForecastRefresh(ctx: AppContext, opts: Options = {}): Stop {
   let timer: NodeJS.Timeout | null = null;
   const run = (maxAgeMs: number) =>
-    void refreshForecastIfStale(ctx, { maxAgeMs }).catch((err: unknown) =>
-      ctx.logger.warn({ err }, 'forecast case base refresh'),
+    void leased(ctx, opts, 'forecast_refresh', () => refreshForecastIfStale(ctx, { maxAgeMs }).then(() => {})).catch(
+      (err: unknown) => ctx.logger.warn({ err }, 'forecast case base refresh'),
     );
   const arm = () => {
     const now = Date.now();
@@ -51,15 +72,18 @@ export function scheduleForecastRefresh(ctx: AppContext): Stop {
   };
 }
 
-/** Queues the day's digests and overdue-leak alerts once per process and day; dedupe keys cover other servers. */
-export function scheduleDailyMail(ctx: AppContext): Stop & { daily(): Promise<void> } {
+/** Queues the day's digests and overdue-leak alerts once a day, in the process holding the lease; dedupe keys cover a
+ * second run (a takeover the same day). */
+export function scheduleDailyMail(ctx: AppContext, opts: Options = {}): Stop & { daily(): Promise<void> } {
   let lastDailyRun = '';
   async function daily() {
     const now = ctx.clock.now();
     const day = now.toISOString().slice(0, 10);
     if (now.getUTCHours() < DIGEST_HOUR_UTC || day === lastDailyRun) return;
-    await runDailyMailJobs(ctx.db, ctx, now);
-    lastDailyRun = day;
+    await leased(ctx, opts, 'daily_mail', async () => {
+      await runDailyMailJobs(ctx.db, ctx, now);
+      lastDailyRun = day;
+    });
   }
   const report = (err: unknown) => ctx.logger.error({ err }, 'daily mail jobs failed');
   const timer = setInterval(() => void daily().catch(report), DAILY_CHECK_MS);
@@ -84,17 +108,25 @@ export async function maintain(ctx: AppContext, backfill: StatsBackfill): Promis
   );
 }
 
-export function scheduleMaintenance(ctx: AppContext): Stop {
+export function scheduleMaintenance(ctx: AppContext, opts: Options = {}): Stop & { tick(): Promise<boolean> } {
   const backfill = createStatsBackfill();
-  const timer = setInterval(() => void maintain(ctx, backfill), MAINTENANCE_MS);
+  const warn = (what: string) => (err: unknown) => ctx.logger.warn({ err }, what);
+  const tick = () => leased(ctx, opts, 'maintenance', () => maintain(ctx, backfill));
+  const timer = setInterval(() => void tick().catch(warn('maintenance')), MAINTENANCE_MS);
   timer.unref();
   // At start-up only the backfill: a fleet loaded while the server was down shows with its figures at once.
-  void backfill.run(ctx).catch((err: unknown) => ctx.logger.warn({ err }, 'statistics backfill'));
-  return { stop: () => clearInterval(timer) };
+  void leased(ctx, opts, 'maintenance', () => backfill.run(ctx)).catch(warn('statistics backfill'));
+  return { tick, stop: () => clearInterval(timer) };
 }
 
-/** Every schedule of the API process. */
-export function startSchedules(ctx: AppContext): Stop {
-  const all = [scheduleForecastRefresh(ctx), scheduleDailyMail(ctx), scheduleMaintenance(ctx)];
-  return { stop: () => all.forEach((s) => s.stop()) };
+/** Every schedule of the API process; stopping it hands its leases back, so another process need not wait them out. */
+export function startSchedules(ctx: AppContext, opts: Options = {}): { stop(): Promise<void> } {
+  const all = [scheduleForecastRefresh(ctx, opts), scheduleDailyMail(ctx, opts), scheduleMaintenance(ctx, opts)];
+  return {
+    async stop() {
+      all.forEach((s) => s.stop());
+      const deps = { db: ctx.db, clock: ctx.clock, holder: opts.holder ?? PROCESS_HOLDER };
+      await Promise.allSettled(Object.keys(SCHEDULE_LEASES).map((name) => releaseLease(deps, name)));
+    },
+  };
 }

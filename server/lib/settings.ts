@@ -1,6 +1,6 @@
 // The settings in force: the newest row of `settings` (append-only versions), defaults until the first save. Every
-// write reads them, so each app keeps the current version a few seconds (createSettingsCache, owned by the app
-// context); the settings feature saves new versions and clears it.
+// write reads them, so each app keeps the current version (createSettingsCache, owned by the app context) and checks
+// before each use that no newer one has been saved, by any API process.
 import { desc, eq } from 'drizzle-orm';
 import type { DbOrTx } from '../db/client';
 import { settingsVersions } from '../db/schema';
@@ -43,26 +43,31 @@ export async function settingsOfVersion(db: DbOrTx, id: number | null): Promise<
 }
 
 export type SettingsCache = {
-  /** The version in force, kept for a few seconds. */
+  /** The version in force. */
   current(db: DbOrTx): Promise<CurrentSettings>;
-  /** The settings in force, kept for a few seconds. */
+  /** The settings in force. */
   get(db: DbOrTx): Promise<Settings>;
   /** After a save: the next read goes to the database. */
   invalidate(): void;
 };
 
 /**
- * A save in this process clears the cache at once; other API processes behind the balancer see the change within the
- * time limit.
+ * Keeps the version in force and, before each use, reads only the newest version's id (the primary key's last entry):
+ * a save through any API process is used by every process from its next read on. Inside a write transaction the
+ * check sees what has been committed, like any other read there.
  */
-export function createSettingsCache(ttlMs = 5_000): SettingsCache {
-  let kept: { value: CurrentSettings; at: number } | null = null;
+export function createSettingsCache(): SettingsCache {
+  let kept: CurrentSettings | null = null;
   async function current(db: DbOrTx): Promise<CurrentSettings> {
-    const now = Date.now();
-    if (kept && now - kept.at < ttlMs) return kept.value;
-    const value = await readCurrentSettings(db);
-    kept = { value, at: now };
-    return value;
+    const [top] = await db
+      .select({ id: settingsVersions.id })
+      .from(settingsVersions)
+      .orderBy(desc(settingsVersions.id))
+      .limit(1);
+    const newest = top?.id ?? 0;
+    if (kept && kept.version === newest) return kept;
+    kept = await readCurrentSettings(db);
+    return kept;
   }
   return {
     current,

@@ -43,9 +43,9 @@ type EmissionsContext = {
  * The parts read from every unit's statistics row (distribution, chronic leakers, leak checks due) cost a scan of
  * the fleet, so they are kept for a few seconds and shared by every request in that time; requests arriving while
  * they are being read wait for that one read. The answer says when they were taken.
- * The monthly made-up totals are kept until a write changes them: their key carries the count of such writes in
- * this app (caches.monthlyTotals), read before the totals are, so an answer is never older than the last
- * write that committed before the request; the time limit covers writes made by another process.
+ * The monthly made-up totals are kept until a write changes them: their key carries the version of fleet_monthly
+ * (caches.monthlyTotals, bumped by every such write in any API process), read before the totals are, so an answer is
+ * never older than the last write that committed before the request.
  */
 export function createOverviewCache(ttlMs = 15_000) {
   return {
@@ -220,7 +220,7 @@ export async function fleetOverview(
   const basis = settings.gwpBasis;
   const emissionsContext: EmissionsContext = { db, q: figuresQ, fromMonth: months[0], basis };
   const emissionsKey = JSON.stringify([
-    caches.monthlyTotals.get(),
+    await caches.monthlyTotals.get(db),
     months[0],
     figuresQ.siteId ?? null,
     figuresQ.refrigerant ?? null,

@@ -1,19 +1,15 @@
 // The fleet's forecast case base (DOMAIN.md §7b) as an app holds it for every unit's forecast: loaded from the newest
-// forecast_case_bases row on first use, looked for again at most once a minute (another process may have built a
-// newer one), and swapped at once when this process builds one. The forecast feature builds and stores it.
+// forecast_case_bases row on first use, and before each use the newest row's id is read (the primary key's last
+// entry), so a case base built by any API process is used by all of them from their next write on. The forecast
+// feature builds and stores it.
 import { gunzipSync } from 'node:zlib';
 import { desc, eq, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { forecastCaseBases } from '../../db/schema';
 import { decodeCaseBase, type ForecastAccuracy, type ForecastCaseBase } from '../../../shared/domain';
 
-const RECHECK_MS = 60_000;
-
 export type CaseBaseCache = {
-  /**
-   * The case base every forecast uses (null until the first is built). The first call waits for the load; later
-   * checks for a newer one run in the background, so a write never waits on them.
-   */
+  /** The case base every forecast uses (null until the first is built); a newer one is loaded when it appears. */
   get(db: Db): Promise<ForecastCaseBase | null>;
   /** The one this process just stored (what another process would read back). */
   set(id: number, caseBase: ForecastCaseBase): void;
@@ -21,55 +17,47 @@ export type CaseBaseCache = {
   invalidate(): void;
 };
 
-export function createCaseBaseCache(recheckMs = RECHECK_MS): CaseBaseCache {
+export function createCaseBaseCache(): CaseBaseCache {
   let held: { id: number; caseBase: ForecastCaseBase } | null = null;
-  let checkedAt = 0;
-  let checking: Promise<void> | null = null;
+  // One load at a time; writes that arrive meanwhile wait for it rather than decode the same rows again.
+  let loading: Promise<void> | null = null;
 
-  async function loadNewest(db: Db): Promise<void> {
-    const [top] = await db
-      .select({ id: forecastCaseBases.id })
-      .from(forecastCaseBases)
-      .orderBy(desc(forecastCaseBases.id))
-      .limit(1);
-    if (!top) {
-      held = null;
-      return;
-    }
-    if (held?.id === top.id) return;
+  async function load(db: Db, id: number): Promise<void> {
     const [row] = await db
       .select({ id: forecastCaseBases.id, data: forecastCaseBases.data })
       .from(forecastCaseBases)
-      .where(eq(forecastCaseBases.id, top.id));
-    if (!row) return;
-    held = { id: row.id, caseBase: decodeCaseBase(new Uint8Array(gunzipSync(row.data))) };
+      .where(eq(forecastCaseBases.id, id));
+    // Pruned meanwhile: the next use finds the newer one.
+    if (row && (!held || held.id < row.id)) {
+      held = { id: row.id, caseBase: decodeCaseBase(new Uint8Array(gunzipSync(row.data))) };
+    }
   }
 
   return {
     async get(db) {
-      const now = Date.now();
-      if (now - checkedAt >= recheckMs) {
-        const first = checkedAt === 0;
-        checkedAt = now;
-        checking ??= loadNewest(db)
-          .catch(() => {
-            // The forecast falls back to the rhythm until the next check; a failed read must not fail a write.
-            checkedAt = 0;
-          })
-          .finally(() => {
-            checking = null;
-          });
-        if (first) await checking;
+      const [top] = await db
+        .select({ id: forecastCaseBases.id })
+        .from(forecastCaseBases)
+        .orderBy(desc(forecastCaseBases.id))
+        .limit(1);
+      if (!top) {
+        held = null;
+        return null;
+      }
+      if (held?.id !== top.id) {
+        // A failed load leaves the one held (or the rhythm) in use: it must not fail a write; the next use tries again.
+        loading ??= load(db, top.id)
+          .catch(() => undefined)
+          .finally(() => (loading = null));
+        await loading;
       }
       return held?.caseBase ?? null;
     },
     set(id, caseBase) {
       held = { id, caseBase };
-      checkedAt = Date.now();
     },
     invalidate() {
       held = null;
-      checkedAt = 0;
     },
   };
 }

@@ -4,6 +4,7 @@ import { and, asc, eq, gt, inArray, lte, sql } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { events, fleetMonthly, units, visitMadeUp, visits } from '../../db/schema';
 import { groupVisits, type UnitEvent } from '../../../shared/domain';
+import { bumpVersion, readVersion } from '../cache-versions';
 
 const MOVEMENTS = ['top_up', 'recovery', 'recharge'] as const;
 const notVoided = sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
@@ -30,19 +31,19 @@ function madeUpOf(rows: readonly MovementRow[]): number {
 }
 
 export type MonthlyTotalsVersion = {
-  /** How many committed writes of this app have changed fleet_monthly: cached monthly totals are keyed by it. */
-  get(): number;
-  /** Call after (not inside) a transaction that ran applyToFleetMonthly has committed. */
+  /**
+   * The version of fleet_monthly that cached monthly totals are keyed by: bumped in every transaction that changes
+   * the table, in whichever API process (cache_versions), so a cached total is never older than the last commit.
+   */
+  get(db: DbOrTx): Promise<number>;
+  /** Nothing to do any more (the version is bumped inside the write); kept until the write path stops calling it. */
   invalidate(): void;
 };
 
 export function createMonthlyTotalsVersion(): MonthlyTotalsVersion {
-  let generation = 0;
   return {
-    get: () => generation,
-    invalidate: () => {
-      generation++;
-    },
+    get: (db) => readVersion(db, 'monthly_totals'),
+    invalidate: () => {},
   };
 }
 
@@ -74,6 +75,7 @@ async function addToMonth(
  * (write-path.ts) with the unit row locked.
  */
 export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[]): Promise<void> {
+  let changed = false;
   for (const visitId of [...new Set(visitIds)].sort((a, b) => a - b)) {
     const [visit] = await tx
       .select({
@@ -109,7 +111,9 @@ export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[
     if (prev) await tx.update(visitMadeUp).set({ madeUpKg: kg }).where(eq(visitMadeUp.visitId, visitId));
     else await tx.insert(visitMadeUp).values({ visitId, unitId: visit.unitId, ...key, madeUpKg: kg });
     await addToMonth(tx, key, kg - before, (kg > 0 ? 1 : 0) - (before > 0 ? 1 : 0));
+    changed = true;
   }
+  if (changed) await bumpVersion(tx, 'monthly_totals');
 }
 
 /**
@@ -175,4 +179,5 @@ export async function rebuildFleetMonthly(
   }
   await db.execute(sql`INSERT INTO fleet_monthly (month, site_id, refrigerant, made_up_kg, visits)
     SELECT month, site_id, refrigerant, SUM(made_up_kg), COUNT(*) FROM visit_made_up GROUP BY month, site_id, refrigerant`);
+  await bumpVersion(db, 'monthly_totals');
 }
