@@ -120,6 +120,7 @@ export {
   type ForecastInputVisit,
 } from './forecast';
 export {
+  approachDriftWords,
   assessPressureHealth,
   type PressureHealth,
   type PressureSnapshot,

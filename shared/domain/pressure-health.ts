@@ -157,7 +157,7 @@ export function pressureHealthFromReadings(
     explanation = `The condenser approach is ${roundTo(-lastDrift, 1)} K below its post-charge baseline (flag at ${-threshold} K).`;
   } else if (lastDrift !== null) {
     flag = 'ok';
-    explanation = `The condenser approach is within ${-threshold} K of its post-charge baseline.`;
+    explanation = `The condenser approach ${approachDriftWords(lastDrift, threshold)}.`;
   } else if (latest.sightGlass === 'full') {
     flag = 'ok';
     explanation = 'The sight glass was full at the latest reading.';
@@ -180,6 +180,21 @@ export interface PressureSnapshotInput {
   dischargeKPaG?: number | null;
   ambientC?: number | null;
   sightGlass?: SightGlassState | null;
+}
+
+const signedK = (k: number) => `${k > 0 ? '+' : k < 0 ? '−' : '±'}${Math.abs(k)} K`;
+
+/**
+ * What a drift of the condenser approach from its post-charge baseline says, only what is true: "is within 3 K of
+ * its post-charge baseline (+1.2 K)" when it is, else the drift with its sign ("is +5.9 K from its post-charge
+ * baseline: higher, not a sign of lost charge"). `flagK` is the (negative) drift that flags a possible low charge.
+ */
+export function approachDriftWords(driftK: number, flagK: number): string {
+  const d = roundTo(driftK, 1);
+  const limit = Math.abs(flagK);
+  if (Math.abs(d) <= limit) return `is within ${limit} K of its post-charge baseline (${signedK(d)})`;
+  if (d > 0) return `is ${signedK(d)} from its post-charge baseline: higher, not a sign of lost charge`;
+  return `is ${signedK(d)} from its post-charge baseline (flag at ${signedK(flagK)})`;
 }
 
 /**

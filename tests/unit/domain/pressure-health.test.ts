@@ -1,5 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { assessPressureHealth, computeUnitStats, convertPressure, DomainError } from '../../../shared/domain';
+import {
+  approachDriftWords,
+  assessPressureHealth,
+  computeUnitStats,
+  convertPressure,
+  DomainError,
+} from '../../../shared/domain';
 import { settingsSchema } from '../../../shared/schemas/settings';
 import { D, day } from './helpers';
 
@@ -111,6 +117,30 @@ describe('pressure health', () => {
       settings,
     );
     expect(health.flag).toBe('ok');
+  });
+
+  it('says "within 3 K" only when the approach is within 3 K, and states a larger rise with its sign', () => {
+    expect(approachDriftWords(1.24, -3)).toBe('is within 3 K of its post-charge baseline (+1.2 K)');
+    expect(approachDriftWords(-2.96, -3)).toBe('is within 3 K of its post-charge baseline (−3 K)');
+    expect(approachDriftWords(5.9, -3)).toBe(
+      'is +5.9 K from its post-charge baseline: higher, not a sign of lost charge',
+    );
+    expect(approachDriftWords(8.24, -3)).not.toContain('within');
+  });
+
+  it('explains a rise of the approach above the baseline without calling it "within"', () => {
+    const { health } = assessPressureHealth(
+      'R-134a',
+      [
+        { at: day(-60), dischargeKPaG: psi(125), ambientC: 30 },
+        { at: day(-5), dischargeKPaG: psi(140), ambientC: 30 },
+      ],
+      [day(-60)],
+    );
+    expect(health.flag).toBe('ok');
+    expect(health.explanation).toBe(
+      'The condenser approach is +3.8 K from its post-charge baseline: higher, not a sign of lost charge.',
+    );
   });
 
   it('refuses a reading below a perfect vacuum', () => {
