@@ -58,12 +58,26 @@ describe('sign-in', () => {
     expect(wrong.body.error.code).toBe('invalid_credentials');
   });
 
-  it('refuses a deactivated account with the same answer as a wrong password', async () => {
+  it('tells a deactivated person with the right password that the account was deactivated (403), and signs nobody in', async () => {
     const user = await createTestUser(db, { active: false });
     const res = await request(app)
       .post('/api/auth/sign-in')
       .set('Origin', TEST_ORIGIN)
       .send({ email: user.email, password: TEST_PASSWORD });
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('account_deactivated');
+    expect(res.body.error.message).toMatch(/administrator deactivated this account/);
+    expect(res.headers['set-cookie'] ?? []).not.toEqual(
+      expect.arrayContaining([expect.stringMatching(/tl_session=[^;]/)]),
+    );
+  });
+
+  it('answers a wrong password for a deactivated account like any wrong password', async () => {
+    const user = await createTestUser(db, { active: false });
+    const res = await request(app)
+      .post('/api/auth/sign-in')
+      .set('Origin', TEST_ORIGIN)
+      .send({ email: user.email, password: 'nope-nope-nope' });
     expect(res.status).toBe(401);
     expect(res.body.error.code).toBe('invalid_credentials');
   });

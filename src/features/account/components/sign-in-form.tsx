@@ -2,12 +2,14 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
+import { ROLE_LABELS } from '../../../../shared/permissions';
 import { signInSchema } from '../../../../shared/schemas/account';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { useSignIn } from '../../../lib/auth';
+import { noteRole, type RoleChange } from '../utils/last-role';
 
 type SignInFormInput = z.input<typeof signInSchema>;
 type SignInFormOutput = z.output<typeof signInSchema>;
@@ -26,6 +28,8 @@ function failureText(error: unknown): { title: string; body: string } {
         title: 'E-mail or password is not right',
         body: 'Check both and try again. Passwords are case-sensitive.',
       };
+    case 'account_deactivated':
+      return { title: 'This account is deactivated', body: error.message };
     case 'rate_limited':
       // The server says which pause applies (this account from here, this network, or unknown devices).
       return {
@@ -43,6 +47,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const signIn = useSignIn();
   const alertRef = useRef<HTMLDivElement>(null);
   const [failure, setFailure] = useState<{ title: string; body: string; focusAlert: boolean } | null>(null);
+  const [roleChange, setRoleChange] = useState<RoleChange | null>(null);
 
   useEffect(() => {
     if (failure?.focusAlert) alertRef.current?.focus();
@@ -62,7 +67,11 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const onSubmit = handleSubmit((values) => {
     setFailure(null);
     signIn.mutate(values, {
-      onSuccess: onSignedIn,
+      onSuccess: (user) => {
+        const change = noteRole(user);
+        if (change) setRoleChange(change);
+        else onSignedIn();
+      },
       onError: (error) => {
         if (isApiError(error) && error.status === 400 && error.fields) {
           for (const [field, message] of Object.entries(error.fields)) {
@@ -79,6 +88,20 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
       },
     });
   });
+
+  if (roleChange) {
+    return (
+      <div className="flex flex-col gap-5">
+        <h1 className="text-2xl font-bold tracking-tight md:text-3xl">Your role changed</h1>
+        <Alert tone="info" title={`You are now: ${ROLE_LABELS[roleChange.to]}`}>
+          {roleChange.text}
+        </Alert>
+        <Button size="lg" className="w-full" onClick={onSignedIn} autoFocus>
+          Continue
+        </Button>
+      </div>
+    );
+  }
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-5" aria-labelledby="sign-in-title">
