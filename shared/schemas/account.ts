@@ -59,6 +59,8 @@ export type RequestPasswordResetInput = z.infer<typeof requestPasswordResetSchem
 /** What a link page shows before the person types a password. */
 export const accountLinkDto = z.object({ email: z.string(), name: z.string(), expiresAt: z.string() });
 export type AccountLinkDto = z.infer<typeof accountLinkDto>;
+export const accountLinkResponseDto = z.object({ link: accountLinkDto });
+export type AccountLinkResponseDto = z.infer<typeof accountLinkResponseDto>;
 
 export const INVITATION_HOURS = 72;
 export const PASSWORD_RESET_HOURS = 1;
@@ -100,6 +102,14 @@ export type SessionDto = z.infer<typeof sessionDto>;
 
 export const sessionsListDto = z.object({ sessions: z.array(sessionDto) });
 export type SessionsListDto = z.infer<typeof sessionsListDto>;
+
+/** How many of one's other sessions a sign-out ended. */
+export const endedSessionsDto = z.object({ ended: z.number() });
+export type EndedSessionsDto = z.infer<typeof endedSessionsDto>;
+
+/** After a password change: how many other sessions were ended with it. */
+export const passwordChangedDto = z.object({ endedSessions: z.number() });
+export type PasswordChangedDto = z.infer<typeof passwordChangedDto>;
 
 /** The form's strength meter asks the server, which holds the common-password lists (too big for the phone). */
 export const passwordCheckSchema = z.object({

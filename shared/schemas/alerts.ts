@@ -35,6 +35,10 @@ export const subscriptionsDto = z.object({
 });
 export type SubscriptionsDto = z.infer<typeof subscriptionsDto>;
 
+/** The signed link's answer: which kind of alert stopped and how many sites' subscriptions went. */
+export const unsubscribedDto = z.object({ kind: z.enum(ALERT_KINDS), removed: z.number() });
+export type UnsubscribedDto = z.infer<typeof unsubscribedDto>;
+
 /** The fields of the signed unsubscribe link in every alert mail. */
 export const unsubscribeSchema = z.object({
   user: z.string().min(1).max(64),

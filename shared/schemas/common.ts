@@ -11,6 +11,10 @@ export const apiErrorDto = z.object({
 });
 export type ApiErrorDto = z.infer<typeof apiErrorDto>;
 
+/** A request that was accepted and has nothing else to say (202: a mail is on its way, or none is due). */
+export const okDto = z.object({ ok: z.literal(true) });
+export type OkDto = z.infer<typeof okDto>;
+
 /** A numeric id in a query string or a route parameter. */
 export const positiveId = (what: string) =>
   z.coerce

@@ -46,67 +46,84 @@ export const recordDecisionSchema = z.object({
 export type RecordDecisionInput = z.infer<typeof recordDecisionSchema>;
 export type RecordDecisionBody = z.input<typeof recordDecisionSchema>;
 
-export type DecisionRecordDto = {
-  eventId: number;
-  choice: DecisionChoice;
-  at: string;
-  by: { id: string; name: string };
-  cheapestId: EconomicOptionId;
-  note: string | null;
-};
+const economicOptionId = z.enum(['keep_topping_up', 'repair', 'new_machinery', 'retire_and_sell']);
 
-export type UnitDecisionDto = {
-  asOf: string;
-  unit: {
-    id: number;
-    containerNumber: string;
-    refrigerant: string;
-    nominalChargeKg: number;
-    commissionedOn: string | null;
-    status: string;
-    site: { id: number; name: string } | null;
-  };
-  stats: { score: number; scoreBand: string; rollingLeakRatePct: number; forecastDate: string | null } | null;
+export const decisionRecordDto = z.object({
+  eventId: z.number(),
+  choice: z.enum(DECISION_CHOICES),
+  at: z.string(),
+  by: z.object({ id: z.string(), name: z.string() }),
+  cheapestId: economicOptionId,
+  note: z.string().nullable(),
+});
+export type DecisionRecordDto = z.infer<typeof decisionRecordDto>;
+
+export const unitDecisionDto = z.object({
+  asOf: z.string(),
+  unit: z.object({
+    id: z.number(),
+    containerNumber: z.string(),
+    refrigerant: z.string(),
+    nominalChargeKg: z.number(),
+    commissionedOn: z.string().nullable(),
+    status: z.string(),
+    site: z.object({ id: z.number(), name: z.string() }).nullable(),
+  }),
+  stats: z
+    .object({
+      score: z.number(),
+      scoreBand: z.string(),
+      rollingLeakRatePct: z.number(),
+      forecastDate: z.string().nullable(),
+    })
+    .nullable(),
   /** Everything compareRepairOptions needs, so the browser recomputes the same figures live. */
-  engineInput: RepairOptionsInput;
-  economics: EconomicsSettings;
-  result: RepairOptionsResult;
+  engineInput: z.custom<RepairOptionsInput>(),
+  economics: z.custom<EconomicsSettings>(),
+  result: z.custom<RepairOptionsResult>(),
   /** Where the default leak location and the recurrence came from. */
-  sources: {
-    leakLocation: 'open_leak' | 'last_leak_found' | 'last_repair' | 'none';
-    interval: 'forecast' | 'no_leak_evidence';
-  };
-  decisions: DecisionRecordDto[];
-};
+  sources: z.object({
+    leakLocation: z.enum(['open_leak', 'last_leak_found', 'last_repair', 'none']),
+    interval: z.enum(['forecast', 'no_leak_evidence']),
+  }),
+  decisions: z.array(decisionRecordDto),
+});
+export type UnitDecisionDto = z.infer<typeof unitDecisionDto>;
 
 export const candidatesQuerySchema = z.object({
   siteId: z.coerce.number().int().positive().max(2_147_483_647).optional(),
   limit: z.coerce.number().int().min(1).max(200).default(50),
 });
 
-export type RetirementCandidateDto = {
-  unitId: number;
-  containerNumber: string;
-  site: string | null;
-  refrigerant: string;
-  score: number;
-  scoreBand: string;
-  rollingLeakRatePct: number;
-  ageYears: number;
-  keepEac: number;
-  cheapestId: EconomicOptionId;
-  cheapestEac: number;
-  retireEac: number;
+export const retirementCandidateDto = z.object({
+  unitId: z.number(),
+  containerNumber: z.string(),
+  site: z.string().nullable(),
+  refrigerant: z.string(),
+  score: z.number(),
+  scoreBand: z.string(),
+  rollingLeakRatePct: z.number(),
+  ageYears: z.number(),
+  keepEac: z.number(),
+  cheapestId: economicOptionId,
+  cheapestEac: z.number(),
+  retireEac: z.number(),
   /** keep-topping-up EAC − cheapest EAC, per year. */
-  yearlySaving: number;
+  yearlySaving: z.number(),
   /** keep-topping-up EAC − retire EAC, per year (negative: retiring costs more). */
-  retireSaving: number;
-};
+  retireSaving: z.number(),
+});
+export type RetirementCandidateDto = z.infer<typeof retirementCandidateDto>;
 
-export type RetirementCandidatesDto = {
-  asOf: string;
-  currency: string;
+export const retirementCandidatesDto = z.object({
+  asOf: z.string(),
+  currency: z.string(),
   /** How many of the highest-scoring units were priced. */
-  considered: number;
-  candidates: RetirementCandidateDto[];
-};
+  considered: z.number(),
+  candidates: z.array(retirementCandidateDto),
+});
+export type RetirementCandidatesDto = z.infer<typeof retirementCandidatesDto>;
+
+/** A decision just recorded (201), or the one this submission key recorded before (200, replayed). */
+export const recordDecisionResultDto = z.object({ decision: decisionRecordDto, replayed: z.boolean() });
+export type RecordDecisionResultDto = z.infer<typeof recordDecisionResultDto>;

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
 import { positiveId } from './common';
-import type { ForecastAccuracyDto } from './forecast';
+import { forecastAccuracyDto } from './forecast';
 import { UNIT_STATUS_VALUES } from './history';
 
 export const FLEET_SORTS = ['score', 'rate', 'forecast', 'leakCheck', 'pti', 'containerNumber', 'co2e'] as const;
@@ -80,41 +80,44 @@ export const fleetQuerySchema = fleetFiltersSchema.extend({
 });
 export type FleetQuery = z.output<typeof fleetQuerySchema>;
 
-export type FleetRowDto = {
-  unitId: number;
-  containerNumber: string;
-  refrigerant: string;
-  nominalChargeKg: number;
-  status: (typeof UNIT_STATUS_VALUES)[number];
-  site: { id: number; code: string; name: string } | null;
-  score: number;
-  scoreBand: ScoreBand;
-  rollingLeakRatePct: number;
-  co2eTonnes: number;
-  forecastDate: string | null;
-  forecastOverdue: boolean;
-  nextLeakCheckDue: string | null;
-  leakCheckOverdue: boolean;
-  ptiValidUntil: string | null;
-  ptiValid: boolean;
-  pressureFlag: 'ok' | 'possible_low_charge' | 'unknown';
-  lastEventAt: string | null;
+export const fleetRowDto = z.object({
+  unitId: z.number(),
+  containerNumber: z.string(),
+  refrigerant: z.string(),
+  nominalChargeKg: z.number(),
+  status: z.enum(UNIT_STATUS_VALUES),
+  site: z.object({ id: z.number(), code: z.string(), name: z.string() }).nullable(),
+  score: z.number(),
+  scoreBand: z.enum(SCORE_BANDS),
+  rollingLeakRatePct: z.number(),
+  co2eTonnes: z.number(),
+  forecastDate: z.string().nullable(),
+  forecastOverdue: z.boolean(),
+  nextLeakCheckDue: z.string().nullable(),
+  leakCheckOverdue: z.boolean(),
+  ptiValidUntil: z.string().nullable(),
+  ptiValid: z.boolean(),
+  pressureFlag: z.enum(['ok', 'possible_low_charge', 'unknown']),
+  lastEventAt: z.string().nullable(),
   /** Why the engine could not compute this unit's figures (then they are placeholders), or null. */
-  computeError: string | null;
-};
+  computeError: z.string().nullable(),
+});
+export type FleetRowDto = z.infer<typeof fleetRowDto>;
 
-export type FleetCountDto = { total: number; capped: boolean };
+export const fleetCountDto = z.object({ total: z.number(), capped: z.boolean() });
+export type FleetCountDto = z.infer<typeof fleetCountDto>;
 
-export type FleetPageDto = {
-  rows: FleetRowDto[];
-  page: number;
-  pageSize: number;
-  hasMore: boolean;
+export const fleetPageDto = z.object({
+  rows: z.array(fleetRowDto),
+  page: z.number(),
+  pageSize: z.number(),
+  hasMore: z.boolean(),
   /** Only when asked for with count=1. */
-  count?: FleetCountDto;
+  count: fleetCountDto.optional(),
   /** The day "overdue" and "expired" are judged against (UTC). */
-  asOf: string;
-};
+  asOf: z.string(),
+});
+export type FleetPageDto = z.infer<typeof fleetPageDto>;
 
 // --- overview ------------------------------------------------------------------------------------------------
 
@@ -128,53 +131,72 @@ export const fleetOverviewQuerySchema = z.object({
 });
 export type FleetOverviewQuery = z.output<typeof fleetOverviewQuerySchema>;
 
-export type LeakRateBinDto = { fromPct: number; toPct: number | null; units: number };
+export const leakRateBinDto = z.object({ fromPct: z.number(), toPct: z.number().nullable(), units: z.number() });
+export type LeakRateBinDto = z.infer<typeof leakRateBinDto>;
 
-export type FleetOverviewDto = {
-  asOf: string;
+const monthlySiteDto = z.object({
+  month: z.string(),
+  site: z.object({ id: z.number(), name: z.string() }).nullable(),
+  madeUpKg: z.number(),
+  co2eTonnes: z.number(),
+});
+const monthlyRefrigerantDto = z.object({
+  month: z.string(),
+  refrigerant: z.string(),
+  madeUpKg: z.number(),
+  co2eTonnes: z.number(),
+});
+const chronicLeakerDto = z.object({
+  unitId: z.number(),
+  containerNumber: z.string(),
+  site: z.string().nullable(),
+  refrigerant: z.string(),
+  score: z.number(),
+  scoreBand: z.enum(SCORE_BANDS),
+  rollingLeakRatePct: z.number(),
+  /** Score factors with their points (DOMAIN.md §6), largest first. */
+  factors: z.array(z.object({ name: z.string(), points: z.number(), explanation: z.string() })),
+});
+const repairEffectivenessRowDto = z.object({
+  location: z.string(),
+  action: z.string().nullable(),
+  repairs: z.number(),
+  held: z.number(),
+  recurred: z.number(),
+  pending: z.number(),
+  holdRatePct: z.number().nullable(),
+});
+
+export const fleetOverviewDto = z.object({
+  asOf: z.string(),
   /** When the distribution, chronic leakers and leak checks due were read (they are shared for a few seconds). */
-  figuresAt: string;
-  units: number;
-  leakRate: { zero: number; bins: LeakRateBinDto[]; thresholdPct: number };
-  emissions: {
-    months: string[];
-    gwpBasis: 'AR4' | 'AR5';
+  figuresAt: z.string(),
+  units: z.number(),
+  leakRate: z.object({ zero: z.number(), bins: z.array(leakRateBinDto), thresholdPct: z.number() }),
+  emissions: z.object({
+    months: z.array(z.string()),
+    gwpBasis: z.enum(['AR4', 'AR5']),
     /** Per month and site (CO2e summed over the site's refrigerants). */
-    bySite: { month: string; site: { id: number; name: string } | null; madeUpKg: number; co2eTonnes: number }[];
+    bySite: z.array(monthlySiteDto),
     /** Per month and refrigerant. */
-    byRefrigerant: { month: string; refrigerant: string; madeUpKg: number; co2eTonnes: number }[];
-  };
-  chronicLeakers: {
-    unitId: number;
-    containerNumber: string;
-    site: string | null;
-    refrigerant: string;
-    score: number;
-    scoreBand: ScoreBand;
-    rollingLeakRatePct: number;
-    /** Score factors with their points (DOMAIN.md §6), largest first. */
-    factors: { name: string; points: number; explanation: string }[];
-  }[];
-  repairEffectiveness: {
-    computedAt: string | null;
-    holdDays: number;
-    minRepairs: number;
-    rows: {
-      location: string;
-      action: string | null;
-      repairs: number;
-      held: number;
-      recurred: number;
-      pending: number;
-      holdRatePct: number | null;
-    }[];
-  };
-  leakChecksDue: {
-    days: number;
-    count: number;
-    overdue: number;
-    units: { unitId: number; containerNumber: string; site: string | null; due: string }[];
-  };
+    byRefrigerant: z.array(monthlyRefrigerantDto),
+  }),
+  chronicLeakers: z.array(chronicLeakerDto),
+  repairEffectiveness: z.object({
+    computedAt: z.string().nullable(),
+    holdDays: z.number(),
+    minRepairs: z.number(),
+    rows: z.array(repairEffectivenessRowDto),
+  }),
+  leakChecksDue: z.object({
+    days: z.number(),
+    count: z.number(),
+    overdue: z.number(),
+    units: z.array(
+      z.object({ unitId: z.number(), containerNumber: z.string(), site: z.string().nullable(), due: z.string() }),
+    ),
+  }),
   /** The next top-up forecast's accuracy on this fleet's own record (DOMAIN.md §7b); null before the first case base. */
-  forecastAccuracy: ForecastAccuracyDto | null;
-};
+  forecastAccuracy: forecastAccuracyDto.nullable(),
+});
+export type FleetOverviewDto = z.infer<typeof fleetOverviewDto>;

@@ -194,10 +194,6 @@ export const overviewsQuerySchema = z.object({
   /** The last unit id of the previous page. */
   after: z.coerce.number().int().min(0).max(2_147_483_647).default(0),
 });
-/** A unit's first read with its label's token, so a phone can open it by its label with no signal. */
-export type DepotUnitDto = { unitId: number; qrToken: string; overview: UnitOverviewDto };
-export type DepotPageDto = { units: DepotUnitDto[]; nextAfter: number | null };
-
 export const historyQuerySchema = z.object({
   before: z.coerce.number().int().positive().optional(),
   limit: z.coerce.number().int().min(1).max(200).default(HISTORY_PAGE_SIZE),
@@ -321,3 +317,9 @@ export type UnitTimelineDto = z.infer<typeof unitTimelineDto>;
 
 export const unitOverviewDto = z.object({ stats: unitStatsDto.nullable(), history: unitHistoryDto });
 export type UnitOverviewDto = z.infer<typeof unitOverviewDto>;
+
+/** A unit's first read with its label's token, so a phone can open it by its label with no signal. */
+export const depotUnitDto = z.object({ unitId: z.number(), qrToken: z.string(), overview: unitOverviewDto });
+export type DepotUnitDto = z.infer<typeof depotUnitDto>;
+export const depotPageDto = z.object({ units: z.array(depotUnitDto), nextAfter: z.number().nullable() });
+export type DepotPageDto = z.infer<typeof depotPageDto>;

@@ -29,48 +29,51 @@ export type RefrigerantLogQuery = z.output<typeof refrigerantLogQuerySchema>;
 export const LOG_ENTRY_KINDS = ['top_up', 'recharge', 'recovery', 'leak_check'] as const;
 export type LogEntryKind = (typeof LOG_ENTRY_KINDS)[number];
 
-export type RefrigerantLogEntryDto = {
-  eventId: number;
-  occurredAt: string;
-  kind: LogEntryKind;
-  unit: { id: number; containerNumber: string };
-  refrigerant: string;
-  site: { id: number; name: string } | null;
+export const refrigerantLogEntryDto = z.object({
+  eventId: z.number(),
+  occurredAt: z.string(),
+  kind: z.enum(LOG_ENTRY_KINDS),
+  unit: z.object({ id: z.number(), containerNumber: z.string() }),
+  refrigerant: z.string(),
+  site: z.object({ id: z.number(), name: z.string() }).nullable(),
   /** Refrigerant movements only. */
-  kg: number | null;
-  co2eTonnes: number | null;
-  cylinder: string | null;
+  kg: z.number().nullable(),
+  co2eTonnes: z.number().nullable(),
+  cylinder: z.string().nullable(),
   /** Recycled or reclaimed gas was used (Reg. (EU) No 517/2014 Art. 6 record). */
-  reusedRecovered: boolean | null;
+  reusedRecovered: z.boolean().nullable(),
   /** A first fill or retrofit charge: recorded, but not made-up refrigerant. */
-  excludedFromLeakRate: boolean | null;
+  excludedFromLeakRate: z.boolean().nullable(),
   /** Leak checks only. */
-  method: string | null;
-  leakFound: boolean | null;
-  location: string | null;
-  technician: { id: string; name: string; certificateNumber: string | null };
-};
+  method: z.string().nullable(),
+  leakFound: z.boolean().nullable(),
+  location: z.string().nullable(),
+  technician: z.object({ id: z.string(), name: z.string(), certificateNumber: z.string().nullable() }),
+});
+export type RefrigerantLogEntryDto = z.infer<typeof refrigerantLogEntryDto>;
 
-export type RefrigerantLogTotalsDto = {
-  refrigerant: string;
-  addedKg: number;
+export const refrigerantLogTotalsDto = z.object({
+  refrigerant: z.string(),
+  addedKg: z.number(),
   /** Null when the total cannot be computed (old rows with a mass the engine refuses). */
-  addedCo2eTonnes: number | null;
-  recoveredKg: number;
-  recoveredCo2eTonnes: number | null;
-  additions: number;
-  recoveries: number;
-  leakChecks: number;
-  leaksFound: number;
-};
+  addedCo2eTonnes: z.number().nullable(),
+  recoveredKg: z.number(),
+  recoveredCo2eTonnes: z.number().nullable(),
+  additions: z.number(),
+  recoveries: z.number(),
+  leakChecks: z.number(),
+  leaksFound: z.number(),
+});
+export type RefrigerantLogTotalsDto = z.infer<typeof refrigerantLogTotalsDto>;
 
-export type RefrigerantLogDto = {
-  from: string;
-  to: string;
-  gwpBasis: 'AR4' | 'AR5';
-  entries: RefrigerantLogEntryDto[];
-  nextBefore: string | null;
-  totals: RefrigerantLogTotalsDto[];
+export const refrigerantLogDto = z.object({
+  from: z.string(),
+  to: z.string(),
+  gwpBasis: z.enum(['AR4', 'AR5']),
+  entries: z.array(refrigerantLogEntryDto),
+  nextBefore: z.string().nullable(),
+  totals: z.array(refrigerantLogTotalsDto),
   /** Voided entries in the period, left out of the list and the totals. */
-  voidedExcluded: number;
-};
+  voidedExcluded: z.number(),
+});
+export type RefrigerantLogDto = z.infer<typeof refrigerantLogDto>;

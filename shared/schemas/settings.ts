@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import type { Permission } from '../permissions';
-import type { JobDto } from './jobs';
+import { jobDto } from './jobs';
 import { LEAK_LOCATION_IDS } from '../domain/service-terms';
 
 /** Highest PTI validity an owner may set, in days. */
@@ -169,7 +169,7 @@ export type SettingsSection = (typeof SETTINGS_SECTIONS)[number];
 export const SETTINGS_SECTION_KEYS = {
   policy: ['policy', 'customLeakCheck', 'gwpBasis'],
   thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'],
-  pti: ['ptiValidityDays'],
+  pti: ['ptiValidityDays', 'rechecks'],
   economics: ['economics'],
 } as const satisfies Record<SettingsSection, readonly (keyof Settings)[]>;
 
@@ -207,26 +207,34 @@ export const SETTINGS_SECTION_READ_PERMISSION: Partial<Record<SettingsSection, P
 /** The settings as a reader sees them: a section they may not read is left out. */
 export type VisibleSettings = Omit<Settings, 'economics'> & Partial<Pick<Settings, 'economics'>>;
 
-export type SettingsDto = {
-  settings: VisibleSettings;
+export const settingsDto = z.object({
+  settings: z.custom<VisibleSettings>(),
   /** Sections left out for this reader's role. */
-  hiddenSections: SettingsSection[];
+  hiddenSections: z.array(z.enum(SETTINGS_SECTIONS)),
   /** 0 while the defaults are in force. */
-  version: number;
-  updatedAt: string | null;
-  updatedBy: { id: string; name: string } | null;
+  version: z.number(),
+  updatedAt: z.string().nullable(),
+  updatedBy: z.object({ id: z.string(), name: z.string() }).nullable(),
   /** The latest statistics recompute, running or finished. */
-  recompute: JobDto | null;
-};
+  recompute: jobDto.nullable(),
+});
+export type SettingsDto = z.infer<typeof settingsDto>;
 
-export type SettingsHistoryDto = {
-  versions: {
-    version: number;
-    updatedAt: string;
-    updatedBy: { id: string; name: string };
-    sections: SettingsSection[];
-  }[];
-};
+/** After a save: the settings as read back, and which sections the save changed. */
+export const savedSettingsDto = settingsDto.extend({ changedSections: z.array(z.enum(SETTINGS_SECTIONS)) });
+export type SavedSettingsDto = z.infer<typeof savedSettingsDto>;
+
+export const settingsHistoryDto = z.object({
+  versions: z.array(
+    z.object({
+      version: z.number(),
+      updatedAt: z.string(),
+      updatedBy: z.object({ id: z.string(), name: z.string() }),
+      sections: z.array(z.enum(SETTINGS_SECTIONS)),
+    }),
+  ),
+});
+export type SettingsHistoryDto = z.infer<typeof settingsHistoryDto>;
 
 /** Which sections differ between two settings objects. */
 export function changedSections(before: Settings, after: Settings): SettingsSection[] {

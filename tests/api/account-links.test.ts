@@ -52,8 +52,8 @@ describe('invitations', () => {
 
     const shown = await request(app).get(`/api/invitations/${token}`);
     expect(shown.status).toBe(200);
-    expect(shown.body).toMatchObject({ email: 'mara.quell@halyard.example', name: 'Mara Quell' });
-    const hours = (new Date(shown.body.expiresAt).getTime() - clock.now().getTime()) / 3600_000;
+    expect(shown.body.link).toMatchObject({ email: 'mara.quell@halyard.example', name: 'Mara Quell' });
+    const hours = (new Date(shown.body.link.expiresAt).getTime() - clock.now().getTime()) / 3600_000;
     expect(hours).toBeGreaterThan(71.9);
     expect(hours).toBeLessThanOrEqual(72);
 
@@ -197,7 +197,7 @@ describe('password reset', () => {
     const url = linkIn(smtp.messages[0].text, `${PUBLIC_URL}/reset/`);
     const token = tokenOf(url);
 
-    expect((await request(app).get(`/api/password-reset/${token}`)).body.email).toBe(user.email);
+    expect((await request(app).get(`/api/password-reset/${token}`)).body.link.email).toBe(user.email);
     const here = request.agent(app);
     const done = await here
       .post(`/api/password-reset/${token}`)

@@ -45,7 +45,7 @@ export function accountLinkRoutes(ctx: AppContext) {
     }),
     route('get', '/api/invitations/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
-      res.json(await describeLink(ctx.db, ctx, 'invitation', token));
+      res.json({ link: await describeLink(ctx.db, ctx, 'invitation', token) });
     }),
     route('post', '/api/invitations/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
@@ -71,7 +71,7 @@ export function accountLinkRoutes(ctx: AppContext) {
     ),
     route('get', '/api/password-reset/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);
-      res.json(await describeLink(ctx.db, ctx, 'password_reset', token));
+      res.json({ link: await describeLink(ctx.db, ctx, 'password_reset', token) });
     }),
     route('post', '/api/password-reset/:token', 'public', async (req, res) => {
       const { token } = linkTokenParamSchema.parse(req.params);

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import { accountLinkDto, type AccountLinkDto, meDto, type UserDto } from '../../../../shared/schemas/account';
+import { accountLinkResponseDto, type AccountLinkDto, meDto, type UserDto } from '../../../../shared/schemas/account';
 import { apiClient } from '../../../lib/api-client';
 import { meQuery } from '../../../lib/auth';
 import { accountKeys, type AccountLinkPurpose } from './keys';
@@ -15,7 +15,7 @@ export async function getAccountLink(
   token: string,
   signal?: AbortSignal,
 ): Promise<AccountLinkDto> {
-  return accountLinkDto.parse(await apiClient.get(url(purpose, token), { signal }));
+  return accountLinkResponseDto.parse(await apiClient.get(url(purpose, token), { signal })).link;
 }
 
 export function accountLinkQuery(purpose: AccountLinkPurpose, token: string) {

@@ -1,0 +1,125 @@
+// The refrigerant log as a CSV file: one row per entry, then the totals per refrigerant, then the period.
+import type { Db } from '../../db/client';
+import { streamRows } from '../../lib/csv-stream';
+import { termLabel, LEAK_CHECK_METHODS, LEAK_LOCATIONS } from '../../../shared/domain';
+import type { RefrigerantLogQuery, RefrigerantLogTotalsDto } from '../../../shared/schemas/refrigerant-log';
+import type { Settings } from '../../../shared/schemas/settings';
+import { LOG_FIELD_NAMES, logEntriesQuery, toLogEntry } from './refrigerant-log.service';
+
+const KIND_WORDS = {
+  top_up: 'top-up',
+  recharge: 'recharge after evacuation',
+  recovery: 'recovery',
+  leak_check: 'leak check',
+} as const;
+
+export const LOG_CSV_COLUMNS = [
+  'Date (UTC)',
+  'Entry',
+  'Container number',
+  'Refrigerant',
+  'Site',
+  'kg',
+  't CO2e',
+  'Cylinder or lot',
+  'Recycled or reclaimed gas',
+  'First fill or retrofit',
+  'Leak-check method',
+  'Leak found',
+  'Leak location',
+  'Technician',
+  'Certificate number',
+  'Event id',
+];
+
+/** The file's rows: the entries streamed from the database, then `totals` (read before the file starts). */
+export async function* refrigerantLogCsvRecords(
+  db: Db,
+  q: RefrigerantLogQuery & { before?: undefined },
+  settings: Settings,
+  totals: RefrigerantLogTotalsDto[],
+): AsyncIterable<unknown[]> {
+  for await (const raw of streamRows(db, logEntriesQuery(db, q))) {
+    const e = toLogEntry(
+      Object.fromEntries(LOG_FIELD_NAMES.map((k, i) => [k, raw[i]])) as Parameters<typeof toLogEntry>[0],
+      settings,
+    );
+    yield [
+      e.occurredAt,
+      KIND_WORDS[e.kind],
+      e.unit.containerNumber,
+      e.refrigerant,
+      e.site?.name ?? '',
+      e.kg ?? '',
+      e.co2eTonnes ?? '',
+      e.cylinder ?? '',
+      e.reusedRecovered ?? '',
+      e.excludedFromLeakRate ?? '',
+      e.method ? termLabel(LEAK_CHECK_METHODS, e.method) : '',
+      e.leakFound ?? '',
+      e.location ? termLabel(LEAK_LOCATIONS, e.location) : '',
+      e.technician.name,
+      e.technician.certificateNumber ?? '',
+      e.eventId,
+    ];
+  }
+  // Totals close the file, in the same columns, so the export is the whole record for the period.
+  yield [];
+  for (const t of totals) {
+    yield [
+      'Total',
+      'added',
+      '',
+      t.refrigerant,
+      '',
+      t.addedKg,
+      t.addedCo2eTonnes,
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      `${t.additions} entries`,
+    ];
+    yield [
+      'Total',
+      'recovered',
+      '',
+      t.refrigerant,
+      '',
+      t.recoveredKg,
+      t.recoveredCo2eTonnes,
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      `${t.recoveries} entries`,
+    ];
+    yield [
+      'Total',
+      'leak checks',
+      '',
+      t.refrigerant,
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      '',
+      t.leaksFound ? `${t.leaksFound} found` : 'none found',
+      '',
+      '',
+      '',
+      `${t.leakChecks} entries`,
+    ];
+  }
+  yield [`Period ${q.from} to ${q.to}; GWP basis ${settings.gwpBasis}; voided entries are excluded.`];
+}
