@@ -1,4 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
+import { lazy, Suspense } from 'react';
 import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
@@ -7,11 +8,36 @@ import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { RecordVisitForm } from '../../../features/history/components/record-visit-form';
+import type { CylinderSlot } from '../../../features/history/components/entry-card';
+import { CylinderPicker } from '../../../features/cylinders/components/cylinder-picker';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { LoadError } from '../../../components/ui/query-state';
+
+// The camera scanner is large (zxing): loaded only when a cylinder label is scanned.
+const QrScanner = lazy(() =>
+  import('../../../features/labels/components/qr-scanner').then((m) => ({ default: m.QrScanner })),
+);
+
+/** Charges and recoveries pick a register cylinder at the unit's site, by list, typed number or scanned label. */
+const cylinderSlotFor =
+  (siteId: number | null): CylinderSlot =>
+  ({ recovery, refrigerant, value, onPick }) => (
+    <CylinderPicker
+      refrigerant={refrigerant}
+      recovery={recovery}
+      siteId={siteId}
+      value={value ? { ...value, kind: recovery ? 'recovery' : 'new', refrigerant } : null}
+      onChange={(c) => onPick(c ? { id: c.id, code: c.code } : null)}
+      scanner={(onCode) => (
+        <Suspense fallback={<p role="status">Starting the camera…</p>}>
+          <QrScanner onCode={onCode} />
+        </Suspense>
+      )}
+    />
+  );
 
 const unitIdOf = (raw: string | undefined) => {
   const n = Number(raw);
@@ -84,6 +110,7 @@ export default function RecordVisitPage() {
         userId={user.id}
         unitHref={unitHref}
         alsoInvalidate={alsoInvalidate}
+        cylinderSlot={cylinderSlotFor(u.site?.id ?? null)}
       />
     </div>
   );

@@ -9,6 +9,7 @@ import { unitKeys } from '../../../features/units/api/keys';
 import { UnitChanges } from '../../../features/units/components/unit-changes';
 import { UnitIdentity } from '../../../features/units/components/unit-identity';
 import { UnitLabelActions } from '../../../features/labels/components/unit-label-actions';
+import { HandoverDownload } from '../../../features/handover/components/handover-download';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
 import { LoadError } from '../../../components/ui/query-state';
@@ -76,6 +77,9 @@ function UnitRecord({ id }: { id: number }) {
 
       <Can permission="manage:units">
         <UnitLabelActions unit={unit.data} />
+      </Can>
+      <Can permission="view:fleet">
+        <HandoverDownload unitId={unit.data.id} />
       </Can>
       <UnitChanges unitId={unit.data.id} />
     </div>

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { useController, useWatch } from 'react-hook-form';
 import { LEAK_CHECK_METHODS, LEAK_LOCATIONS, REPAIR_ACTIONS, SIGHT_GLASS_STATES } from '../../../../shared/domain';
 import { UNIT_STATUS_VALUES, type VisitEventKind } from '../../../../shared/schemas/history';
@@ -18,11 +19,25 @@ import { EntryGlyph } from './entry-glyph';
 import { SafetyCautions } from './safety-cautions';
 import { SaturationReadout } from './saturation-readout';
 
+/** A register cylinder picked for a charge or recovery. */
+export type PickedCylinderRef = { id: number; code: string };
+/**
+ * The cylinder picker the page brings (the cylinders feature): the entry only keeps what it picks — the cylinder's id,
+ * and its number as the entry's cylinder text.
+ */
+export type CylinderSlot = (args: {
+  recovery: boolean;
+  refrigerant: string;
+  value: PickedCylinderRef | null;
+  onPick: (c: PickedCylinderRef | null) => void;
+}) => ReactNode;
+
 type Props = {
   control: VisitControl;
   index: number;
   kind: VisitEventKind;
   refrigerant: string;
+  cylinderSlot?: CylinderSlot;
   onUnitsChange: (change: Partial<UnitPrefs>) => void;
   onRemove: () => void;
 };
@@ -30,7 +45,23 @@ type Props = {
 const terms = (list: readonly { id: string; label: string }[]): Choice[] =>
   list.map((t) => ({ value: t.id, label: t.label }));
 
-function MassFields({ control, index, kind, onUnitsChange }: Props) {
+function CylinderChoice({ control, index, kind, refrigerant, cylinderSlot }: Props & { cylinderSlot: CylinderSlot }) {
+  const id = useController({ control, name: `events.${index}.cylinderId` });
+  const text = useController({ control, name: `events.${index}.cylinder` });
+  const value = id.field.value != null ? { id: id.field.value as number, code: text.field.value as string } : null;
+  return cylinderSlot({
+    recovery: kind === 'recovery',
+    refrigerant,
+    value,
+    onPick: (c) => {
+      id.field.onChange(c?.id ?? null);
+      text.field.onChange(c?.code ?? '');
+    },
+  });
+}
+
+function MassFields(props: Props) {
+  const { control, index, kind, onUnitsChange, cylinderSlot } = props;
   const unit = useController({ control, name: `events.${index}.massUnit` });
   const isLb = unit.field.value === 'lb';
   return (
@@ -56,6 +87,7 @@ function MassFields({ control, index, kind, onUnitsChange }: Props) {
           }
         />
       </div>
+      {cylinderSlot && <CylinderChoice {...props} cylinderSlot={cylinderSlot} />}
       <TextInput
         control={control}
         name={`events.${index}.cylinder`}

@@ -7,7 +7,7 @@ import { useRecordVisitForm, type VisitFormError } from '../hooks/use-record-vis
 import type { VisitUnit } from '../hooks/use-visit-resolver';
 import { PRECEDENCE_NOTE } from '../utils/safety';
 import { toLocalInputValue } from '../utils/visit-form-model';
-import { EntryCard } from './entry-card';
+import { EntryCard, type CylinderSlot } from './entry-card';
 import { PreviewContext } from './form-controls';
 import { PendingVisitsBanner } from './pending-visits-banner';
 import { EntryPalette } from './record-visit/entry-palette';
@@ -76,8 +76,11 @@ export function RecordVisitForm({
   userId,
   unitHref,
   alsoInvalidate,
+  cylinderSlot,
 }: {
   unit: VisitUnit;
+  /** The cylinder picker for charges and recoveries, from the page (see EntryCard). */
+  cylinderSlot?: CylinderSlot;
   userId: string;
   /** Back to the unit's page. */
   unitHref: string;
@@ -135,6 +138,7 @@ export function RecordVisitForm({
                 index={i}
                 kind={f.kind}
                 refrigerant={unit.refrigerant}
+                cylinderSlot={cylinderSlot}
                 onUnitsChange={v.setPrefs}
                 onRemove={() => v.entries.remove(i)}
               />

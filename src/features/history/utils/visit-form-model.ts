@@ -38,6 +38,8 @@ export type EntryDraft = {
   kg: string;
   massUnit: MassUnit;
   cylinder: string;
+  /** The register's cylinder picked for this movement (the picker also fills `cylinder` with its number). */
+  cylinderId: number | null;
   reusedRecovered: boolean;
   excludedFromLeakRate: boolean;
   // pressure reading: pressures as typed in `pressureUnit` (gauge), temperatures in `temperatureUnit`
@@ -75,6 +77,7 @@ export function emptyEntry(kind: VisitEventKind, prefs: UnitPrefs): EntryDraft {
     kg: '',
     massUnit: prefs.mass,
     cylinder: '',
+    cylinderId: null,
     reusedRecovered: false,
     excludedFromLeakRate: false,
     suctionKPaG: '',
@@ -182,14 +185,16 @@ export function toVisitEvent(d: EntryDraft): VisitEventInput {
       const kg = round(toKg(typed, d.massUnit), 4) as number;
       const enteredAs = typed !== undefined && !Number.isNaN(typed) ? { value: typed, unit: d.massUnit } : undefined;
       const cylinder = d.cylinder.trim();
-      if (d.kind === 'recovery') return { kind: 'recovery', kg, enteredAs, cylinder, note };
+      const cylinderId = d.cylinderId ?? undefined;
+      if (d.kind === 'recovery') return { kind: 'recovery', kg, enteredAs, cylinder, cylinderId, note };
       if (d.kind === 'top_up')
-        return { kind: 'top_up', kg, enteredAs, cylinder, reusedRecovered: d.reusedRecovered, note };
+        return { kind: 'top_up', kg, enteredAs, cylinder, cylinderId, reusedRecovered: d.reusedRecovered, note };
       return {
         kind: 'recharge',
         kg,
         enteredAs,
         cylinder,
+        cylinderId,
         reusedRecovered: d.reusedRecovered,
         excludedFromLeakRate: d.excludedFromLeakRate,
         note,
@@ -244,8 +249,8 @@ export const FIELDS_BY_KIND: Record<VisitEventKind, readonly (keyof EntryDraft)[
   component_replacement: ['component', 'note'],
   status_change: ['status', 'note'],
   note: ['note'],
-  top_up: ['kg', 'cylinder', 'reusedRecovered', 'note'],
-  recovery: ['kg', 'cylinder', 'note'],
-  recharge: ['kg', 'cylinder', 'reusedRecovered', 'excludedFromLeakRate', 'note'],
+  top_up: ['kg', 'cylinder', 'cylinderId', 'reusedRecovered', 'note'],
+  recovery: ['kg', 'cylinder', 'cylinderId', 'note'],
+  recharge: ['kg', 'cylinder', 'cylinderId', 'reusedRecovered', 'excludedFromLeakRate', 'note'],
   pressure: ['suctionKPaG', 'dischargeKPaG', 'ambientC', 'setPointC', 'supplyAirC', 'returnAirC', 'sightGlass', 'note'],
 };
