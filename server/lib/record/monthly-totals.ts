@@ -36,15 +36,10 @@ export type MonthlyTotalsVersion = {
    * the table, in whichever API process (cache_versions), so a cached total is never older than the last commit.
    */
   get(db: DbOrTx): Promise<number>;
-  /** Nothing to do any more (the version is bumped inside the write); kept until the write path stops calling it. */
-  invalidate(): void;
 };
 
 export function createMonthlyTotalsVersion(): MonthlyTotalsVersion {
-  return {
-    get: (db) => readVersion(db, 'monthly_totals'),
-    invalidate: () => {},
-  };
+  return { get: (db) => readVersion(db, 'monthly_totals') };
 }
 
 /** YYYY-MM of a moment, UTC (the domain's month of a visit). */

@@ -11,6 +11,7 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { Db, Tx } from '../../db/client';
 import { unitChanges, units } from '../../db/schema';
+import { bumpVersion } from '../cache-versions';
 import type { Clock } from '../clock';
 import { notFound } from '../http-error';
 import { retryTransaction } from '../retry';
@@ -57,7 +58,7 @@ export async function writeUnit<T>(
 ): Promise<UnitWriteResult<T>> {
   // Held in memory by the process (loaded once, refreshed by the case-base job): read outside the transaction.
   const caseBase = await ctx.caches.caseBase.get(ctx.db);
-  const outcome = await retryTransaction(() =>
+  return retryTransaction(() =>
     ctx.db.transaction(async (tx) => {
       const locked = await lockUnitForHistory(tx, unitId);
       if (!locked) throw notFound('No such unit.');
@@ -74,12 +75,9 @@ export async function writeUnit<T>(
         done.movedVisitIds ?? [],
         caseBase,
       );
-      return { result: done.result, ...written, monthlyChanged: (done.movedVisitIds ?? []).length > 0 };
+      return { result: done.result, ...written };
     }, WRITE_ISOLATION),
   );
-  if (outcome.monthlyChanged) ctx.caches.monthlyTotals.invalidate();
-  const { monthlyChanged: _m, ...rest } = outcome;
-  return rest;
 }
 
 /**
@@ -139,4 +137,6 @@ export async function registerNewUnits(
         rows.map((u) => ({ unitId: u.id, userId: actorId, at: now, field: 'registered', before: null, after: how })),
       );
   }
+  // Every API process counts the fleet again from its next read on (server/lib/fleet-size.ts).
+  if (unitIds.length) await bumpVersion(tx, 'units');
 }
