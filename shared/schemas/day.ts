@@ -41,6 +41,8 @@ export type DayRowDto = {
 
 export type DayDto = {
   site: { id: number; name: string; code: string } | null;
+  /** Every site, for choosing another. */
+  sites: { id: number; name: string }[];
   today: string;
   groups: { id: DayGroupId; label: string; total: number; rows: DayRowDto[] }[];
 };

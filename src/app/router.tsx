@@ -76,6 +76,10 @@ export function createAppRouter(queryClient: QueryClient) {
               ...lazyPage(() => import('./routes/units/scan'), queryClient, paths.scan.permission),
             },
             {
+              path: paths.unitRelease.path,
+              ...lazyPage(() => import('./routes/units/release'), queryClient, paths.unitRelease.permission),
+            },
+            {
               path: paths.unitVisit.path,
               ...lazyPage(() => import('./routes/units/record-visit'), queryClient, paths.unitVisit.permission),
             },

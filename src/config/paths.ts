@@ -73,6 +73,12 @@ export const paths = {
     getHref: (token: string) => `/u/${encodeURIComponent(token)}`,
     permission: 'view:unit',
   },
+  // The structured PTI, release for loading and quarantine of one unit.
+  unitRelease: {
+    path: '/units/:id/release',
+    getHref: (id: number) => `/units/${id}/release`,
+    permission: 'view:unit',
+  },
   unitVisit: {
     path: '/units/:id/visit',
     getHref: (id: number) => `/units/${id}/visit`,

@@ -195,7 +195,8 @@ async function siteFor(db: Db, user: SessionUser, siteId: number | undefined) {
 export async function myDay(db: Db, user: SessionUser, siteId: number | undefined, now: Date): Promise<DayDto> {
   const today = now.toISOString().slice(0, 10);
   const site = await siteFor(db, user, siteId);
-  if (!site) return { site: null, today, groups: [] };
+  const allSites = await db.select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name));
+  if (!site) return { site: null, sites: allSites, today, groups: [] };
   const specs = groupSpecs(today);
   const base = and(eq(units.siteId, site.id), ne(units.status, 'retired'));
   const groups = [];
@@ -237,5 +238,5 @@ export async function myDay(db: Db, user: SessionUser, siteId: number | undefine
       rows: rows.map((r): DayRowDto => ({ unitId: r.unitId, containerNumber: r.containerNumber, ...spec.row(r) })),
     });
   }
-  return { site, today, groups };
+  return { site, sites: allSites, today, groups };
 }

@@ -3,6 +3,7 @@ import { ButtonLink } from '../../../components/ui/button';
 import { PeopleIcon } from '../../../components/ui/icons';
 import { Panel } from '../../../components/ui/page';
 import { paths } from '../../../config/paths';
+import { MyDay } from '../../../features/day/components/my-day';
 import { FindUnitForm } from '../../../features/units/components/find-unit-form';
 import { useUser } from '../../../lib/auth';
 import { Can } from '../../../lib/can';
@@ -28,7 +29,9 @@ export default function HomePage() {
         <p className="mt-1 text-base text-ink-600">Signed in as {ROLE_LABELS[user.role].toLowerCase()}.</p>
       </div>
 
-      <Panel aria-labelledby="find-unit-title" className="border-ink-950">
+      <MyDay />
+
+      <Panel aria-labelledby="find-unit-title">
         <h2 id="find-unit-title" className="mb-3 text-xl font-bold">
           Find a unit
         </h2>
