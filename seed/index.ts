@@ -9,6 +9,7 @@ import { createLogger } from '../server/lib/logger';
 import { publicUrl, readEnv } from '../server/env';
 import { seedCylinders } from './cylinders';
 import { DEMO_ACCOUNTS, DEMO_COMPANY, DEMO_PASSWORD } from './demo-accounts';
+import { seedDepotDay } from './depot-day';
 import { createFleet, STORY_UNITS, type Fleet } from './simulator/fleet';
 import { containerNumberFor } from './simulator/unit-sim';
 import { FleetWriter, fleetRows, writeSitesAndPeople, type Exec } from './simulator/writer';
@@ -103,6 +104,7 @@ export async function seedDemo(db: Db, opts: SeedDemoOptions = {}): Promise<Seed
     publicUrl: publicUrl(readEnv()),
   });
   await seedCylinders(db, { now });
+  await seedDepotDay(db, { seed: fleet.ctx.seed, now, settings, publicUrl: publicUrl(readEnv()) });
   const summary: SeedSummary = {
     units: writer.counts.units,
     visits: writer.counts.visits,
