@@ -48,14 +48,14 @@ const LABEL_PAGE_MODULE = /[\\/]features[\\/]history[\\/]components[\\/]service-
 function bootScript(preload: string[]): string {
   return `(function () {
   var m = /^\\/u\\/([A-Za-z0-9_-]{16,64})\\/?$/.exec(location.pathname);
-  if (!m) return;
+  // With no signal everything comes from the service worker at once; preloading would only crowd the app's start.
+  if (!m || navigator.onLine === false || typeof fetch !== 'function') return;
   ${JSON.stringify(preload)}.forEach(function (href) {
     var link = document.createElement('link');
     link.rel = 'modulepreload';
     link.href = href;
     document.head.appendChild(link);
   });
-  if (navigator.onLine === false || typeof fetch !== 'function') return;
   var early = {};
   ['/api/auth/me', '/api/units/by-token/' + m[1], '/api/units/by-token/' + m[1] + '/overview'].forEach(function (url) {
     early[url] = fetch(url, { credentials: 'include', headers: { Accept: 'application/json' } });

@@ -2,7 +2,7 @@
 // IndexedDB so a label scanned with no signal opens even if this phone never opened it before. Kept apart from the
 // query cache (persist-queries.ts), which is read whole at every start: a depot is hundreds of units.
 import { useSyncExternalStore } from 'react';
-import { clear, createStore, del, get, set, setMany } from 'idb-keyval';
+import { clear, createStore, del, get, set, setMany, type UseStore } from 'idb-keyval';
 import type { DepotPageDto, UnitOverviewDto } from '../../shared/schemas/history';
 import type { UnitDto, UnitListDto } from '../../shared/schemas/units';
 import { apiClient } from './api-client';
@@ -28,7 +28,10 @@ export type DepotState = {
   error?: string;
 };
 
-const store = typeof indexedDB === 'undefined' ? undefined : createStore('tightloop-depot', 'units');
+// Opened on first use, not when the app starts: opening a database competes with restoring the query cache.
+let opened: UseStore | undefined;
+const depotStore = () =>
+  typeof indexedDB === 'undefined' ? undefined : (opened ??= createStore('tightloop-depot', 'units'));
 const STATE_KEY = 'state';
 const unitKey = (id: number) => `unit:${id}`;
 const tokenKey = (token: string) => `token:${token}`;
@@ -42,6 +45,7 @@ function publish(next: DepotState | null) {
 }
 
 async function loadState(): Promise<DepotState | null> {
+  const store = depotStore();
   if (!loaded && store) {
     loaded = true;
     state = (await get<DepotState>(STATE_KEY, store).catch(() => undefined)) ?? null;
@@ -52,6 +56,7 @@ async function loadState(): Promise<DepotState | null> {
 }
 
 async function saveState(next: DepotState | null) {
+  const store = depotStore();
   publish(next);
   if (!store) return;
   if (next) await set(STATE_KEY, next, store);
@@ -79,6 +84,7 @@ export function updateDepotCopy(userId: string, siteId: number, siteName: string
     const keep = previous?.userId === userId && previous.siteId === siteId ? previous : base;
     publish({ ...keep, status: 'updating' });
     try {
+      const store = depotStore();
       if (!store) throw new Error('This browser has no storage for units kept offline.');
       void navigator.storage?.persist?.().catch(() => false);
       const units = await allPages(async (page) => {
@@ -126,6 +132,7 @@ export function updateDepotCopy(userId: string, siteId: number, siteName: string
 /** The kept unit a label belongs to, if this phone keeps it (for the signed-in person only). */
 export async function findByLabel(userId: string, token: string): Promise<KeptUnit | null> {
   const kept = await loadState();
+  const store = depotStore();
   if (!store || kept?.userId !== userId || !kept.updatedAt) return null;
   try {
     const id = await get<number>(tokenKey(token), store);
@@ -140,6 +147,7 @@ export async function findByLabel(userId: string, token: string): Promise<KeptUn
 export async function forgetDepotCopy(): Promise<void> {
   await loadState();
   publish(null);
+  const store = depotStore();
   if (store) await clear(store).catch(() => undefined);
 }
 
