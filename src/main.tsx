@@ -1,5 +1,7 @@
 import './fonts.css';
 import './styles.css';
+// Validator messages in plain words, the same the API sends.
+import '../shared/schemas/plain-errors';
 import { StrictMode } from 'react';
 import type { QueryClient } from '@tanstack/react-query';
 import { createRoot } from 'react-dom/client';

@@ -1,5 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import { ZodError } from 'zod';
+// Field errors in plain words (one error map for the API and the forms).
+import '../../shared/schemas/plain-errors';
 import { HttpError } from '../lib/http-error';
 import type { Logger } from '../lib/logger';
 import { DATABASE_RETRY_AFTER_SECONDS, isDatabaseUnavailable } from '../lib/db-unavailable';
