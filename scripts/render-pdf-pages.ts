@@ -25,7 +25,10 @@ await page.route(`${ORIGIN}/**`, (route) => {
   const url = route.request().url();
   if (url.endsWith('/pdfjs.mjs')) return route.fulfill({ body: pdfjs, contentType: 'text/javascript' });
   if (url.endsWith('/doc.pdf')) return route.fulfill({ body: pdf, contentType: 'application/pdf' });
-  return route.fulfill({ body: '<!doctype html><body style="margin:0;background:#777"></body>', contentType: 'text/html' });
+  return route.fulfill({
+    body: '<!doctype html><body style="margin:0;background:#777"></body>',
+    contentType: 'text/html',
+  });
 });
 await page.goto(`${ORIGIN}/`);
 const count = await page.evaluate(async (n: number) => {

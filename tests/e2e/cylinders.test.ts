@@ -115,6 +115,7 @@ describe('cylinders on visits', () => {
         await page.getByRole('heading', { name: /^Cylinder / }).waitFor();
         await page.getByRole('heading', { name: 'Weighings' }).waitFor();
         if (SCREENS) {
+          await page.evaluate(() => window.scrollTo(0, 0));
           await page.screenshot({ path: path.join(SCREENS, `cylinder-page-${viewport.width}.png`), fullPage: true });
         }
         expect([...b.pageErrors, ...b.consoleErrors]).toEqual([]);

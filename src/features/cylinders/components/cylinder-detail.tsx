@@ -1,5 +1,6 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
+import { formatContainerNumber } from '../../../../shared/domain';
 import {
   CYLINDER_KIND_LABELS,
   CYLINDER_STATUS_LABELS,
@@ -78,7 +79,7 @@ export function CylinderDetail({
               {data.moves.map((m) => (
                 <li key={m.eventId} className={m.voided ? 'py-2 text-ink-500 line-through' : 'py-2'}>
                   <Link to={unitHref(m.unitId)} className="font-semibold underline-offset-4 hover:underline">
-                    {m.containerNumber}
+                    {formatContainerNumber(m.containerNumber)}
                   </Link>{' '}
                   {m.direction === 'out' ? 'charged' : 'recovered'} {kg(m.kg)} · {when(m.occurredAt)} ·{' '}
                   {m.technician.name}
@@ -98,7 +99,7 @@ export function CylinderDetail({
               {data.quarantinedUnits.map((u) => (
                 <li key={u.unitId}>
                   <Link to={unitHref(u.unitId)} className="rounded bg-alarm-50 px-2 py-1 font-semibold text-alarm-700">
-                    {u.containerNumber}
+                    {formatContainerNumber(u.containerNumber)}
                   </Link>
                 </li>
               ))}
