@@ -21,18 +21,21 @@ export function streamRows(db: Db, query: Compiled): AsyncIterable<unknown[]> {
 
 /**
  * Sends `records` as a CSV attachment (UTF-8 with a byte-order mark, so spreadsheet programs read accents right).
- * Cells follow the CSV injection rule of server/lib/csv.ts: formula-leading text escaped, numbers as numbers.
+ * An optional `note` becomes a first comment line. Cells follow the CSV injection rule of server/lib/csv.ts: formula-leading text escaped, numbers as numbers.
  */
 export async function sendCsv(
   res: Response,
   fileName: string,
   columns: string[],
   records: AsyncIterable<unknown[]>,
+  opts: { note?: string } = {},
 ): Promise<void> {
   res.setHeader('Content-Type', 'text/csv; charset=utf-8');
   res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`);
   res.setHeader('Cache-Control', 'no-store');
+  // A note goes on a first comment line ("# …", one line), never as a free-text record among the data.
+  if (opts.note) res.write(`\uFEFF# ${opts.note.replace(/^#\s*/, '').replace(/[\r\n]+/g, ' ')}\n`);
   // The injection rule lives in CSV_OPTIONS, so no export can forget it.
-  const csv = stringify({ ...CSV_OPTIONS, header: true, columns, bom: true });
+  const csv = stringify({ ...CSV_OPTIONS, header: true, columns, bom: !opts.note });
   await pipeline(Readable.from(records), csv, res);
 }

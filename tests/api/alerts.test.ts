@@ -147,7 +147,7 @@ describe('alerts on a statistics change', () => {
     await worker.drain();
     expect(smtp.messages).toHaveLength(1);
     expect(smtp.messages[0].envelopeTo).toEqual([user.email]);
-    expect(smtp.messages[0].subject).toMatch(/rolling leak rate 24\.2 % reached the 20\.0 % threshold/);
+    expect(smtp.messages[0].subject).toMatch(/rolling leak rate 24\.2 % reached the 20 % threshold/);
   });
 
   it('mails once about a leak left unrepaired past 14 days, from a stats change or the daily run', async () => {

@@ -61,7 +61,10 @@ async function download(path: string) {
   expect(res.status, res.text).toBe(200);
   expect(res.headers['content-type']).toMatch(/text\/csv/);
   const text = res.text.replace(/^\uFEFF/, '');
-  return { text, rows: parse(text, { columns: true, relax_column_count: true }) as Record<string, string>[] };
+  return {
+    text,
+    rows: parse(text, { columns: true, relax_column_count: true, comment: '#' }) as Record<string, string>[],
+  };
 }
 
 describe('GET /api/fleet/export.csv', () => {

@@ -179,6 +179,13 @@ describe('GET /api/fleet/export.csv', () => {
     const rows = parse(res.text.replace(/^\uFEFF/, ''), { columns: true }) as Record<string, string>[];
     expect(rows.map((r) => r['Container number'])).toEqual([halyardNumber(100001), halyardNumber(100003)]);
     expect(rows[0]).toMatchObject({ Site: 'Harbour depot', Refrigerant: 'R-134a', Band: expect.any(String) });
+    // The screens' words, never the internal codes.
+    for (const r of rows) {
+      expect(['Holding', 'Slipping', 'Repeat leaker']).toContain(r.Band);
+      expect(['In service', 'Out of service', 'Retired']).toContain(r.Status);
+      expect(['Charge looks right', 'Possible low charge', 'Not enough readings']).toContain(r['Pressure health']);
+    }
+    expect(res.text).not.toMatch(/in_service|chronic|possible_low_charge/);
   });
 
   it('refuses a technician and bad filters', async () => {

@@ -124,6 +124,7 @@ describe('GET /api/traceability/export.csv', () => {
     const rows = parse(res.text.replace(/^\uFEFF/, ''), { columns: true }) as Record<string, string>[];
     expect(rows.map((r) => r['Cylinder or lot']).sort()).toEqual(['LOT77-0001', 'LOT77-0002']);
     expect(rows.every((r) => r['Recorded by'])).toBe(true);
+    expect(rows.every((r) => ['Top-up', 'Recharge'].includes(r.Entry))).toBe(true);
   });
 });
 

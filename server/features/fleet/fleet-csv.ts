@@ -2,6 +2,8 @@
 import type { Db } from '../../db/client';
 import { streamRows } from '../../lib/csv-stream';
 import type { FleetQuery } from '../../../shared/schemas/fleet';
+import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
+import { PRESSURE_FLAG_WORDS, SCORE_BAND_WORDS } from '../../../shared/domain/words';
 import { fleetSelect, ROW_FIELD_NAMES, toFleetRow } from './fleet.service';
 
 export const FLEET_CSV_COLUMNS = [
@@ -47,9 +49,10 @@ export async function* fleetCsvRecords(
         r.site?.name ?? '',
         r.refrigerant,
         r.nominalChargeKg,
-        r.status,
+        // The screens' words, not the internal codes.
+        UNIT_STATUS_LABELS[r.status],
         r.score,
-        r.scoreBand,
+        SCORE_BAND_WORDS[r.scoreBand].label,
         r.rollingLeakRatePct,
         r.co2eTonnes,
         r.forecastDate ?? '',
@@ -58,7 +61,7 @@ export async function* fleetCsvRecords(
         r.nextLeakCheckDue ? r.leakCheckOverdue : '',
         r.ptiValidUntil ?? '',
         r.ptiValid,
-        r.pressureFlag,
+        PRESSURE_FLAG_WORDS[r.pressureFlag],
         r.lastEventAt ?? '',
         r.computeError ? `cannot compute: ${r.computeError}` : 'computed',
       ];

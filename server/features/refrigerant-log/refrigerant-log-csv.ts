@@ -1,17 +1,12 @@
-// The refrigerant log as a CSV file: one row per entry, then the totals per refrigerant, then the period.
+// The refrigerant log as a CSV file: a comment line saying what it holds, the header, one row per entry, then the
+// totals per refrigerant in the same columns. Nothing after them, so a machine reads every line as a record.
 import type { Db } from '../../db/client';
 import { streamRows } from '../../lib/csv-stream';
 import { termLabel, LEAK_CHECK_METHODS, LEAK_LOCATIONS } from '../../../shared/domain';
+import { ENTRY_KIND_WORDS } from '../../../shared/domain/words';
 import type { RefrigerantLogQuery, RefrigerantLogTotalsDto } from '../../../shared/schemas/refrigerant-log';
 import type { Settings } from '../../../shared/schemas/settings';
 import { LOG_FIELD_NAMES, logEntriesQuery, toLogEntry } from './refrigerant-log.service';
-
-const KIND_WORDS = {
-  top_up: 'top-up',
-  recharge: 'recharge after evacuation',
-  recovery: 'recovery',
-  leak_check: 'leak check',
-} as const;
 
 export const LOG_CSV_COLUMNS = [
   'Date (UTC)',
@@ -46,7 +41,7 @@ export async function* refrigerantLogCsvRecords(
     );
     yield [
       e.occurredAt,
-      KIND_WORDS[e.kind],
+      ENTRY_KIND_WORDS[e.kind],
       e.unit.containerNumber,
       e.refrigerant,
       e.site?.name ?? '',
@@ -64,7 +59,6 @@ export async function* refrigerantLogCsvRecords(
     ];
   }
   // Totals close the file, in the same columns, so the export is the whole record for the period.
-  yield [];
   for (const t of totals) {
     yield [
       'Total',
@@ -121,5 +115,9 @@ export async function* refrigerantLogCsvRecords(
       `${t.leakChecks} entries`,
     ];
   }
-  yield [`Period ${q.from} to ${q.to}; GWP basis ${settings.gwpBasis}; voided entries are excluded.`];
+}
+
+/** The file's first line, a comment (`#`) that CSV readers can skip: what the file holds. */
+export function refrigerantLogCsvNote(q: RefrigerantLogQuery, settings: Settings): string {
+  return `Refrigerant log, period ${q.from} to ${q.to}; GWP basis ${settings.gwpBasis}; voided entries are excluded; rows whose Date (UTC) reads "Total" are the totals per refrigerant.`;
 }

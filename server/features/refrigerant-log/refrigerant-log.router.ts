@@ -2,7 +2,7 @@ import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { refrigerantLogQuerySchema } from '../../../shared/schemas/refrigerant-log';
 import { sendCsv } from '../../lib/csv-stream';
-import { LOG_CSV_COLUMNS, refrigerantLogCsvRecords } from './refrigerant-log-csv';
+import { LOG_CSV_COLUMNS, refrigerantLogCsvNote, refrigerantLogCsvRecords } from './refrigerant-log-csv';
 import { logTotals, refrigerantLog } from './refrigerant-log.service';
 
 export function refrigerantLogRoutes(ctx: AppContext) {
@@ -21,6 +21,7 @@ export function refrigerantLogRoutes(ctx: AppContext) {
         `refrigerant-log-${q.from}-to-${q.to}${site}.csv`,
         LOG_CSV_COLUMNS,
         refrigerantLogCsvRecords(ctx.db, q, settings, totals),
+        { note: refrigerantLogCsvNote(q, settings) },
       );
     }),
   ];

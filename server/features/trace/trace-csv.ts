@@ -3,6 +3,7 @@ import type { Db } from '../../db/client';
 import { streamRows } from '../../lib/csv-stream';
 import type { TraceQuery } from '../../../shared/schemas/trace';
 import { traceChargesQuery } from './trace.service';
+import { ENTRY_KIND_WORDS, wordFor } from '../../../shared/domain/words';
 
 export const TRACE_CSV_COLUMNS = [
   'Date',
@@ -24,7 +25,7 @@ export async function* traceCsvRecords(db: Db, q: TraceQuery): AsyncIterable<unk
       occurredAt instanceof Date ? occurredAt.toISOString() : String(occurredAt),
       containerNumber,
       refrigerant,
-      kind === 'top_up' ? 'top-up' : 'recharge',
+      wordFor(ENTRY_KIND_WORDS, String(kind)),
       kg,
       cylinder ?? '',
       siteName ?? '',

@@ -10,6 +10,7 @@ import { ALERT_KIND_LABELS, type AlertKind } from '../../../shared/schemas/alert
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
+import { roundTo } from '../../../shared/domain/numbers';
 import { enqueueMail } from '../mail/outbox';
 import { renderMail, type MailContent } from '../mail/layout';
 import { unsubscribeUrl } from '../mail/unsubscribe-link';
@@ -128,7 +129,8 @@ export function queueOpenLeakAlert(
   }));
 }
 
-const pct = (n: number) => `${(Math.round(n * 10) / 10).toFixed(1)} %`;
+// The screens' rule (src/lib/format.ts fmtPct): one decimal at most, trailing zero dropped — 100 %, 100.5 %.
+const pct = (n: number) => `${roundTo(n, 1)} %`;
 
 /**
  * Call inside the write transaction, after recomputing a unit's statistics. Mails a subscriber once when the unit

@@ -1,6 +1,7 @@
 import { differenceInCalendarDays, parseISO } from 'date-fns';
 import { useId, useState, type ReactNode } from 'react';
 import { LEAK_LOCATIONS, termLabel, type ScoreBand, type ScoreFactorName } from '../../../../shared/domain';
+import { PRESSURE_FLAG_WORDS } from '../../../../shared/domain/words';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { cx } from '../../../components/ui/cx';
 import { BAND_LABELS, BAND_TONES } from '../utils/labels';
@@ -277,11 +278,7 @@ function ptiFigure(stats: UnitStatsDto) {
   };
 }
 
-const PRESSURE_WORDS = {
-  ok: 'Charge looks right',
-  possible_low_charge: 'Possible low charge',
-  unknown: 'Not enough readings',
-} as const;
+const PRESSURE_WORDS = PRESSURE_FLAG_WORDS;
 
 /** The figures at the top of a unit's page, computed on the server from the whole history. */
 export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {

@@ -1,20 +1,10 @@
 import type { ScoreBand } from '../../../../shared/domain';
 import { SCORE_BAND_WORDS } from '../../../config/score-bands';
 import type { VisitEventKind } from '../../../../shared/schemas/history';
+import { ENTRY_KIND_WORDS } from '../../../../shared/domain/words';
 
-/** What each kind of entry is called in Tightloop. */
-export const ENTRY_KIND_LABELS: Record<VisitEventKind, string> = {
-  top_up: 'Top-up',
-  recovery: 'Recovery',
-  recharge: 'Recharge',
-  leak_check: 'Leak check',
-  repair: 'Repair',
-  pressure: 'Pressure reading',
-  pti: 'PTI',
-  component_replacement: 'Part replaced',
-  status_change: 'Status change',
-  note: 'Note',
-};
+/** What each kind of entry is called in Tightloop (the one map in shared, also used by the exports). */
+export const ENTRY_KIND_LABELS: Record<VisitEventKind, string> = ENTRY_KIND_WORDS;
 
 export function entryKindLabel(kind: string): string {
   return (ENTRY_KIND_LABELS as Record<string, string>)[kind] ?? kind;
