@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { LEAK_LOCATIONS, REFRIGERANT_CODES, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
+import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { REFRIGERANT_CODES } from '../../../../shared/domain';
 import {
   fleetOverviewQuerySchema,
   type FleetOverviewDto,
@@ -10,15 +10,18 @@ import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { LoadError, LoadingPanel } from '../../../components/ui/query-state';
 import { fleetOverviewQuery, useFleetOverview } from '../../../features/fleet/api/get-overview';
 import { useSites } from '../../../features/sites/api/get-sites';
-import { ScoreBadge } from '../../../features/fleet/components/band-badge';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
 import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/components/overview-charts';
 import { toSearch } from '../../../lib/query-string';
+import {
+  ChronicLeakersList,
+  LeakChecksDueList,
+  RepairEffectivenessTable,
+} from '../../../features/fleet/components/overview-panels';
 import { ForecastAccuracy } from '../../../features/forecast/components/forecast-accuracy';
 import { RefreshJob } from '../../../features/jobs/components/refresh-job';
 import { fleetKeys } from '../../../features/fleet/api/keys';
-import { fmtContainer, fmtCount, fmtDateTime, fmtDay, fmtPct, fmtTime } from '../../../lib/format';
-import { paths } from '../../../config/paths';
+import { fmtCount, fmtDateTime, fmtTime } from '../../../lib/format';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -141,24 +144,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             </strong>{' '}
             overdue.
           </p>
-          {o.leakChecksDue.units.length === 0 ? (
-            <p className="mt-4 text-base text-ink-600">Nothing due in the next {o.leakChecksDue.days} days.</p>
-          ) : (
-            <ul className="mt-3 divide-y divide-ink-100">
-              {o.leakChecksDue.units.map((u) => (
-                <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
-                  <Link
-                    to={paths.unit.getHref(u.unitId)}
-                    className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
-                  >
-                    {fmtContainer(u.containerNumber)}
-                  </Link>
-                  <span className="min-w-0 flex-1 truncate text-sm text-ink-600">{u.site ?? 'No site'}</span>
-                  <span className="shrink-0 whitespace-nowrap tabular-nums">{fmtDay(u.due)}</span>
-                </li>
-              ))}
-            </ul>
-          )}
+          <LeakChecksDueList due={o.leakChecksDue} />
         </Panel>
       </div>
       <Panel aria-labelledby="ov-emissions" className="mt-5">
@@ -178,38 +164,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Repeat leakers
           </h2>
           <p className="mt-1 text-base text-ink-700">The highest repeat-leak scores, with what drives each.</p>
-          {o.chronicLeakers.length === 0 ? (
-            <p className="mt-4 text-base text-ink-600">No unit has a repeat-leak score above 0.</p>
-          ) : (
-            <ol className="mt-3 flex flex-col gap-3" data-testid="chronic-leakers">
-              {o.chronicLeakers.map((c) => (
-                <li key={c.unitId} className="rounded-md border-2 border-ink-100 p-3">
-                  <div className="flex flex-wrap items-center justify-between gap-2">
-                    <Link
-                      to={paths.unit.getHref(c.unitId)}
-                      className="font-bold text-fjord-700 underline-offset-4 hover:underline"
-                    >
-                      {fmtContainer(c.containerNumber)}
-                    </Link>
-                    <ScoreBadge score={c.score} band={c.scoreBand} />
-                  </div>
-                  <p className="text-sm text-ink-600">
-                    {c.site ?? 'No site'} · {c.refrigerant} · {fmtPct(c.rollingLeakRatePct)} in 365 days
-                  </p>
-                  <ul className="mt-1 text-sm text-ink-800">
-                    {c.factors
-                      .filter((f) => f.points > 0)
-                      .slice(0, 2)
-                      .map((f) => (
-                        <li key={f.name}>
-                          <span className="font-semibold tabular-nums">+{f.points}</span> {f.explanation}
-                        </li>
-                      ))}
-                  </ul>
-                </li>
-              ))}
-            </ol>
-          )}
+          <ChronicLeakersList leakers={o.chronicLeakers} />
         </Panel>
         <Panel aria-labelledby="ov-repairs">
           <h2 id="ov-repairs" className="text-xl font-bold">
@@ -219,50 +174,7 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
             Share of repairs with no top-up and no leak found for {o.repairEffectiveness.holdDays} days after. Fewer
             than {o.repairEffectiveness.minRepairs} repairs is too few to give a share.
           </p>
-          {o.repairEffectiveness.rows.filter((r) => r.action).length === 0 ? (
-            <p className="mt-4 text-base text-ink-600">
-              {o.repairEffectiveness.computedAt ? 'No repair has been judged yet.' : 'Not worked out yet.'}
-            </p>
-          ) : (
-            <div className="mt-3 overflow-x-auto">
-              <table className="w-full text-left text-base">
-                <thead className="text-sm text-ink-700">
-                  <tr>
-                    <th className="py-2 pr-3">Leak at · repair</th>
-                    <th className="py-2 pr-3 text-right">Repairs</th>
-                    <th className="py-2 text-right">Held</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {o.repairEffectiveness.rows
-                    .filter((r) => r.action)
-                    .map((r) => (
-                      <tr key={`${r.location}|${r.action}`} className="border-t border-ink-100">
-                        <td className="py-2 pr-3">
-                          {termLabel(LEAK_LOCATIONS, r.location)} ·{' '}
-                          <span className="text-ink-700">
-                            {termLabel(REPAIR_ACTIONS, r.action ?? '').toLowerCase()}
-                          </span>
-                          {r.pending > 0 && (
-                            <span className="block text-sm text-ink-600">{r.pending} too recent to judge</span>
-                          )}
-                        </td>
-                        <td className="py-2 pr-3 text-right tabular-nums">{r.repairs}</td>
-                        <td className="py-2 text-right">
-                          {r.holdRatePct === null ? (
-                            <span className="text-sm text-ink-600">too few to say</span>
-                          ) : (
-                            <span className="font-semibold tabular-nums">
-                              {r.holdRatePct} % <span className="text-sm font-normal text-ink-600">({r.held})</span>
-                            </span>
-                          )}
-                        </td>
-                      </tr>
-                    ))}
-                </tbody>
-              </table>
-            </div>
-          )}
+          <RepairEffectivenessTable effectiveness={o.repairEffectiveness} />
           <RefreshJob
             path="/api/fleet/repair-effectiveness/refresh"
             maxSeconds={120}

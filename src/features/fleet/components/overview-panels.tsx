@@ -1,0 +1,112 @@
+import { Link } from 'react-router-dom';
+import { LEAK_LOCATIONS, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
+import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
+import { paths } from '../../../config/paths';
+import { fmtContainer, fmtDay, fmtPct } from '../../../lib/format';
+import { ScoreBadge } from './band-badge';
+
+/** The units whose leak check falls due soonest. */
+export function LeakChecksDueList({ due }: { due: FleetOverviewDto['leakChecksDue'] }) {
+  return due.units.length === 0 ? (
+    <p className="mt-4 text-base text-ink-600">Nothing due in the next {due.days} days.</p>
+  ) : (
+    <ul className="mt-3 divide-y divide-ink-100">
+      {due.units.map((u) => (
+        <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
+          <Link
+            to={paths.unit.getHref(u.unitId)}
+            className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
+          >
+            {fmtContainer(u.containerNumber)}
+          </Link>
+          <span className="min-w-0 flex-1 truncate text-sm text-ink-600">{u.site ?? 'No site'}</span>
+          <span className="shrink-0 whitespace-nowrap tabular-nums">{fmtDay(u.due)}</span>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
+/** The highest repeat-leak scores, each with the two factors that drive it most. */
+export function ChronicLeakersList({ leakers }: { leakers: FleetOverviewDto['chronicLeakers'] }) {
+  return leakers.length === 0 ? (
+    <p className="mt-4 text-base text-ink-600">No unit has a repeat-leak score above 0.</p>
+  ) : (
+    <ol className="mt-3 flex flex-col gap-3" data-testid="chronic-leakers">
+      {leakers.map((c) => (
+        <li key={c.unitId} className="rounded-md border-2 border-ink-100 p-3">
+          <div className="flex flex-wrap items-center justify-between gap-2">
+            <Link
+              to={paths.unit.getHref(c.unitId)}
+              className="font-bold text-fjord-700 underline-offset-4 hover:underline"
+            >
+              {fmtContainer(c.containerNumber)}
+            </Link>
+            <ScoreBadge score={c.score} band={c.scoreBand} />
+          </div>
+          <p className="text-sm text-ink-600">
+            {c.site ?? 'No site'} · {c.refrigerant} · {fmtPct(c.rollingLeakRatePct)} in 365 days
+          </p>
+          <ul className="mt-1 text-sm text-ink-800">
+            {c.factors
+              .filter((f) => f.points > 0)
+              .slice(0, 2)
+              .map((f) => (
+                <li key={f.name}>
+                  <span className="font-semibold tabular-nums">+{f.points}</span> {f.explanation}
+                </li>
+              ))}
+          </ul>
+        </li>
+      ))}
+    </ol>
+  );
+}
+
+/** How often each kind of repair at each place held, where there are enough repairs to say. */
+export function RepairEffectivenessTable({
+  effectiveness,
+}: {
+  effectiveness: FleetOverviewDto['repairEffectiveness'];
+}) {
+  return effectiveness.rows.filter((r) => r.action).length === 0 ? (
+    <p className="mt-4 text-base text-ink-600">
+      {effectiveness.computedAt ? 'No repair has been judged yet.' : 'Not worked out yet.'}
+    </p>
+  ) : (
+    <div className="mt-3 overflow-x-auto">
+      <table className="w-full text-left text-base">
+        <thead className="text-sm text-ink-700">
+          <tr>
+            <th className="py-2 pr-3">Leak at · repair</th>
+            <th className="py-2 pr-3 text-right">Repairs</th>
+            <th className="py-2 text-right">Held</th>
+          </tr>
+        </thead>
+        <tbody>
+          {effectiveness.rows
+            .filter((r) => r.action)
+            .map((r) => (
+              <tr key={`${r.location}|${r.action}`} className="border-t border-ink-100">
+                <td className="py-2 pr-3">
+                  {termLabel(LEAK_LOCATIONS, r.location)} ·{' '}
+                  <span className="text-ink-700">{termLabel(REPAIR_ACTIONS, r.action ?? '').toLowerCase()}</span>
+                  {r.pending > 0 && <span className="block text-sm text-ink-600">{r.pending} too recent to judge</span>}
+                </td>
+                <td className="py-2 pr-3 text-right tabular-nums">{r.repairs}</td>
+                <td className="py-2 text-right">
+                  {r.holdRatePct === null ? (
+                    <span className="text-sm text-ink-600">too few to say</span>
+                  ) : (
+                    <span className="font-semibold tabular-nums">
+                      {fmtPct(r.holdRatePct)} <span className="text-sm font-normal text-ink-600">({r.held})</span>
+                    </span>
+                  )}
+                </td>
+              </tr>
+            ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
