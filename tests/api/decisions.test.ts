@@ -172,7 +172,7 @@ describe('POST /api/decisions/units/:id', () => {
         idempotencyKey: visitKey,
         unitId: leaker,
         occurredAt: '2026-05-20T10:00:00Z',
-        events: [{ kind: 'pti', passed: true }],
+        events: [{ kind: 'pti', passed: false }],
       });
     expect(visit.status).toBe(201);
     const body = {

@@ -160,6 +160,33 @@ describe('structured PTI', () => {
     expect(asFailed.body).toMatchObject({ passed: false, overall: 'passed' });
   });
 
+  it('returns 409 when the visit form records a bare PTI as passed on a unit with an open leak, not when it repairs it', async () => {
+    const unitId = await newUnit();
+    await recordVisits(technician, unitId, [
+      {
+        at: '2026-05-30T09:00:00Z',
+        siteId,
+        events: [{ kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'brazed_joint' }],
+      },
+    ]);
+    const res = await post(technician, '/api/visits', {
+      unitId,
+      occurredAt: '2026-05-31T09:00:00Z',
+      events: [{ kind: 'pti', passed: true }],
+    });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('pti_blocked');
+    const repaired = await post(technician, '/api/visits', {
+      unitId,
+      occurredAt: '2026-05-31T10:00:00Z',
+      events: [
+        { kind: 'repair', location: 'brazed_joint', action: 'rebrazed', verified: true },
+        { kind: 'pti', passed: true },
+      ],
+    });
+    expect(repaired.status, JSON.stringify(repaired.body)).toBe(201);
+  });
+
   it('keeps an engineer’s override and its reason in the history; a technician may not override', async () => {
     const unitId = await newUnit();
     await recordVisits(technician, unitId, [

@@ -138,7 +138,8 @@ describe('POST /api/fleet/forecast/refresh', () => {
         idempotencyKey: 'forecast-write-1',
         unitId: u.unitId,
         occurredAt: '2026-05-31T09:00:00Z',
-        events: [{ kind: 'pti', passed: true }],
+        // Not passed: a unit with a forecast top-up may well have an open leak, which refuses a passed PTI.
+        events: [{ kind: 'pti', passed: false }],
       });
     expect(visit.status).toBe(201);
     const f = visit.body.stats.detail.forecast as LearnedForecast;

@@ -168,9 +168,10 @@ describe('a change that moves the statistics', () => {
       expect(row.leakCheckIntervalMonths).toBe(3);
       expect(row.rollingLeakRatePct).toBeCloseTo(expected.rollingLeakRatePct, 9);
     }
-    // And differs from the defaults where it should: PTI valid for 30 days after 2026-05-02.
-    const [rowA] = await db.select().from(unitStats).where(eq(unitStats.unitId, a.id));
-    expect(rowA.ptiValidUntil).toBe('2026-06-01');
+    // And differs from the defaults where it should: PTI valid for 30 days after 2026-02-10 (the chronic leaker's PTI
+    // could not pass with its leak open).
+    const [rowTight] = await db.select().from(unitStats).where(eq(unitStats.unitId, c.id));
+    expect(rowTight.ptiValidUntil).toBe('2026-03-12');
 
     const after = (await admin.get('/api/settings')).body;
     expect(after).toMatchObject({

@@ -45,7 +45,8 @@ export function chronicLeaker(year = 2026): VisitScript {
       at: `${year}-05-02T10:00:00Z`,
       events: [
         { kind: 'top_up', kg: 0.8, cylinder: 'CYL-B202' },
-        { kind: 'pti', passed: true },
+        // The leak found in March is still open: a PTI cannot pass (issue 23).
+        { kind: 'pti', passed: false },
       ],
     },
   ];

@@ -9,6 +9,7 @@ import { isDuplicateKeyError } from '../../lib/db-errors';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
 import { toStatsDto } from '../../lib/record/stats';
 import { writeUnit } from '../../lib/record/write-path';
+import { assertPtiMayPass } from '../../lib/record/depot-state';
 import type { SessionUser } from '../../lib/session';
 import { REFRIGERANT_MOVEMENT_KINDS } from '../../../shared/domain';
 import { can } from '../../../shared/permissions';
@@ -62,12 +63,14 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
   const earlier = await replay(ctx.db, user, input);
   if (earlier) return earlier;
   try {
-    const written = await writeUnit(ctx, input.unitId, async (tx, { unit }, now) => {
+    const written = await writeUnit(ctx, input.unitId, async (tx, locked, now) => {
+      const { unit } = locked;
       if (unit.status === 'retired' && input.events.some((e) => e.kind !== 'note' && e.kind !== 'status_change')) {
         throw conflict('This unit is retired. Record a status change first if it is back in service.');
       }
       const issues = visitPlausibilityIssues(unit, input, now);
       if (Object.keys(issues).length) throw badRequest('Some entries are not plausible.', issues);
+      await assertPtiMayPass(tx, locked, input.events);
       const siteId = input.siteId ?? unit.siteId ?? null;
       if (input.siteId && input.siteId !== unit.siteId) {
         const [site] = await tx.select({ id: sites.id }).from(sites).where(eq(sites.id, input.siteId));

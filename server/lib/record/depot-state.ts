@@ -180,9 +180,12 @@ export async function assertPtiMayPass(
   if (!entries.some((e) => e.kind === 'pti' && e.passed)) return;
   const { unit, stats } = locked;
   const quarantine = quarantineFromHistory((await loadDepotHistory(tx, unit.id)).notes);
+  // What the same visit does about it counts: a repair answers the open leak, refrigerant added or a new reading the
+  // low-charge flag of the reading before.
+  const has = (...kinds: string[]) => entries.some((e) => kinds.includes(e.kind));
   const blockers = ptiBlockers({
-    openLeakFoundAt: stats?.openLeakFoundAt ? stats.openLeakFoundAt.toISOString() : null,
-    pressureFlag: stats?.pressureFlag ?? 'unknown',
+    openLeakFoundAt: stats?.openLeakFoundAt && !has('repair') ? stats.openLeakFoundAt.toISOString() : null,
+    pressureFlag: has('top_up', 'recharge', 'pressure') ? 'unknown' : (stats?.pressureFlag ?? 'unknown'),
     quarantined: quarantine != null,
   });
   if (blockers.length)
