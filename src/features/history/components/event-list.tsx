@@ -24,6 +24,7 @@ import { entryKindLabel } from '../utils/labels';
 import { UNIT_STATUS_LABELS } from '../../../../shared/schemas/units';
 import { temperatureSymbol, type UnitPrefs } from '../utils/unit-prefs';
 import { AttachPhotos } from './attach-photos';
+import { decisionRows } from './decision-rows';
 import { EntryGlyph } from './entry-glyph';
 import { LoadError } from '../../../components/ui/query-state';
 import { fmtDateTime, fmtKg, fmtNumber } from '../../../lib/format';
@@ -210,6 +211,8 @@ function detailRows(e: EventDto, d: Details): Rows {
             </Detail>,
           ]
         : [];
+    case 'decision':
+      return decisionRows(d, Detail);
     case 'status_change':
       return typeof d.status === 'string'
         ? [
