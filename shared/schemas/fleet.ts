@@ -44,6 +44,8 @@ export const fleetFiltersSchema = z.object({
   leakCheckOverdue: flag,
   /** No passed PTI in force: expired, failed or never done. */
   ptiExpired: flag,
+  /** In quarantine (not to be released until an engineer lifts it). */
+  quarantined: flag,
   /** The start of a container number, typed loosely ("hrlu 12"). */
   q: z
     .string()

@@ -235,6 +235,9 @@ describe('quarantine', () => {
     expect(q.body.quarantined).toEqual([unitId]);
     const state = await depot(unitId);
     expect(state.quarantine.reason).toBe('Charged from suspect lot LOT-66');
+    const fleet = (await engineer.get('/api/fleet?quarantined=1')).body;
+    expect(fleet.rows.map((r: { unitId: number }) => r.unitId)).toContain(unitId);
+    expect(fleet.rows.every((r: { unitId: number }) => r.unitId !== unitId - 1)).toBe(true);
     expect(state.pti).toMatchObject({ valid: false });
     expect(state.pti.invalidBecause).toContain('quarantine');
 
@@ -262,6 +265,8 @@ describe('quarantine', () => {
     expect(e.note).toContain('Refrigerant identified as pure');
     expect((await depot(unitId)).quarantine).toBeNull();
     expect((await post(technician, `/api/units/${unitId}/release`, {})).status).toBe(201);
+    const lifted = (await engineer.get('/api/fleet?quarantined=1')).body;
+    expect(lifted.rows.map((r: { unitId: number }) => r.unitId)).not.toContain(unitId);
     const again = await post(engineer, `/api/units/${unitId}/quarantine/lift`, {
       result: 'identified_pure',
       note: 'Again',

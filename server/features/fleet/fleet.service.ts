@@ -63,6 +63,10 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
   if (f.forecastOverdue) w.push(lt(unitStats.forecastDate, today));
   if (f.leakCheckOverdue) w.push(lt(unitStats.nextLeakCheckDue, today));
   if (f.ptiExpired) w.push(or(isNull(unitStats.ptiValidUntil), lt(unitStats.ptiValidUntil, today))!);
+  if (f.quarantined)
+    w.push(
+      sql`EXISTS (SELECT 1 FROM unit_depot_state d WHERE d.unit_id = ${units.id} AND d.quarantined_since IS NOT NULL)`,
+    );
   // A prefix LIKE on the unique index; the normalised query has letters and digits only, so no wildcard escapes.
   if (f.q) w.push(like(units.containerNumber, `${f.q}%`));
   return w;
@@ -70,7 +74,15 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
 
 const hasFilters = (f: FleetFilters) =>
   Boolean(
-    f.siteId || f.refrigerant || f.status || f.band || f.q || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired,
+    f.siteId ||
+    f.refrigerant ||
+    f.status ||
+    f.band ||
+    f.q ||
+    f.forecastOverdue ||
+    f.leakCheckOverdue ||
+    f.ptiExpired ||
+    f.quarantined,
   ) ||
   f.rateAbove !== undefined ||
   f.forecastDays !== undefined;
@@ -231,7 +243,7 @@ async function fleetPart(
 }
 
 const hasStatsFilters = (f: FleetFilters) =>
-  Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired) ||
+  Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired || f.quarantined) ||
   f.rateAbove !== undefined ||
   f.forecastDays !== undefined;
 const hasUnitFilters = (f: FleetFilters) => Boolean(f.siteId || f.refrigerant || f.status || f.q);

@@ -6,6 +6,7 @@ import { Panel } from '../../../components/ui/page';
 import { LoadError } from '../../../components/ui/query-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
+import { useCan } from '../../../lib/can';
 import { fmtContainer, fmtDay } from '../../../lib/format';
 import { useDay } from '../api/get-day';
 
@@ -31,6 +32,13 @@ const URGENT: ReadonlySet<DayGroupId> = new Set([
   'open_leak',
   'pti_expired',
 ]);
+
+/** The fleet table's filter that holds the same units, for the groups that have one. */
+const FLEET_FILTER: Partial<Record<DayGroupId, string>> = {
+  quarantine: 'quarantined=1',
+  leak_check_overdue: 'leakCheckOverdue=1',
+  pti_expired: 'ptiExpired=1',
+};
 
 const SITE_KEY = 'tightloop:my-day-site';
 
@@ -99,6 +107,7 @@ export function MyDay() {
 }
 
 function DayGroups({ day }: { day: DayDto }) {
+  const fleet = useCan('view:fleet');
   if (!day.site) return <p className="text-ink-700">Choose your site to see what needs doing there.</p>;
   const groups = day.groups.filter((g) => g.total > 0);
   if (!groups.length) return <p className="text-ink-700">Nothing at {day.site.name} needs you today.</p>;
@@ -146,6 +155,14 @@ function DayGroups({ day }: { day: DayDto }) {
             <p className="mt-2 text-sm text-ink-600">
               The first {DAY_GROUP_LIMIT} of {g.total}, earliest first.
             </p>
+          )}
+          {fleet && FLEET_FILTER[g.id] && (
+            <Link
+              to={paths.fleet.getHref(`${FLEET_FILTER[g.id]}&siteId=${day.site!.id}`)}
+              className="mt-2 inline-block text-sm font-semibold text-fjord-700 underline underline-offset-4"
+            >
+              In the fleet table
+            </Link>
           )}
         </section>
       ))}

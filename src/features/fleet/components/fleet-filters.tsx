@@ -239,6 +239,11 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
             checked={Boolean(filters.ptiExpired)}
             onChange={(on) => set({ ptiExpired: on || undefined })}
           />
+          <CheckFilter
+            label="In quarantine"
+            checked={Boolean(filters.quarantined)}
+            onChange={(on) => set({ quarantined: on || undefined })}
+          />
         </div>
         {active > 0 && (
           <div className="px-4 pb-3">
