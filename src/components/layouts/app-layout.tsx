@@ -58,7 +58,7 @@ export function AppLayout({ user, status, children }: { user: UserDto; status?: 
         Skip to content
       </a>
 
-      <header className="on-dark sticky top-0 z-30 bg-ink-950 text-white md:col-span-2">
+      <header className="on-dark z-30 bg-ink-950 text-white md:sticky md:top-0 md:col-span-2">
         <div className="flex min-h-16 items-center gap-3 px-4 md:px-6">
           <Link to={paths.home.getHref()} className="flex min-h-touch shrink-0 items-center rounded-md">
             <Logo tone="dark" compact />

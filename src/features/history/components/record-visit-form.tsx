@@ -3,6 +3,7 @@ import type { MutableRefObject } from 'react';
 import type { VisitSubmission } from '../../../../shared/schemas/history';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
+import { cx } from '../../../components/ui/cx';
 import { useRecordVisitForm, type VisitFormError } from '../hooks/use-record-visit-form';
 import type { VisitUnit } from '../hooks/use-visit-resolver';
 import { PRECEDENCE_NOTE } from '../utils/safety';
@@ -63,8 +64,19 @@ function UnitLine({ unit }: { unit: VisitUnit }) {
 
 function SaveBar({ count, saving }: { count: number; saving: boolean }) {
   return (
-    <div className="sticky bottom-[calc(var(--spacing-tabbar)+env(safe-area-inset-bottom)+0.5rem)] z-10 md:bottom-4">
-      <Button type="submit" size="lg" className="w-full shadow-lifted" pending={saving} pendingLabel="Saving…">
+    // On phones it rests on the tab bar at 48 px (still a gloved thumb's target), so the two cover ~14 % of the screen;
+    // with nothing entered yet it waits at the end of the form instead of covering the entry buttons.
+    <div
+      className={cx(
+        count > 0 && 'sticky bottom-[calc(var(--spacing-tabbar)+env(safe-area-inset-bottom))] z-10 md:bottom-4',
+      )}
+    >
+      <Button
+        type="submit"
+        className="w-full shadow-lifted md:min-h-touch-lg md:px-6 md:text-lg"
+        pending={saving}
+        pendingLabel="Saving…"
+      >
         {count === 0 ? 'Save visit' : `Save visit (${count} ${count === 1 ? 'entry' : 'entries'})`}
       </Button>
     </div>
