@@ -12,13 +12,17 @@ export type Answer = { status: number; body: Record<string, unknown> | null; err
 /** A browser-like client: one session cookie, JSON in and out, every request bounded in time. */
 export class Client {
   private cookie = '';
-  constructor(private readonly base = clusterUrl()) {}
+  constructor(
+    private readonly base = clusterUrl(),
+    private readonly headers: Record<string, string> = {},
+  ) {}
 
   async request(method: string, path: string, body?: unknown, timeoutMs = 20_000): Promise<Answer> {
     try {
       const res = await fetch(`${this.base}${path}`, {
         method,
         headers: {
+          ...this.headers,
           Origin: ORIGIN,
           ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
           ...(this.cookie ? { Cookie: this.cookie } : {}),
@@ -40,6 +44,32 @@ export class Client {
       // No answer at all (connection cut, timeout): the client's queue sends the same submission again.
       return { status: 0, body: null, error: (err as Error).message };
     }
+  }
+
+  /** A multipart upload of one file, as the browser sends it. */
+  async upload(path: string, field: string, name: string, bytes: Buffer, type: string): Promise<Answer> {
+    const form = new FormData();
+    form.append(field, new Blob([new Uint8Array(bytes)], { type }), name);
+    const res = await fetch(`${this.base}${path}`, {
+      method: 'POST',
+      headers: { Origin: ORIGIN, Cookie: this.cookie },
+      body: form,
+      signal: AbortSignal.timeout(30_000),
+    });
+    return { status: res.status, body: (await res.json()) as Record<string, unknown> };
+  }
+
+  /** The raw bytes of a download. */
+  async download(path: string): Promise<{ status: number; bytes: Buffer }> {
+    const res = await fetch(`${this.base}${path}`, { headers: { Cookie: this.cookie } });
+    return { status: res.status, bytes: Buffer.from(await res.arrayBuffer()) };
+  }
+
+  /** The same session through another address (another API process): sessions live in the database. */
+  via(base: string): Client {
+    const other = new Client(base);
+    other.cookie = this.cookie;
+    return other;
   }
 
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Answer> {
