@@ -24,6 +24,10 @@ import { ensureProjectDatabase } from './lib/mariadb';
 const PARTS: LaterPart<unknown>[] = [fleetTableEach, backtest];
 
 const options = readBenchOptions();
+if (options.cluster) {
+  await (await import('./bench/cluster')).runClusterBench(options);
+  process.exit(0);
+}
 const databaseUrl = process.env.DATABASE_URL ?? (await ensureProjectDatabase(BENCH_DATABASE));
 const rng = createRng(20_260_601);
 const dataset = await readDataset(databaseUrl, rng);

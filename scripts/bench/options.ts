@@ -25,6 +25,10 @@ export const BENCH_OPTIONS = {
     placeholder: 'file.md',
     help: 'where a partial run writes its table, a .json beside it (default .data/bench-partial.md)',
   },
+  cluster: {
+    type: 'boolean',
+    help: 'instead: unit page and visit write through the local cluster (npm run cluster) with 1, 2, 3 API processes, beside one plain MariaDB',
+  },
 } satisfies Record<string, CliOption>;
 
 /** The parts after the scenarios, by the names `--only` knows them by (and their keys in results.json). */
@@ -40,6 +44,8 @@ export type BenchOptions = {
   /** The scenarios and parts to run; undefined for all (a full run). */
   only: string[] | undefined;
   out: string | undefined;
+  /** The cluster benchmark (scripts/bench/cluster.ts) instead of the scenarios. */
+  cluster: boolean;
 };
 
 export function readBenchOptions(argv?: string[]): BenchOptions {
@@ -56,6 +62,7 @@ export function readBenchOptions(argv?: string[]): BenchOptions {
       .map((s) => s.trim())
       .filter(Boolean),
     out: o.out,
+    cluster: o.cluster,
   };
 }
 
