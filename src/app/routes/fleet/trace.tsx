@@ -7,12 +7,11 @@ import { TextField, SelectField } from '../../../components/ui/field';
 import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { useSites } from '../../../features/sites/api/get-sites';
-import { traceExportHref, useMarkForInspection, useTrace } from '../../../features/trace/api/trace';
+import { QuarantineUnitsButton } from '../../../features/quarantine/components/quarantine-units-button';
+import { traceExportHref, useTrace } from '../../../features/trace/api/trace';
 import { FleetTabs } from '../../../features/fleet/components/fleet-tabs';
-import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { toSearch } from '../../../lib/query-string';
 import { Can } from '../../../lib/can';
-import { isApiError } from '../../../lib/api-client';
 import { fmtContainer, fmtCount, fmtDay, fmtKg } from '../../../lib/format';
 import { paths } from '../../../config/paths';
 
@@ -141,11 +140,6 @@ export default function TracePage() {
 }
 
 function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<ReturnType<typeof useTrace>['data']> }) {
-  const mark = useMarkForInspection();
-  const [reason, setReason] = useState('');
-  const [confirming, setConfirming] = useState(false);
-  const [key] = useState(newIdempotencyKey);
-  const fields = isApiError(mark.error) ? mark.error.fields : undefined;
   return (
     <section aria-labelledby="trace-results" className="flex flex-col gap-4">
       <div className="flex flex-wrap items-end justify-between gap-3">
@@ -164,50 +158,20 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
       </div>
 
       <Can permission="manage:units">
-        <Panel as="div" className="border-heed-800">
-          {mark.isSuccess ? (
-            <Alert tone="okay" title={`${mark.data.marked} unit(s) marked for inspection`}>
-              Each unit's history now has a note saying why.{' '}
-              {mark.data.replayed && 'They had already been marked by this request.'}
-            </Alert>
-          ) : !confirming ? (
-            <div className="flex flex-wrap items-center justify-between gap-3">
-              <p className="text-base">
-                Quarantine these units: a note on each says it is marked for inspection, and why.
-              </p>
-              <Button variant="danger" onClick={() => setConfirming(true)}>
-                Mark {data.units.length} for inspection
-              </Button>
-            </div>
-          ) : (
-            <form
-              className="flex flex-col gap-3"
-              onSubmit={(e) => {
-                e.preventDefault();
-                mark.mutate({ query, reason, idempotencyKey: key });
-              }}
-            >
-              <TextField
-                label="Reason"
-                value={reason}
-                onChange={(e) => setReason(e.target.value)}
-                hint="Shown in every unit's history, e.g. 'Supplier recalled lot 77'."
-                error={fields?.reason}
-                required
-                minLength={3}
-                maxLength={500}
-              />
-              {mark.isError && !fields?.reason && <Alert tone="alarm">{mark.error.message}</Alert>}
-              <div className="flex gap-3">
-                <Button type="submit" variant="danger" pending={mark.isPending} pendingLabel="Marking…">
-                  Mark {data.units.length} unit(s)
-                </Button>
-                <Button variant="secondary" onClick={() => setConfirming(false)}>
-                  Cancel
-                </Button>
-              </div>
-            </form>
-          )}
+        <Panel as="div" className="flex flex-col gap-3 border-heed-800">
+          <p className="text-base">
+            Quarantine these units: each gets a mark in its history with the reason, and none can be released until an
+            engineer lifts its quarantine with a recorded result.
+          </p>
+          <QuarantineUnitsButton
+            unitIds={data.units.map((u) => u.unitId)}
+            source="trace"
+            search={
+              query.cylinder
+                ? `cylinder or lot ${query.cylinder}`
+                : `site ${query.siteId ?? ''} ${query.from ?? ''} to ${query.to ?? ''}`.trim()
+            }
+          />
         </Panel>
       </Can>
 
