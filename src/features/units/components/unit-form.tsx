@@ -1,75 +1,14 @@
-import { zodResolver } from '@hookform/resolvers/zod';
-import { useState, type ReactNode } from 'react';
-import { useForm, type Path, type UseFormRegisterReturn } from 'react-hook-form';
-import type { z } from 'zod';
-import { formatContainerNumber, REFRIGERANTS } from '../../../../shared/domain';
+import type { ReactNode } from 'react';
+import type { UseFormRegister, UseFormRegisterReturn } from 'react-hook-form';
+import { REFRIGERANTS } from '../../../../shared/domain';
 import type { SiteDto } from '../../../../shared/schemas/sites';
-import {
-  createUnitSchema,
-  MAX_NOTES_LENGTH,
-  UNIT_STATUS_LABELS,
-  UNIT_STATUSES,
-  type UnitDto,
-  type UpdateUnitInput,
-} from '../../../../shared/schemas/units';
+import { MAX_NOTES_LENGTH, UNIT_STATUS_LABELS, UNIT_STATUSES, type UnitDto } from '../../../../shared/schemas/units';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { SelectField, TextField } from '../../../components/ui/field';
-import { isApiError } from '../../../lib/api-client';
-import { useCreateUnit } from '../api/create-unit';
-import { useUpdateUnit } from '../api/update-unit';
+import { useUnitForm, type Field, type FormInput } from '../hooks/use-unit-form';
 import { ContainerNumberField } from '../../../components/ui/container-number-field';
-
-type FormInput = z.input<typeof createUnitSchema>;
-type FormOutput = z.output<typeof createUnitSchema>;
-
-const FIELDS = [
-  'containerNumber',
-  'refrigerant',
-  'nominalChargeKg',
-  'commissionedOn',
-  'siteId',
-  'status',
-  'machinerySerial',
-  'model',
-  'manufactureYear',
-  'purchaseCost',
-  'residualValue',
-  'notes',
-] as const satisfies readonly Path<FormInput>[];
-type Field = (typeof FIELDS)[number];
-const isField = (key: string): key is Field => (FIELDS as readonly string[]).includes(key);
-
-const text = (v: string | number | null | undefined) => (v === null || v === undefined ? '' : String(v));
-
-function defaultsOf(unit: UnitDto | undefined, containerNumber: string): FormInput {
-  return {
-    containerNumber: unit ? formatContainerNumber(unit.containerNumber) : containerNumber,
-    refrigerant: unit?.refrigerant ?? '',
-    nominalChargeKg: text(unit?.nominalChargeKg),
-    commissionedOn: unit?.commissionedOn ?? '',
-    siteId: text(unit?.site?.id),
-    status: unit?.status ?? 'in_service',
-    machinerySerial: unit?.machinerySerial ?? '',
-    model: unit?.model ?? '',
-    manufactureYear: text(unit?.manufactureYear),
-    purchaseCost: text(unit?.purchaseCost),
-    residualValue: text(unit?.residualValue),
-    notes: unit?.notes ?? '',
-  };
-}
-
-/** Only what differs from the unit as saved, so the change history records real changes. */
-function changesOf(unit: UnitDto, values: FormOutput): UpdateUnitInput {
-  const current: Record<Field, unknown> = { ...unit, siteId: unit.site?.id ?? null };
-  const changes: Record<string, unknown> = {};
-  for (const field of FIELDS) {
-    const next = values[field] ?? null;
-    if (next !== (current[field] ?? null)) changes[field] = next;
-  }
-  return changes as UpdateUnitInput;
-}
 
 function Section({ title, children }: { title: string; children: ReactNode }) {
   return (
@@ -77,6 +16,65 @@ function Section({ title, children }: { title: string; children: ReactNode }) {
       <legend className="pr-3 text-lg font-bold">{title}</legend>
       {children}
     </fieldset>
+  );
+}
+
+/** The refrigerant and its full charge, and what identifies the machinery. */
+function MachineryFields({
+  register,
+  error,
+}: {
+  register: UseFormRegister<FormInput>;
+  error: (field: Field) => string | undefined;
+}) {
+  return (
+    <Section title="Refrigeration machinery">
+      <div className="grid gap-5 md:grid-cols-2">
+        <SelectField label="Refrigerant" error={error('refrigerant')} {...register('refrigerant')}>
+          <option value="" disabled>
+            Choose the refrigerant…
+          </option>
+          {REFRIGERANTS.map((r) => (
+            <option key={r.code} value={r.code}>
+              {r.code}
+              {r.flammable ? ` — ${r.safetyClass}, flammable` : ''}
+              {r.highPressure ? ' — high pressure' : ''}
+            </option>
+          ))}
+        </SelectField>
+        <TextField
+          label="Full charge (kg)"
+          hint="The nameplate charge, in kilograms."
+          inputMode="decimal"
+          autoComplete="off"
+          error={error('nominalChargeKg')}
+          {...register('nominalChargeKg')}
+        />
+        <TextField
+          label="Commissioned on"
+          type="date"
+          optional
+          error={error('commissionedOn')}
+          {...register('commissionedOn')}
+        />
+        <TextField
+          label="Year of manufacture"
+          inputMode="numeric"
+          optional
+          error={error('manufactureYear')}
+          {...register('manufactureYear')}
+        />
+        <TextField label="Model" optional autoComplete="off" error={error('model')} {...register('model')} />
+        <TextField
+          label="Machinery serial"
+          optional
+          autoComplete="off"
+          spellCheck={false}
+          error={error('machinerySerial')}
+          {...register('machinerySerial')}
+        />
+      </div>
+    </Section>
   );
 }
 
@@ -94,54 +92,8 @@ export function UnitForm({
   onSaved: (unit: UnitDto) => void;
   onCancel: () => void;
 }) {
-  const createUnit = useCreateUnit();
-  const updateUnit = useUpdateUnit();
-  const [formError, setFormError] = useState<string | null>(null);
-  const {
-    register,
-    handleSubmit,
-    setError,
-    setFocus,
-    watch,
-    formState: { errors },
-  } = useForm<FormInput, unknown, FormOutput>({
-    resolver: zodResolver(createUnitSchema),
-    defaultValues: defaultsOf(unit, defaultContainerNumber),
-  });
-  const pending = createUnit.isPending || updateUnit.isPending;
-
-  const onError = (error: unknown) => {
-    if (!isApiError(error)) {
-      setFormError('Something unexpected went wrong. Try again.');
-      return;
-    }
-    let first: Field | null = null;
-    const unplaced: string[] = [];
-    for (const [field, message] of Object.entries(error.fields ?? {})) {
-      if (isField(field)) {
-        setError(field, { type: 'server', message });
-        first ??= field;
-      } else unplaced.push(message);
-    }
-    if (first) setFocus(first);
-    if (!first || unplaced.length > 0) setFormError(error.message);
-  };
-
-  const onSubmit = handleSubmit((values) => {
-    setFormError(null);
-    if (!unit) {
-      createUnit.mutate(values, { onSuccess: onSaved, onError });
-      return;
-    }
-    const changes = changesOf(unit, values);
-    if (Object.keys(changes).length === 0) {
-      onSaved(unit);
-      return;
-    }
-    updateUnit.mutate({ id: unit.id, changes }, { onSuccess: onSaved, onError });
-  });
-
-  const error = (field: Field) => errors[field]?.message as string | undefined;
+  const { form, formError, onSubmit, error, pending } = useUnitForm({ unit, defaultContainerNumber, onSaved });
+  const { register, watch } = form;
 
   return (
     <form
@@ -183,53 +135,7 @@ export function UnitForm({
         </div>
       </Section>
 
-      <Section title="Refrigeration machinery">
-        <div className="grid gap-5 md:grid-cols-2">
-          <SelectField label="Refrigerant" error={error('refrigerant')} {...register('refrigerant')}>
-            <option value="" disabled>
-              Choose the refrigerant…
-            </option>
-            {REFRIGERANTS.map((r) => (
-              <option key={r.code} value={r.code}>
-                {r.code}
-                {r.flammable ? ` — ${r.safetyClass}, flammable` : ''}
-                {r.highPressure ? ' — high pressure' : ''}
-              </option>
-            ))}
-          </SelectField>
-          <TextField
-            label="Full charge (kg)"
-            hint="The nameplate charge, in kilograms."
-            inputMode="decimal"
-            autoComplete="off"
-            error={error('nominalChargeKg')}
-            {...register('nominalChargeKg')}
-          />
-          <TextField
-            label="Commissioned on"
-            type="date"
-            optional
-            error={error('commissionedOn')}
-            {...register('commissionedOn')}
-          />
-          <TextField
-            label="Year of manufacture"
-            inputMode="numeric"
-            optional
-            error={error('manufactureYear')}
-            {...register('manufactureYear')}
-          />
-          <TextField label="Model" optional autoComplete="off" error={error('model')} {...register('model')} />
-          <TextField
-            label="Machinery serial"
-            optional
-            autoComplete="off"
-            spellCheck={false}
-            error={error('machinerySerial')}
-            {...register('machinerySerial')}
-          />
-        </div>
-      </Section>
+      <MachineryFields register={register} error={error} />
 
       <Section title="Value">
         <div className="grid gap-5 md:grid-cols-2">
