@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { findRefrigerant, REFRIGERANT_CODES } from '../domain/refrigerants';
 import { momentSchema } from './common';
+import { DEFAULT_SETTINGS, type Settings } from './settings';
 import type { CylinderLedger } from '../domain/cylinders';
 
 export const CYLINDER_KINDS = ['new', 'recovery'] as const;
@@ -268,11 +269,11 @@ export type CylinderImportResultDto = { imported: number; cylinderIds: number[] 
 export type CylinderImportRowError = { row: number; field: string | null; message: string };
 export type QuarantineResultDto = { cylinder: CylinderDto; unitsMarked: number; unitIds: number[] };
 
-/** Settings of the register (DOMAIN.md has no rule: our own defaults, [T]). */
-export type CylinderSettings = { toleranceKg: number; nearFullPct: number };
-export const DEFAULT_CYLINDER_SETTINGS: CylinderSettings = { toleranceKg: 0.5, nearFullPct: 90 };
-/** The register's settings from the settings in force, or the defaults while the settings carry none. */
-export function cylinderSettingsOf(settings: object): CylinderSettings {
+/** The register's settings (settings.cylinders: tolerance and the near-full warning). */
+export type CylinderSettings = Settings['cylinders'];
+export const DEFAULT_CYLINDER_SETTINGS: CylinderSettings = DEFAULT_SETTINGS.cylinders;
+/** The register's settings from the settings in force (older stored versions carry none: the defaults). */
+export function cylinderSettingsOf(settings: Pick<Settings, 'cylinders'> | object): CylinderSettings {
   const given = (settings as { cylinders?: Partial<CylinderSettings> }).cylinders;
   return { ...DEFAULT_CYLINDER_SETTINGS, ...given };
 }

@@ -138,6 +138,13 @@ const rechecksSchema = z.object({
   afterRepairDays: z.number().int().min(1).max(60).default(30),
 });
 
+const cylindersSchema = z.object({
+  /** kg the visits may differ from a cylinder's weighed loss before it is flagged (our own default, 0.5 kg). */
+  toleranceKg: z.number().min(0).max(50).default(0.5),
+  /** A recovery cylinder warns from this share of its maker's marked maximum (our own default, 90 %). */
+  nearFullPct: z.number().min(50).max(100).default(90),
+});
+
 export const settingsSchema = z.object({
   /** EU: Reg. (EU) 2024/573 intervals (default); US: 40 CFR 82 reference thresholds; custom: the bands below. */
   policy: z.enum(['EU', 'US', 'custom']).default('EU'),
@@ -153,6 +160,7 @@ export const settingsSchema = z.object({
   economics: economicsSchema.prefault({}),
   forecast: forecastSchema.prefault({}),
   rechecks: rechecksSchema.prefault({}),
+  cylinders: cylindersSchema.prefault({}),
 });
 
 export type Settings = z.infer<typeof settingsSchema>;
@@ -168,7 +176,7 @@ export type SettingsSection = (typeof SETTINGS_SECTIONS)[number];
 /** The top-level settings keys each section of the page holds. */
 export const SETTINGS_SECTION_KEYS = {
   policy: ['policy', 'customLeakCheck', 'gwpBasis'],
-  thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast'],
+  thresholds: ['score', 'windows', 'leakRateThresholdPct', 'pressure', 'forecast', 'cylinders'],
   pti: ['ptiValidityDays', 'rechecks'],
   economics: ['economics'],
 } as const satisfies Record<SettingsSection, readonly (keyof Settings)[]>;

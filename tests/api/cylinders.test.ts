@@ -173,6 +173,26 @@ describe('charges, recoveries and the ledger', () => {
     expect(r.flagged).toBe(true);
   });
 
+  it('follows the tolerance in the settings: raised to 2 kg, the same 1.2 kg difference is no longer flagged', async () => {
+    const admin = (await signInAs(app, db, 'admin')).agent;
+    const current = await admin.get('/api/settings');
+    const settings = { ...current.body.settings, cylinders: { ...current.body.settings.cylinders, toleranceKg: 2 } };
+    const put = await admin
+      .put('/api/settings')
+      .set('Origin', TEST_ORIGIN)
+      .send({ settings, baseVersion: current.body.version });
+    expect(put.status, JSON.stringify(put.body)).toBe(200);
+    const res = await engineer.get(`/api/cylinders/${supply.id}`);
+    expect(res.status).toBe(200);
+    expect((res.body as CylinderDetailDto).cylinder.ledger.reconciliation).toMatchObject({ flagged: false });
+    settings.cylinders.toleranceKg = 0.5;
+    const back = await admin
+      .put('/api/settings')
+      .set('Origin', TEST_ORIGIN)
+      .send({ settings, baseVersion: put.body.version });
+    expect(back.status, JSON.stringify(back.body)).toBe(200);
+  });
+
   it('returns 400 when a weighing is below the tare', async () => {
     const res = await post(tech, `/api/cylinders/${supply.id}/weighings`, { grossKg: 5 });
     expect(res.status).toBe(400);

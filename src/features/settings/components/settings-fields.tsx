@@ -175,6 +175,18 @@ export function ThresholdsFields({ p }: { p: FieldProps }) {
           hint="The next top-up is learned from this many (10 to 1,000)"
         />
       </div>
+      <fieldset>
+        <legend className="mb-2 text-base font-bold">Cylinder register</legend>
+        <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+          <Num
+            {...p}
+            path="cylinders.toleranceKg"
+            label="Flag a difference beyond (kg)"
+            hint="Visits against the weighed loss"
+          />
+          <Num {...p} path="cylinders.nearFullPct" label="Recovery cylinder near full at (%)" step="1" />
+        </div>
+      </fieldset>
     </>
   );
 }
@@ -184,6 +196,14 @@ export function PtiFields({ p }: { p: FieldProps }) {
   return (
     <div className="grid gap-3 sm:grid-cols-3">
       <Num {...p} path="ptiValidityDays" label="A passed PTI stays valid for (days)" step="1" hint="30 to 365 days" />
+      <Num {...p} path="rechecks.afterTopUpDays" label="Re-check after a top-up (days)" step="1" hint="0 to 60" />
+      <Num
+        {...p}
+        path="rechecks.afterRepairDays"
+        label="Re-check after a repair (days)"
+        step="1"
+        hint="EU 2024/573: within a month"
+      />
     </div>
   );
 }
