@@ -147,7 +147,8 @@ export async function readAttachment(ctx: AppContext, id: number, variant: 'file
   const [row] = await ctx.db.select().from(attachments).where(eq(attachments.id, id));
   const key = row && (variant === 'file' ? row.storageKey : row.thumbnailKey);
   if (!row || !key) throw notFound('No such file.');
-  const bytes = await ctx.storage.get(key);
-  if (!bytes) throw notFound('The file is missing from storage.');
-  return { bytes, mimeType: variant === 'file' ? row.mimeType : 'image/webp', name: row.originalName };
+  // Streamed to the response (local disk or S3), never held whole in memory.
+  const file = await ctx.storage.open(key);
+  if (!file) throw notFound('The file is missing from storage.');
+  return { file, mimeType: variant === 'file' ? row.mimeType : 'image/webp', name: row.originalName };
 }

@@ -1,7 +1,7 @@
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
 import { numericIdParam } from '../../lib/id-params';
-import type { Storage } from '../../lib/storage';
+import { sendStoredFile, type Storage } from '../../lib/storage';
 import { attachmentUpload } from '../../middleware/upload';
 import {
   historyQuerySchema,
@@ -57,14 +57,14 @@ export function historyRoutes(ctx: AppContext & { storage: Storage }) {
       );
       res.setHeader('Content-Security-Policy', "default-src 'none'; sandbox");
       res.setHeader('Cache-Control', 'private, no-store');
-      res.send(f.bytes);
+      await sendStoredFile(res, f.file);
     }),
     route('get', '/api/attachments/:id/thumbnail', 'view:unit', async (req, res) => {
       const { id } = numericIdParam.parse(req.params);
       const f = await readAttachment(ctx, id, 'thumbnail');
       res.setHeader('Content-Type', f.mimeType);
       res.setHeader('Cache-Control', 'private, no-store');
-      res.send(f.bytes);
+      await sendStoredFile(res, f.file);
     }),
     // A scanned label's figures, asked for alongside the unit itself (/api/units/by-token/:token): one round trip.
     route('get', '/api/units/by-token/:token/overview', 'view:unit', async (req, res) => {
