@@ -100,13 +100,17 @@ describe('lint zones', () => {
     expect(errorsOf(messages, 'import-x/no-cycle')).toHaveLength(1);
   });
 
-  it('fails a server function over 150 lines, blank lines and comments not counted', { timeout: TIMEOUT }, async () => {
-    const fn = (statements: number) =>
-      `export function probe(): number {\n  let n = 0;\n${'  n++;\n\n  // a comment\n'.repeat(statements)}  return n;\n}\n`;
-    // The function's own two lines, `let` and `return`, and the statements.
-    const within = await lint('server/lib/zone-probe.ts', fn(146));
-    expect(errorsOf(within, 'max-lines-per-function')).toEqual([]);
-    const over = await lint('server/lib/zone-probe.ts', fn(147));
-    expect(errorsOf(over, 'max-lines-per-function')).toHaveLength(1);
-  });
+  for (const file of ['server/lib/zone-probe.ts', 'src/lib/zone-probe.ts']) {
+    it(
+      `fails a function over 150 lines in ${file.split('/')[0]}, blank lines and comments not counted`,
+      { timeout: TIMEOUT },
+      async () => {
+        const fn = (statements: number) =>
+          `export function probe(): number {\n  let n = 0;\n${'  n++;\n\n  // a comment\n'.repeat(statements)}  return n;\n}\n`;
+        // The function's own two lines, `let` and `return`, and the statements.
+        expect(errorsOf(await lint(file, fn(146)), 'max-lines-per-function')).toEqual([]);
+        expect(errorsOf(await lint(file, fn(147)), 'max-lines-per-function')).toHaveLength(1);
+      },
+    );
+  }
 });
