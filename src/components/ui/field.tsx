@@ -1,4 +1,5 @@
-import { useId, useState, type ComponentProps, type ReactNode } from 'react';
+import { useCallback, useId, useState, type ChangeEvent, type ComponentProps, type ReactNode, type Ref } from 'react';
+import { fmtDateTime, fmtDay } from '../../lib/format';
 import { cx } from './cx';
 
 const controlClasses = cx(
@@ -68,6 +69,7 @@ export function TextField({
   ...props
 }: TextFieldProps) {
   const id = useId();
+  const echo = useDateEcho(props);
   const input = (
     <input
       id={id}
@@ -75,10 +77,20 @@ export function TextField({
       aria-describedby={describedBy(hint !== undefined && `${id}-hint`, error && `${id}-error`)}
       className={cx(controlClasses, error ? 'border-alarm-700' : 'border-ink-400', trailing && 'pr-24', inputClassName)}
       {...props}
+      {...echo.inputProps}
     />
   );
+  const shownHint = echo.text ? (
+    <>
+      {hint}
+      {hint ? ' ' : null}
+      <span data-testid="date-echo">Reads {echo.text}.</span>
+    </>
+  ) : (
+    hint
+  );
   return (
-    <FieldShell id={id} label={label} hint={hint} error={error} optional={optional} className={className}>
+    <FieldShell id={id} label={label} hint={shownHint} error={error} optional={optional} className={className}>
       {trailing ? (
         <div className="relative">
           {input}
@@ -89,6 +101,42 @@ export function TextField({
       )}
     </FieldShell>
   );
+}
+
+/**
+ * A date box shows the date in the browser's own format; under the label it reads in Tightloop's ("12 Mar 2014",
+ * "7 Mar 2026, 14:05"), so a person sees which day was meant whatever the phone's settings. Works for controlled
+ * inputs and for react-hook-form's registered ones (whose value is set through the ref).
+ */
+function useDateEcho(props: Omit<ComponentProps<'input'>, 'id'>) {
+  const kind = props.type === 'date' || props.type === 'datetime-local' ? props.type : null;
+  const { onChange, ref } = props as {
+    onChange?: (e: ChangeEvent<HTMLInputElement>) => void;
+    ref?: Ref<HTMLInputElement>;
+  };
+  const [typed, setTyped] = useState<string | null>(null);
+  const setRef = useCallback(
+    (el: HTMLInputElement | null) => {
+      if (typeof ref === 'function') ref(el);
+      else if (ref) ref.current = el;
+      if (el && kind) queueMicrotask(() => setTyped(el.value));
+    },
+    [ref, kind],
+  );
+  if (!kind) return { text: null, inputProps: {} };
+  const value = props.value !== undefined ? String(props.value) : (typed ?? String(props.defaultValue ?? ''));
+  let text: string | null = null;
+  if (value && !Number.isNaN(Date.parse(value))) text = kind === 'date' ? fmtDay(value) : fmtDateTime(value);
+  return {
+    text,
+    inputProps: {
+      ref: setRef,
+      onChange: (e: ChangeEvent<HTMLInputElement>) => {
+        setTyped(e.target.value);
+        onChange?.(e);
+      },
+    },
+  };
 }
 
 type PasswordFieldProps = Omit<TextFieldProps, 'type' | 'trailing'>;

@@ -11,6 +11,7 @@ import { cx } from '../../../components/ui/cx';
 import { Flag, ScoreBadge } from './band-badge';
 import { fmtContainer, fmtDay, fmtPct, fmtTonnes } from '../../../lib/format';
 import { paths } from '../../../config/paths';
+import { nextSort } from '../utils/first-sort';
 
 const col = createColumnHelper<FleetRowDto>();
 
@@ -166,12 +167,7 @@ export function FleetTable({ rows, sort, dir, onSort, busy }: Props) {
                         'inline-flex min-h-touch items-center gap-1 rounded-sm text-left',
                         active && 'text-fjord-900',
                       )}
-                      onClick={() =>
-                        onSort(
-                          id,
-                          active ? (dir === 'asc' ? 'desc' : 'asc') : id === 'containerNumber' ? 'asc' : 'desc',
-                        )
-                      }
+                      onClick={() => onSort(id, nextSort(id, { sort, dir }))}
                     >
                       {flexRender(h.column.columnDef.header, h.getContext())}
                       <span aria-hidden="true" className={cx('text-xs', !active && 'text-ink-300')}>

@@ -14,6 +14,7 @@ import { isApiError } from '../../../lib/api-client';
 import { IMPORT_TEMPLATE_HREF } from '../api/fleet-import';
 import { useFleetImport, type FleetImportState } from '../hooks/use-fleet-import';
 import { fmtCount } from '../../../lib/format';
+import { importButtonLabel } from '../utils/import-button';
 
 function ProgressBar({ label, value, max }: { label: string; value: number; max: number }) {
   const pct = max > 0 ? Math.min(100, Math.round((value / max) * 100)) : 0;
@@ -329,7 +330,7 @@ function ImportStep({ s, p }: StepProps & { p: ImportPreviewDto }) {
         onClick={s.startImport}
         className="self-start"
       >
-        Import {p ? fmtCount(p.readyCount) : ''} units
+        {importButtonLabel(p?.readyCount, Boolean(s.blocked))}
       </Button>
       {s.blocked && !s.commit.isPending && (
         <p className="text-base text-ink-600">

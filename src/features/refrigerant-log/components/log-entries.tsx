@@ -2,7 +2,7 @@ import { Link } from 'react-router-dom';
 import { LEAK_CHECK_METHODS, LEAK_LOCATIONS, termLabel } from '../../../../shared/domain';
 import type { RefrigerantLogEntryDto } from '../../../../shared/schemas/refrigerant-log';
 import { paths } from '../../../config/paths';
-import { fmtContainer, fmtKg, fmtNumber, fmtTonnes } from '../../../lib/format';
+import { fmtContainer, fmtDay, fmtKg, fmtNumber, fmtTonnes } from '../../../lib/format';
 
 const KIND_LABELS = { top_up: 'Top-up', recharge: 'Recharge', recovery: 'Recovery', leak_check: 'Leak check' } as const;
 
@@ -24,7 +24,7 @@ function EntryCard({ e }: { e: RefrigerantLogEntryDto }) {
     <li className="rounded-lg border-2 border-ink-200 bg-white p-4" data-testid="log-card">
       <div className="flex items-baseline justify-between gap-2">
         <span className="font-bold">{KIND_LABELS[e.kind]}</span>
-        <span className="tabular-nums text-ink-700">{e.occurredAt.slice(0, 10)}</span>
+        <span className="tabular-nums text-ink-700">{fmtDay(e.occurredAt)}</span>
       </div>
       <Link to={paths.unit.getHref(e.unit.id)} className="font-semibold text-fjord-700">
         {fmtContainer(e.unit.containerNumber)}
@@ -73,7 +73,7 @@ export function LogTable({ entries }: { entries: RefrigerantLogEntryDto[] }) {
         <tbody>
           {entries.map((e) => (
             <tr key={e.eventId} className="border-b border-ink-100 align-top" data-testid="log-row">
-              <td className="px-3 py-2 whitespace-nowrap tabular-nums">{e.occurredAt.slice(0, 10)}</td>
+              <td className="px-3 py-2 whitespace-nowrap tabular-nums">{fmtDay(e.occurredAt)}</td>
               <td className="px-3 py-2 whitespace-nowrap">{KIND_LABELS[e.kind]}</td>
               <td className="px-3 py-2 whitespace-nowrap">
                 <Link

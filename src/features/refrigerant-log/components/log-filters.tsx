@@ -3,6 +3,7 @@ import type { RefrigerantLogDto, RefrigerantLogQuery } from '../../../../shared/
 import type { SiteDto } from '../../../../shared/schemas/sites';
 import { Alert } from '../../../components/ui/alert';
 import { Panel } from '../../../components/ui/page';
+import { fmtDay } from '../../../lib/format';
 import { PERIOD_LABELS, PERIODS, type Period } from './period';
 
 const select = 'min-h-touch w-full rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
@@ -83,7 +84,7 @@ export function LogFilters({
         </label>
       </div>
       <p className="mt-3 text-base text-ink-700">
-        {q.from} to {q.to} (UTC days). Voided entries are left out
+        {fmtDay(q.from)} to {fmtDay(q.to)} (UTC days). Voided entries are left out
         {notes && notes.voidedExcluded > 0 ? `: ${notes.voidedExcluded} in this period` : ''}. CO2e uses GWP{' '}
         {notes?.gwpBasis ?? 'AR4'}.
       </p>
