@@ -1,4 +1,5 @@
 import type { RepairOptionsResult } from '../../../../shared/domain';
+import { Caution } from '../../../components/ui/caution';
 import { cx } from '../../../components/ui/cx';
 import { fmtMoney } from '../../../lib/format';
 
@@ -23,6 +24,13 @@ export function OptionsGrid({ result }: { result: RepairOptionsResult }) {
             )}
           </div>
           <p className="text-sm text-ink-700">{o.description}</p>
+          {o.id === 'keep_topping_up' && (
+            // Source: Regulation (EU) 2024/573 (F-gas), Art. 4 — a leak found is to be repaired without undue delay.
+            <Caution title="A known leak">
+              Many regulations, the EU F-gas regulation among them, require a leak that has been found to be repaired,
+              not only topped up.
+            </Caution>
+          )}
           <dl className="mt-auto grid grid-cols-2 gap-x-3 gap-y-1 text-base">
             <dt className="text-ink-600">Up front</dt>
             <dd className="text-right tabular-nums">{fmtMoney(o.upfront, c)}</dd>

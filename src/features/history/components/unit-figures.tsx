@@ -3,6 +3,7 @@ import { useId, useState, type ReactNode } from 'react';
 import { LEAK_LOCATIONS, termLabel, type ScoreBand, type ScoreFactorName } from '../../../../shared/domain';
 import { PRESSURE_FLAG_WORDS } from '../../../../shared/domain/words';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
+import { Caution } from '../../../components/ui/caution';
 import { cx } from '../../../components/ui/cx';
 import { BAND_LABELS, BAND_TONES } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
@@ -371,6 +372,9 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
           {PRESSURE_WORDS[stats.pressureFlag]}
         </Figure>
       </dl>
+      <Caution compact title="Computed dates">
+        The next leak check and the top-up forecast are worked out from this history.
+      </Caution>
       {detail?.openLeak && (
         <p className="rounded-md border-2 border-alarm-700 bg-alarm-50 px-3 py-2 text-base">
           <span className="font-bold text-alarm-700">Open leak:</span> found {fmtDay(detail.openLeak.foundAt)}

@@ -30,14 +30,43 @@ const RECOVERY: Caution = {
   ],
 };
 
+// Common practice, no published source (the maker's service manual rules for each unit).
 const OPENING: Caution = {
   id: 'opening',
   title: 'Opening the circuit, brazing',
-  summary: 'Isolate and lock out the 380–460 V three-phase supply first. Recover the charge before brazing; fire risk.',
+  summary:
+    'Isolate and lock out the 380–460 V three-phase supply first. Liquid refrigerant causes frostbite. Recover the charge, purge with nitrogen while brazing, keep a fire watch.',
   points: [
     'Reefer units run on 380–460 V three-phase power: isolate and lock out the supply, and prove it dead, before opening the control box or the circuit.',
+    'Liquid refrigerant escaping from an opened joint causes frostbite: gloves and eye protection, and keep your face away from the joint.',
     'Recover the charge before cutting or brazing; purge with dry nitrogen while brazing.',
-    'Brazing is hot work: keep an extinguisher at hand, shield the insulation and watch for fire after you finish.',
+    'Brazing is hot work: keep an extinguisher at hand, shield the insulation and keep a fire watch after you finish.',
+  ],
+};
+
+// Common practice, no published source: the unit runs while it is charged.
+const CHARGING_POWER: Caution = {
+  id: 'charging-power',
+  title: 'Electrical',
+  summary:
+    'The unit runs on 380–460 V three-phase while you charge: plug and cable whole and dry, hands clear of fans.',
+  points: [
+    'Check the plug and supply cable before connecting; never charge with a damaged cable or a wet socket.',
+    'The compressor and fans start on their own while the unit runs: keep hands, hoses and clothing clear of fan guards.',
+    'Isolate and lock out the supply before opening the control box.',
+  ],
+};
+
+// Common practice, no published source: pressure tests use dry nitrogen through a regulator, never oxygen or air.
+const NITROGEN: Caution = {
+  id: 'nitrogen',
+  title: 'Nitrogen pressure test',
+  summary:
+    'Dry nitrogen only, through a regulator with a relief valve; never oxygen or air; stay within the system’s pressure limits.',
+  points: [
+    'Use oxygen-free dry nitrogen from a cylinder with a pressure regulator and a relief valve set below the test pressure limit.',
+    'Never use oxygen or compressed air: oil in the system can ignite or explode with oxygen.',
+    'Do not exceed the test pressure on the unit’s data plate or in the maker’s instructions; let the pressure off slowly before opening.',
   ],
 };
 
@@ -48,6 +77,7 @@ const GAUGES: Caution = {
   points: ['Connect and disconnect hoses with the valves closed; expect a spit of liquid refrigerant (frostbite).'],
 };
 
+// Source: ISO 817 / ASHRAE Standard 34 safety classes (A2L: lower flammability).
 const FLAMMABLE = (code: string): Caution => ({
   id: 'flammable',
   title: `${code} is flammable (class A2L)`,
@@ -88,10 +118,13 @@ export function cautionsFor(kind: VisitEventKind, refrigerant: string): Caution[
   const out: Caution[] = [];
   const opens = kind === 'repair' || kind === 'component_replacement';
   if (MOVES.has(kind)) out.push(HANDLING);
+  if (kind === 'top_up' || kind === 'recharge') out.push(CHARGING_POWER);
   if (kind === 'recovery' || kind === 'recharge') out.push(RECOVERY);
   if (opens) out.push(OPENING);
   if (kind === 'pressure' || kind === 'leak_check') out.push(GAUGES);
-  if (r?.flammable && (MOVES.has(kind) || opens || kind === 'leak_check')) out.push(FLAMMABLE(r.code));
+  if (kind === 'leak_check' || kind === 'repair') out.push(NITROGEN);
+  if (r?.flammable && (MOVES.has(kind) || opens || kind === 'leak_check' || kind === 'pressure'))
+    out.push(FLAMMABLE(r.code));
   if (r?.highPressure && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check'))
     out.push(HIGH_PRESSURE);
   if (!refrigerant && (MOVES.has(kind) || opens || kind === 'pressure' || kind === 'leak_check'))
