@@ -45,10 +45,13 @@ export type ClusterBenchResult = {
   rows: Row[];
 };
 
+/** Both setups' API processes are configured as the cluster's public address, the origin writes must come from. */
+const ORIGIN = `http://localhost:${new URL(clusterUrl()).port}`;
+
 async function signIn(url: string): Promise<Record<string, string>> {
   const res = await fetch(`${url}/api/auth/sign-in`, {
     method: 'POST',
-    headers: { 'content-type': 'application/json', origin: url },
+    headers: { 'content-type': 'application/json', origin: ORIGIN },
     body: JSON.stringify({ email: DEMO_ACCOUNTS.find((a) => a.role === 'technician')!.email, password: DEMO_PASSWORD }),
   });
   if (res.status !== 200) throw new Error(`Signing in failed: ${res.status} ${await res.text()}`);
@@ -56,7 +59,7 @@ async function signIn(url: string): Promise<Record<string, string>> {
     .getSetCookie()
     .map((c) => c.split(';')[0])
     .join('; ');
-  return { cookie, origin: 'http://localhost:3000', 'content-type': 'application/json', accept: 'application/json' };
+  return { cookie, origin: ORIGIN, 'content-type': 'application/json', accept: 'application/json' };
 }
 
 async function fleetOf(url: string) {
@@ -113,7 +116,7 @@ async function startSingleNode(): Promise<{ url: string; dbUrl: string; stop: ()
       PORT: String(port),
       HOST: '127.0.0.1',
       DATABASE_URL: dbUrl,
-      PUBLIC_URL: 'http://localhost:3000',
+      PUBLIC_URL: ORIGIN,
       LOG_LEVEL: 'silent',
       STORAGE_DIR: path.join(dir, 'uploads'),
     },
@@ -139,7 +142,6 @@ async function startSingleNode(): Promise<{ url: string; dbUrl: string; stop: ()
 }
 
 export async function runClusterBench(options: BenchOptions): Promise<ClusterBenchResult> {
-  const { durationS, repeat, connections } = options;
   const startedHere = runningParts().length === 0;
   const log = (s: string) => console.log(s);
   await startCluster({ apis: MAX_API, log });
@@ -148,6 +150,32 @@ export async function runClusterBench(options: BenchOptions): Promise<ClusterBen
   log(`Cluster: ${cluster.unitIds.length} units in service, ${cluster.events.toLocaleString('en')} events.`);
   log('Single node: a plain MariaDB with the demo fleet and one API process…');
   const single = await startSingleNode();
+  const cleanUp = async () => {
+    single.stop();
+    if (startedHere) {
+      await stopCluster(log);
+    } else {
+      await useApis(state.apis);
+      for (let i = state.apis + 1; i <= MAX_API; i++) await stopApi(i);
+    }
+  };
+  try {
+    return await measureAll(options, cluster.unitIds, single, cleanUp, log, cluster.events);
+  } catch (err) {
+    await cleanUp().catch(() => undefined);
+    throw err;
+  }
+}
+
+async function measureAll(
+  options: BenchOptions,
+  clusterUnitIds: number[],
+  single: { url: string; dbUrl: string },
+  cleanUp: () => Promise<void>,
+  log: (s: string) => void,
+  clusterEvents: number,
+): Promise<ClusterBenchResult> {
+  const { durationS, repeat, connections } = options;
   const singleFleet = await fleetOf(single.dbUrl);
 
   const rng = createRng(20_261_205);
@@ -173,7 +201,7 @@ export async function runClusterBench(options: BenchOptions): Promise<ClusterBen
       for (const s of setups) {
         if (s.id !== 'single') await useApis(s.apis);
         const h = s.id === 'single' ? headers.single : headers.cluster;
-        const ids = s.id === 'single' ? singleFleet.unitIds : cluster.unitIds;
+        const ids = s.id === 'single' ? singleFleet.unitIds : clusterUnitIds;
         const writes = createWrites(rng, ids);
         await settle(s.url);
         const unitPage = await measure(
@@ -207,13 +235,7 @@ export async function runClusterBench(options: BenchOptions): Promise<ClusterBen
       }
     }
   } finally {
-    single.stop();
-    if (startedHere) {
-      await stopCluster(log);
-    } else {
-      await useApis(state.apis);
-      for (let i = state.apis + 1; i <= MAX_API; i++) await stopApi(i);
-    }
+    await cleanUp();
   }
 
   const cpu = /model name\s*:\s*(.+)/.exec(readFileSync('/proc/cpuinfo', 'utf8'))?.[1]?.trim() ?? os.cpus()[0]?.model;
@@ -225,7 +247,7 @@ export async function runClusterBench(options: BenchOptions): Promise<ClusterBen
       memoryGiB: Math.round(os.totalmem() / 2 ** 30),
       node: process.version,
     },
-    fleet: { units: cluster.unitIds.length, events: cluster.events },
+    fleet: { units: clusterUnitIds.length, events: clusterEvents },
     settings: { durationS, repeat, connections },
     rows: setups.map((s) => ({
       setup: s.id,
