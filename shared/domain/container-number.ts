@@ -95,3 +95,16 @@ export function formatContainerNumber(value: string): string {
   const s = normalizeContainerNumber(value);
   return s.length === 11 ? `${s.slice(0, 4)} ${s.slice(4, 10)} ${s.slice(10)}` : s;
 }
+
+/**
+ * What to tell a person whose number has a wrong check digit, in the same words everywhere (scan page, Home's search,
+ * forms): the digit the first ten characters imply and the number it makes. Spaces inside the number do not break.
+ */
+export function wrongCheckDigitText(input: string): string | null {
+  const s = normalizeContainerNumber(input);
+  if (s.length !== 11) return null;
+  const r = parseContainerNumber(s);
+  if (r.ok || r.expectedCheckDigit === undefined) return null;
+  const fixed = formatContainerNumber(`${s.slice(0, 10)}${r.expectedCheckDigit}`).replace(/ /g, '\u00a0');
+  return `Check digit should be ${r.expectedCheckDigit}: ${fixed}. Check the number for a typo.`;
+}

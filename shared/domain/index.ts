@@ -51,6 +51,7 @@ export {
   parseContainerNumber,
   normalizeContainerNumber,
   formatContainerNumber,
+  wrongCheckDigitText,
   CONTAINER_LETTER_VALUES,
   EQUIPMENT_CATEGORIES,
   type ContainerNumberResult,

@@ -138,4 +138,31 @@ describe('words and numbers on the screens (390 px)', () => {
       await browser.close();
     }
   });
+
+  it('Home’s Find unit opens the unit for a whole correct number and names the implied check digit for a wrong one', async () => {
+    const [unit] = await db
+      .select({ id: units.id, containerNumber: units.containerNumber })
+      .from(units)
+      .orderBy(units.id)
+      .limit(1);
+    const browser = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, account('technician').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      const field = page.getByLabel('Container number');
+      const right = Number(unit.containerNumber.charAt(10));
+      await field.fill(`${unit.containerNumber.slice(0, 10)}${(right + 1) % 10}`);
+      await page.getByRole('button', { name: 'Find unit' }).click();
+      await expect
+        .poll(() => page.getByRole('search').getByRole('alert').textContent())
+        .toMatch(new RegExp(`^Check digit should be ${right}: `));
+      await shot(page, 'home-find-wrong-digit-390');
+      await field.fill(unit.containerNumber);
+      await page.getByRole('button', { name: 'Find unit' }).click();
+      await page.waitForURL(new RegExp(`/units/${unit.id}$`));
+    } finally {
+      await browser.close();
+    }
+  });
 });

@@ -4,6 +4,7 @@ import {
   formatContainerNumber,
   normalizeContainerNumber,
   parseContainerNumber,
+  wrongCheckDigitText,
 } from '../../../shared/domain';
 import { cx } from './cx';
 
@@ -24,12 +25,8 @@ export function containerNumberHint(input: string): Hint {
   if (s.length < 11) return null;
   const r = parseContainerNumber(s);
   if (r.ok) return { tone: 'okay', text: `Valid ISO 6346 number: ${unbroken(formatContainerNumber(r.value))}` };
-  if (r.expectedCheckDigit !== undefined) {
-    return {
-      tone: 'alarm',
-      text: `Check digit should be ${r.expectedCheckDigit}: ${unbroken(formatContainerNumber(`${s.slice(0, 10)}${r.expectedCheckDigit}`))}. Check the number for a typo.`,
-    };
-  }
+  const wrongDigit = wrongCheckDigitText(s);
+  if (wrongDigit) return { tone: 'alarm', text: wrongDigit };
   return { tone: 'alarm', text: r.error };
 }
 

@@ -6,6 +6,7 @@ import {
   DomainError,
   formatContainerNumber,
   parseContainerNumber,
+  wrongCheckDigitText,
 } from '../../../shared/domain';
 
 describe('ISO 6346 check digit', () => {
@@ -102,5 +103,20 @@ describe('parseContainerNumber', () => {
         },
       ),
     );
+  });
+});
+
+describe('wrongCheckDigitText', () => {
+  it('says which check digit the first ten characters imply, and the number it makes', () => {
+    // CSQU 305438 3 is the standard's own example; 5 in place of 3 is a typo.
+    expect(wrongCheckDigitText('CSQU3054385')).toBe(
+      'Check digit should be 3: CSQU\u00a0305438\u00a03. Check the number for a typo.',
+    );
+  });
+
+  it('says nothing for a valid number, a short one or one that is wrong in another way', () => {
+    expect(wrongCheckDigitText('CSQU 305438 3')).toBeNull();
+    expect(wrongCheckDigitText('CSQU30543')).toBeNull();
+    expect(wrongCheckDigitText('CSQX3054383')).toBeNull();
   });
 });

@@ -1,34 +1,58 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { useId, useState, type FormEvent } from 'react';
 import { useNavigate } from 'react-router-dom';
-import { normalizeContainerNumber } from '../../../../shared/domain';
+import { normalizeContainerNumber, parseContainerNumber, wrongCheckDigitText } from '../../../../shared/domain';
+import { unitByNumberQuery } from '../api/get-unit-by-number';
 import { paths } from '../../../config/paths';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { SearchIcon } from '../../../components/ui/icons';
 
-/** Find a unit by its ISO 6346 container number; goes to /units?q=… */
+/**
+ * Find a unit by its ISO 6346 container number: a whole, valid number opens the unit itself; a wrong check digit says
+ * which digit the number implies (the scan page's words); a start of a number lists the matches (/units?q=…).
+ */
 export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: string; className?: string }) {
   const id = useId();
   const navigate = useNavigate();
+  const queryClient = useQueryClient();
   const [value, setValue] = useState(defaultValue);
   const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
 
-  const onSubmit = (event: FormEvent<HTMLFormElement>) => {
+  const onSubmit = async (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
     const q = normalizeContainerNumber(value);
     if (!q) {
       setError('Enter a container number');
       return;
     }
+    const wrongDigit = wrongCheckDigitText(q);
+    if (wrongDigit) {
+      setError(wrongDigit);
+      return;
+    }
     setError(null);
-    void navigate(paths.units.getHref(q));
+    if (parseContainerNumber(q).ok) {
+      setBusy(true);
+      try {
+        const unit = await queryClient.fetchQuery(unitByNumberQuery(q));
+        await navigate(paths.unit.getHref(unit.id));
+        return;
+      } catch {
+        // Not registered (or no answer): the list says so and offers to register it.
+      } finally {
+        setBusy(false);
+      }
+    }
+    await navigate(paths.units.getHref(q));
   };
 
   return (
     <form
       role="search"
       aria-label="Find a unit"
-      onSubmit={onSubmit}
+      onSubmit={(e) => void onSubmit(e)}
       noValidate
       className={cx('flex flex-col gap-2', className)}
     >
@@ -59,13 +83,13 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
             error ? 'border-alarm-700' : 'border-ink-950',
           )}
         />
-        <Button type="submit" size="lg" className="min-h-16 sm:px-8">
+        <Button type="submit" size="lg" className="min-h-16 sm:px-8" pending={busy} pendingLabel="Finding…">
           <SearchIcon />
           Find unit
         </Button>
       </div>
       {error && (
-        <p id={`${id}-error`} className="text-sm font-semibold text-alarm-700">
+        <p id={`${id}-error`} role="alert" className="text-sm font-semibold text-alarm-700">
           {error}
         </p>
       )}
