@@ -93,8 +93,8 @@ describe('the depot’s day on a phone', () => {
         .getByRole('link', { name: new RegExp(formatContainerNumber(recheckUnit.containerNumber)) })
         .click();
       await page.waitForURL(new RegExp(`/units/${recheckUnit.id}/visit\\?entry=pressure$`));
-      if ((await page.getByLabel(/^Discharge/).count()) === 0)
-        await page.getByRole('button', { name: 'Add Pressure reading' }).click();
+      // The link preselects the entry: the pressure reading is on the form without adding it.
+      await page.getByLabel(/^Discharge \(/).waitFor();
       // 960 kPa(g) in whichever unit the form starts in; 30 °C ambient.
       const discharge = page.getByLabel(/^Discharge \(/);
       const unit = /\((\w+) gauge\)/.exec(
@@ -163,6 +163,12 @@ describe('the depot’s day on a phone', () => {
       await page.screenshot({ path: `${SCREENS}/quarantine-refused-390.png`, fullPage: true });
       // A technician is offered no override.
       expect(await page.getByRole('button', { name: 'Pass with override' }).count()).toBe(0);
+
+      // The unit's own page shows the same state and leads to the release page.
+      await page.goto(`/units/${quarantinedUnit.id}`);
+      await page.getByText('In quarantine — not to be released').waitFor();
+      await page.getByRole('link', { name: 'PTI and release' }).click();
+      await page.waitForURL(new RegExp(`/units/${quarantinedUnit.id}/release$`));
     } catch (err) {
       await b.page.screenshot({ path: `${SCREENS}/depot-day-failure.png`, fullPage: true });
       throw err;

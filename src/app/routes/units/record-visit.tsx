@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { lazy, Suspense } from 'react';
-import { Link, useParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useParams, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
 import { Alert } from '../../../components/ui/alert';
@@ -8,6 +8,7 @@ import { PageHeader } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { RecordVisitForm } from '../../../features/history/components/record-visit-form';
+import { entryKindOf } from '../../../features/history/hooks/use-record-visit-form';
 import type { CylinderSlot } from '../../../features/history/components/entry-card';
 import { CylinderPicker } from '../../../features/cylinders/components/cylinder-picker';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
@@ -59,6 +60,7 @@ export default function RecordVisitPage() {
   const unitId = unitIdOf(useParams().id);
   const user = useUser();
   const unit = useUnit(unitId ?? 0);
+  const initialEntry = entryKindOf(useSearchParams()[0].get('entry'));
 
   if (!unitId || (unit.isError && isApiError(unit.error) && unit.error.status === 404)) return <NotFound />;
   if (unit.isPending) {
@@ -111,6 +113,7 @@ export default function RecordVisitPage() {
         unitHref={unitHref}
         alsoInvalidate={alsoInvalidate}
         cylinderSlot={cylinderSlotFor(u.site?.id ?? null)}
+        initialEntry={initialEntry}
       />
     </div>
   );

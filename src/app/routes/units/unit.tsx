@@ -10,6 +10,7 @@ import { UnitChanges } from '../../../features/units/components/unit-changes';
 import { UnitIdentity } from '../../../features/units/components/unit-identity';
 import { UnitLabelActions } from '../../../features/labels/components/unit-label-actions';
 import { HandoverDownload } from '../../../features/handover/components/handover-download';
+import { UnitDepotPanel } from '../../../features/day/components/unit-depot-panel';
 import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
 import { LoadError } from '../../../components/ui/query-state';
@@ -61,6 +62,13 @@ function UnitRecord({ id }: { id: number }) {
           </Can>
         }
       />
+
+      <div className="flex flex-col gap-3">
+        <UnitDepotPanel unitId={unit.data.id} />
+        <ButtonLink to={paths.unitRelease.getHref(unit.data.id)} variant="secondary" className="self-start">
+          PTI and release
+        </ButtonLink>
+      </div>
 
       {/*
         ── SERVICE HISTORY SLOT ─────────────────────────────────────────────────────────────────────────────

@@ -1,6 +1,6 @@
 import type { QueryKey } from '@tanstack/react-query';
 import type { MutableRefObject } from 'react';
-import type { VisitSubmission } from '../../../../shared/schemas/history';
+import type { VisitEventKind, VisitSubmission } from '../../../../shared/schemas/history';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
@@ -89,8 +89,11 @@ export function RecordVisitForm({
   unitHref,
   alsoInvalidate,
   cylinderSlot,
+  initialEntry,
 }: {
   unit: VisitUnit;
+  /** The entry the form opens with, e.g. from `?entry=pressure`. */
+  initialEntry?: VisitEventKind | null;
   /** The cylinder picker for charges and recoveries, from the page (see EntryCard). */
   cylinderSlot?: CylinderSlot;
   userId: string;
@@ -99,7 +102,7 @@ export function RecordVisitForm({
   /** Other features' keys a visit changes (the unit's record: a status change). */
   alsoInvalidate?: (unitId: number) => QueryKey[];
 }) {
-  const v = useRecordVisitForm({ unit, userId, alsoInvalidate });
+  const v = useRecordVisitForm({ unit, userId, alsoInvalidate, initialEntry });
   const { control, register, setValue, formState } = v.form;
   const banner = <PendingVisitsBanner userId={userId} alsoInvalidate={alsoInvalidate} />;
   const actions = (

@@ -80,6 +80,11 @@ function useScrollToAdded(count: number) {
   return lastAdded;
 }
 
+/** A kind the form knows, from a link's `?entry=` (My day's rows); anything else opens the form empty. */
+export function entryKindOf(raw: string | null | undefined): VisitEventKind | null {
+  return raw && Object.hasOwn(FIELDS_BY_KIND, raw) ? (raw as VisitEventKind) : null;
+}
+
 /**
  * The visit form's state and submission: send the visit (a retry of the very same visit keeps its idempotency key),
  * keep it on the phone when there is no connection, and put the server's field errors on the fields.
@@ -88,10 +93,13 @@ export function useRecordVisitForm({
   unit,
   userId,
   alsoInvalidate,
+  initialEntry,
 }: {
   unit: VisitUnit;
   userId: string;
   alsoInvalidate?: (unitId: number) => QueryKey[];
+  /** The entry the form opens with (a link from My day says which). */
+  initialEntry?: VisitEventKind | null;
 }) {
   const [prefs, setPrefs] = useUnitPrefs(userId);
   const [outcome, setOutcome] = useState<VisitOutcome>({ state: 'editing' });
@@ -105,7 +113,10 @@ export function useRecordVisitForm({
 
   const form = useForm<VisitFormInput, unknown, VisitFormOutput>({
     resolver,
-    defaultValues: { occurredAt: toLocalInputValue(new Date()), events: [] },
+    defaultValues: {
+      occurredAt: toLocalInputValue(new Date()),
+      events: initialEntry ? [emptyEntry(initialEntry, prefs)] : [],
+    },
     shouldFocusError: true,
   });
   const { control, handleSubmit, setError, reset, formState } = form;
