@@ -8,6 +8,7 @@ import { runDailyMailJobs } from './features/alerts/digest.service';
 import { refreshRepairEffectivenessIfStale } from './features/fleet/repair-effectiveness.job';
 import { FORECAST_CASES_MAX_AGE_MS, refreshForecastIfStale } from './features/forecast/forecast-cases.job';
 import { createStatsBackfill, type StatsBackfill } from './features/history/stats-backfill';
+import { fillMissingDepotStates } from './lib/record/depot-state';
 
 /** Digests go out from this hour (UTC) on; the dedupe key keeps it to one per person per day. */
 export const DIGEST_HOUR_UTC = 6;
@@ -98,10 +99,16 @@ export function scheduleDailyMail(ctx: AppContext, opts: Options = {}): Stop & {
  * the background when old (the case base only once there is one: the first is the start-up check's or the refresh
  * button's to build).
  */
+/** Units without a depot-state row (a database from before it, a bulk load) get one; nothing to do costs two counts. */
+export async function depotBackfill(ctx: AppContext): Promise<number> {
+  return fillMissingDepotStates(ctx.db, ctx.clock.now(), await ctx.caches.settings.get(ctx.db));
+}
+
 export async function maintain(ctx: AppContext, backfill: StatsBackfill): Promise<void> {
   const warn = (what: string) => (err: unknown) => ctx.logger.warn({ err }, what);
   await ctx.jobs.resumeStale().catch(warn('resuming stale jobs'));
   await backfill.run(ctx).catch(warn('statistics backfill'));
+  await depotBackfill(ctx).catch(warn('depot state backfill'));
   await refreshRepairEffectivenessIfStale(ctx).catch(warn('repair effectiveness refresh'));
   await refreshForecastIfStale(ctx, { firstBuild: false, message: 'Older than a day at the regular check.' }).catch(
     warn('forecast case base refresh'),
@@ -114,8 +121,12 @@ export function scheduleMaintenance(ctx: AppContext, opts: Options = {}): Stop &
   const tick = () => leased(ctx, opts, 'maintenance', () => maintain(ctx, backfill));
   const timer = setInterval(() => void tick().catch(warn('maintenance')), MAINTENANCE_MS);
   timer.unref();
-  // At start-up only the backfill: a fleet loaded while the server was down shows with its figures at once.
-  void leased(ctx, opts, 'maintenance', () => backfill.run(ctx)).catch(warn('statistics backfill'));
+  // At start-up only the backfills: a fleet loaded while the server was down shows with its figures at once, and
+  // the depot state (quarantine, re-checks) of units that had none before the upgrade.
+  void leased(ctx, opts, 'maintenance', async () => {
+    await backfill.run(ctx).catch(warn('statistics backfill'));
+    await depotBackfill(ctx).catch(warn('depot state backfill'));
+  }).catch(warn('maintenance'));
   return { tick, stop: () => clearInterval(timer) };
 }
 

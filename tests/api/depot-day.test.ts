@@ -5,6 +5,7 @@ import { randomUUID } from 'node:crypto';
 import type TestAgent from 'supertest/lib/agent';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
+import { depotBackfill } from '../../server/scheduler';
 import { events, unitDepotState } from '../../server/db/schema';
 import { PTI_ITEMS } from '../../shared/domain/pti';
 import { openTestDb, resetDb } from '../support/db';
@@ -14,7 +15,7 @@ import { recordVisits } from '../support/visits';
 
 const { db, pool } = openTestDb();
 let now = new Date('2026-06-01T12:00:00Z');
-const { app } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+const { app, ctx } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
 let engineer: TestAgent;
 let technician: TestAgent;
 let owner: TestAgent;
@@ -345,5 +346,30 @@ describe('My day', () => {
   it('returns 400 for a site that is not a number and 404 for one that does not exist', async () => {
     expect((await technician.get('/api/day?siteId=x')).status).toBe(400);
     expect((await technician.get('/api/day?siteId=99999')).status).toBe(404);
+  });
+});
+
+describe('upgrade of an existing database', () => {
+  it('fills in the depot state of units that have no row yet, leaves the others, and then finds nothing to do', async () => {
+    const before = await newUnit();
+    const kept = await newUnit();
+    for (const unitId of [before, kept])
+      await recordVisits(technician, unitId, [
+        { at: '2026-05-31T09:00:00Z', siteId, events: [{ kind: 'top_up', kg: 0.4, cylinder: 'CYL-U' }] },
+      ]);
+    // As on a database from before the table: no row for one unit; the other's row marked to show it is not rewritten.
+    await db.delete(unitDepotState).where(eq(unitDepotState.unitId, before));
+    const marker = new Date('2026-01-01T00:00:00Z');
+    await db.update(unitDepotState).set({ computedAt: marker }).where(eq(unitDepotState.unitId, kept));
+
+    expect(await depotBackfill(ctx)).toBeGreaterThanOrEqual(1);
+    const [filled] = await db.select().from(unitDepotState).where(eq(unitDepotState.unitId, before));
+    expect(filled.recheckReason).toBe('top_up');
+    expect(filled.recheckDue).toBe('2026-06-01');
+    const [untouched] = await db.select().from(unitDepotState).where(eq(unitDepotState.unitId, kept));
+    expect(untouched.computedAt).toEqual(marker);
+    expect((await depot(before)).openRecheck).not.toBeNull();
+
+    expect(await depotBackfill(ctx)).toBe(0);
   });
 });

@@ -2,7 +2,7 @@
 // repairs (shared/domain/rechecks.ts) and quarantine (shared/domain/quarantine.ts). Part of the unit write path's
 // effects, so the unit_depot_state row always matches the events it came from; reads of one unit recompute the
 // whole list (re-check answers, quarantine details) from the same history.
-import { and, asc, eq, getTableColumns, inArray, sql } from 'drizzle-orm';
+import { and, asc, count, eq, getTableColumns, inArray, isNull, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
 import { events, unitDepotState, units } from '../../db/schema';
 import { rechecksFromHistory, type DepotEvent, type RecheckSummary } from '../../../shared/domain/rechecks';
@@ -127,7 +127,12 @@ const REBUILD_CHUNK = 500;
  * a changed re-check interval). Each chunk is one short transaction; a unit written meanwhile is written again by its
  * own writer with the same rule, so the last word is always a full recompute.
  */
-export async function rebuildDepotStates(db: DbOrTx, now: Date, settings: Settings): Promise<number> {
+export async function rebuildDepotStates(
+  db: DbOrTx,
+  now: Date,
+  settings: Settings,
+  opts: { onlyMissing?: boolean } = {},
+): Promise<number> {
   let after = 0;
   let done = 0;
   for (;;) {
@@ -139,7 +144,8 @@ export async function rebuildDepotStates(db: DbOrTx, now: Date, settings: Settin
         createdAt: units.createdAt,
       })
       .from(units)
-      .where(sql`${units.id} > ${after}`)
+      .leftJoin(unitDepotState, eq(unitDepotState.unitId, units.id))
+      .where(and(sql`${units.id} > ${after}`, opts.onlyMissing ? isNull(unitDepotState.unitId) : undefined))
       .orderBy(asc(units.id))
       .limit(REBUILD_CHUNK);
     if (!chunk.length) return done;
@@ -156,6 +162,19 @@ export async function rebuildDepotStates(db: DbOrTx, now: Date, settings: Settin
     done += chunk.length;
     after = chunk[chunk.length - 1].id;
   }
+}
+
+/**
+ * A database from before unit_depot_state (or units loaded past the API) has units without a row until their next
+ * write; this fills in only those. Two index counts tell at once when none is missing, so it is cheap to repeat.
+ */
+export async function fillMissingDepotStates(db: DbOrTx, now: Date, settings: Settings): Promise<number> {
+  const [[a], [b]] = await Promise.all([
+    db.select({ n: count() }).from(units),
+    db.select({ n: count() }).from(unitDepotState),
+  ]);
+  if (Number(a.n) === Number(b.n)) return 0;
+  return rebuildDepotStates(db, now, settings, { onlyMissing: true });
 }
 
 /** One unit's depot state as stored (null before its first write since the table came). */
