@@ -10,6 +10,10 @@ export const SITE_KIND_LABELS: Record<SiteKind, string> = {
   workshop: 'Workshop',
 };
 
+/** Whose leak-check rule a site follows; a site without one follows the fleet's policy in settings. */
+export const JURISDICTIONS = ['EU', 'US', 'custom'] as const;
+export type Jurisdiction = (typeof JURISDICTIONS)[number];
+
 export const MAX_SITE_CODE_LENGTH = 16;
 export const MAX_SITE_NAME_LENGTH = 120;
 

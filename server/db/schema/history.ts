@@ -47,6 +47,9 @@ export const visits = mysqlTable(
       .references(() => users.id),
     occurredAt: datetime('occurred_at', { mode: 'date', fsp: 3 }).notNull(),
     enteredAt: datetime('entered_at', { mode: 'date', fsp: 3 }).notNull(),
+    // The recorder's refrigerant certificate as it stood when the visit was written (the log shows that, not today's).
+    certificateNumber: varchar('certificate_number', { length: 64 }),
+    certificateExpiresOn: date('certificate_expires_on', { mode: 'string' }),
     // A retried submission carries the same key and gets the first result back.
     idempotencyKey: varchar('idempotency_key', { length: 64 }).notNull().unique(),
     // SHA-256 of what was submitted under the key: the same key with other content is refused, not replayed.
