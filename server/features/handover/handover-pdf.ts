@@ -49,7 +49,8 @@ export function pdfText(s: string): string {
   for (const ch of s) {
     const code = ch.codePointAt(0)!;
     if (PLAIN[ch]) out += PLAIN[ch];
-    else if (code < 0x20 || ch === '\u00a0' || ch === '\u2009' || ch === '\u202f') out += ' ';
+    else if (code < 0x20 || (code >= 0x7f && code <= 0x9f) || ch === '\u00a0' || ch === '\u2009' || ch === '\u202f')
+      out += ' ';
     else if (code <= 0xff || CP1252_EXTRA.has(ch)) out += ch;
     else out += '?';
   }
