@@ -165,4 +165,62 @@ describe('words and numbers on the screens (390 px)', () => {
       await browser.close();
     }
   });
+
+  it('shows "−17.5" whole in a temperature box and gives list links a 44 px target on a 390 px phone', async () => {
+    const [unit] = await db.select({ id: units.id }).from(units).orderBy(units.id).limit(1);
+    const browser = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto(`/units/${unit.id}/visit`);
+      await page.getByRole('button', { name: 'Add Pressure reading' }).click();
+      const ambient = page.getByLabel('Ambient');
+      await ambient.fill('-17.5');
+      await expect.poll(() => ambient.inputValue()).toMatch(/^[-−]17\.5$/);
+      // The text fits the box: nothing scrolls out of sight beside the unit.
+      const fits = await ambient.evaluate((el: HTMLInputElement) => el.scrollWidth <= el.clientWidth);
+      expect(fits).toBe(true);
+      await ambient.evaluate((el) => el.scrollIntoView({ block: 'center' }));
+      await shot(page, 'temperature-box-390');
+
+      await page.goto('/fleet');
+      const link = page.getByTestId('fleet-unit-link').first();
+      await link.waitFor();
+      expect((await link.boundingBox())!.height).toBeGreaterThanOrEqual(44);
+      await shot(page, 'fleet-links-390');
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('lets a keyboard focus a timeline mark to see its entry, with every drawn symbol in the key', async () => {
+    const [unit] = await db.select({ id: units.id }).from(units).orderBy(units.id).limit(1);
+    const browser = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto(`/units/${unit.id}`);
+      const mark = page.getByTestId('timeline-mark').last();
+      await mark.waitFor();
+      await mark.focus();
+      const label = (await mark.getAttribute('aria-label')) ?? '';
+      expect(label).toMatch(/, \d{1,2} [A-Z][a-z]{2} \d{4}/);
+      const key = page.getByRole('list', { name: 'Key' }).filter({ hasText: 'Top-up' });
+      for (const words of [
+        'Leak check, no leak',
+        'Repair not verified',
+        'PTI failed',
+        'Other entries',
+        'Reading with a warning',
+      ]) {
+        await expect.poll(() => key.textContent()).toContain(words);
+      }
+      await mark.scrollIntoViewIfNeeded();
+      await shot(page, 'timeline-focus-390');
+    } finally {
+      await browser.close();
+    }
+  });
 });

@@ -72,7 +72,7 @@ export default function CandidatesPage() {
                 <div>
                   <Link
                     to={`/decisions/${c.unitId}`}
-                    className="text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline"
+                    className="inline-flex min-h-touch items-center text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline"
                   >
                     {fmtContainer(c.containerNumber)}
                   </Link>

@@ -188,7 +188,7 @@ function TraceResults({ query, data }: { query: TraceQuery; data: NonNullable<Re
               >
                 <Link
                   to={paths.unit.getHref(u.unitId)}
-                  className="font-semibold text-fjord-700 underline-offset-4 hover:underline"
+                  className="inline-flex min-h-touch items-center font-semibold text-fjord-700 underline-offset-4 hover:underline"
                 >
                   {fmtContainer(u.containerNumber)}
                 </Link>

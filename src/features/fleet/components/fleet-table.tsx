@@ -33,7 +33,7 @@ const columns = [
       <span className="flex flex-col">
         <Link
           to={paths.unit.getHref(c.row.original.unitId)}
-          className="text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline md:text-base"
+          className="inline-flex min-h-touch items-center self-start text-lg font-bold tracking-wide text-fjord-700 underline-offset-4 hover:underline md:text-base"
           data-testid="fleet-unit-link"
         >
           {fmtContainer(c.getValue())}

@@ -15,7 +15,7 @@ export function LeakChecksDueList({ due }: { due: FleetOverviewDto['leakChecksDu
         <li key={u.unitId} className="flex min-h-touch items-center justify-between gap-3">
           <Link
             to={paths.unit.getHref(u.unitId)}
-            className="shrink-0 font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
+            className="inline-flex min-h-touch shrink-0 items-center font-semibold whitespace-nowrap text-fjord-700 underline-offset-4 hover:underline"
           >
             {fmtContainer(u.containerNumber)}
           </Link>
@@ -38,7 +38,7 @@ export function ChronicLeakersList({ leakers }: { leakers: FleetOverviewDto['chr
           <div className="flex flex-wrap items-center justify-between gap-2">
             <Link
               to={paths.unit.getHref(c.unitId)}
-              className="font-bold text-fjord-700 underline-offset-4 hover:underline"
+              className="inline-flex min-h-touch items-center font-bold text-fjord-700 underline-offset-4 hover:underline"
             >
               {fmtContainer(c.containerNumber)}
             </Link>

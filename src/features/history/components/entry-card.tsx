@@ -251,7 +251,8 @@ function PressureFields({ control, index, refrigerant, onUnitsChange }: Props) {
         <legend className="mb-1 text-base font-semibold">
           Temperatures <span className="text-sm font-normal text-ink-600">(optional)</span>
         </legend>
-        <div className="grid grid-cols-2 gap-3">
+        {/* Two boxes side by side leave a 390 px phone ~50 px of text beside the sign key: "−17.5" was cut off. */}
+        <div className="grid grid-cols-1 gap-3 min-[440px]:grid-cols-2">
           <DecimalField control={control} name={`events.${index}.ambientC`} label="Ambient" unit={deg} allowNegative />
           <DecimalField
             control={control}

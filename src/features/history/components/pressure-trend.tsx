@@ -112,7 +112,7 @@ export function PressureTrend({
               numTicks={5}
               stroke={C.ink300}
               tickStroke={C.ink300}
-              tickFormat={(v) => `${Number(v)}°`}
+              tickFormat={(v) => `${Number(v)} °C`}
               tickLabelProps={() => ({
                 fill: C.ink600,
                 fontSize: 12,

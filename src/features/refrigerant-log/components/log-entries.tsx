@@ -26,7 +26,10 @@ function EntryCard({ e }: { e: RefrigerantLogEntryDto }) {
         <span className="font-bold">{KIND_LABELS[e.kind]}</span>
         <span className="tabular-nums text-ink-700">{fmtDay(e.occurredAt)}</span>
       </div>
-      <Link to={paths.unit.getHref(e.unit.id)} className="font-semibold text-fjord-700">
+      <Link
+        to={paths.unit.getHref(e.unit.id)}
+        className="inline-flex min-h-touch items-center font-semibold text-fjord-700"
+      >
         {fmtContainer(e.unit.containerNumber)}
       </Link>{' '}
       <span className="text-sm text-ink-600">{e.refrigerant}</span>
