@@ -1,11 +1,22 @@
 // One MariaDB Galera node on loopback (Debian's mariadb-server + galera-4): its data folder, start (bootstrap or
 // join), readiness, a hard kill for the failure tests, a clean stop.
 import { execFileSync, spawn } from 'node:child_process';
-import { chownSync, existsSync, mkdirSync, openSync, readFileSync, writeFileSync } from 'node:fs';
+import { chownSync, existsSync, mkdirSync, openSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { findMariadbd, portOpen } from '../lib/mariadb';
-import { alive, logFile, NODES, nodeDir, nodeSocket, PORTS, waitUntilGone } from './layout';
+import {
+  alive,
+  CLUSTER_DIR,
+  logFile,
+  mysqlUid,
+  NODE_ROOT,
+  NODES,
+  nodeDir,
+  nodeSocket,
+  PORTS,
+  waitUntilGone,
+} from './layout';
 
 export const GALERA_PROVIDER = '/usr/lib/galera/libgalera_smm.so';
 const isRoot = () => process.getuid?.() === 0;
@@ -13,12 +24,12 @@ const isRoot = () => process.getuid?.() === 0;
 /** As root the nodes run as `mysql` (rsync SST refuses to work as root); otherwise as the caller. */
 function runAs(): { uid: number; gid: number } | null {
   if (!isRoot()) return null;
+  const uid = mysqlUid();
+  if (uid === null) throw new Error('The mysql system user is missing (it comes with mariadb-server).');
   const line = readFileSync('/etc/passwd', 'utf8')
     .split('\n')
-    .find((l) => l.startsWith('mysql:'));
-  if (!line) throw new Error('The mysql system user is missing (it comes with mariadb-server).');
-  const [, , uid, gid] = line.split(':');
-  return { uid: Number(uid), gid: Number(gid) };
+    .find((l) => l.startsWith('mysql:'))!;
+  return { uid, gid: Number(line.split(':')[3]) };
 }
 
 function chownTree(dir: string, owner: { uid: number; gid: number }) {
@@ -27,6 +38,12 @@ function chownTree(dir: string, owner: { uid: number; gid: number }) {
 
 export function initNode(i: number): void {
   const dir = nodeDir(i);
+  if (NODE_ROOT !== CLUSTER_DIR) {
+    // The data lives where the mysql user can reach it; .data/cluster/nodeN points there.
+    const link = path.join(CLUSTER_DIR, `node${i}`);
+    mkdirSync(dir, { recursive: true });
+    if (!existsSync(link)) symlinkSync(dir, link);
+  }
   if (existsSync(path.join(dir, 'mysql'))) return;
   mkdirSync(dir, { recursive: true });
   const owner = runAs();

@@ -1,6 +1,7 @@
 // Where the local cluster lives: folders under .data/cluster/, its ports on loopback, and the state file that
 // `npm run cluster` writes and `cluster:stop`, the cluster tests and the cluster benchmark read.
-import { existsSync, readFileSync, writeFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { existsSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { PROJECT_ROOT } from '../lib/mariadb';
 
@@ -33,7 +34,38 @@ export const BUCKET = 'tightloop-uploads';
 /** The readiness agent's database user: it may read status and nothing else. */
 export const CHECK_USER = 'tightloop_check';
 
-export const nodeDir = (i: number) => path.join(CLUSTER_DIR, `node${i}`);
+/** The uid of the `mysql` system user (the nodes run as it when started by root), or null. */
+export function mysqlUid(): number | null {
+  const line = existsSync('/etc/passwd')
+    ? readFileSync('/etc/passwd', 'utf8')
+        .split('\n')
+        .find((l) => l.startsWith('mysql:'))
+    : undefined;
+  return line ? Number(line.split(':')[2]) : null;
+}
+
+/** Whether every existing folder on the way to `dir` lets the mysql user through. */
+function mysqlCanReach(dir: string, uid: number): boolean {
+  for (let d = path.dirname(dir); ; d = path.dirname(d)) {
+    if (existsSync(d)) {
+      const st = statSync(d);
+      if (st.uid !== uid && !(st.mode & 0o001)) return false;
+    }
+    if (d === path.dirname(d)) return true;
+  }
+}
+
+/**
+ * Where the nodes keep their data: .data/cluster/nodeN, unless the nodes (run as `mysql` when started by root) cannot
+ * reach it — a clone inside root's home, say; then under /var/lib/tightloop-cluster/, linked from .data/cluster/.
+ */
+export const NODE_ROOT = (() => {
+  const uid = process.getuid?.() === 0 ? mysqlUid() : null;
+  if (uid === null || mysqlCanReach(path.join(CLUSTER_DIR, 'node1'), uid)) return CLUSTER_DIR;
+  return path.join('/var/lib/tightloop-cluster', createHash('sha256').update(PROJECT_ROOT).digest('hex').slice(0, 12));
+})();
+
+export const nodeDir = (i: number) => path.join(NODE_ROOT, `node${i}`);
 export const nodeSocket = (i: number) => path.join(nodeDir(i), 'mariadb.sock');
 export const logFile = (name: string) => path.join(CLUSTER_DIR, 'logs', `${name}.log`);
 
