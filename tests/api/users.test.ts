@@ -99,6 +99,8 @@ describe('people (admin)', () => {
       .post('/api/auth/sign-in')
       .set('Origin', TEST_ORIGIN)
       .send({ email: user.email, password: 'correct-horse-battery' });
-    expect(again.status).toBe(401);
+    // The right password of a deactivated account is told what happened instead of a wrong-password 401.
+    expect(again.status).toBe(403);
+    expect(again.body.error.code).toBe('account_deactivated');
   });
 });
