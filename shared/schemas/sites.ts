@@ -41,11 +41,45 @@ const countrySchema = z
   )
   .nullable();
 
+/** A zone this runtime's Intl knows (IANA, e.g. Asia/Singapore). */
+export function isKnownTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: zone });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+// Blank means "not set": the fleet's policy, times in UTC.
+const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
+const jurisdictionSchema = z.preprocess(
+  blankToNull,
+  z.enum(JURISDICTIONS, { message: 'Choose EU, US reference or custom' }).nullable(),
+);
+const timeZoneSchema = z.preprocess(
+  blankToNull,
+  z
+    .string()
+    .trim()
+    .max(64, 'Time zone name is too long')
+    .refine(isKnownTimeZone, 'Use a time zone name such as Europe/Amsterdam or Asia/Singapore')
+    .nullable(),
+);
+
+export const JURISDICTION_LABELS: Record<Jurisdiction, string> = {
+  EU: 'EU (Regulation 2024/573)',
+  US: 'US reference (40 CFR 82)',
+  custom: 'Custom (settings bands)',
+};
+
 export const createSiteSchema = z.object({
   code: siteCodeSchema,
   name: siteNameSchema,
   kind: z.enum(SITE_KINDS, { message: 'Choose what kind of site this is' }),
   country: countrySchema.optional(),
+  jurisdiction: jurisdictionSchema.optional(),
+  timeZone: timeZoneSchema.optional(),
 });
 export type CreateSiteInput = z.infer<typeof createSiteSchema>;
 
@@ -62,6 +96,8 @@ export const siteDto = z.object({
   name: z.string(),
   kind: z.enum(SITE_KINDS),
   country: z.string().nullable(),
+  jurisdiction: z.enum(JURISDICTIONS).nullable(),
+  timeZone: z.string().nullable(),
   unitCount: z.number(),
   createdAt: z.string(),
 });

@@ -4,10 +4,11 @@ import type TestAgent from 'supertest/lib/agent';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
-import { alertSubscriptions, units } from '../../server/db/schema';
+import { alertSubscriptions, units, unitStats } from '../../server/db/schema';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, createTestUser, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite } from '../support/units';
+import { recordVisits } from '../support/visits';
 
 const { db, pool } = openTestDb();
 const { app } = createApp({ db, rateLimits: { signInPerIp: 1000 } });
@@ -144,5 +145,60 @@ describe('sites', () => {
     expect((await send(technician, 'patch', `/api/sites/${site.id}`, { name: 'X' })).status).toBe(403);
     expect((await send(technician, 'delete', `/api/sites/${site.id}`)).status).toBe(403);
     expect((await request(app).get('/api/sites')).status).toBe(401);
+  });
+});
+
+describe('rules by site', () => {
+  const intervalOf = async (unitId: number) =>
+    (await db.select().from(unitStats).where(eq(unitStats.unitId, unitId)))[0]?.leakCheckIntervalMonths ?? null;
+
+  it('gives two leak-check intervals for the same unit data at sites under different jurisdictions', async () => {
+    const eu = await send(engineer, 'post', '/api/sites', {
+      code: 'RULE-EU',
+      name: 'Rule depot EU',
+      kind: 'depot',
+      jurisdiction: 'EU',
+      timeZone: 'Europe/Amsterdam',
+    });
+    const us = await send(engineer, 'post', '/api/sites', {
+      code: 'RULE-US',
+      name: 'Rule depot US',
+      kind: 'depot',
+      jurisdiction: 'US',
+      timeZone: 'America/New_York',
+    });
+    expect(eu.status).toBe(201);
+    expect(us.body.site).toMatchObject({ jurisdiction: 'US', timeZone: 'America/New_York' });
+    // 5 kg of R-134a: 7.15 t CO2e (EU: a check every 12 months), under the US 15 lb threshold (no federal duty).
+    const atEu = (await createTestUnit(db, { siteId: eu.body.site.id })).id;
+    const atUs = (await createTestUnit(db, { siteId: us.body.site.id })).id;
+    for (const [unitId, siteId] of [
+      [atEu, eu.body.site.id],
+      [atUs, us.body.site.id],
+    ])
+      await recordVisits(technician, unitId, [
+        {
+          at: '2026-03-01T09:00:00Z',
+          siteId,
+          events: [{ kind: 'leak_check', method: 'electronic_detector', leakFound: false }],
+        },
+      ]);
+    expect(await intervalOf(atEu)).toBe(12);
+    expect(await intervalOf(atUs)).toBeNull();
+
+    // The US site switches to the EU rule: its unit's stored figures follow at once.
+    const changed = await send(engineer, 'patch', `/api/sites/${us.body.site.id}`, { jurisdiction: 'EU' });
+    expect(changed.status).toBe(200);
+    expect(await intervalOf(atUs)).toBe(12);
+  });
+
+  it('returns 400 with the field for a time zone Intl does not know and clears the rule with a blank', async () => {
+    const site = await createTestSite(db, { name: 'Zone test' });
+    const bad = await send(engineer, 'patch', `/api/sites/${site.id}`, { timeZone: 'Mars/Olympus' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields.timeZone).toMatch(/time zone/);
+    const cleared = await send(engineer, 'patch', `/api/sites/${site.id}`, { jurisdiction: '', timeZone: '' });
+    expect(cleared.status).toBe(200);
+    expect(cleared.body.site).toMatchObject({ jurisdiction: null, timeZone: null });
   });
 });

@@ -1,7 +1,7 @@
 import { createSiteSchema, siteIdParamSchema, updateSiteSchema } from '../../../shared/schemas/sites';
 import type { AppContext } from '../../lib/app-context';
 import { route } from '../../lib/route';
-import { createSite, deleteSite, getSite, listSites, updateSite } from './sites.service';
+import { createSite, deleteSite, getSite, listSites, recomputeSiteUnits, updateSite } from './sites.service';
 
 export function sitesRoutes(ctx: AppContext) {
   return [
@@ -19,7 +19,9 @@ export function sitesRoutes(ctx: AppContext) {
     route('patch', '/api/sites/:id', 'manage:units', async (req, res) => {
       const { id } = siteIdParamSchema.parse(req.params);
       const input = updateSiteSchema.parse(req.body);
-      res.json({ site: await updateSite(ctx.db, id, input) });
+      const { site, ruleChanged } = await updateSite(ctx.db, id, input);
+      if (ruleChanged) await recomputeSiteUnits(ctx, id);
+      res.json({ site });
     }),
     route('delete', '/api/sites/:id', 'manage:units', async (req, res) => {
       const { id } = siteIdParamSchema.parse(req.params);

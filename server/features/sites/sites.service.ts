@@ -3,6 +3,8 @@ import type { Db, DbOrTx } from '../../db/client';
 import { alertSubscriptions, events, sites, units, visits } from '../../db/schema';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { conflict, notFound } from '../../lib/http-error';
+import type { AppContext } from '../../lib/app-context';
+import { writeUnit, type WriteContext } from '../../lib/record/write-path';
 import type { CreateSiteInput, SiteDto, UpdateSiteInput } from '../../../shared/schemas/sites';
 
 type SiteRow = typeof sites.$inferSelect;
@@ -14,6 +16,8 @@ function toSiteDto(s: SiteRow, unitCount: number): SiteDto {
     name: s.name,
     kind: s.kind,
     country: s.country ?? null,
+    jurisdiction: s.jurisdiction ?? null,
+    timeZone: s.timeZone ?? null,
     unitCount,
     createdAt: new Date(s.createdAt).toISOString(),
   };
@@ -48,7 +52,14 @@ export async function createSite(db: Db, input: CreateSiteInput): Promise<SiteDt
       if (taken) throw codeTaken();
       const [{ id }] = await tx
         .insert(sites)
-        .values({ code: input.code, name: input.name, kind: input.kind, country: input.country ?? null })
+        .values({
+          code: input.code,
+          name: input.name,
+          kind: input.kind,
+          country: input.country ?? null,
+          jurisdiction: input.jurisdiction ?? null,
+          timeZone: input.timeZone ?? null,
+        })
         .$returningId();
       const [row] = await tx.select().from(sites).where(eq(sites.id, id));
       return toSiteDto(row, 0);
@@ -59,7 +70,12 @@ export async function createSite(db: Db, input: CreateSiteInput): Promise<SiteDt
   }
 }
 
-export async function updateSite(db: Db, id: number, input: UpdateSiteInput): Promise<SiteDto> {
+/** The site and whether its leak-check rule changed (its units' figures then follow the new rule). */
+export async function updateSite(
+  db: Db,
+  id: number,
+  input: UpdateSiteInput,
+): Promise<{ site: SiteDto; ruleChanged: boolean }> {
   try {
     return await db.transaction(async (tx) => {
       const [current] = await tx.select().from(sites).where(eq(sites.id, id)).for('update');
@@ -75,10 +91,13 @@ export async function updateSite(db: Db, id: number, input: UpdateSiteInput): Pr
           ...(input.name !== undefined && { name: input.name }),
           ...(input.kind !== undefined && { kind: input.kind }),
           ...(input.country !== undefined && { country: input.country }),
+          ...(input.jurisdiction !== undefined && { jurisdiction: input.jurisdiction }),
+          ...(input.timeZone !== undefined && { timeZone: input.timeZone }),
         })
         .where(eq(sites.id, id));
       const [row] = await tx.select().from(sites).where(eq(sites.id, id));
-      return toSiteDto(row, await unitCountOf(tx, id));
+      const ruleChanged = (row.jurisdiction ?? null) !== (current.jurisdiction ?? null);
+      return { site: toSiteDto(row, await unitCountOf(tx, id)), ruleChanged };
     });
   } catch (err) {
     if (isDuplicateKeyError(err)) throw codeTaken();
@@ -127,4 +146,26 @@ export async function deleteSite(db: Db, id: number): Promise<void> {
     }
     throw err;
   }
+}
+
+/** Units at most this many are recomputed at once after a rule change; more go to the recompute job. */
+const INLINE_RECOMPUTE_MAX = 200;
+
+/**
+ * After a site's jurisdiction changes, its units' stored figures (interval, next check due, alerts, My day) follow the
+ * new rule: each through the unit write path, or the background recompute for a large site.
+ */
+export async function recomputeSiteUnits(ctx: WriteContext & Pick<AppContext, 'jobs'>, siteId: number) {
+  const ids = (
+    await ctx.db
+      .select({ id: units.id })
+      .from(units)
+      .where(eq(units.siteId, siteId))
+      .limit(INLINE_RECOMPUTE_MAX + 1)
+  ).map((r) => r.id);
+  if (ids.length > INLINE_RECOMPUTE_MAX) {
+    await ctx.jobs.start('stats_recompute', { message: 'A site’s leak-check rule changed.' });
+    return;
+  }
+  for (const id of ids) await writeUnit(ctx, id, async () => ({ result: null }));
 }

@@ -3,7 +3,7 @@
 // Runs inside the caller's transaction so the figures always match the events they came from.
 import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { events, units, unitStats, unitStatsDetail } from '../../db/schema';
+import { events, sites, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { computeUnitStats, type ForecastCaseBase } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
 import { dayWords, EARLIEST_RECORD_DAY } from '../../../shared/schemas/common';
@@ -188,7 +188,17 @@ function upsertSet(table: typeof unitStats | typeof unitStatsDetail) {
 const STATS_UPSERT_SET = upsertSet(unitStats);
 const DETAIL_UPSERT_SET = upsertSet(unitStatsDetail);
 
-type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number };
+type StatsUnit = Parameters<typeof engineUnit>[0] & { id: number; siteId?: number | null };
+
+/**
+ * The settings a unit's figures follow: the fleet's, with the leak-check rule of the unit's site when the site has its
+ * own jurisdiction (a fleet spans several). Every figure, alert and My day row reads the interval stored from this.
+ */
+export async function settingsForSite(db: DbOrTx, siteId: number | null | undefined, settings: Settings) {
+  if (siteId == null) return settings;
+  const [site] = await db.select({ jurisdiction: sites.jurisdiction }).from(sites).where(eq(sites.id, siteId));
+  return site?.jurisdiction ? { ...settings, policy: site.jurisdiction } : settings;
+}
 
 /**
  * The unit row locked for a write to its history (only that row: nothing that may not exist is locked), then its
@@ -212,7 +222,8 @@ export async function recomputeUnitStats(
   settings: Settings,
   caseBase: ForecastCaseBase | null = null,
 ): Promise<UnitStatsRows> {
-  const rows = computeStatsRows(unit, unit.id, await loadEngineHistory(tx, unit.id), asOf, settings, caseBase);
+  const rules = await settingsForSite(tx, unit.siteId, settings);
+  const rows = computeStatsRows(unit, unit.id, await loadEngineHistory(tx, unit.id), asOf, rules, caseBase);
   await storeStatsRows(tx, [rows]);
   return rows;
 }
