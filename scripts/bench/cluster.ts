@@ -259,7 +259,7 @@ async function measureAll(
       visitWriteRatio: +med(ratio[s.id].visitWrite).toFixed(2),
     })),
   };
-  writeClusterResults(result);
+  await writeClusterResults(result);
   return result;
 }
 
@@ -267,7 +267,7 @@ export function renderClusterMarkdown(r: ClusterBenchResult): string {
   const m = r.machine;
   const cell = (x: RunSummary) => `${x.p50Ms} / ${x.p95Ms} / ${x.p99Ms}`;
   const lines = [
-    `Cluster (\`npm run bench -- --cluster\`), measured ${r.date.slice(0, 10)} on ${m.cpu}, ${m.cores} cores, ${m.memoryGiB} GiB, ` +
+    `Measured ${r.date.slice(0, 10)} on ${m.cpu}, ${m.cores} cores, ${m.memoryGiB} GiB, ` +
       `Node ${m.node}: the demo fleet (${r.fleet.units} units in service, ${r.fleet.events.toLocaleString('en')} events), ` +
       `${r.settings.connections} connections saturated, ${r.settings.durationS} s per load, medians of ${r.settings.repeat} rounds; ` +
       'every process of every setup (3 nodes, HAProxy, the API processes, the load generator) shares the same 2 cores. ' +
@@ -284,18 +284,21 @@ export function renderClusterMarkdown(r: ClusterBenchResult): string {
   return lines.join('\n');
 }
 
-function writeClusterResults(r: ClusterBenchResult) {
+async function writeClusterResults(r: ClusterBenchResult) {
   const outDir = path.join(PROJECT_ROOT, 'bench');
   mkdirSync(outDir, { recursive: true });
   writeFileSync(path.join(outDir, 'cluster-results.json'), JSON.stringify(r, null, 2) + '\n');
-  const md = renderClusterMarkdown(r);
+  // Formatted as the project formats markdown, so the README passes the Prettier check after a run.
+  const prettier = await import('prettier');
   const file = path.join(PROJECT_ROOT, 'README.md');
+  const config = (await prettier.resolveConfig(file)) ?? {};
+  const md = await prettier.format(renderClusterMarkdown(r), { ...config, parser: 'markdown' });
   const start = '<!-- bench:cluster:start -->';
   const end = '<!-- bench:cluster:end -->';
   const readme = readFileSync(file, 'utf8');
   const i = readme.indexOf(start);
   const j = readme.indexOf(end);
-  if (i >= 0 && j > i) writeFileSync(file, readme.slice(0, i) + `${start}\n${md}${end}` + readme.slice(j + end.length));
+  if (i >= 0 && j > i) writeFileSync(file, readme.slice(0, i) + `${start}\n\n${md}\n${end}` + readme.slice(j + end.length));
   console.log(`\n${md}`);
   console.log(`Wrote bench/cluster-results.json${i >= 0 && j > i ? ' and the cluster part of README.md' : ''}.`);
 }
