@@ -19,7 +19,8 @@ export function isMissingParentError(err: unknown): boolean {
 }
 
 // A deadlock or lock-wait timeout rolls back the whole transaction; running it again is safe when the write is
-// idempotent (every history write is, by its submission key). The cluster adds certification failures here.
+// idempotent (every history write is, by its submission key). On a Galera cluster a write that fails certification
+// comes back as ER_LOCK_DEADLOCK too, so the same rule covers it (decision record 012).
 const RETRYABLE = new Set(['ER_LOCK_DEADLOCK', 'ER_LOCK_WAIT_TIMEOUT']);
 
 export function isRetryableTransactionError(err: unknown): boolean {
