@@ -4,6 +4,8 @@ import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import {
   createSiteSchema,
+  JURISDICTION_LABELS,
+  JURISDICTIONS,
   SITE_KIND_LABELS,
   SITE_KINDS,
   type SiteDto,
@@ -17,7 +19,7 @@ import { useCreateSite, useUpdateSite } from '../api/save-site';
 
 type FormInput = z.input<typeof createSiteSchema>;
 type FormOutput = z.output<typeof createSiteSchema>;
-const FIELDS = ['code', 'name', 'kind', 'country'] as const;
+const FIELDS = ['code', 'name', 'kind', 'country', 'jurisdiction', 'timeZone'] as const;
 
 /** Add a site, or edit one (`site`). */
 export function SiteForm({
@@ -40,8 +42,15 @@ export function SiteForm({
   } = useForm<FormInput, unknown, FormOutput>({
     resolver: zodResolver(createSiteSchema),
     defaultValues: site
-      ? { code: site.code, name: site.name, kind: site.kind, country: site.country ?? '' }
-      : { code: '', name: '', country: '' },
+      ? {
+          code: site.code,
+          name: site.name,
+          kind: site.kind,
+          country: site.country ?? '',
+          jurisdiction: site.jurisdiction ?? '',
+          timeZone: site.timeZone ?? '',
+        }
+      : { code: '', name: '', country: '', jurisdiction: '', timeZone: '' },
   });
 
   const onError = (error: Error) => {
@@ -59,6 +68,8 @@ export function SiteForm({
     if (values.name !== site.name) changes.name = values.name;
     if (values.kind !== site.kind) changes.kind = values.kind;
     if ((values.country ?? null) !== site.country) changes.country = values.country ?? null;
+    if ((values.jurisdiction ?? null) !== site.jurisdiction) changes.jurisdiction = values.jurisdiction ?? null;
+    if ((values.timeZone ?? null) !== site.timeZone) changes.timeZone = values.timeZone ?? null;
     if (Object.keys(changes).length === 0) return onSaved(site);
     update.mutate({ id: site.id, changes }, { onSuccess: onSaved, onError });
   });
@@ -105,6 +116,28 @@ export function SiteForm({
           autoComplete="off"
           error={errors.country?.message}
           {...register('country')}
+        />
+        <SelectField
+          label="Leak-check rule"
+          hint="Whose rule sets the leak-check interval of units here. Local regulations take precedence."
+          error={errors.jurisdiction?.message}
+          {...register('jurisdiction')}
+        >
+          <option value="">The fleet&rsquo;s policy (settings)</option>
+          {JURISDICTIONS.map((j) => (
+            <option key={j} value={j}>
+              {JURISDICTION_LABELS[j]}
+            </option>
+          ))}
+        </SelectField>
+        <TextField
+          label="Time zone"
+          optional
+          hint="Times at this site are shown in it, e.g. Asia/Singapore. Empty: UTC."
+          autoComplete="off"
+          spellCheck={false}
+          error={errors.timeZone?.message}
+          {...register('timeZone')}
         />
       </div>
       <div className="flex flex-col-reverse gap-3 sm:flex-row">
