@@ -88,7 +88,8 @@ export function UnitTimeline({
         <svg
           width={width}
           height={G.totalH}
-          role="img"
+          // A group, not an image: its marks are buttons a keyboard can reach.
+          role="group"
           aria-label={`Timeline of ${events.length} entries${forecast ? `; next top-up expected ${fmtDay(forecast.date)}` : ''}. Every entry is also in the list below.`}
           className="block overflow-visible"
         >
