@@ -6,7 +6,7 @@ import { eq, sql } from 'drizzle-orm';
 import { createDb } from '../../server/db/client';
 import { units, users } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
 import { createTestUser, TEST_PASSWORD } from '../support/factories';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -219,6 +219,25 @@ describe('words and numbers on the screens (390 px)', () => {
       }
       await mark.scrollIntoViewIfNeeded();
       await shot(page, 'timeline-focus-390');
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('tells the overview chart’s series apart: at most ten, the rest as "Other sites" (1280 px)', async () => {
+    const browser = await openBrowser({ viewport: DESKTOP });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto('/fleet/overview');
+      const chart = page.getByRole('img', { name: /Made-up refrigerant per month/ });
+      await chart.waitFor();
+      const legend = page.getByRole('list', { name: 'Legend' }).first().getByRole('listitem');
+      await expect.poll(() => legend.count()).toBeGreaterThan(0);
+      expect(await legend.count()).toBeLessThanOrEqual(10);
+      await chart.scrollIntoViewIfNeeded();
+      await shot(page, 'overview-chart-1280');
     } finally {
       await browser.close();
     }

@@ -7,6 +7,7 @@ import { useMemo, useState } from 'react';
 import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
 import { cx } from '../../../components/ui/cx';
 import { fmtKg, fmtMonth, fmtTonnes } from '../../../lib/format';
+import { foldSmallSeries, type Stacked } from '../utils/fold-series';
 
 const INK = '#2f434d';
 const GRID = '#cbd3d6';
@@ -105,8 +106,6 @@ export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate']
 type Measure = 'kg' | 'co2e';
 type GroupBy = 'site' | 'refrigerant';
 
-type Stacked = { keys: string[]; byMonth: Map<string, Map<string, number>>; totals: Map<string, number> };
-
 /** Each month's amounts per site or refrigerant; the series ordered largest first, so the biggest sits at the bottom. */
 function stackEmissions(data: FleetOverviewDto['emissions'], measure: Measure, groupBy: GroupBy): Stacked {
   const byMonth = new Map<string, Map<string, number>>(data.months.map((m) => [m, new Map()]));
@@ -125,7 +124,10 @@ function stackEmissions(data: FleetOverviewDto['emissions'], measure: Measure, g
   }
   const keys = [...keyTotals.entries()].sort((a, b) => b[1] - a[1]).map(([k]) => k);
   const totals = new Map(data.months.map((m) => [m, [...(byMonth.get(m)?.values() ?? [])].reduce((s, v) => s + v, 0)]));
-  return { keys, byMonth, totals };
+  // 21 sites over ten colours repeated them: the top nine keep a colour each, the rest share "other".
+  return foldSmallSeries({ keys, byMonth, totals }, SERIES.length, (n) =>
+    groupBy === 'site' ? `Other sites (${n})` : `Other refrigerants (${n})`,
+  );
 }
 
 /** The chart's figures as a table, for reading exact amounts and for screen readers. */
