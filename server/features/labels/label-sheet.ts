@@ -3,7 +3,7 @@
 // bottom, readable from a metre away. Pure black on white for contrast in poor light and on dirty labels.
 import { rgb, type PDFPage } from 'pdf-lib';
 import { A4, BLACK, MM, WHITE, drawMark, drawQr, fitSize, newDocument, type Fonts } from '../../lib/pdf/pdf-parts';
-import { formatContainerNumber } from '../../../shared/domain';
+import { findRefrigerant, formatContainerNumber } from '../../../shared/domain';
 
 export type LabelContent = {
   containerNumber: string;
@@ -96,6 +96,16 @@ function drawLabel(page: PDFPage, fonts: Fonts, label: LabelContent, x0: number,
   caption('FULL CHARGE');
   y -= 1.5 * MM;
   value(formatKg(label.nominalChargeKg));
+  const marking = refrigerantMarking(label.refrigerant);
+  if (marking) {
+    page.drawText(marking, {
+      x: colX,
+      y: bottom + bandHeight + 6.5 * MM,
+      size: fitSize(fonts.bold, marking, colWidth, 8),
+      font: fonts.bold,
+      color: BLACK,
+    });
+  }
   page.drawText('Scan for the service record', {
     x: colX,
     y: bottom + bandHeight + 2.5 * MM,
@@ -103,6 +113,18 @@ function drawLabel(page: PDFPage, fonts: Fonts, label: LabelContent, x0: number,
     font: fonts.regular,
     color: BLACK,
   });
+}
+
+/**
+ * The hazard a technician must know before opening the unit, printed on its label: flammable (safety class A2L) or
+ * CO2 at very high pressure. Source: ISO 817 / ASHRAE Standard 34 safety classes; CO2's pressures: common practice,
+ * no published source. Local regulations and the maker's marking rules take precedence.
+ */
+export function refrigerantMarking(refrigerant: string): string | null {
+  const r = findRefrigerant(refrigerant);
+  if (r?.flammable) return 'A2L - FLAMMABLE';
+  if (r?.highPressure) return 'CO2 - HIGH PRESSURE';
+  return null;
 }
 
 /** A4 sheets of eight labels, left to right, top to bottom, with faint cut guides for plain paper. */
