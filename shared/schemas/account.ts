@@ -37,6 +37,7 @@ export const userDto = z.object({
   name: z.string(),
   role: z.enum(ROLES),
   certificateNumber: z.string().nullable(),
+  certificateExpiresOn: z.string().nullable(),
   active: z.boolean(),
   createdAt: z.string(),
 });

@@ -14,11 +14,18 @@ const certificateSchema = z
   .transform((v) => (v === '' ? null : v))
   .nullable();
 
+// The certificate's last valid day (YYYY-MM-DD); blank = not known.
+const certificateExpirySchema = z.preprocess(
+  (v) => (typeof v === 'string' && v.trim() === '' ? null : v),
+  z.iso.date({ message: 'Use a date such as 2027-03-31' }).nullable(),
+);
+
 export const createUserSchema = z.object({
   email: emailSchema,
   name: nameSchema,
   role: z.enum(ROLES, { message: 'Choose a role' }),
   certificateNumber: certificateSchema.optional(),
+  certificateExpiresOn: certificateExpirySchema.optional(),
   // Without a password the account waits for the person to set one (invitation).
   password: passwordSchema.optional(),
 });
@@ -29,6 +36,7 @@ export const updateUserSchema = z
     name: nameSchema.optional(),
     role: z.enum(ROLES).optional(),
     certificateNumber: certificateSchema.optional(),
+    certificateExpiresOn: certificateExpirySchema.optional(),
     active: z.boolean().optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change' });

@@ -48,7 +48,13 @@ export const refrigerantLogEntryDto = z.object({
   method: z.string().nullable(),
   leakFound: z.boolean().nullable(),
   location: z.string().nullable(),
-  technician: z.object({ id: z.string(), name: z.string(), certificateNumber: z.string().nullable() }),
+  technician: z.object({
+    id: z.string(),
+    name: z.string(),
+    certificateNumber: z.string().nullable(),
+    /** The certificate's last valid day as held on the day of the work. */
+    certificateExpiresOn: z.string().nullable(),
+  }),
 });
 export type RefrigerantLogEntryDto = z.infer<typeof refrigerantLogEntryDto>;
 

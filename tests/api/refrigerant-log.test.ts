@@ -211,3 +211,38 @@ describe('GET /api/refrigerant-log/export.csv', () => {
     expect((await agent.get('/api/refrigerant-log/export.csv?from=2026-01-01&to=2026-01-31')).status).toBe(403);
   });
 });
+
+describe('certificates in the log', () => {
+  it('shows the certificate held on the day of the work after the person’s certificate changes', async () => {
+    const admin = (await signInAs(app, db, 'admin')).agent;
+    const tech = await signInAs(app, db, 'technician');
+    const setCert = (certificateNumber: string, certificateExpiresOn: string) =>
+      admin
+        .patch(`/api/users/${tech.user.id}`)
+        .set('Origin', TEST_ORIGIN)
+        .send({ certificateNumber, certificateExpiresOn });
+    const first = await setCert('F-GAS-OLD-7', '2026-09-30');
+    expect(first.status, JSON.stringify(first.body)).toBe(200);
+    expect(first.body.user).toMatchObject({ certificateNumber: 'F-GAS-OLD-7', certificateExpiresOn: '2026-09-30' });
+    const unit = await createTestUnit(db, { containerNumber: halyardNumber(410099), siteId: otherSite.id });
+    await recordVisits(tech.agent, unit.id, [
+      { at: '2026-05-10T09:00:00Z', events: [{ kind: 'top_up', kg: 0.3, cylinder: 'CYL-CERT' }] },
+    ]);
+    expect((await setCert('F-GAS-NEW-8', '2028-12-31')).status).toBe(200);
+
+    const l = await log(`from=2026-05-01&to=2026-05-31&siteId=${otherSite.id}`);
+    const entry = l.entries.find((e) => e.cylinder === 'CYL-CERT')!;
+    expect(entry.technician).toMatchObject({ certificateNumber: 'F-GAS-OLD-7', certificateExpiresOn: '2026-09-30' });
+  });
+
+  it('returns 400 with the field for a certificate expiry that is not a date', async () => {
+    const admin = (await signInAs(app, db, 'admin')).agent;
+    const tech = await signInAs(app, db, 'technician');
+    const res = await admin
+      .patch(`/api/users/${tech.user.id}`)
+      .set('Origin', TEST_ORIGIN)
+      .send({ certificateExpiresOn: '31/12/2027' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveProperty('certificateExpiresOn');
+  });
+});

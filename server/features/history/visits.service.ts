@@ -3,7 +3,7 @@ import { recordCylinderMoves } from '../../lib/record/cylinder-moves';
 import { createHash } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { events, sites, unitChanges, units, visits } from '../../db/schema';
+import { events, sites, unitChanges, units, users, visits } from '../../db/schema';
 import type { AppContext } from '../../lib/app-context';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { badRequest, conflict, forbidden, notFound } from '../../lib/http-error';
@@ -77,6 +77,11 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
         if (!site) throw badRequest('Choose a known site.', { siteId: 'Unknown site' });
       }
       const occurredAt = new Date(input.occurredAt);
+      // The certificate as it stands now stays with the visit: the refrigerant log shows what was held on the day.
+      const [cert] = await tx
+        .select({ number: users.certificateNumber, expiresOn: users.certificateExpiresOn })
+        .from(users)
+        .where(eq(users.id, user.id));
       const [inserted] = await tx
         .insert(visits)
         .values({
@@ -85,6 +90,8 @@ export async function recordVisit(ctx: AppContext, user: SessionUser, input: Rec
           recordedBy: user.id,
           occurredAt,
           enteredAt: now,
+          certificateNumber: cert?.number ?? null,
+          certificateExpiresOn: cert?.expiresOn ?? null,
           idempotencyKey: input.idempotencyKey,
           contentHash: submissionHash(input),
         })

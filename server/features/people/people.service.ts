@@ -30,6 +30,7 @@ export async function createUser(db: Db, input: CreateUserInput, ctx: Pick<AppCo
         name: input.name,
         role: input.role,
         certificateNumber: input.certificateNumber ?? null,
+        certificateExpiresOn: input.certificateExpiresOn ?? null,
         passwordHash,
       });
       const [row] = await tx.select().from(users).where(eq(users.id, id));
@@ -57,6 +58,7 @@ export async function updateUser(db: Db, actorId: string, id: string, input: Upd
         ...(input.name !== undefined && { name: input.name }),
         ...(input.role !== undefined && { role: input.role }),
         ...(input.certificateNumber !== undefined && { certificateNumber: input.certificateNumber }),
+        ...(input.certificateExpiresOn !== undefined && { certificateExpiresOn: input.certificateExpiresOn }),
         ...(input.active !== undefined && { active: input.active }),
       })
       .where(eq(users.id, id));

@@ -3,7 +3,7 @@
 // are left out (and counted, so the page can say so).
 import { and, count, desc, eq, gte, inArray, lt, or, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { events, sites, units, users } from '../../db/schema';
+import { events, sites, units, users, visits } from '../../db/schema';
 import { co2eTonnes } from '../../../shared/domain';
 import {
   LOG_ENTRY_KINDS,
@@ -50,7 +50,11 @@ export const logFields = {
   location: events.location,
   technicianId: users.id,
   technicianName: users.name,
-  certificateNumber: users.certificateNumber,
+  // Held on the day of the work (kept on the visit); visits from before it was kept show today's.
+  certificateNumber: sql<string | null>`COALESCE(${visits.certificateNumber}, ${users.certificateNumber})`,
+  certificateExpiresOn: sql<
+    string | null
+  >`CASE WHEN ${visits.certificateNumber} IS NULL THEN ${users.certificateExpiresOn} ELSE ${visits.certificateExpiresOn} END`,
 };
 export const LOG_FIELD_NAMES = Object.keys(logFields) as (keyof typeof logFields)[];
 
@@ -60,6 +64,7 @@ export function logEntriesQuery(db: Db, q: RefrigerantLogQuery, extra: SQL[] = [
     .from(events)
     .innerJoin(units, eq(units.id, events.unitId))
     .innerJoin(users, eq(users.id, events.recordedBy))
+    .leftJoin(visits, eq(visits.id, events.visitId))
     .leftJoin(sites, eq(sites.id, events.siteId))
     .where(and(...logWhere(q), notVoided, ...extra))
     .orderBy(desc(events.occurredAt), desc(events.id))
@@ -85,8 +90,12 @@ type LogRow = {
   technicianId: string;
   technicianName: string;
   certificateNumber: string | null;
+  certificateExpiresOn: string | null;
 };
 
+// A DATE read through sql`` arrives as a Date or a string depending on the driver's typing.
+const dayOf = (v: string | Date | null): string | null =>
+  v == null ? null : typeof v === 'string' ? v.slice(0, 10) : v.toISOString().slice(0, 10);
 const bool = (v: boolean | number | null) => (v == null ? null : Boolean(v));
 
 /** t CO2e of a mass, or null when the engine refuses it (an old row with a negative kg): one odd row leaves its
@@ -116,7 +125,12 @@ export function toLogEntry(r: LogRow, settings: Settings): RefrigerantLogEntryDt
     method: movement ? null : r.method,
     leakFound: movement ? null : bool(r.leakFound),
     location: movement ? null : r.location,
-    technician: { id: r.technicianId, name: r.technicianName, certificateNumber: r.certificateNumber },
+    technician: {
+      id: r.technicianId,
+      name: r.technicianName,
+      certificateNumber: r.certificateNumber,
+      certificateExpiresOn: dayOf(r.certificateExpiresOn),
+    },
   };
 }
 
