@@ -9,6 +9,7 @@ import { EmptyState, PageHeader, Panel } from '../../../components/ui/page';
 import { Spinner } from '../../../components/ui/spinner';
 import { usersQuery, useUsers } from '../../../features/people/api/get-users';
 import { CreateUserForm } from '../../../features/people/components/create-user-form';
+import { CertificatesExpiring } from '../../../features/people/components/certificates-expiring';
 import { UsersTable } from '../../../features/people/components/users-table';
 import { useUser } from '../../../lib/auth';
 import { LoadError } from '../../../components/ui/query-state';
@@ -81,6 +82,8 @@ export default function PeoplePage() {
           </div>
         </Panel>
       )}
+
+      {users.data && <CertificatesExpiring users={users.data} today={new Date().toISOString().slice(0, 10)} />}
 
       <section aria-labelledby="people-list-title" aria-busy={users.isPending || undefined}>
         <h2 id="people-list-title" className="sr-only">

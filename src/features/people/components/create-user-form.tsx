@@ -16,7 +16,14 @@ import { useCreateUser } from '../api/create-user';
 type FormInput = z.input<typeof createUserSchema>;
 type FormOutput = z.output<typeof createUserSchema>;
 
-const FIELDS = ['email', 'name', 'role', 'certificateNumber', 'password'] as const satisfies readonly Path<FormInput>[];
+const FIELDS = [
+  'email',
+  'name',
+  'role',
+  'certificateNumber',
+  'certificateExpiresOn',
+  'password',
+] as const satisfies readonly Path<FormInput>[];
 const isFormField = (key: string): key is (typeof FIELDS)[number] => (FIELDS as readonly string[]).includes(key);
 
 export function CreateUserForm({
@@ -37,7 +44,7 @@ export function CreateUserForm({
     formState: { errors },
   } = useForm<FormInput, unknown, FormOutput>({
     resolver: zodResolver(createUserSchema),
-    defaultValues: { name: '', email: '', certificateNumber: '', password: undefined },
+    defaultValues: { name: '', email: '', certificateNumber: '', certificateExpiresOn: '', password: undefined },
   });
   const strength = usePasswordCheck(watch('password') ?? '', { email: watch('email'), name: watch('name') });
 
@@ -115,6 +122,14 @@ export function CreateUserForm({
           spellCheck={false}
           error={errors.certificateNumber?.message}
           {...register('certificateNumber')}
+        />
+        <TextField
+          label="Certificate valid until"
+          optional
+          type="date"
+          hint="Its last valid day. An expired certificate is warned about on refrigerant entries."
+          error={errors.certificateExpiresOn?.message}
+          {...register('certificateExpiresOn')}
         />
         <PasswordField
           label="First password"

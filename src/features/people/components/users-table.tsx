@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import type { UserDto } from '../../../../shared/schemas/account';
 import { cx } from '../../../components/ui/cx';
 import { Badge } from '../../../components/ui/page';
+import { fmtDay } from '../../../lib/format';
 import { ActiveControl } from './active-control';
 import { RoleControl } from './role-control';
 import { UserSessionsControl } from './user-sessions-control';
@@ -95,7 +96,12 @@ function UserRow({ user, isSelf }: { user: UserDto; isSelf: boolean }) {
       </Cell>
       <Cell label="Certificate">
         {user.certificateNumber ? (
-          <span className="font-semibold tabular-nums">{user.certificateNumber}</span>
+          <span>
+            <span className="font-semibold tabular-nums">{user.certificateNumber}</span>
+            {user.certificateExpiresOn && (
+              <span className="block text-sm text-ink-600">valid until {fmtDay(user.certificateExpiresOn)}</span>
+            )}
+          </span>
         ) : (
           <span className="text-ink-600">
             —<span className="sr-only">none</span>
