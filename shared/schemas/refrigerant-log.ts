@@ -76,6 +76,8 @@ export const refrigerantLogDto = z.object({
   from: z.string(),
   to: z.string(),
   gwpBasis: z.enum(['AR4', 'AR5']),
+  /** The leak-check rule the log is kept under: the chosen site's, else the fleet's policy. */
+  rule: z.object({ jurisdiction: z.enum(['EU', 'US', 'custom']), siteName: z.string().nullable(), words: z.string() }),
   entries: z.array(refrigerantLogEntryDto),
   nextBefore: z.string().nullable(),
   totals: z.array(refrigerantLogTotalsDto),

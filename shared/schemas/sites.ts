@@ -73,6 +73,15 @@ export const JURISDICTION_LABELS: Record<Jurisdiction, string> = {
   custom: 'Custom (settings bands)',
 };
 
+/** What each leak-check rule asks, in a sentence for the refrigerant log. */
+export const JURISDICTION_RULE_WORDS: Record<Jurisdiction, string> = {
+  // Source: Regulation (EU) 2024/573, Art. 5 (intervals by t CO2e of the full charge).
+  EU: 'EU Regulation 2024/573: leak checks every 12, 6 or 3 months by the CO2e of the full charge',
+  // Source: 40 CFR 82.157 (reference only; federal duties from 15 lb of HFC full charge).
+  US: 'US reference (40 CFR 82.157): from 15 lb of HFC, yearly checks while the leak rate is over the threshold',
+  custom: 'Custom rule: the leak-check bands set in settings',
+};
+
 export const createSiteSchema = z.object({
   code: siteCodeSchema,
   name: siteNameSchema,

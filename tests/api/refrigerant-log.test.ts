@@ -3,7 +3,7 @@ import request from 'supertest';
 import { parse } from 'csv-parse/sync';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../../server/app';
-import { users } from '../../server/db/schema';
+import { sites, users } from '../../server/db/schema';
 import { co2eTonnes } from '../../shared/domain';
 import type { RefrigerantLogDto, RefrigerantLogEntryDto } from '../../shared/schemas/refrigerant-log';
 import { openTestDb, resetDb } from '../support/db';
@@ -244,5 +244,17 @@ describe('certificates in the log', () => {
       .send({ certificateExpiresOn: '31/12/2027' });
     expect(res.status).toBe(400);
     expect(res.body.error.fields).toHaveProperty('certificateExpiresOn');
+  });
+});
+
+describe('the rule the log is kept under', () => {
+  it('states the chosen site’s own rule, else the fleet’s policy', async () => {
+    await db.update(sites).set({ jurisdiction: 'US' }).where(eq(sites.id, otherSite.id));
+    const atSite = await log(`from=2026-01-01&to=2026-03-31&siteId=${otherSite.id}`);
+    expect(atSite.rule).toMatchObject({ jurisdiction: 'US', siteName: 'South quay' });
+    expect(atSite.rule.words).toMatch(/40 CFR 82/);
+    const fleet = await log('from=2026-01-01&to=2026-03-31');
+    expect(fleet.rule).toMatchObject({ jurisdiction: 'EU', siteName: null });
+    await db.update(sites).set({ jurisdiction: null }).where(eq(sites.id, otherSite.id));
   });
 });

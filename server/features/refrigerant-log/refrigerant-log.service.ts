@@ -15,6 +15,7 @@ import {
   type RefrigerantLogTotalsDto,
 } from '../../../shared/schemas/refrigerant-log';
 import type { Settings } from '../../../shared/schemas/settings';
+import { JURISDICTION_RULE_WORDS } from '../../../shared/schemas/sites';
 import { dayPlus } from '../../lib/dates';
 
 const voided = sql`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
@@ -204,6 +205,10 @@ export async function refrigerantLog(db: Db, q: RefrigerantLogQuery, settings: S
       .innerJoin(units, eq(units.id, events.unitId))
       .where(and(...logWhere(q), voided)),
   ]);
+  const [site] = q.siteId
+    ? await db.select({ name: sites.name, jurisdiction: sites.jurisdiction }).from(sites).where(eq(sites.id, q.siteId))
+    : [];
+  const jurisdiction = site?.jurisdiction ?? settings.policy;
   const more = rows.length > LOG_PAGE_SIZE;
   const page = (more ? rows.slice(0, LOG_PAGE_SIZE) : rows) as LogRow[];
   const last = page[page.length - 1];
@@ -211,6 +216,11 @@ export async function refrigerantLog(db: Db, q: RefrigerantLogQuery, settings: S
     from: q.from,
     to: q.to,
     gwpBasis: settings.gwpBasis,
+    rule: {
+      jurisdiction,
+      siteName: site?.jurisdiction ? site.name : null,
+      words: JURISDICTION_RULE_WORDS[jurisdiction],
+    },
     entries: page.map((r) => toLogEntry(r, settings)),
     nextBefore: more && last ? `${new Date(last.occurredAt).toISOString()}_${last.eventId}` : null,
     totals,

@@ -25,7 +25,7 @@ export function LogFilters({
   to: string;
   sites: Pick<SiteDto, 'id' | 'name'>[];
   /** The first page's notes: voided entries left out, the GWP basis. */
-  notes: Pick<RefrigerantLogDto, 'voidedExcluded' | 'gwpBasis'> | undefined;
+  notes: Pick<RefrigerantLogDto, 'voidedExcluded' | 'gwpBasis' | 'rule'> | undefined;
   error: string | null;
   onChange: (patch: Record<string, string | undefined>) => void;
 }) {
@@ -87,6 +87,8 @@ export function LogFilters({
         {fmtDay(q.from)} to {fmtDay(q.to)} (UTC days). Voided entries are left out
         {notes && notes.voidedExcluded > 0 ? `: ${notes.voidedExcluded} in this period` : ''}. CO2e uses GWP{' '}
         {notes?.gwpBasis ?? 'AR4'}.
+        {notes?.rule &&
+          ` Rule: ${notes.rule.words}${notes.rule.siteName ? ` (${notes.rule.siteName}'s own)` : ' (the fleet’s policy)'}.`}
       </p>
       {error && (
         <Alert tone="heed" className="mt-3">
