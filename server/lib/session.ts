@@ -37,6 +37,7 @@ export type SessionUser = {
   name: string;
   role: Role;
   certificateNumber: string | null;
+  certificateExpiresOn?: string | null;
   active: boolean;
   createdAt: Date;
 };

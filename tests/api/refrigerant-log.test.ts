@@ -233,6 +233,9 @@ describe('certificates in the log', () => {
     const l = await log(`from=2026-05-01&to=2026-05-31&siteId=${otherSite.id}`);
     const entry = l.entries.find((e) => e.cylinder === 'CYL-CERT')!;
     expect(entry.technician).toMatchObject({ certificateNumber: 'F-GAS-OLD-7', certificateExpiresOn: '2026-09-30' });
+    // The person's own session knows today's certificate (the visit form warns when it has expired).
+    const me = await tech.agent.get('/api/auth/me');
+    expect(me.body.user).toMatchObject({ certificateNumber: 'F-GAS-NEW-8', certificateExpiresOn: '2028-12-31' });
   });
 
   it('returns 400 with the field for a certificate expiry that is not a date', async () => {

@@ -16,6 +16,7 @@ import { unitKeys } from '../../../features/units/api/keys';
 import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
 import { LoadError } from '../../../components/ui/query-state';
+import { fmtDay } from '../../../lib/format';
 
 // The camera scanner is large (zxing): loaded only when a cylinder label is scanned.
 const QrScanner = lazy(() =>
@@ -39,6 +40,12 @@ const cylinderSlotFor =
       )}
     />
   );
+
+/** An expired certificate is said on refrigerant entries; the entry is still saved (the brief: warn, not block). */
+function certificateWarningOf(expiresOn: string | null | undefined, now: Date): string | null {
+  if (!expiresOn || expiresOn >= now.toISOString().slice(0, 10)) return null;
+  return `It expired on ${fmtDay(expiresOn)}. The entry is saved, but handling refrigerant needs a valid certificate: renew it and tell your administrator.`;
+}
 
 const unitIdOf = (raw: string | undefined) => {
   const n = Number(raw);
@@ -114,6 +121,7 @@ export default function RecordVisitPage() {
         alsoInvalidate={alsoInvalidate}
         cylinderSlot={cylinderSlotFor(u.site?.id ?? null)}
         initialEntry={initialEntry}
+        certificateWarning={certificateWarningOf(user.certificateExpiresOn, new Date())}
       />
     </div>
   );

@@ -62,6 +62,8 @@ function UnitLine({ unit }: { unit: VisitUnit }) {
   );
 }
 
+const REFRIGERANT_KINDS = new Set<VisitEventKind>(['top_up', 'recovery', 'recharge']);
+
 function SaveBar({ count, saving }: { count: number; saving: boolean }) {
   return (
     // On phones it rests on the tab bar at 48 px (still a gloved thumb's target), so the two cover ~14 % of the screen;
@@ -90,7 +92,10 @@ export function RecordVisitForm({
   alsoInvalidate,
   cylinderSlot,
   initialEntry,
+  certificateWarning,
 }: {
+  /** Said (not enforced) on entries that handle refrigerant, e.g. when the recorder's certificate has expired. */
+  certificateWarning?: string | null;
   unit: VisitUnit;
   /** The entry the form opens with, e.g. from `?entry=pressure`. */
   initialEntry?: VisitEventKind | null;
@@ -159,6 +164,11 @@ export function RecordVisitForm({
               />
             ))}
           </div>
+        )}
+        {certificateWarning && v.entries.fields.some((f) => REFRIGERANT_KINDS.has(f.kind)) && (
+          <Alert tone="heed" title="Your refrigerant certificate">
+            {certificateWarning}
+          </Alert>
         )}
         <EntryPalette count={count} error={arrayError} onAdd={v.addEntry} />
         <UnitLine unit={unit} />
