@@ -222,7 +222,8 @@ export const eventDto = z.object({
   kind: z.string(),
   occurredAt: z.string(),
   enteredAt: z.string(),
-  site: z.object({ id: z.number(), name: z.string() }).nullable(),
+  /** timeZone: the site's IANA zone, in which the entry's times are shown. */
+  site: z.object({ id: z.number(), name: z.string(), timeZone: z.string().nullable().optional() }).nullable(),
   recordedBy: person,
   kg: z.number().nullable(),
   cylinder: z.string().nullable(),

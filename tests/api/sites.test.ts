@@ -185,6 +185,9 @@ describe('rules by site', () => {
       ]);
     expect(await intervalOf(atEu)).toBe(12);
     expect(await intervalOf(atUs)).toBeNull();
+    // The unit page's entries carry the site's zone, in which their times are shown.
+    const history = await technician.get(`/api/units/${atUs}/history`);
+    expect(JSON.stringify(history.body)).toContain('"timeZone":"America/New_York"');
 
     // The US site switches to the EU rule: its unit's stored figures follow at once.
     const changed = await send(engineer, 'patch', `/api/sites/${us.body.site.id}`, { jurisdiction: 'EU' });

@@ -65,6 +65,8 @@ export function eventRow(
 export type EventListRow = {
   e: typeof events.$inferSelect;
   siteName: string | null;
+  /** The site's IANA zone (absent in rows read without it). */
+  siteTimeZone?: string | null;
   userName: string;
   voidId: number | null;
   voidAt: Date | null;
@@ -75,7 +77,7 @@ export type EventListRow = {
 
 /** One entry of the list with its site, author, the void that struck it out and its files. */
 export function toEventDto(
-  { e, siteName, userName, voidId, voidAt, voidReason, voidBy, voidByName }: EventListRow,
+  { e, siteName, siteTimeZone, userName, voidId, voidAt, voidReason, voidBy, voidByName }: EventListRow,
   files: AttachmentDto[],
 ): EventDto {
   return {
@@ -85,7 +87,8 @@ export function toEventDto(
     kind: e.kind,
     occurredAt: e.occurredAt.toISOString(),
     enteredAt: e.enteredAt.toISOString(),
-    site: e.siteId != null && siteName != null ? { id: e.siteId, name: siteName } : null,
+    site:
+      e.siteId != null && siteName != null ? { id: e.siteId, name: siteName, timeZone: siteTimeZone ?? null } : null,
     recordedBy: { id: e.recordedBy, name: userName },
     kg: e.kg,
     cylinder: e.cylinder,

@@ -29,6 +29,7 @@ export function eventQuery(db: DbOrTx, where: SQL, forceIndex?: string) {
       e: events,
       hasFiles: sql<number>`EXISTS (SELECT 1 FROM ${attachments} WHERE ${attachments.eventId} = ${events.id})`,
       siteName: sites.name,
+      siteTimeZone: sites.timeZone,
       userName: users.name,
       voidId: voider.id,
       voidAt: voider.enteredAt,

@@ -27,7 +27,7 @@ import { AttachPhotos } from './attach-photos';
 import { decisionRows } from './decision-rows';
 import { EntryGlyph } from './entry-glyph';
 import { LoadError } from '../../../components/ui/query-state';
-import { fmtDateTime, fmtKg, fmtNumber } from '../../../lib/format';
+import { fmtDateTime, fmtDateTimeInZone, fmtKg, fmtNumber } from '../../../lib/format';
 
 // The void form (react-hook-form + its resolver) loads when someone voids an entry, not with the unit page.
 const VoidEventDialog = lazy(() => import('./void-event-dialog').then((m) => ({ default: m.VoidEventDialog })));
@@ -421,7 +421,12 @@ export function EventList({
           return (
             <li key={g.key} className="rounded-lg border-2 border-ink-200 bg-white px-4 py-2 shadow-raised">
               <div className="border-b border-ink-100 pb-2">
-                <p className="text-base font-bold tabular-nums">{fmtDateTime(first.occurredAt)}</p>
+                <p className="text-base font-bold tabular-nums">
+                  {/* At a site with a zone, its wall clock and offset: what the technician's watch said. */}
+                  {first.site?.timeZone
+                    ? fmtDateTimeInZone(first.occurredAt, first.site.timeZone)
+                    : fmtDateTime(first.occurredAt)}
+                </p>
                 <p className="text-sm text-ink-700">
                   {first.recordedBy.name}
                   {first.site ? ` · ${first.site.name}` : ''}
