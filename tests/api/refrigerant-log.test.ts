@@ -202,6 +202,9 @@ describe('GET /api/refrigerant-log/export.csv', () => {
     expect(entries.find((r) => r[1] === 'Top-up')?.[14]).toBe('F-GAS-NL-0042');
     const added134 = rest.find((r) => r[0] === 'Total' && r[1] === 'added' && r[3] === 'R-134a')!;
     expect(Number(added134[5])).toBeCloseTo(5.75, 6);
+    const checks134 = rest.find((r) => r[0] === 'Total' && r[1] === 'leak checks' && r[3] === 'R-134a')!;
+    expect(checks134[header.indexOf('Leak found')]).toMatch(/found$/);
+    expect(checks134.at(-1)).toMatch(/^\d+ entries$/);
     expect(rest.at(-1)![0]).toBe('Total');
   });
 

@@ -25,7 +25,7 @@ export const LOG_CSV_COLUMNS = [
   'Technician',
   'Certificate number',
   'Event id',
-];
+] as const;
 
 /** The file's rows: the entries streamed from the database, then `totals` (read before the file starts). */
 export async function* refrigerantLogCsvRecords(
@@ -60,61 +60,34 @@ export async function* refrigerantLogCsvRecords(
   }
   // Totals close the file, in the same columns, so the export is the whole record for the period.
   for (const t of totals) {
-    yield [
-      'Total',
-      'added',
-      '',
-      t.refrigerant,
-      '',
-      t.addedKg,
-      t.addedCo2eTonnes,
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      `${t.additions} entries`,
-    ];
-    yield [
-      'Total',
+    yield totalRow('added', t.refrigerant, { kg: t.addedKg, 't CO2e': t.addedCo2eTonnes }, `${t.additions} entries`);
+    yield totalRow(
       'recovered',
-      '',
       t.refrigerant,
-      '',
-      t.recoveredKg,
-      t.recoveredCo2eTonnes,
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
+      { kg: t.recoveredKg, 't CO2e': t.recoveredCo2eTonnes },
       `${t.recoveries} entries`,
-    ];
-    yield [
-      'Total',
+    );
+    yield totalRow(
       'leak checks',
-      '',
       t.refrigerant,
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      '',
-      t.leaksFound ? `${t.leaksFound} found` : 'none found',
-      '',
-      '',
-      '',
+      { 'Leak found': t.leaksFound ? `${t.leaksFound} found` : 'none found' },
       `${t.leakChecks} entries`,
-    ];
+    );
   }
+}
+
+type LogColumn = (typeof LOG_CSV_COLUMNS)[number];
+
+/** A totals row: cells placed by column name, the count in the last column, the rest empty. */
+function totalRow(what: string, refrigerant: string, cells: Partial<Record<LogColumn, unknown>>, count: string) {
+  const row: Partial<Record<LogColumn, unknown>> = {
+    'Date (UTC)': 'Total',
+    Entry: what,
+    Refrigerant: refrigerant,
+    ...cells,
+    'Event id': count,
+  };
+  return LOG_CSV_COLUMNS.map((c) => row[c] ?? '');
 }
 
 /** The file's first line, a comment (`#`) that CSV readers can skip: what the file holds. */

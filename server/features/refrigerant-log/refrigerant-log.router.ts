@@ -19,7 +19,7 @@ export function refrigerantLogRoutes(ctx: AppContext) {
       await sendCsv(
         res,
         `refrigerant-log-${q.from}-to-${q.to}${site}.csv`,
-        LOG_CSV_COLUMNS,
+        [...LOG_CSV_COLUMNS],
         refrigerantLogCsvRecords(ctx.db, q, settings, totals),
         { note: refrigerantLogCsvNote(q, settings) },
       );
