@@ -13,6 +13,7 @@ import { CylinderForm } from '../../../features/cylinders/components/cylinder-fo
 import { CylinderImport } from '../../../features/cylinders/components/cylinder-import';
 import { CylinderRegister } from '../../../features/cylinders/components/cylinder-register';
 import { useSites } from '../../../features/sites/api/get-sites';
+import { SiteOptions } from '../../../components/ui/filter-options';
 
 export const loader = (queryClient: QueryClient) => async () => {
   await queryClient.prefetchQuery(cylindersQuery());
@@ -64,12 +65,7 @@ export default function CylindersPage() {
             value={siteId ?? ''}
             onChange={(e) => setSiteId(e.target.value ? Number(e.target.value) : undefined)}
           >
-            <option value="">All sites</option>
-            {(sites.data ?? []).map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
+            <SiteOptions sites={sites.data} />
           </select>
         </label>
         {list.data && (

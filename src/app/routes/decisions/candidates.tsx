@@ -7,6 +7,7 @@ import { EstimateNotice } from '../../../features/decisions/components/estimate-
 import { useSites } from '../../../features/sites/api/get-sites';
 import { ScoreBadge } from '../../../features/fleet/components/band-badge';
 import { fmtContainer, fmtMoney, fmtPct } from '../../../lib/format';
+import { SiteOptions } from '../../../components/ui/filter-options';
 
 const OPTION_LABELS = {
   keep_topping_up: 'Keep topping up',
@@ -39,12 +40,7 @@ export default function CandidatesPage() {
           value={siteId ?? ''}
           onChange={(e) => setSp(e.target.value ? { siteId: e.target.value } : {})}
         >
-          <option value="">All sites</option>
-          {(sites.data ?? []).map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.name}
-            </option>
-          ))}
+          <SiteOptions sites={sites.data} />
         </select>
       </label>
       {list.isPending ? (

@@ -1,6 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
 import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
-import { REFRIGERANT_CODES } from '../../../../shared/domain';
 import {
   fleetOverviewQuerySchema,
   type FleetOverviewDto,
@@ -22,6 +21,7 @@ import { ForecastAccuracy } from '../../../features/forecast/components/forecast
 import { RefreshJob } from '../../../features/jobs/components/refresh-job';
 import { fleetKeys } from '../../../features/fleet/api/keys';
 import { fmtCount, fmtDateTime, fmtTime } from '../../../lib/format';
+import { RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -67,12 +67,7 @@ export default function FleetOverviewPage() {
             value={q.siteId ?? ''}
             onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
           >
-            <option value="">All sites</option>
-            {(sites.data ?? []).map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
+            <SiteOptions sites={sites.data} />
           </select>
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
@@ -82,10 +77,7 @@ export default function FleetOverviewPage() {
             value={q.refrigerant ?? ''}
             onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}
           >
-            <option value="">All refrigerants</option>
-            {REFRIGERANT_CODES.map((r) => (
-              <option key={r}>{r}</option>
-            ))}
+            <RefrigerantOptions />
           </select>
         </label>
       </div>

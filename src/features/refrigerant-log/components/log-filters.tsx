@@ -1,10 +1,10 @@
-import { REFRIGERANT_CODES } from '../../../../shared/domain';
 import type { RefrigerantLogDto, RefrigerantLogQuery } from '../../../../shared/schemas/refrigerant-log';
 import type { SiteDto } from '../../../../shared/schemas/sites';
 import { Alert } from '../../../components/ui/alert';
 import { Panel } from '../../../components/ui/page';
 import { fmtDay } from '../../../lib/format';
 import { PERIOD_LABELS, PERIODS, type Period } from './period';
+import { RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
 
 const select = 'min-h-touch w-full rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
 
@@ -61,12 +61,7 @@ export function LogFilters({
             value={q.siteId ?? ''}
             onChange={(e) => onChange({ siteId: e.target.value || undefined })}
           >
-            <option value="">All sites</option>
-            {sites.map((s) => (
-              <option key={s.id} value={s.id}>
-                {s.name}
-              </option>
-            ))}
+            <SiteOptions sites={sites} />
           </select>
         </label>
         <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
@@ -76,10 +71,7 @@ export function LogFilters({
             value={q.refrigerant ?? ''}
             onChange={(e) => onChange({ refrigerant: e.target.value || undefined })}
           >
-            <option value="">All refrigerants</option>
-            {REFRIGERANT_CODES.map((r) => (
-              <option key={r}>{r}</option>
-            ))}
+            <RefrigerantOptions />
           </select>
         </label>
       </div>

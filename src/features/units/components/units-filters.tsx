@@ -6,6 +6,7 @@ import { Button } from '../../../components/ui/button';
 import { SelectField } from '../../../components/ui/field';
 import { SearchIcon } from '../../../components/ui/icons';
 import { cx } from '../../../components/ui/cx';
+import { SiteOptions } from '../../../components/ui/filter-options';
 
 export type UnitFilterValues = {
   q: string;
@@ -78,12 +79,7 @@ export function UnitsFilters({
           value={values.siteId ?? ''}
           onChange={(e) => onChange({ siteId: e.target.value ? Number(e.target.value) : undefined })}
         >
-          <option value="">All sites</option>
-          {sites.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.code}
-            </option>
-          ))}
+          <SiteOptions sites={sites} show="code" />
         </SelectField>
         <SelectField
           label="Status"
