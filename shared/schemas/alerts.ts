@@ -1,7 +1,7 @@
 import { z } from 'zod';
 
 /** What an engineer can subscribe to, per site. */
-export const ALERT_KINDS = ['chronic', 'leak_rate', 'open_leak', 'digest'] as const;
+export const ALERT_KINDS = ['chronic', 'leak_rate', 'open_leak', 'recheck', 'digest'] as const;
 export type AlertKind = (typeof ALERT_KINDS)[number];
 
 export const ALERT_KIND_LABELS: Record<AlertKind, { title: string; description: string }> = {
@@ -13,6 +13,10 @@ export const ALERT_KIND_LABELS: Record<AlertKind, { title: string; description: 
   open_leak: {
     title: 'Leaks left unrepaired',
     description: 'A leak was found and is still not repaired after the allowed days.',
+  },
+  recheck: {
+    title: 'Re-checks due or missed',
+    description: 'A re-check after a top-up or a repair falls due, or its day passes without one.',
   },
   digest: { title: 'Daily digest', description: 'Leak checks due, forecast top-ups and PTIs running out, once a day.' },
 };

@@ -1,0 +1,1 @@
+ALTER TABLE `alert_subscriptions` MODIFY COLUMN `kind` enum('chronic','leak_rate','open_leak','recheck','digest') NOT NULL;
