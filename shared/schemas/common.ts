@@ -25,6 +25,24 @@ export const positiveId = (what: string) =>
 
 export const idParamSchema = z.object({ id: z.string().min(1).max(64) });
 
+// ---- Text from forms and CSV cells: every field arrives as text ----
+
+/** A cleared form field or an empty CSV cell means "not given". */
+export const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
+/** A number typed or exported as text; a decimal comma is accepted ("4,5" kg). */
+export const textToNumber = (v: unknown) => {
+  const b = blankToNull(v);
+  return typeof b === 'string' ? Number(b.trim().replace(/^(-?\d+),(\d+)$/, '$1.$2')) : b;
+};
+/** A spreadsheet's words for an enum value ("In service", "out-of-service") as its id (in_service). */
+export const textToId = (v: unknown) =>
+  typeof v === 'string'
+    ? v
+        .trim()
+        .toLowerCase()
+        .replace(/[\s-]+/g, '_')
+    : v;
+
 // ---- The date rule: one place for every date the product accepts (forms, API, CSV import, query ranges) ----
 
 /**

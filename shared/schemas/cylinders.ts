@@ -2,7 +2,7 @@
 // One set of field rules serves the API and the CSV import, so a row the import accepts is one the form accepts.
 import { z } from 'zod';
 import { findRefrigerant, REFRIGERANT_CODES } from '../domain/refrigerants';
-import { momentSchema } from './common';
+import { blankToNull, momentSchema, textToId, textToNumber } from './common';
 import { DEFAULT_SETTINGS, type Settings } from './settings';
 import type { CylinderLedger } from '../domain/cylinders';
 
@@ -38,19 +38,6 @@ export const MAX_CYLINDER_IMPORT_ROWS = 5000;
 export const MAX_CYLINDER_IMPORT_BYTES = 2 * 1024 * 1024;
 export const MAX_REGISTER_PAGE = 500;
 
-const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
-/** CSV cells and form fields arrive as text; a decimal comma is accepted ("12,5" kg). */
-const toNumber = (v: unknown) => {
-  const b = blankToNull(v);
-  return typeof b === 'string' ? Number(b.trim().replace(/^(-?\d+),(\d+)$/, '$1.$2')) : b;
-};
-const words = (v: unknown) =>
-  typeof v === 'string'
-    ? v
-        .trim()
-        .toLowerCase()
-        .replace(/[\s-]+/g, '_')
-    : v;
 const optionalText = (max: number) =>
   z.preprocess(
     (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim()) : v),
@@ -58,7 +45,7 @@ const optionalText = (max: number) =>
   );
 const kgField = (what: string, min: number) =>
   z.preprocess(
-    toNumber,
+    textToNumber,
     z
       .number({ error: `Enter the ${what} in kg` })
       .min(min, `The ${what} must be at least ${min} kg`)
@@ -89,7 +76,7 @@ const cylinderFields = z.object({
   code: z.preprocess(blankToNull, cylinderCodeSchema.nullable().optional()),
   kind: z.preprocess(
     (v) => {
-      const w = words(v);
+      const w = textToId(v);
       return w === 'supply' || w === 'refrigerant' || w === 'virgin' ? 'new' : w;
     },
     z.enum(CYLINDER_KINDS, { message: 'Use new (refrigerant supply) or recovery' }),
@@ -101,15 +88,15 @@ const cylinderFields = z.object({
   supplier: optionalText(MAX_CYLINDER_TEXT),
   lot: optionalText(64),
   gasOrigin: z.preprocess(
-    (v) => (blankToNull(v) === null ? null : words(v)),
+    (v) => (blankToNull(v) === null ? null : textToId(v)),
     z.enum(GAS_ORIGINS, { message: 'Use virgin, recycled or reclaimed' }).nullable().optional(),
   ),
   status: z.preprocess(
-    (v) => (blankToNull(v) === null ? undefined : words(v)),
+    (v) => (blankToNull(v) === null ? undefined : textToId(v)),
     z.enum(CYLINDER_STATUSES, { message: `Use ${CYLINDER_STATUSES.join(', ')}` }).optional(),
   ),
   /** A first weighing taken when the cylinder is registered. */
-  grossKg: z.preprocess(toNumber, kgField('gross weight', 0.5).nullable().optional()),
+  grossKg: z.preprocess(textToNumber, kgField('gross weight', 0.5).nullable().optional()),
   notes: optionalText(500),
 });
 
@@ -144,7 +131,7 @@ function crossCheck(c: FieldsOut, ctx: Ctx) {
 }
 
 export const createCylinderSchema = cylinderFields
-  .extend({ siteId: z.preprocess(toNumber, z.number().int().positive().nullable().optional()) })
+  .extend({ siteId: z.preprocess(textToNumber, z.number().int().positive().nullable().optional()) })
   .superRefine(crossCheck);
 export type CreateCylinderInput = z.output<typeof createCylinderSchema>;
 

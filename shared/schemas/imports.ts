@@ -1,6 +1,7 @@
 // CSV import of units.
 import { z } from 'zod';
-import { blankToNull, statusSchema, unitFields } from './units';
+import { blankToNull } from './common';
+import { statusSchema, unitDetailFields, unitFields } from './units';
 
 export const MAX_IMPORT_BYTES = 25 * 1024 * 1024;
 export const MAX_IMPORT_ROWS = 200_000;
@@ -38,12 +39,7 @@ export const importRowSchema = z.object({
     )
     .optional(),
   status: z.preprocess((v) => (blankToNull(v) === null ? undefined : v), statusSchema.optional()),
-  machinerySerial: unitFields.machinerySerial.optional(),
-  model: unitFields.model.optional(),
-  manufactureYear: unitFields.manufactureYear.optional(),
-  purchaseCost: unitFields.purchaseCost.optional(),
-  residualValue: unitFields.residualValue.optional(),
-  notes: unitFields.notes.optional(),
+  ...unitDetailFields,
 });
 export type ImportRow = z.output<typeof importRowSchema>;
 

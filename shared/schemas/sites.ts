@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { blankToNull } from './common';
 
 export const SITE_KINDS = ['depot', 'terminal', 'vessel', 'workshop'] as const;
 export type SiteKind = (typeof SITE_KINDS)[number];
@@ -52,7 +53,6 @@ export function isKnownTimeZone(zone: string): boolean {
 }
 
 // Blank means "not set": the fleet's policy, times in UTC.
-const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
 const jurisdictionSchema = z.preprocess(
   blankToNull,
   z.enum(JURISDICTIONS, { message: 'Choose EU, US reference or custom' }).nullable(),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, parseContainerNumber, REFRIGERANT_CODES } from '../domain';
-import { daySchema, EARLIEST_RECORD_DAY } from './common';
+import { blankToNull, daySchema, EARLIEST_RECORD_DAY, textToId, textToNumber } from './common';
 import { SITE_KINDS } from './sites';
 
 export const UNIT_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
@@ -21,14 +21,6 @@ export const MAX_NOTES_LENGTH = 2000;
 export const MAX_SERIAL_LENGTH = 40;
 export const MAX_MODEL_LENGTH = 60;
 export const MAX_UNIT_PAGE_SIZE = 100;
-
-/** A cleared form field or an empty CSV cell means "not given". */
-export const blankToNull = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? null : v);
-/** Form fields and CSV cells arrive as text; a decimal comma is accepted ("4,5" kg). */
-const toNumber = (v: unknown) => {
-  const b = blankToNull(v);
-  return typeof b === 'string' ? Number(b.trim().replace(/^(-?\d+),(\d+)$/, '$1.$2')) : b;
-};
 
 export const containerNumberSchema = z.string({ error: 'Enter the container number' }).transform((v, ctx) => {
   const r = parseContainerNumber(v);
@@ -58,7 +50,7 @@ const optionalText = (max: number) =>
   );
 
 const moneySchema = z.preprocess(
-  toNumber,
+  textToNumber,
   z
     .number({ error: 'Enter an amount, e.g. 12500.00' })
     .nonnegative('The amount cannot be negative')
@@ -69,14 +61,7 @@ const moneySchema = z.preprocess(
 );
 
 export const statusSchema = z.preprocess(
-  // "In service", "out-of-service" and the like from spreadsheets.
-  (v) =>
-    typeof v === 'string'
-      ? v
-          .trim()
-          .toLowerCase()
-          .replace(/[\s-]+/g, '_')
-      : v,
+  textToId,
   z.enum(UNIT_STATUSES, { message: 'Use in_service, out_of_service or retired' }),
 );
 
@@ -84,7 +69,7 @@ export const unitFields = {
   containerNumber: containerNumberSchema,
   refrigerant: refrigerantSchema,
   nominalChargeKg: z.preprocess(
-    toNumber,
+    textToNumber,
     z
       .number({ error: 'Enter the full charge in kg' })
       .positive('The charge must be more than 0 kg')
@@ -94,12 +79,12 @@ export const unitFields = {
     blankToNull,
     daySchema({ format: 'Use a date like 2024-05-31', earliest: EARLIEST_RECORD_DAY, latest: 'today' }).nullable(),
   ),
-  siteId: z.preprocess(toNumber, z.number({ error: 'Choose a site' }).int().positive().nullable()),
+  siteId: z.preprocess(textToNumber, z.number({ error: 'Choose a site' }).int().positive().nullable()),
   status: statusSchema,
   machinerySerial: optionalText(MAX_SERIAL_LENGTH),
   model: optionalText(MAX_MODEL_LENGTH),
   manufactureYear: z.preprocess(
-    toNumber,
+    textToNumber,
     z
       .number({ error: 'Enter a year, e.g. 2019' })
       .int('Enter a whole year')
@@ -112,19 +97,27 @@ export const unitFields = {
   notes: optionalText(MAX_NOTES_LENGTH),
 };
 
-export const createUnitSchema = z.object({
-  containerNumber: unitFields.containerNumber,
-  refrigerant: unitFields.refrigerant,
-  nominalChargeKg: unitFields.nominalChargeKg,
-  commissionedOn: unitFields.commissionedOn.optional(),
-  siteId: unitFields.siteId.optional(),
-  status: unitFields.status.optional(),
+/** The unit's details a form or a CSV row may leave out (left out: not given, or on an edit unchanged). */
+export const unitDetailFields = {
   machinerySerial: unitFields.machinerySerial.optional(),
   model: unitFields.model.optional(),
   manufactureYear: unitFields.manufactureYear.optional(),
   purchaseCost: unitFields.purchaseCost.optional(),
   residualValue: unitFields.residualValue.optional(),
   notes: unitFields.notes.optional(),
+};
+const optionalUnitFields = {
+  commissionedOn: unitFields.commissionedOn.optional(),
+  siteId: unitFields.siteId.optional(),
+  status: unitFields.status.optional(),
+  ...unitDetailFields,
+};
+
+export const createUnitSchema = z.object({
+  containerNumber: unitFields.containerNumber,
+  refrigerant: unitFields.refrigerant,
+  nominalChargeKg: unitFields.nominalChargeKg,
+  ...optionalUnitFields,
 });
 export type CreateUnitInput = z.output<typeof createUnitSchema>;
 
@@ -133,15 +126,7 @@ export const updateUnitSchema = z
     containerNumber: unitFields.containerNumber.optional(),
     refrigerant: unitFields.refrigerant.optional(),
     nominalChargeKg: unitFields.nominalChargeKg.optional(),
-    commissionedOn: unitFields.commissionedOn.optional(),
-    siteId: unitFields.siteId.optional(),
-    status: unitFields.status.optional(),
-    machinerySerial: unitFields.machinerySerial.optional(),
-    model: unitFields.model.optional(),
-    manufactureYear: unitFields.manufactureYear.optional(),
-    purchaseCost: unitFields.purchaseCost.optional(),
-    residualValue: unitFields.residualValue.optional(),
-    notes: unitFields.notes.optional(),
+    ...optionalUnitFields,
   })
   .refine((v) => Object.values(v).some((x) => x !== undefined), { message: 'Nothing to change' });
 export type UpdateUnitInput = z.output<typeof updateUnitSchema>;
