@@ -1,23 +1,62 @@
 // The depot's day in the demo: at the site with the most units in service, a few units are quarantined (charged from
 // an invented suspect lot) and a few were topped up yesterday without a leak found (re-check due today), recorded by
-// the demo technician so that their My day opens on that site. Then every unit's depot state from its history.
+// the demo technician so that their My day opens on that site. Then every unit's depot state from its history, and
+// where the simulated histories leave a group of My day empty at that site, an invented entry that fills it.
 // Draws from a stream of its own, after the fleet is written, so the simulated fleet stays byte-identical.
-import { and, asc, count, desc, eq } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull } from 'drizzle-orm';
 import type { Db } from '../server/db/client';
-import { events, units, users, visits } from '../server/db/schema';
+import { events, unitDepotState, units, unitStats, users, visits } from '../server/db/schema';
+import { myDay } from '../server/features/day/day.service';
 import { createCaches } from '../server/lib/caches';
 import { rebuildDepotStates } from '../server/lib/record/depot-state';
 import { writeUnit } from '../server/lib/record/write-path';
+import type { DayGroupId } from '../shared/schemas/day';
 import type { Settings } from '../shared/schemas/settings';
 import { DEMO_ACCOUNTS } from './demo-accounts';
 import { createRng, streamSeed } from './simulator/prng';
 
 const HOUR = 3_600_000;
+const DAY = 24 * HOUR;
+type Entry = Partial<typeof events.$inferInsert>;
+type Candidate = typeof unitStats.$inferSelect;
+
+/**
+ * An invented entry per My day group that can be filled by one: when it happened, what it was, and which units can
+ * take it (their latest entry is older, so it becomes the one that counts).
+ */
+function fillers(today: string, settings: Settings) {
+  const after = (c: Candidate, at: Date) => c.lastEventAt == null || c.lastEventAt < at;
+  const dayOf = (at: Date) => at.toISOString().slice(0, 10);
+  const ptiBefore = (daysAgo: number) => ({
+    daysAgo,
+    entry: { kind: 'pti', passed: true } as Entry,
+    fits: after,
+  });
+  const repairBefore = (daysAgo: number, dueAfter: string) => ({
+    daysAgo,
+    // A repair asks for a leak check within a month (Reg. (EU) 2024/573), so it brings the unit's check forward.
+    entry: { kind: 'repair', location: 'service_valve', action: 'valve_core_replaced', verified: true } as Entry,
+    fits: (c: Candidate, at: Date) => after(c, at) && c.nextLeakCheckDue != null && c.nextLeakCheckDue > dueAfter,
+  });
+  const plus = (n: number) => dayOf(new Date(Date.parse(`${today}T00:00:00Z`) + n * DAY));
+  const fill: Partial<Record<DayGroupId, ReturnType<typeof ptiBefore>>> = {
+    pti_expiring: ptiBefore(settings.ptiValidityDays - 6),
+    pti_expired: ptiBefore(settings.ptiValidityDays + 5),
+    open_leak: {
+      daysAgo: 2,
+      entry: { kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' },
+      fits: (c, at) => after(c, at) && c.openLeakFoundAt == null,
+    },
+    leak_check_due: repairBefore(16, plus(30)),
+    leak_check_overdue: repairBefore(45, today),
+  };
+  return fill;
+}
 
 export async function seedDepotDay(
   db: Db,
   opts: { seed: number; now: Date; settings: Settings; publicUrl: string },
-): Promise<{ quarantined: number; rechecks: number }> {
+): Promise<{ quarantined: number; rechecks: number; filled: number }> {
   const rng = createRng(streamSeed(opts.seed, 'depot-day'));
   const tech = DEMO_ACCOUNTS.find((a) => a.role === 'technician')!;
   const [person] = await db.select({ id: users.id }).from(users).where(eq(users.email, tech.email));
@@ -28,7 +67,7 @@ export async function seedDepotDay(
     .groupBy(units.siteId)
     .orderBy(desc(count()))
     .limit(1);
-  if (!person || !busiest?.siteId) return { quarantined: 0, rechecks: 0 };
+  if (!person || !busiest?.siteId) return { quarantined: 0, rechecks: 0, filled: 0 };
   const siteId = busiest.siteId;
   const candidates = await db
     .select({ id: units.id })
@@ -78,5 +117,48 @@ export async function seedDepotDay(
     });
   }
   await rebuildDepotStates(db, opts.now, opts.settings);
-  return { quarantined: 2, rechecks: chosen.length - 2 };
+  const filled = await fillEmptyGroups(db, { ...opts, siteId, personId: person.id, write, rng, skip: chosen });
+  if (filled > 0) await rebuildDepotStates(db, opts.now, opts.settings);
+  return { quarantined: 2, rechecks: chosen.length - 2, filled };
+}
+
+/** The groups of My day the fleet left empty at the site, each given one unit by an invented entry. */
+async function fillEmptyGroups(
+  db: Db,
+  o: {
+    now: Date;
+    settings: Settings;
+    siteId: number;
+    personId: string;
+    rng: ReturnType<typeof createRng>;
+    skip: number[];
+    write: (unitId: number, key: string, at: Date, entry: Entry) => Promise<unknown>;
+  },
+): Promise<number> {
+  const [user] = await db.select().from(users).where(eq(users.id, o.personId));
+  const day = await myDay(db, user, o.siteId, o.now);
+  const today = day.today;
+  const fill = fillers(today, o.settings);
+  const empty = day.groups.filter((g) => g.total === 0 && fill[g.id]).map((g) => g.id);
+  if (empty.length === 0) return 0;
+  const used = new Set(o.skip);
+  let filled = 0;
+  for (const id of empty) {
+    const f = fill[id]!;
+    const at = new Date(o.now.getTime() - f.daysAgo * DAY - o.rng.int(1, 6) * HOUR);
+    const rows = await db
+      .select({ stats: unitStats })
+      .from(units)
+      .innerJoin(unitStats, eq(unitStats.unitId, units.id))
+      .leftJoin(unitDepotState, eq(unitDepotState.unitId, units.id))
+      .where(and(eq(units.siteId, o.siteId), eq(units.status, 'in_service'), isNull(unitDepotState.quarantinedSince)))
+      .orderBy(asc(units.id));
+    const fits = rows.map((r) => r.stats).filter((c) => !used.has(c.unitId) && f.fits(c, at));
+    if (fits.length === 0) continue;
+    const unitId = o.rng.pick(fits).unitId;
+    used.add(unitId);
+    await o.write(unitId, `demo-${id}-${unitId}`, at, f.entry);
+    filled += 1;
+  }
+  return filled;
 }

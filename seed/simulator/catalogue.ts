@@ -1,6 +1,7 @@
 // Everything the demo fleet is made of. All of it is invented for the demo: the company, its sites, vessels,
 // people, machinery makers, models and every figure. Place names are made up to sound like places.
 import type { LeakLocationId, RefrigerantCode, RepairActionId } from '../../shared/domain';
+import type { Jurisdiction } from '../../shared/schemas/sites';
 
 export type SiteKind = 'depot' | 'terminal' | 'vessel' | 'workshop';
 
@@ -9,48 +10,52 @@ export type SiteSpec = {
   name: string;
   kind: SiteKind;
   country: string | null;
+  /** The leak-check rule the site keeps; null = the fleet's policy in settings. */
+  jurisdiction: Jurisdiction | null;
+  /** IANA zone its times are shown in; null (a vessel at sea) = UTC. */
+  timeZone: string | null;
   /** Ambient temperature model: yearly mean, half the summer–winter swing, southern hemisphere. */
   climate: { meanC: number; swingC: number; southern: boolean };
 };
 
-type Place = { name: string; country: string; meanC: number; swingC: number; southern?: boolean };
+type Place = { name: string; zone: string; country: string; meanC: number; swingC: number; southern?: boolean };
 
 // Invented place names; the country codes only give each place a believable climate.
 const DEPOT_PLACES: Place[] = [
-  { name: 'Greyhaven', country: 'NL', meanC: 11, swingC: 8 },
-  { name: 'Saltmere', country: 'DE', meanC: 10, swingC: 9 },
-  { name: 'Karrowpoint', country: 'SG', meanC: 28, swingC: 1.5 },
-  { name: 'Wendlestrand', country: 'BE', meanC: 11, swingC: 8 },
-  { name: 'Lunebrig', country: 'ES', meanC: 18, swingC: 7 },
-  { name: 'Ormsgate', country: 'GB', meanC: 11, swingC: 7 },
-  { name: 'Brackwater Flats', country: 'US', meanC: 20, swingC: 9 },
-  { name: 'Tarnholm', country: 'NO', meanC: 7, swingC: 9 },
-  { name: 'Cressmouth', country: 'ZA', meanC: 18, swingC: 5, southern: true },
-  { name: 'Hollinby Reach', country: 'AU', meanC: 19, swingC: 6, southern: true },
-  { name: 'Quillhaven', country: 'BR', meanC: 24, swingC: 4, southern: true },
-  { name: 'Rookstrand', country: 'CL', meanC: 15, swingC: 5, southern: true },
-  { name: 'Skerrowick', country: 'IE', meanC: 10, swingC: 5 },
-  { name: 'Tollerin', country: 'IT', meanC: 16, swingC: 8 },
-  { name: 'Veskara', country: 'TR', meanC: 17, swingC: 10 },
-  { name: 'Wyrmouth', country: 'AE', meanC: 28, swingC: 8 },
-  { name: 'Ambermoor', country: 'IN', meanC: 27, swingC: 4 },
-  { name: 'Fennick Bay', country: 'NZ', meanC: 14, swingC: 5, southern: true },
-  { name: 'Drummarsh', country: 'CA', meanC: 8, swingC: 12 },
-  { name: 'Callowspit', country: 'MA', meanC: 19, swingC: 6 },
+  { name: 'Greyhaven', zone: 'Europe/Amsterdam', country: 'NL', meanC: 11, swingC: 8 },
+  { name: 'Saltmere', zone: 'Europe/Berlin', country: 'DE', meanC: 10, swingC: 9 },
+  { name: 'Karrowpoint', zone: 'Asia/Singapore', country: 'SG', meanC: 28, swingC: 1.5 },
+  { name: 'Wendlestrand', zone: 'Europe/Brussels', country: 'BE', meanC: 11, swingC: 8 },
+  { name: 'Lunebrig', zone: 'Europe/Madrid', country: 'ES', meanC: 18, swingC: 7 },
+  { name: 'Ormsgate', zone: 'Europe/London', country: 'GB', meanC: 11, swingC: 7 },
+  { name: 'Brackwater Flats', zone: 'America/Chicago', country: 'US', meanC: 20, swingC: 9 },
+  { name: 'Tarnholm', zone: 'Europe/Oslo', country: 'NO', meanC: 7, swingC: 9 },
+  { name: 'Cressmouth', zone: 'Africa/Johannesburg', country: 'ZA', meanC: 18, swingC: 5, southern: true },
+  { name: 'Hollinby Reach', zone: 'Australia/Sydney', country: 'AU', meanC: 19, swingC: 6, southern: true },
+  { name: 'Quillhaven', zone: 'America/Sao_Paulo', country: 'BR', meanC: 24, swingC: 4, southern: true },
+  { name: 'Rookstrand', zone: 'America/Santiago', country: 'CL', meanC: 15, swingC: 5, southern: true },
+  { name: 'Skerrowick', zone: 'Europe/Dublin', country: 'IE', meanC: 10, swingC: 5 },
+  { name: 'Tollerin', zone: 'Europe/Rome', country: 'IT', meanC: 16, swingC: 8 },
+  { name: 'Veskara', zone: 'Europe/Istanbul', country: 'TR', meanC: 17, swingC: 10 },
+  { name: 'Wyrmouth', zone: 'Asia/Dubai', country: 'AE', meanC: 28, swingC: 8 },
+  { name: 'Ambermoor', zone: 'Asia/Kolkata', country: 'IN', meanC: 27, swingC: 4 },
+  { name: 'Fennick Bay', zone: 'Pacific/Auckland', country: 'NZ', meanC: 14, swingC: 5, southern: true },
+  { name: 'Drummarsh', zone: 'America/Halifax', country: 'CA', meanC: 8, swingC: 12 },
+  { name: 'Callowspit', zone: 'Africa/Casablanca', country: 'MA', meanC: 19, swingC: 6 },
 ];
 const TERMINAL_PLACES: Place[] = [
-  { name: 'Port Amberlie', country: 'NL', meanC: 11, swingC: 8 },
-  { name: 'Kestmouth', country: 'DE', meanC: 10, swingC: 9 },
-  { name: 'Ostrelle Quay', country: 'SG', meanC: 28, swingC: 1.5 },
-  { name: 'Marrowind', country: 'US', meanC: 21, swingC: 8 },
-  { name: 'Selvan Pier', country: 'ES', meanC: 18, swingC: 7 },
-  { name: 'Hadrell Docks', country: 'ZA', meanC: 18, swingC: 5, southern: true },
-  { name: 'Torvik Quay', country: 'NO', meanC: 7, swingC: 9 },
-  { name: 'Isbrand', country: 'BR', meanC: 24, swingC: 4, southern: true },
-  { name: 'Norrow Docks', country: 'GB', meanC: 11, swingC: 7 },
-  { name: 'Palvena', country: 'CL', meanC: 15, swingC: 5, southern: true },
-  { name: 'Castrelle', country: 'AE', meanC: 28, swingC: 8 },
-  { name: 'Duneholt', country: 'AU', meanC: 19, swingC: 6, southern: true },
+  { name: 'Port Amberlie', zone: 'Europe/Amsterdam', country: 'NL', meanC: 11, swingC: 8 },
+  { name: 'Kestmouth', zone: 'Europe/Berlin', country: 'DE', meanC: 10, swingC: 9 },
+  { name: 'Ostrelle Quay', zone: 'Asia/Singapore', country: 'SG', meanC: 28, swingC: 1.5 },
+  { name: 'Marrowind', zone: 'America/Los_Angeles', country: 'US', meanC: 21, swingC: 8 },
+  { name: 'Selvan Pier', zone: 'Europe/Madrid', country: 'ES', meanC: 18, swingC: 7 },
+  { name: 'Hadrell Docks', zone: 'Africa/Johannesburg', country: 'ZA', meanC: 18, swingC: 5, southern: true },
+  { name: 'Torvik Quay', zone: 'Europe/Oslo', country: 'NO', meanC: 7, swingC: 9 },
+  { name: 'Isbrand', zone: 'America/Sao_Paulo', country: 'BR', meanC: 24, swingC: 4, southern: true },
+  { name: 'Norrow Docks', zone: 'Europe/London', country: 'GB', meanC: 11, swingC: 7 },
+  { name: 'Palvena', zone: 'America/Santiago', country: 'CL', meanC: 15, swingC: 5, southern: true },
+  { name: 'Castrelle', zone: 'Asia/Dubai', country: 'AE', meanC: 28, swingC: 8 },
+  { name: 'Duneholt', zone: 'Australia/Perth', country: 'AU', meanC: 19, swingC: 6, southern: true },
 ];
 const VESSELS = [
   'MV Brightfall',
@@ -74,6 +79,17 @@ const code3 = (name: string) =>
     .slice(0, 3)
     .toUpperCase();
 
+// Which demo sites keep which leak-check rule: EU members the EU one, the US sites the US reference, the Singapore sites
+// a custom one; the others follow the fleet's policy.
+const EU_MEMBERS = new Set(['NL', 'DE', 'BE', 'ES', 'IE', 'IT']);
+function jurisdictionOf(country: string): Jurisdiction | null {
+  if (EU_MEMBERS.has(country)) return 'EU';
+  if (country === 'US') return 'US';
+  if (country === 'SG') return 'custom';
+  return null;
+}
+const rulesOf = (p: Place) => ({ jurisdiction: jurisdictionOf(p.country), timeZone: p.zone });
+
 /** The fleet's sites; how many grows with the fleet. */
 export function fleetSites(unitCount: number): SiteSpec[] {
   const clamp = (x: number, lo: number, hi: number) => Math.max(lo, Math.min(hi, Math.round(x)));
@@ -88,6 +104,7 @@ export function fleetSites(unitCount: number): SiteSpec[] {
       name: `${p.name} Depot`,
       kind: 'depot',
       country: p.country,
+      ...rulesOf(p),
       climate: climateOf(p),
     });
   }
@@ -97,6 +114,7 @@ export function fleetSites(unitCount: number): SiteSpec[] {
       name: `${p.name} Terminal`,
       kind: 'terminal',
       country: p.country,
+      ...rulesOf(p),
       climate: climateOf(p),
     });
   }
@@ -106,6 +124,8 @@ export function fleetSites(unitCount: number): SiteSpec[] {
       name: v,
       kind: 'vessel',
       country: null,
+      jurisdiction: null,
+      timeZone: null,
       climate: { meanC: 22, swingC: 6, southern: false },
     });
   }
@@ -115,6 +135,7 @@ export function fleetSites(unitCount: number): SiteSpec[] {
       name: `Halyard Workshop ${p.name}`,
       kind: 'workshop',
       country: p.country,
+      ...rulesOf(p),
       climate: climateOf(p),
     });
   }

@@ -41,6 +41,8 @@ export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
     name: s.name,
     kind: s.kind,
     country: s.country,
+    jurisdiction: s.jurisdiction,
+    timeZone: s.timeZone,
     createdAt: at,
   }));
 }
@@ -203,6 +205,12 @@ function historyRows(fleet: Fleet, sim: UnitSim, unit: UnitRow, siteIds: readonl
   return { visitRows, eventRows, engineEvents };
 }
 
+/** The settings a unit's figures follow: the fleet's, with its site's leak-check rule (as the write path does). */
+function rulesAt(fleet: Fleet, site: number, settings: Settings): Settings {
+  const jurisdiction = fleet.sites[site]?.jurisdiction;
+  return jurisdiction ? { ...settings, policy: jurisdiction } : settings;
+}
+
 export function rowsForUnit(
   fleet: Fleet,
   sim: UnitSim,
@@ -226,7 +234,7 @@ export function rowsForUnit(
     }),
     engineEvents,
     now.toISOString(),
-    settings,
+    rulesAt(fleet, u.homeSite, settings),
   );
   const last = engineEvents.length ? new Date(engineEvents[engineEvents.length - 1].at) : null;
   const { stats, detail: statsDetail } = statsRowsFrom(unitId, result, now, last);

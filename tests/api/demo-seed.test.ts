@@ -1,0 +1,100 @@
+// The demo as a visitor meets it: the invented fleet's sites keep their own leak-check rules in their own time zones,
+// the figures stored for their units follow those rules, and the demo technician's My day has units in every group.
+import { afterAll, describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { eq, isNotNull } from 'drizzle-orm';
+import { createApp } from '../../server/app';
+import { sites, units, unitStats } from '../../server/db/schema';
+import { recomputeUnitStats } from '../../server/lib/record/stats';
+import { getSettings } from '../../server/lib/settings';
+import { DEMO_UNITS, seedDemo } from '../../seed/index';
+import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
+import { DAY_GROUPS, type DayDto } from '../../shared/schemas/day';
+import { openTestDb, resetDb } from '../support/db';
+import { TEST_ORIGIN } from '../support/factories';
+
+const { db, pool } = openTestDb();
+let now = new Date('2026-06-01T12:00:00Z');
+const { app, ctx } = createApp({ db, clock: { now: () => now }, rateLimits: { signInPerIp: 1000 } });
+afterAll(async () => {
+  await ctx.jobs.waitForAll();
+  await pool.end();
+});
+
+async function seeded(units: number, at: string) {
+  now = new Date(at);
+  await resetDb(db);
+  ctx.caches.settings.invalidate();
+  await seedDemo(db, { units, now, log: () => undefined });
+}
+
+async function technicianDay(): Promise<DayDto> {
+  const agent = request.agent(app);
+  const tech = DEMO_ACCOUNTS.find((a) => a.role === 'technician')!;
+  const signIn = await agent
+    .post('/api/auth/sign-in')
+    .set('Origin', TEST_ORIGIN)
+    .send({ email: tech.email, password: DEMO_PASSWORD });
+  expect(signIn.status).toBe(200);
+  const res = await agent.get('/api/day');
+  expect(res.status).toBe(200);
+  return res.body as DayDto;
+}
+
+const nonEmptyGroups = (day: DayDto) =>
+  Object.fromEntries(DAY_GROUPS.map((g) => [g.id, 0 < (day.groups.find((d) => d.id === g.id)?.total ?? 0)]));
+const everyGroup = Object.fromEntries(DAY_GROUPS.map((g) => [g.id, true]));
+
+describe('the demo fleet', () => {
+  it("has units in every group of the demo technician's My day, at its full size", async () => {
+    await seeded(DEMO_UNITS, '2026-06-01T12:00:00Z');
+    const day = await technicianDay();
+    expect(day.site).not.toBeNull();
+    expect(nonEmptyGroups(day)).toEqual(everyGroup);
+  }, 180_000);
+
+  it('has EU sites in European zones, US reference sites in US zones and a site with a custom rule', async () => {
+    const rows = await db.select().from(sites);
+    const withRule = (j: string) => rows.filter((s) => s.jurisdiction === j);
+    expect(withRule('EU').length).toBeGreaterThan(0);
+    expect(withRule('EU').every((s) => s.timeZone?.startsWith('Europe/'))).toBe(true);
+    expect(withRule('US').length).toBeGreaterThan(0);
+    expect(withRule('US').every((s) => s.timeZone?.startsWith('America/'))).toBe(true);
+    expect(withRule('custom').length).toBeGreaterThan(0);
+    expect(rows.filter((s) => s.kind !== 'vessel').every((s) => s.timeZone)).toBe(true);
+  });
+
+  it("stores every unit's leak-check figures under its own site's rule, as the write path would", async () => {
+    const settings = await getSettings(db);
+    for (const jurisdiction of ['EU', 'US', 'custom'] as const) {
+      const [u] = await db
+        .select({ unit: units, stats: unitStats })
+        .from(units)
+        .innerJoin(sites, eq(sites.id, units.siteId))
+        .innerJoin(unitStats, eq(unitStats.unitId, units.id))
+        .where(eq(sites.jurisdiction, jurisdiction))
+        .orderBy(units.id)
+        .limit(1);
+      const again = await recomputeUnitStats(db, u.unit, now, settings);
+      expect({ jurisdiction, interval: u.stats.leakCheckIntervalMonths, due: u.stats.nextLeakCheckDue }).toEqual({
+        jurisdiction,
+        interval: again.stats.leakCheckIntervalMonths,
+        due: again.stats.nextLeakCheckDue,
+      });
+    }
+    expect((await db.select().from(unitStats).where(isNotNull(unitStats.computeError))).length).toBe(0);
+  });
+
+  it.each([
+    [40, '2026-06-01T12:00:00Z'],
+    [40, '2026-11-20T08:00:00Z'],
+    [80, '2027-03-09T15:00:00Z'],
+  ])(
+    'has units in every group of My day in a fleet of %i seen on %s (the browser tests run on 40)',
+    async (n, at) => {
+      await seeded(n, at);
+      expect(nonEmptyGroups(await technicianDay())).toEqual(everyGroup);
+    },
+    60_000,
+  );
+});
