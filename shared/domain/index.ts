@@ -105,6 +105,11 @@ export { annualizedLeakRatePct, rollingLeakRatePct, calendarYearSharePct, type R
 export {
   repeatLeakScore,
   scoreBand,
+  missedRecheckWords,
+  MISSED_RECHECK_POINTS,
+  MISSED_RECHECK_MAX_POINTS,
+  type MissedRecheck,
+  type ScoreEvidence,
   type RepeatLeakScore,
   type ScoreBand,
   type ScoreFactor,

@@ -70,8 +70,27 @@ export function rechecksFromHistory(
   asOf: string,
   settings: Settings = DEFAULT_SETTINGS,
 ): RecheckSummary {
-  const asOfDay = dayOf(isoToMs(asOf));
-  const verdicts = pressureVerdicts(unit, events, settings);
+  return rechecksOf(events, dayOf(isoToMs(asOf)), settings, pressureVerdicts(unit, events, settings));
+}
+
+/**
+ * The re-checks of a history already in time order, as of a day number, without judging the readings that answered
+ * them (the repeat-leak score needs only which were missed).
+ */
+export function recheckDates(
+  events: readonly DepotEvent[],
+  asOfDay: number,
+  settings: Settings = DEFAULT_SETTINGS,
+): RecheckSummary {
+  return rechecksOf(events, asOfDay, settings, new Map());
+}
+
+function rechecksOf(
+  events: readonly DepotEvent[],
+  asOfDay: number,
+  settings: Settings,
+  verdicts: Map<number, Verdict>,
+): RecheckSummary {
   const repairedVisits = new Set<string>();
   const leakVisits = new Set<string>();
   for (const e of events) {

@@ -1,4 +1,5 @@
 import { isoDate } from './dates';
+import { fmtIsoDay } from '../format-dates';
 import { DomainError } from './errors';
 import { isFiniteNumber, roundTo } from './numbers';
 import { termLabel, LEAK_LOCATIONS, type LeakLocationId } from './service-terms';
@@ -17,10 +18,57 @@ export interface ScoreFactor {
   explanation: string;
 }
 
+/** A re-check after a top-up or repair whose day passed without one (shared/domain/rechecks.ts). */
+export interface MissedRecheck {
+  reason: 'top_up' | 'repair';
+  /** Day of the top-up or repair (ISO). */
+  sourceOn: string;
+  dueOn: string;
+  /** Day it was done after all, or null. */
+  doneOn: string | null;
+}
+
+/** Evidence the record holds beside the four factors: re-checks missed in the trailing window. */
+export interface ScoreEvidence {
+  points: number;
+  explanation: string;
+  /** One line per missed re-check, newest first. */
+  items: string[];
+}
+
 export interface RepeatLeakScore {
   value: number;
   band: ScoreBand;
   factors: Record<ScoreFactorName, ScoreFactor>;
+  missedRechecks: ScoreEvidence;
+}
+
+// Common practice, no published source: a re-check nobody made leaves a top-up or repair unverified, which is what a
+// repeat leaker's record looks like; recorded fact, so it counts — 5 points each, at most 10, on top of the factors.
+// The 30-day re-check after a repair is the leak check Regulation (EU) 2024/573 asks for within one month of a repair.
+export const MISSED_RECHECK_POINTS = 5;
+export const MISSED_RECHECK_MAX_POINTS = 10;
+
+/** A missed re-check in words: "Re-check after the top-up of 3 Mar 2026 missed (due 4 Mar 2026, not done)". */
+export function missedRecheckWords(m: MissedRecheck): string {
+  const what =
+    m.reason === 'top_up'
+      ? `Re-check after the top-up of ${fmtIsoDay(m.sourceOn)}`
+      : `Leak check after the repair of ${fmtIsoDay(m.sourceOn)}`;
+  return `${what} missed (due ${fmtIsoDay(m.dueOn)}, ${m.doneOn ? `done ${fmtIsoDay(m.doneOn)}` : 'not done'}).`;
+}
+
+function missedRecheckEvidence(missed: readonly MissedRecheck[], rollingDays: number): ScoreEvidence {
+  const n = missed.length;
+  const points = Math.min(MISSED_RECHECK_MAX_POINTS, n * MISSED_RECHECK_POINTS);
+  return {
+    points,
+    explanation:
+      n === 0
+        ? `No re-check missed in the last ${rollingDays} days.`
+        : `${plural(n, 're-check', 're-checks')} after a top-up or repair missed in the last ${rollingDays} days: ${MISSED_RECHECK_POINTS} points each, at most ${MISSED_RECHECK_MAX_POINTS}.`,
+    items: [...missed].sort((a, b) => (a.dueOn < b.dueOn ? 1 : a.dueOn > b.dueOn ? -1 : 0)).map(missedRecheckWords),
+  };
 }
 
 /** What the score is computed from (DOMAIN.md §6), all as of one day. */
@@ -36,6 +84,8 @@ export interface ScoreInputs {
   sameSpot: { location: LeakLocationId; visits: number } | null;
   /** Start of the rolling window when a verified repair cut it short (ISO date), for the explanation. */
   rollingSince?: string | null;
+  /** Re-checks missed with their due day in the trailing window (evidence, not a factor). */
+  missedRechecks?: readonly MissedRecheck[];
 }
 
 /** Band of a score: below watchFrom "tight", below chronicFrom "watch", else "chronic" (DOMAIN.md §6). */
@@ -52,7 +102,8 @@ function plural(n: number, one: string, many: string): string {
 /**
  * Repeat-leak score = round(100 × Σ weight × factor), factors per DOMAIN.md §6 (our definition):
  * rate = min(1, rolling % / cap); count = min(1, max(0, visits − 1) / 3);
- * afterRepair = 1 within 180 days of a repair, 0.5 within 181–365, else 0; sameSpot = 1 for a location on ≥ 2 visits.
+ * afterRepair = 1 within 180 days of a repair, 0.5 within 181–365, else 0; sameSpot = 1 for a location on ≥ 2 visits;
+ * plus the evidence points of missed re-checks (MISSED_RECHECK_POINTS), capped at 100.
  */
 export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAULT_SETTINGS): RepeatLeakScore {
   const { rollingLeakRatePct: rate, visitsWithMadeUp, daysFromRepairToRecurrence: gap, sameSpot } = inputs;
@@ -111,8 +162,9 @@ export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAUL
     ),
   };
   const raw = 100 * (w.rate * fRate + w.count * fCount + w.afterRepair * fAfter + w.sameSpot * fSame);
-  const value = Math.min(100, Math.max(0, Math.round(raw)));
-  return { value, band: scoreBand(value, settings), factors };
+  const missedRechecks = missedRecheckEvidence(inputs.missedRechecks ?? [], rollingDays);
+  const value = Math.min(100, Math.max(0, Math.round(raw) + missedRechecks.points));
+  return { value, band: scoreBand(value, settings), factors, missedRechecks };
 }
 
 export interface ScoreVisit {

@@ -1,4 +1,4 @@
-import { addMonthsToDay, dayFromCivil, dayOf, isoDate, parseAsOf, parseIso, yearOfDay } from './dates';
+import { addMonthsToDay, dayFromCivil, dayOf, isoDate, isoToMs, parseAsOf, parseIso, yearOfDay } from './dates';
 import { co2eTonnes as co2eOf, leakCheckIntervalForPolicy, CHRONIC_CALENDAR_YEAR_SHARE_PCT } from './emissions';
 import { DomainError } from './errors';
 import { prepareHistory, type PressureEvent, type PtiEvent, type UnitEvent, type VisitStats } from './events';
@@ -15,7 +15,8 @@ import { annualizedLeakRatePct, firstVisitInWindow, rollingSeries } from './leak
 import { isFiniteNumber, roundTo } from './numbers';
 import { pressureHealthFromReadings, type PressureHealth, type PressureSnapshot } from './pressure-health';
 import { getRefrigerant, type RefrigerantCode } from './refrigerants';
-import { repeatLeakScore, scoreInputsFromVisits, type RepeatLeakScore } from './score';
+import { recheckDates, type DepotEvent } from './rechecks';
+import { repeatLeakScore, scoreInputsFromVisits, type MissedRecheck, type RepeatLeakScore } from './score';
 import type { LeakLocationId } from './service-terms';
 import type { Settings } from '../schemas/settings';
 import { DEFAULT_SETTINGS } from '../schemas/settings';
@@ -117,6 +118,34 @@ export function unitForecastTimeline(
   return computeAll(unit, events, asOf, settings, null).timeline;
 }
 
+/** Re-checks missed with their due day in the trailing window, from the events in time order (visits as the engine has them). */
+function missedRechecksOf(
+  history: ReturnType<typeof prepareHistory>,
+  asOfDay: number,
+  settings: Settings,
+): MissedRecheck[] {
+  const depotEvents: DepotEvent[] = [];
+  for (let k = 0; k < history.count; k++) {
+    const e = history.source[history.order[k]];
+    if (e.kind !== 'top_up' && e.kind !== 'repair' && e.kind !== 'leak_check' && e.kind !== 'pressure') continue;
+    depotEvents.push({
+      id: k,
+      kind: e.kind,
+      at: e.at,
+      visitId: String(history.visitOf[k]),
+      leakFound: e.kind === 'leak_check' ? e.leakFound : null,
+      excluded: e.kind === 'top_up' ? e.excluded : null,
+    });
+  }
+  const windowStart = asOfDay - settings.windows.rollingDays;
+  const out: MissedRecheck[] = [];
+  for (const c of recheckDates(depotEvents, asOfDay, settings).rechecks) {
+    if (!c.missed || dayOf(isoToMs(c.dueOn)) <= windowStart) continue;
+    out.push({ reason: c.reason, sourceOn: isoDate(dayOf(isoToMs(c.sourceAt))), dueOn: c.dueOn, doneOn: c.doneOn });
+  }
+  return out;
+}
+
 function computeAll(
   unit: UnitInput,
   events: readonly UnitEvent[],
@@ -160,13 +189,16 @@ function computeAll(
   const calendarPct = (calendarKg / full) * 100;
 
   const score = repeatLeakScore(
-    scoreInputsFromVisits(
-      visits,
-      asOfDay,
-      rollingPct,
-      settings,
-      repairCutsWindow ? visits[series.lastRepair].day : null,
-    ),
+    {
+      ...scoreInputsFromVisits(
+        visits,
+        asOfDay,
+        rollingPct,
+        settings,
+        repairCutsWindow ? visits[series.lastRepair].day : null,
+      ),
+      missedRechecks: missedRechecksOf(history, asOfDay, settings),
+    },
     settings,
   );
 

@@ -2,16 +2,21 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { computeUnitStats, DomainError, repeatLeakScore, scoreBand } from '../../../shared/domain';
 import { settingsSchema } from '../../../shared/schemas/settings';
+import { fmtIsoDay } from '../../../shared/format-dates';
 import { D, day, historyArb, section6Events, unitArb } from './helpers';
 
 const unit = { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-2000) };
 
 describe('repeat-leak score, DOMAIN.md §6 example', () => {
-  it('scores the §6 unit 64, chronic', () => {
+  it('scores the §6 unit 64 from its factors, plus 10 for the re-checks its record shows missed, chronic', () => {
     // Our definition (DOMAIN.md §6): f_rate 0.8/5 = 16 % → 0.32; f_count (3−1)/3 = 0.667; f_after_repair 1 (110 days);
-    // f_same_spot 1 → round(100 × (0.128 + 0.1667 + 0.2 + 0.15)) = round(64.47) = 64, "chronic"
+    // f_same_spot 1 → round(100 × (0.128 + 0.1667 + 0.2 + 0.15)) = round(64.47) = 64, "chronic".
+    // The history has no reading the day after any top-up and no leak check within 30 days of the repair: 3 re-checks
+    // missed (D−299, D−120, D−39), 5 points each, at most 10 → 74.
     const s = computeUnitStats(unit, section6Events, D).score;
-    expect(s.value).toBe(64);
+    expect(s.value).toBe(74);
+    expect(s.missedRechecks.points).toBe(10);
+    expect(s.missedRechecks.items).toHaveLength(3);
     expect(s.band).toBe('chronic');
     expect(s.factors.rate).toMatchObject({ value: 0.32, weight: 0.4, points: 12.8 });
     expect(s.factors.count).toMatchObject({ value: 0.6667, weight: 0.25, points: 16.7 });
@@ -35,12 +40,15 @@ describe('repeat-leak score, DOMAIN.md §6 example', () => {
 });
 
 describe('repeat-leak score, our worked examples', () => {
-  it('scores a unit with one small top-up 8, tight', () => {
+  it('scores a unit with one small top-up 8, plus 5 for its missed re-check, tight', () => {
     // Our worked example: 5 kg unit, 0.5 kg on D−200, nothing else.
     // rate 0.5/5 = 10 % → 10/50 = 0.2 → 0.40 × 0.2 = 0.08; count (1−1)/3 = 0; after repair 0; same spot 0
-    // → round(100 × 0.08) = 8, "tight"
+    // → round(100 × 0.08) = 8; nobody came back the next day: one missed re-check, 5 points → 13, "tight"
     const s = computeUnitStats(unit, [{ kind: 'top_up', at: day(-200), kg: 0.5 }], D).score;
-    expect(s).toMatchObject({ value: 8, band: 'tight' });
+    expect(s).toMatchObject({ value: 13, band: 'tight' });
+    expect(s.missedRechecks.items).toEqual([
+      `Re-check after the top-up of ${fmtIsoDay(day(-200))} missed (due ${fmtIsoDay(day(-199))}, not done).`,
+    ]);
     expect(s.factors.count.explanation).toContain('1 visit with');
     expect(s.factors.afterRepair.explanation).toContain('No leak came back');
     expect(s.factors.sameSpot.explanation).toContain('No leak location found twice');
@@ -53,7 +61,8 @@ describe('repeat-leak score, our worked examples', () => {
     // count (2−1)/3 = 0.3333 → 25 × 0.3333 = 8.33 points
     // after repair: first recurrence 230 days after the repair → 0.5 → 10 points
     // same spot: brazed joint and condenser coil differ → 0
-    // → round(40 + 8.33 + 10) = 58, "watch"
+    // → round(40 + 8.33 + 10) = 58; re-checks missed: the repair's (due D−300, leak check only on D−100) and both
+    // top-ups' (the next day) → 3, at most 10 points → 68, "chronic"
     const s = computeUnitStats(
       { refrigerant: 'R-134a', nominalChargeKg: 4, commissionedOn: day(-1000) },
       [
@@ -69,7 +78,8 @@ describe('repeat-leak score, our worked examples', () => {
     expect(s.factors.count.value).toBeCloseTo(0.3333, 4);
     expect(s.factors.afterRepair.value).toBe(0.5);
     expect(s.factors.sameSpot.value).toBe(0);
-    expect(s).toMatchObject({ value: 58, band: 'watch' });
+    expect(s).toMatchObject({ value: 68, band: 'chronic' });
+    expect(s.missedRechecks.points).toBe(10);
   });
 
   it('does not count two leaks at "other" as the same spot', () => {
@@ -129,6 +139,79 @@ describe('repeat-leak score, our worked examples', () => {
     expect(() => repeatLeakScore({ ...ok, rollingLeakRatePct: -1 })).toThrow(DomainError);
     expect(() => repeatLeakScore({ ...ok, visitsWithMadeUp: 1.5 })).toThrow(/whole number/);
     expect(() => repeatLeakScore({ ...ok, daysFromRepairToRecurrence: Number.NaN })).toThrow(/0 or more/);
+  });
+});
+
+describe('repeat-leak score, missed re-checks as evidence', () => {
+  it('lists each missed re-check with its days and weighs it, newest first', () => {
+    const s = computeUnitStats(
+      unit,
+      [
+        { kind: 'top_up', at: `${day(-60)}T10:00:00Z`, kg: 0.3, visitId: 'a' },
+        { kind: 'repair', at: `${day(-50)}T10:00:00Z`, location: 'service_valve', verified: false, visitId: 'b' },
+      ],
+      D,
+    ).score;
+    expect(s.missedRechecks.items).toEqual([
+      `Leak check after the repair of ${fmtIsoDay(day(-50))} missed (due ${fmtIsoDay(day(-20))}, not done).`,
+      `Re-check after the top-up of ${fmtIsoDay(day(-60))} missed (due ${fmtIsoDay(day(-59))}, not done).`,
+    ]);
+    expect(s.missedRechecks.points).toBe(10);
+    expect(s.missedRechecks.explanation).toContain('2 re-checks');
+  });
+
+  it('counts nothing when the re-check came in time, and says when one came late', () => {
+    const inTime = computeUnitStats(
+      unit,
+      [
+        { kind: 'top_up', at: `${day(-60)}T10:00:00Z`, kg: 0.3, visitId: 'a' },
+        { kind: 'pressure', at: `${day(-59)}T09:00:00Z`, visitId: 'b', sightGlass: 'full' },
+      ],
+      D,
+    ).score;
+    expect(inTime.missedRechecks).toMatchObject({ points: 0, items: [] });
+    expect(inTime.missedRechecks.explanation).toBe('No re-check missed in the last 365 days.');
+    const late = computeUnitStats(
+      unit,
+      [
+        { kind: 'top_up', at: `${day(-60)}T10:00:00Z`, kg: 0.3, visitId: 'a' },
+        { kind: 'leak_check', at: `${day(-40)}T09:00:00Z`, visitId: 'b', leakFound: false },
+      ],
+      D,
+    ).score;
+    expect(late.missedRechecks.items).toEqual([
+      `Re-check after the top-up of ${fmtIsoDay(day(-60))} missed (due ${fmtIsoDay(day(-59))}, done ${fmtIsoDay(day(-40))}).`,
+    ]);
+    expect(late.value).toBe(inTime.value + 5);
+  });
+
+  it('leaves out re-checks due before the trailing window and a top-up fixed in its visit', () => {
+    const s = computeUnitStats(
+      unit,
+      [
+        { kind: 'top_up', at: `${day(-400)}T10:00:00Z`, kg: 0.3, visitId: 'old' },
+        { kind: 'leak_check', at: `${day(-30)}T10:00:00Z`, leakFound: true, location: 'service_valve', visitId: 'f' },
+        { kind: 'repair', at: `${day(-30)}T10:05:00Z`, location: 'service_valve', verified: true, visitId: 'f' },
+        { kind: 'top_up', at: `${day(-30)}T10:10:00Z`, kg: 0.5, visitId: 'f' },
+      ],
+      D,
+    ).score;
+    // The repair's own re-check is due D+0 (30 days): not missed yet; the old top-up's was due before the window.
+    expect(s.missedRechecks.items).toEqual([]);
+  });
+
+  it('never pushes the score past 100', () => {
+    const s = repeatLeakScore({
+      rollingLeakRatePct: 80,
+      visitsWithMadeUp: 5,
+      daysFromRepairToRecurrence: 10,
+      sameSpot: { location: 'service_valve', visits: 3 },
+      missedRechecks: [
+        { reason: 'top_up', sourceOn: day(-10), dueOn: day(-9), doneOn: null },
+        { reason: 'repair', sourceOn: day(-100), dueOn: day(-70), doneOn: null },
+      ],
+    });
+    expect(s.value).toBe(100);
   });
 });
 

@@ -27,9 +27,9 @@ describe('computeUnitStats on the DOMAIN.md §6 unit', () => {
     expect(s.visits.map((v) => v.rollingRatePct)).toEqual([20, 0, 16]);
   });
 
-  it('scores 64 and forecasts D+70', () => {
-    // Our definition (DOMAIN.md §6 and §7 examples)
-    expect(s.score).toMatchObject({ value: 64, band: 'chronic' });
+  it('scores 64 from its factors and 74 with its 3 missed re-checks, and forecasts D+70', () => {
+    // Our definition (DOMAIN.md §6 and §7 examples); the missed re-checks weigh 5 points each, at most 10
+    expect(s.score).toMatchObject({ value: 74, band: 'chronic', missedRechecks: { points: 10 } });
     expect(s.forecast?.date).toBe(day(70));
   });
 

@@ -1,6 +1,13 @@
 import { differenceInCalendarDays, parseISO } from 'date-fns';
 import { useId, useState, type ReactNode } from 'react';
-import { LEAK_LOCATIONS, termLabel, type ScoreBand, type ScoreFactorName } from '../../../../shared/domain';
+import {
+  LEAK_LOCATIONS,
+  MISSED_RECHECK_MAX_POINTS,
+  termLabel,
+  type ScoreBand,
+  type ScoreEvidence,
+  type ScoreFactorName,
+} from '../../../../shared/domain';
 import { PRESSURE_FLAG_WORDS } from '../../../../shared/domain/words';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { Caution } from '../../../components/ui/caution';
@@ -91,6 +98,28 @@ function Flag({ tone, children }: { tone: 'alarm' | 'heed' | 'okay'; children: R
   );
 }
 
+/** Re-checks the record shows missed: facts from the history, weighed on top of the four factors. */
+function MissedRechecks({ evidence }: { evidence: ScoreEvidence }) {
+  return (
+    <li className="flex flex-col gap-1" data-testid="score-missed-rechecks">
+      <div className="flex items-baseline justify-between gap-2">
+        <span className="font-semibold">Re-checks missed</span>
+        <span className="text-sm tabular-nums">
+          <span className="font-bold">{fmtNumber(evidence.points, 1)}</span> of {MISSED_RECHECK_MAX_POINTS} points
+        </span>
+      </div>
+      <p className="text-sm text-ink-700">{evidence.explanation}</p>
+      {evidence.items.length > 0 && (
+        <ul className="list-disc pl-5 text-sm text-ink-800">
+          {evidence.items.map((item) => (
+            <li key={item}>{item}</li>
+          ))}
+        </ul>
+      )}
+    </li>
+  );
+}
+
 function ScoreCard({ stats }: { stats: UnitStatsDto }) {
   const [open, setOpen] = useState(false);
   const panelId = useId();
@@ -151,6 +180,7 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
                   </li>
                 );
               })}
+              {detail.score.missedRechecks && <MissedRechecks evidence={detail.score.missedRechecks} />}
             </ul>
           ) : (
             <p>The breakdown is not available yet.</p>
