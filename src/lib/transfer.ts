@@ -13,8 +13,18 @@ function errorFrom(status: number, body: unknown, fallback: string): ApiError {
   return new ApiError(status, status >= 500 ? 'server_error' : 'http_error', fallback);
 }
 
-/** POSTs a form; XMLHttpRequest rather than fetch because only it reports upload progress. Resolves the JSON answer. */
-export function uploadForm<T>(url: string, form: FormData, onProgress?: (p: TransferProgress) => void): Promise<T> {
+const UPLOAD_FAILED: Record<number, string> = { 413: 'The file is too large.' };
+
+/**
+ * POSTs a form; XMLHttpRequest rather than fetch because only it reports upload progress, which matters on a depot's
+ * slow connection. Resolves the JSON answer; `failed` words a refusal by status when the server's body has none.
+ */
+export function uploadForm<T>(
+  url: string,
+  form: FormData,
+  onProgress?: (p: TransferProgress) => void,
+  failed: Record<number, string> = UPLOAD_FAILED,
+): Promise<T> {
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
     xhr.open('POST', url);
@@ -33,10 +43,7 @@ export function uploadForm<T>(url: string, form: FormData, onProgress?: (p: Tran
         // Not JSON: the status decides.
       }
       if (xhr.status >= 200 && xhr.status < 300) resolve(json as T);
-      else
-        reject(
-          errorFrom(xhr.status, json, xhr.status === 413 ? 'The file is too large.' : 'The upload failed. Try again.'),
-        );
+      else reject(errorFrom(xhr.status, json, failed[xhr.status] ?? 'The upload failed. Try again.'));
     };
     xhr.send(form);
   });

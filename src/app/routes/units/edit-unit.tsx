@@ -3,13 +3,11 @@ import { useNavigate, useParams, type LoaderFunctionArgs } from 'react-router-do
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
 import { PageHeader, Panel } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { sitesQuery, useSites } from '../../../features/sites/api/get-sites';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { UnitForm } from '../../../features/units/components/unit-form';
-import { isApiError } from '../../../lib/api-client';
-import { LoadError } from '../../../components/ui/query-state';
+import { UnitLoadState } from '../../../features/units/components/unit-load-state';
 
 const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
 
@@ -33,24 +31,7 @@ function EditUnit({ id }: { id: number }) {
   const navigate = useNavigate();
   const unit = useUnit(id);
   const sites = useSites();
-  if (unit.isPending || sites.isPending) {
-    return (
-      <p role="status" className="flex items-center gap-3 text-lg">
-        <Spinner /> Loading…
-      </p>
-    );
-  }
-  if (unit.isError) {
-    if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
-    return (
-      <LoadError
-        title="The unit could not be loaded"
-        error={unit.error}
-        onRetry={() => void unit.refetch()}
-        retrying={unit.isFetching}
-      />
-    );
-  }
+  if (unit.isPending || unit.isError || sites.isPending) return <UnitLoadState unit={unit} loading="Loading…" />;
   const back = () => void navigate(paths.unit.getHref(id));
   return (
     <div className="flex flex-col gap-6">

@@ -5,7 +5,6 @@ import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
 import { Alert } from '../../../components/ui/alert';
 import { PageHeader } from '../../../components/ui/page';
-import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { RecordVisitForm } from '../../../features/history/components/record-visit-form';
 import { entryKindOf } from '../../../features/history/hooks/use-record-visit-form';
@@ -13,10 +12,9 @@ import type { CylinderSlot } from '../../../features/history/components/entry-ca
 import { CylinderPicker } from '../../../features/cylinders/components/cylinder-picker';
 import { unitQuery, useUnit } from '../../../features/units/api/get-unit';
 import { unitKeys } from '../../../features/units/api/keys';
-import { isApiError } from '../../../lib/api-client';
 import { useUser } from '../../../lib/auth';
-import { LoadError } from '../../../components/ui/query-state';
 import { fmtDay } from '../../../lib/format';
+import { UnitLoadState } from '../../../features/units/components/unit-load-state';
 
 // The camera scanner is large (zxing): loaded only when a cylinder label is scanned.
 const QrScanner = lazy(() =>
@@ -69,25 +67,8 @@ export default function RecordVisitPage() {
   const unit = useUnit(unitId ?? 0);
   const initialEntry = entryKindOf(useSearchParams()[0].get('entry'));
 
-  if (!unitId || (unit.isError && isApiError(unit.error) && unit.error.status === 404)) return <NotFound />;
-  if (unit.isPending) {
-    return (
-      <div role="status" className="flex items-center gap-3 p-6 text-ink-700">
-        <Spinner />
-        Loading the unit…
-      </div>
-    );
-  }
-  if (unit.isError) {
-    return (
-      <LoadError
-        title="The unit could not be loaded"
-        error={unit.error}
-        onRetry={() => void unit.refetch()}
-        retrying={unit.isFetching}
-      />
-    );
-  }
+  if (!unitId) return <NotFound />;
+  if (unit.isPending || unit.isError) return <UnitLoadState unit={unit} loading="Loading the unit…" />;
   const u = unit.data;
   const unitHref = paths.unit.getHref(u.id);
   return (

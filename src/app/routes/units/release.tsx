@@ -2,8 +2,6 @@ import { Link, useParams } from 'react-router-dom';
 import { formatContainerNumber } from '../../../../shared/domain';
 import { NotFound } from '../../../components/errors/not-found';
 import { PageHeader, Panel } from '../../../components/ui/page';
-import { LoadError } from '../../../components/ui/query-state';
-import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { useUnitDepot } from '../../../features/day/api/get-unit-depot';
 import { UnitDepotPanel } from '../../../features/day/components/unit-depot-panel';
@@ -12,8 +10,8 @@ import { QuarantineUnitsButton } from '../../../features/quarantine/components/q
 import { PtiChecklist } from '../../../features/release/components/pti-checklist';
 import { ReleaseButton } from '../../../features/release/components/release-button';
 import { useUnit } from '../../../features/units/api/get-unit';
-import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
+import { UnitLoadState } from '../../../features/units/components/unit-load-state';
 
 const unitIdOf = (raw: string | undefined) => {
   const n = Number(raw);
@@ -25,22 +23,8 @@ export default function UnitReleasePage() {
   const unitId = unitIdOf(useParams().id);
   const unit = useUnit(unitId ?? 0);
   const depot = useUnitDepot(unitId ?? 0);
-  if (!unitId || (unit.isError && isApiError(unit.error) && unit.error.status === 404)) return <NotFound />;
-  if (unit.isPending)
-    return (
-      <div role="status" className="flex items-center gap-3 p-6 text-ink-700">
-        <Spinner /> Loading the unit…
-      </div>
-    );
-  if (unit.isError)
-    return (
-      <LoadError
-        title="The unit could not be loaded"
-        error={unit.error}
-        onRetry={() => void unit.refetch()}
-        retrying={unit.isFetching}
-      />
-    );
+  if (!unitId) return <NotFound />;
+  if (unit.isPending || unit.isError) return <UnitLoadState unit={unit} loading="Loading the unit…" />;
   const u = unit.data;
   const quarantined = depot.data?.quarantine != null;
   return (

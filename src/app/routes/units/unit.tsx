@@ -1,7 +1,6 @@
 import { useParams } from 'react-router-dom';
 import { NotFound } from '../../../components/errors/not-found';
 import { ButtonLink } from '../../../components/ui/button';
-import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { ServiceHistory } from '../../../features/history/components/service-history';
 import { useUnit } from '../../../features/units/api/get-unit';
@@ -11,10 +10,9 @@ import { UnitIdentity } from '../../../features/units/components/unit-identity';
 import { UnitLabelActions } from '../../../features/labels/components/unit-label-actions';
 import { HandoverDownload } from '../../../features/handover/components/handover-download';
 import { UnitDepotPanel } from '../../../features/day/components/unit-depot-panel';
-import { isApiError } from '../../../lib/api-client';
 import { Can } from '../../../lib/can';
-import { LoadError } from '../../../components/ui/query-state';
 import { unitIdOf } from './unit-data';
+import { UnitLoadState } from '../../../features/units/components/unit-load-state';
 
 // A visit or a void can change the unit's own record (its status), so the registry's copy is refreshed too.
 const historyChangesUnit = (unitId: number) => [unitKeys.detail(unitId)];
@@ -28,27 +26,7 @@ export default function UnitPage() {
 function UnitRecord({ id }: { id: number }) {
   const unit = useUnit(id);
 
-  if (unit.isPending) {
-    return (
-      <div
-        role="status"
-        className="flex items-center gap-3 rounded-lg border-2 border-ink-200 bg-white p-6 text-lg text-ink-700"
-      >
-        <Spinner /> Opening the unit…
-      </div>
-    );
-  }
-  if (unit.isError) {
-    if (isApiError(unit.error) && unit.error.status === 404) return <NotFound />;
-    return (
-      <LoadError
-        title="The unit could not be loaded"
-        error={unit.error}
-        onRetry={() => void unit.refetch()}
-        retrying={unit.isFetching}
-      />
-    );
-  }
+  if (unit.isPending || unit.isError) return <UnitLoadState unit={unit} loading="Opening the unit…" />;
 
   return (
     <div className="flex flex-col gap-6">
