@@ -10,6 +10,7 @@ import canonicalize from 'canonicalize';
 import { extractText, getDocumentProxy } from 'unpdf';
 import { createApp } from '../../server/app';
 import { createLocalStorage } from '../../server/lib/storage';
+import { fmtPct } from '../../shared/format';
 import type { HandoverExport } from '../../shared/schemas/handover';
 import type { UnitDecisionDto } from '../../shared/schemas/decisions';
 import { openTestDb, resetDb } from '../support/db';
@@ -130,6 +131,14 @@ describe('the handover PDF', () => {
     expect(text).toContain('Typed on the wrong unit');
     expect(text).toContain('brazed-joint.png');
     expect(text).toMatch(/chose Repair/i);
+    // Numbers by the screens' rule (shared/format.ts): "34 %", never "34.0 %"; kilograms to 10 g.
+    const figures = ((await owner.get(`/api/units/${unitId}/handover.json`)).body as HandoverExport).record.figures!;
+    expect(text).toContain(`${fmtPct(figures.rollingLeakRatePct)} of the full charge over 365 days`);
+    expect(text).toMatch(
+      new RegExp(`Calendar-year share\\s*${fmtPct(figures.calendarYearSharePct).replace('.', '\\.')}`),
+    );
+    expect(text).not.toMatch(/\d\.0 %/);
+    expect(text).not.toMatch(/\d\.\d{3} kg/);
     // Kept for looking at the pages (scripts/handover-preview renders page 1).
     const dir = process.env.HANDOVER_PDF_DIR;
     if (dir) {

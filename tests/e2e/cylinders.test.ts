@@ -8,6 +8,8 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { cylinderMoves, cylinders, cylinderWeighings, users } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
+import { fmtKg, fmtPct } from '../../shared/format';
+import type { CylinderDetailDto } from '../../shared/schemas/cylinders';
 import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
 import { createHistoryUnit } from '../support/history';
 
@@ -114,6 +116,14 @@ describe('cylinders on visits', () => {
           .click();
         await page.getByRole('heading', { name: /^Cylinder / }).waitFor();
         await page.getByRole('heading', { name: 'Weighings' }).waitFor();
+        // Kilograms and the fill by the one number rule of every screen (shared/format.ts).
+        const id = /\/cylinders\/(\d+)$/.exec(page.url())![1];
+        const { cylinder } = (await (await page.request.get(`/api/cylinders/${id}`)).json()) as CylinderDetailDto;
+        const { contentKg, fillPct } = cylinder.ledger;
+        if (contentKg != null && fillPct != null) {
+          const fill = `About ${fmtKg(Math.max(0, contentKg))} of ${fmtKg(cylinder.capacityKg)} (${fmtPct(Math.min(100, Math.max(0, fillPct)))})`;
+          await page.getByText(fill).waitFor();
+        }
         if (SCREENS) {
           await page.evaluate(() => window.scrollTo(0, 0));
           await page.screenshot({ path: path.join(SCREENS, `cylinder-page-${viewport.width}.png`), fullPage: true });

@@ -1,6 +1,7 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
-import { pdfText } from '../../server/features/handover/handover-pdf';
+import { eventSummary, figureRows, pdfText } from '../../server/features/handover/handover-pdf';
+import type { HandoverEvent, HandoverExport } from '../../shared/schemas/handover';
 
 describe('text written into the handover PDF', () => {
   it('turns every character the standard font cannot encode into something it can (control and C1 characters, emoji)', async () => {
@@ -15,5 +16,43 @@ describe('text written into the handover PDF', () => {
     for (let code = 0; code < 0x300; code++) {
       expect(() => font.widthOfTextAtSize(pdfText(String.fromCodePoint(code)), 10)).not.toThrow();
     }
+  });
+});
+
+describe('numbers written into the handover PDF', () => {
+  it('follows the screens’ rule: a whole leak rate without ".0", kilograms to 10 g, a true minus made plain later', () => {
+    const x = {
+      record: {
+        figures: {
+          rollingLeakRatePct: 34,
+          calendarYearSharePct: 12.04,
+          score: 61,
+          scoreBand: 'watch',
+          leakCheckIntervalMonths: null,
+          nextLeakCheckDue: null,
+          ptiPassed: null,
+          ptiValidUntil: null,
+          pressureFlag: 'ok',
+          forecast: null,
+          computedAt: '2026-06-01T12:00:00.000Z',
+          computeError: null,
+          detail: null,
+        },
+      },
+    } as unknown as HandoverExport;
+    const rows = Object.fromEntries(figureRows(x));
+    expect(rows['Rolling leak rate']).toBe('34 % of the full charge over 365 days');
+    expect(rows['Calendar-year share']).toBe('12 %');
+
+    const topUp = { kind: 'top_up', kg: 0.125, details: {}, note: null } as unknown as HandoverEvent;
+    expect(eventSummary(topUp)).toBe('Added 0.13 kg');
+    const reading = {
+      kind: 'pressure',
+      suctionKPaG: 1234.4,
+      ambientC: -5,
+      details: {},
+      note: null,
+    } as unknown as HandoverEvent;
+    expect(eventSummary(reading)).toBe('suction 1,234 kPa(g); ambient −5 °C');
   });
 });

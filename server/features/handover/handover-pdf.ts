@@ -14,6 +14,7 @@ import {
   termLabel,
 } from '../../../shared/domain';
 import type { HandoverEvent, HandoverExport } from '../../../shared/schemas/handover';
+import { fmtC, fmtCount, fmtKg, fmtMoney, fmtNumber, fmtPct, fmtTonnes } from '../../../shared/format';
 
 const GREY = rgb(0.42, 0.42, 0.42);
 const LIGHT = rgb(0.88, 0.88, 0.88);
@@ -59,7 +60,7 @@ export function pdfText(s: string): string {
 
 const day = (iso: string) => iso.slice(0, 10);
 const when = (iso: string) => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
-const kg = (v: number | null | undefined) => (v == null ? '-' : `${Number(v.toFixed(3))} kg`);
+const kg = (v: number | null | undefined) => (v == null ? '-' : fmtKg(v));
 
 function wrap(font: PDFFont, text: string, size: number, width: number): string[] {
   const out: string[] = [];
@@ -114,10 +115,10 @@ export function eventSummary(e: HandoverEvent): string {
       parts.push(e.passed ? 'passed' : 'failed');
       break;
     case 'pressure': {
-      if (e.suctionKPaG != null) parts.push(`suction ${e.suctionKPaG} kPa(g)`);
-      if (e.dischargeKPaG != null) parts.push(`discharge ${e.dischargeKPaG} kPa(g)`);
-      if (e.ambientC != null) parts.push(`ambient ${e.ambientC} °C`);
-      if (e.setPointC != null) parts.push(`set point ${e.setPointC} °C`);
+      if (e.suctionKPaG != null) parts.push(`suction ${fmtNumber(e.suctionKPaG, 0)} kPa(g)`);
+      if (e.dischargeKPaG != null) parts.push(`discharge ${fmtNumber(e.dischargeKPaG, 0)} kPa(g)`);
+      if (e.ambientC != null) parts.push(`ambient ${fmtC(e.ambientC)}`);
+      if (e.setPointC != null) parts.push(`set point ${fmtC(e.setPointC)}`);
       if (e.sightGlass) parts.push(`sight glass ${termLabel(SIGHT_GLASS_STATES, e.sightGlass).toLowerCase()}`);
       break;
     }
@@ -147,9 +148,7 @@ type DecisionDetails = {
   assumptions?: Record<string, unknown>;
 };
 
-function money(v: number, currency: string) {
-  return `${currency} ${Math.round(v).toLocaleString('en')}`;
-}
+const money = (v: number, currency: string) => fmtMoney(v, currency || undefined);
 
 function decisionLine(e: HandoverEvent): string {
   const d = (e.details ?? {}) as DecisionDetails;
@@ -344,19 +343,20 @@ function drawTimeline(w: Writer, x: HandoverExport) {
   );
 }
 
-function figures(x: HandoverExport): [string, string][] {
+/** The figures table on page 1, in the screens' number rules. */
+export function figureRows(x: HandoverExport): [string, string][] {
   const f = x.record.figures;
   if (!f) return [['Figures', 'Not computed yet']];
   if (f.computeError) return [['Figures', `Could not be computed from this record: ${f.computeError}`]];
   const rows: [string, string][] = [
-    ['Rolling leak rate', `${f.rollingLeakRatePct.toFixed(1)} % of the full charge over 365 days`],
-    ['Calendar-year share', `${f.calendarYearSharePct.toFixed(1)} %`],
+    ['Rolling leak rate', `${fmtPct(f.rollingLeakRatePct)} of the full charge over 365 days`],
+    ['Calendar-year share', fmtPct(f.calendarYearSharePct)],
     ['Repeat-leak score', `${f.score} of 100 (${f.scoreBand})`],
   ];
   const factors = (f.detail?.score as { factors?: Record<string, { explanation: string; points: number }> } | undefined)
     ?.factors;
   for (const [name, factor] of Object.entries(factors ?? {})) {
-    rows.push([`  ${name}`, `${factor.points.toFixed(1)} points: ${factor.explanation}`]);
+    rows.push([`  ${name}`, `${fmtNumber(factor.points, 1)} points: ${factor.explanation}`]);
   }
   rows.push(
     [
@@ -413,7 +413,7 @@ async function drawAttachments(w: Writer, doc: PDFDocument, x: HandoverExport, t
     const h = thumb ? 24 * MM : 0;
     w.need(h + 14);
     w.para(
-      `${a.name} (${a.mimeType}, ${(a.sizeBytes / 1024).toFixed(0)} KB) on entry #${e.id} of ${day(e.occurredAt)}; SHA-256 ${a.sha256}`,
+      `${a.name} (${a.mimeType}, ${fmtCount(a.sizeBytes / 1024)} KB) on entry #${e.id} of ${day(e.occurredAt)}; SHA-256 ${a.sha256}`,
       {
         size: 7.5,
       },
@@ -462,7 +462,7 @@ export async function renderHandoverPdf(
     ['Commissioned', u.commissionedOn ?? '-'],
     ['Refrigerant', `${u.refrigerant} (GWP ${u.gwp}, 100-year, AR4)`],
     ['Full charge', kg(u.nominalChargeKg)],
-    ['CO2-equivalent', `${u.co2eTonnes.toFixed(2)} t CO2e (charge x GWP / 1000)`],
+    ['CO2-equivalent', `${fmtTonnes(u.co2eTonnes)} CO2e (charge x GWP / 1000)`],
     [
       'Refrigerant moved',
       `${kg(x.record.totals.addedKg)} added, ${kg(x.record.totals.recoveredKg)} recovered (voided entries not counted)`,
@@ -470,7 +470,7 @@ export async function renderHandoverPdf(
     ['Events', `${x.record.totals.events} entries, ${x.record.totals.voided} of them voided`],
   ]);
   w.heading('Figures and their reasons');
-  w.pairs(figures(x));
+  w.pairs(figureRows(x));
   step();
   w.heading('Timeline');
   drawTimeline(w, x);

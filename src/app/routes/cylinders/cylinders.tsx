@@ -8,6 +8,7 @@ import { LoadError } from '../../../components/ui/query-state';
 import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { Can } from '../../../lib/can';
+import { fmtKg } from '../../../lib/format';
 import { cylindersQuery, useCylinders } from '../../../features/cylinders/api/get-cylinders';
 import { CylinderForm } from '../../../features/cylinders/components/cylinder-form';
 import { CylinderImport } from '../../../features/cylinders/components/cylinder-import';
@@ -71,7 +72,7 @@ export default function CylindersPage() {
         {list.data && (
           <p className="text-base text-ink-700" role="status">
             {list.data.cylinders.length} cylinders · <strong>{flagged}</strong> with a mismatch over{' '}
-            {list.data.toleranceKg} kg · <strong>{nearFull}</strong> recovery cylinders near the maximum fill
+            {fmtKg(list.data.toleranceKg)} · <strong>{nearFull}</strong> recovery cylinders near the maximum fill
           </p>
         )}
       </div>

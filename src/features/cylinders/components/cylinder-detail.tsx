@@ -10,14 +10,15 @@ import {
 import { Alert } from '../../../components/ui/alert';
 import { Panel } from '../../../components/ui/page';
 import { Can } from '../../../lib/can';
+import { fmtDateTime as when, fmtKg as kg } from '../../../lib/format';
 import { CylinderCaution } from './cylinder-caution';
 import { CylinderStatusPanel } from './cylinder-status-panel';
 import { FillGauge } from './fill-gauge';
 import { ReconciliationBadge } from './reconciliation-badge';
 import { WeighingForm } from './weighing-form';
 
-const kg = (v: number) => `${Number(v.toFixed(2))} kg`;
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
+/** A mass that keeps its number and unit on one line when a row wraps. */
+const Mass = ({ kg: v }: { kg: number }) => <span className="whitespace-nowrap">{kg(v)}</span>;
 
 function Row({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -57,10 +58,10 @@ export function CylinderDetail({
             </Row>
             <Row label="Site">{c.site?.name ?? '—'}</Row>
             <Row label="Tare / maximum fill">
-              {kg(c.tareKg)} / {kg(c.capacityKg)}
+              <Mass kg={c.tareKg} /> / <Mass kg={c.capacityKg} />
             </Row>
             <Row label="Out to units / in from units">
-              {kg(c.ledger.outKg)} / {kg(c.ledger.inKg)}
+              <Mass kg={c.ledger.outKg} /> / <Mass kg={c.ledger.inKg} />
             </Row>
           </dl>
           <div className="mt-4 flex flex-col gap-3">

@@ -1,7 +1,6 @@
 import type { CylinderDto } from '../../../../shared/schemas/cylinders';
 import { cx } from '../../../components/ui/cx';
-
-const kg = (v: number) => `${Number(v.toFixed(2))} kg`;
+import { fmtKg, fmtPct } from '../../../lib/format';
 
 /** What the cylinder holds against the maker's marked maximum fill, as a bar with its numbers. */
 export function FillGauge({ cylinder }: { cylinder: CylinderDto }) {
@@ -26,7 +25,7 @@ export function FillGauge({ cylinder }: { cylinder: CylinderDto }) {
         />
       </div>
       <p className={cx('text-sm', nearFull ? 'font-semibold text-alarm-700' : 'text-ink-700')}>
-        About {kg(Math.max(0, contentKg))} of {kg(cylinder.capacityKg)} ({Math.round(pct)} %)
+        About {fmtKg(Math.max(0, contentKg))} of {fmtKg(cylinder.capacityKg)} ({fmtPct(pct)})
         {nearFull ? ' · near the maximum fill' : ''}
       </p>
     </div>

@@ -1,7 +1,6 @@
 import type { CylinderDto } from '../../../../shared/schemas/cylinders';
 import { cx } from '../../../components/ui/cx';
-
-const kg = (v: number) => `${Number(v.toFixed(2))} kg`;
+import { fmtKg as kg } from '../../../lib/format';
 
 /** Kilograms written on visits against kilograms the scale says left (or entered) the cylinder. */
 export function ReconciliationBadge({ cylinder, toleranceKg }: { cylinder: CylinderDto; toleranceKg: number }) {

@@ -3,6 +3,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
+import { fmtKg } from '../../../lib/format';
 import { useRecordWeighing } from '../api/cylinder-writes';
 
 /** A gross weighing (cylinder and contents) on the depot scale. */
@@ -18,7 +19,7 @@ export function WeighingForm({ cylinderId, tareKg }: { cylinderId: number; tareK
     <form onSubmit={submit} className="flex flex-col gap-3" aria-label="Record a weighing" noValidate>
       <TextField
         label="Gross weight (kg)"
-        hint={`Cylinder and contents on the scale; its tare is ${tareKg} kg.`}
+        hint={`Cylinder and contents on the scale; its tare is ${fmtKg(tareKg)}.`}
         inputMode="decimal"
         value={gross}
         onChange={(e) => setGross(e.target.value)}
