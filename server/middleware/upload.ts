@@ -9,7 +9,8 @@ import path from 'node:path';
 import { Transform } from 'node:stream';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
-import { HttpError } from '../lib/http-error';
+import { acceptCsvHead, acceptCsvUpload } from '../lib/csv-read';
+import { HttpError, badRequest } from '../lib/http-error';
 import { sniffMimeType } from '../lib/storage';
 import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES } from '../../shared/schemas/history';
 
@@ -205,6 +206,24 @@ function fileUpload(opts: Options): RequestHandler {
 /** One file (req.file), e.g. the fleet CSV. */
 export function singleFileUpload(opts: Omit<Options, 'maxFiles' | 'tooManyMessage'>): RequestHandler {
   return fileUpload({ ...opts, maxFiles: 1 });
+}
+
+/** One CSV file (req.file, field "file"), refused while it arrives when it is a workbook, a PDF or too large. */
+export function csvUpload(tempDir: string, maxBytes: number): RequestHandler {
+  return singleFileUpload({
+    field: 'file',
+    maxBytes,
+    limitText: `${maxBytes / 1024 / 1024} MB`,
+    tempDir,
+    acceptFile: acceptCsvUpload,
+    acceptHead: acceptCsvHead,
+  });
+}
+
+/** The CSV file the request carries, or a 400 that asks for one. */
+export function requireCsvFile(file: Express.Multer.File | undefined): Express.Multer.File {
+  if (!file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
+  return file;
 }
 
 /** Photos and documents of an entry (req.files): JPEG, PNG, WebP or PDF by their first bytes, whatever the name. */

@@ -10,10 +10,9 @@ import {
 } from '../../../shared/schemas/cylinders';
 import { cylinders } from '../../db/schema';
 import type { AppContext } from '../../lib/app-context';
-import { acceptCsvHead, acceptCsvUpload } from '../../lib/csv-read';
-import { badRequest, notFound } from '../../lib/http-error';
+import { notFound } from '../../lib/http-error';
 import { route } from '../../lib/route';
-import { singleFileUpload } from '../../middleware/upload';
+import { csvUpload, requireCsvFile } from '../../middleware/upload';
 import { sendPdf } from '../../lib/pdf/pdf-parts';
 import { renderCylinderLabel } from './cylinder-label';
 import { cylinderTemplateCsv, importCylinders } from './cylinder-import.service';
@@ -28,14 +27,7 @@ import {
 } from './cylinders.service';
 
 export function cylindersRoutes(ctx: AppContext) {
-  const csvUpload = singleFileUpload({
-    field: 'file',
-    maxBytes: MAX_CYLINDER_IMPORT_BYTES,
-    limitText: `${MAX_CYLINDER_IMPORT_BYTES / 1024 / 1024} MB`,
-    tempDir: ctx.storage.tempDir,
-    acceptFile: acceptCsvUpload,
-    acceptHead: acceptCsvHead,
-  });
+  const upload = csvUpload(ctx.storage.tempDir, MAX_CYLINDER_IMPORT_BYTES);
   return [
     route('get', '/api/cylinders', 'view:unit', async (req, res) => {
       res.json(await listCylinders(ctx, cylinderListQuerySchema.parse(req.query)));
@@ -84,10 +76,9 @@ export function cylindersRoutes(ctx: AppContext) {
       '/api/cylinder-imports',
       'manage:units',
       async (req, res) => {
-        if (!req.file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
-        res.status(201).json(await importCylinders(ctx, req.user!, req.file));
+        res.status(201).json(await importCylinders(ctx, req.user!, requireCsvFile(req.file)));
       },
-      [csvUpload],
+      [upload],
     ),
   ];
 }

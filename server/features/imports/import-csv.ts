@@ -4,7 +4,6 @@ import { readCsvTable, type CsvTable } from '../../lib/csv-read';
 import { IMPORT_COLUMNS, MAX_IMPORT_ROWS, type ImportField, type ImportMapping } from '../../../shared/schemas/imports';
 
 export type FleetCsv = CsvTable;
-export { acceptCsvHead, acceptCsvUpload } from '../../lib/csv-read';
 
 export async function readFleetCsv(file: string): Promise<FleetCsv> {
   return readCsvTable(file, { maxRows: MAX_IMPORT_ROWS, noun: 'unit' });

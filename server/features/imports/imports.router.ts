@@ -5,27 +5,13 @@ import {
   MAX_IMPORT_BYTES,
 } from '../../../shared/schemas/imports';
 import type { AppContext } from '../../lib/app-context';
-import { badRequest } from '../../lib/http-error';
-import { singleFileUpload } from '../../middleware/upload';
+import { csvUpload, requireCsvFile } from '../../middleware/upload';
 import { route } from '../../lib/route';
-import { acceptCsvHead, acceptCsvUpload } from './import-csv';
 import { commitImport, getImport, importTemplateCsv, previewImport } from './imports.service';
-
-function requireFile(file: Express.Multer.File | undefined): Express.Multer.File {
-  if (!file) throw badRequest('Choose a CSV file to upload.', { file: 'Choose a CSV file' });
-  return file;
-}
 
 export function importsRoutes(ctx: AppContext) {
   // Streamed to a temporary file and parsed from there; removed again when the response is sent.
-  const csvUpload = singleFileUpload({
-    field: 'file',
-    maxBytes: MAX_IMPORT_BYTES,
-    limitText: `${MAX_IMPORT_BYTES / 1024 / 1024} MB`,
-    tempDir: ctx.storage.tempDir,
-    acceptFile: acceptCsvUpload,
-    acceptHead: acceptCsvHead,
-  });
+  const upload = csvUpload(ctx.storage.tempDir, MAX_IMPORT_BYTES);
   return [
     route('get', '/api/unit-imports/template', 'manage:units', async (_req, res) => {
       res.setHeader('Content-Type', 'text/csv; charset=utf-8');
@@ -37,23 +23,23 @@ export function importsRoutes(ctx: AppContext) {
       '/api/unit-imports/preview',
       'manage:units',
       async (req, res) => {
-        const file = requireFile(req.file);
+        const file = requireCsvFile(req.file);
         const { mapping } = importPreviewFormSchema.parse(req.body ?? {});
         res.json({ preview: await previewImport(ctx.db, file, mapping) });
       },
-      [csvUpload],
+      [upload],
     ),
     route(
       'post',
       '/api/unit-imports',
       'manage:units',
       async (req, res) => {
-        const file = requireFile(req.file);
+        const file = requireCsvFile(req.file);
         const form = importCommitFormSchema.parse(req.body ?? {});
         const result = await commitImport(ctx, req.user!.id, file, form);
         res.status(201).json({ import: result });
       },
-      [csvUpload],
+      [upload],
     ),
     route('get', '/api/unit-imports/:key', 'manage:units', async (req, res) => {
       const { key } = importKeyParamSchema.parse(req.params);
