@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ROLES, type Role } from '../permissions';
 
 /** What an engineer can subscribe to, per site. */
 export const ALERT_KINDS = ['chronic', 'leak_rate', 'open_leak', 'recheck', 'digest'] as const;
@@ -23,19 +24,82 @@ export const ALERT_KIND_LABELS: Record<AlertKind, { title: string; description: 
 
 export const MAX_SUBSCRIPTIONS = 2000;
 
+/** How far a role's default reaches when the person never chose for a kind: every site, or the sites they work at. */
+export const DEFAULT_REACHES = ['all_sites', 'my_sites'] as const;
+export type DefaultReach = (typeof DEFAULT_REACHES)[number];
+
+/** "My sites": where the person recorded a visit within this many days. */
+export const MY_SITES_DAYS = 90;
+
+/**
+ * What a person follows until they choose for themselves. Engineers look after the units at the sites they work at;
+ * the owner decides about repeat leakers (retirement) across the fleet; the administrator sets the leak-rate policy
+ * and hears when a unit crosses it anywhere. Technicians get no alert mails: alerts link to fleet views they cannot
+ * open.
+ */
+export const ROLE_ALERT_DEFAULTS: Record<Role, Partial<Record<AlertKind, DefaultReach>>> = {
+  technician: {},
+  engineer: {
+    chronic: 'my_sites',
+    leak_rate: 'my_sites',
+    open_leak: 'my_sites',
+    recheck: 'my_sites',
+    digest: 'my_sites',
+  },
+  owner: { chronic: 'all_sites' },
+  admin: { leak_rate: 'all_sites' },
+};
+
+/** How a person follows one kind: their role's default, every site (also sites added later), or the sites ticked. */
+export const ALERT_SCOPES = ['default', 'all_sites', 'sites'] as const;
+export type AlertScope = (typeof ALERT_SCOPES)[number];
+
 export const subscriptionSchema = z.object({
   siteId: z.number().int().positive(),
   kind: z.enum(ALERT_KINDS, { message: 'Unknown alert kind' }),
 });
 
-export const putSubscriptionsSchema = z.object({
-  subscriptions: z.array(subscriptionSchema).max(MAX_SUBSCRIPTIONS),
-});
-export type PutSubscriptionsInput = z.infer<typeof putSubscriptionsSchema>;
+const kindListSchema = z.array(z.enum(ALERT_KINDS, { message: 'Unknown alert kind' })).max(ALERT_KINDS.length);
+
+/**
+ * The whole set at once. Kinds in `allSites` follow every site, kinds in `useDefaults` go back to the role's default;
+ * every other kind follows exactly the sites listed for it in `subscriptions` (none listed: no mails of that kind).
+ */
+export const putSubscriptionsSchema = z
+  .object({
+    subscriptions: z.array(subscriptionSchema).max(MAX_SUBSCRIPTIONS),
+    allSites: kindListSchema.default([]),
+    useDefaults: kindListSchema.default([]),
+  })
+  .superRefine((input, ctx) => {
+    input.useDefaults.forEach((kind, i) => {
+      if (input.allSites.includes(kind)) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['useDefaults', i],
+          message: 'Choose either all sites or the default for this alert, not both',
+        });
+      }
+    });
+  });
+export type PutSubscriptionsInput = z.input<typeof putSubscriptionsSchema>;
+export type PutSubscriptionsParsed = z.output<typeof putSubscriptionsSchema>;
 
 export const subscriptionsDto = z.object({
   sites: z.array(z.object({ id: z.number(), code: z.string(), name: z.string() })),
+  /** Every site each kind reaches today, defaults and "all sites" included. */
   subscriptions: z.array(subscriptionSchema),
+  kinds: z.array(
+    z.object({
+      kind: z.enum(ALERT_KINDS),
+      scope: z.enum(ALERT_SCOPES),
+      /** What the role's default would be for this kind; null = nothing by default. */
+      defaultReach: z.enum(DEFAULT_REACHES).nullable(),
+    }),
+  ),
+  role: z.enum(ROLES),
+  /** The sites the person recorded visits at in the last MY_SITES_DAYS days. */
+  mySiteIds: z.array(z.number()),
 });
 export type SubscriptionsDto = z.infer<typeof subscriptionsDto>;
 

@@ -1,10 +1,11 @@
 // The once-a-day mails: a digest per engineer for the sites they follow, and alerts for leaks left open too long.
 import { and, asc, count, eq, gte, inArray, isNotNull, lte, ne, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { alertSubscriptions, mailOutbox, sites, units, unitStats, users } from '../../db/schema';
+import { mailOutbox, sites, units, unitStats } from '../../db/schema';
 import { can } from '../../../shared/permissions';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
+import { followersOf } from '../../lib/alert-recipients';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail, type MailSection } from '../../lib/mail/layout';
 import {
@@ -100,19 +101,7 @@ async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf
 /** Queues today's digest for every person who follows it at some site (once per person and day). */
 export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
   const today = dayPlus(asOf, 0);
-  const subs = await db
-    .select({
-      userId: users.id,
-      email: users.email,
-      role: users.role,
-      siteId: alertSubscriptions.siteId,
-      siteName: sites.name,
-    })
-    .from(alertSubscriptions)
-    .innerJoin(users, eq(users.id, alertSubscriptions.userId))
-    .innerJoin(sites, eq(sites.id, alertSubscriptions.siteId))
-    .where(and(eq(alertSubscriptions.kind, 'digest'), eq(users.active, true)))
-    .orderBy(asc(sites.name));
+  const subs = await followersOf(db, 'digest', asOf);
   const people = new Map<string, { email: string; siteIds: number[]; siteNames: string[] }>();
   for (const s of subs) {
     if (!can(s, 'view:fleet')) continue;
@@ -168,10 +157,8 @@ export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): P
 
 /** Leaks found more than the allowed days ago and not repaired, at sites someone follows for this alert. */
 export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
-  const followed = db
-    .selectDistinct({ siteId: alertSubscriptions.siteId })
-    .from(alertSubscriptions)
-    .where(eq(alertSubscriptions.kind, 'open_leak'));
+  const followed = [...new Set((await followersOf(db, 'open_leak', asOf)).map((f) => f.siteId))];
+  if (followed.length === 0) return 0;
   const rows = await db
     .select({
       id: units.id,

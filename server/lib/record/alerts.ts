@@ -1,11 +1,11 @@
 // What a unit's new figures set off by mail, inside its write transaction: alerts to the people who follow the unit's
 // site (a crossing into the chronic band or over the leak-rate threshold, a leak left open too long). The daily digest
 // uses the same recipients and footer.
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
-import { alertSubscriptions, sites, users, type unitStats } from '../../db/schema';
+import { sites, type unitStats } from '../../db/schema';
+import { followersOf } from '../alert-recipients';
 import type { AppContext } from '../app-context';
-import { can } from '../../../shared/permissions';
 import { ALERT_KIND_LABELS, type AlertKind } from '../../../shared/schemas/alerts';
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
@@ -31,14 +31,10 @@ export type StatsChange = {
 type Recipient = { id: string; email: string; name: string };
 export type AlertUnit = { id: number; containerNumber: string; siteId: number };
 
-/** Active people who follow this kind of alert at this site and may still see the fleet. */
-export async function subscribersOf(tx: DbOrTx, siteId: number, kind: AlertKind): Promise<Recipient[]> {
-  const rows = await tx
-    .select({ id: users.id, email: users.email, name: users.name, role: users.role })
-    .from(alertSubscriptions)
-    .innerJoin(users, eq(users.id, alertSubscriptions.userId))
-    .where(and(eq(alertSubscriptions.siteId, siteId), eq(alertSubscriptions.kind, kind), eq(users.active, true)));
-  return rows.filter((r) => can(r, 'view:fleet'));
+/** Active people who follow this kind of alert at this site (own choice or role default) and may still see the fleet. */
+export async function subscribersOf(tx: DbOrTx, siteId: number, kind: AlertKind, now: Date): Promise<Recipient[]> {
+  const rows = await followersOf(tx, kind, now, siteId);
+  return rows.map((r) => ({ id: r.userId, email: r.email, name: r.name }));
 }
 
 /** The footer every alert and digest carries: why the mail came, one link to stop this kind, one to the settings. */
@@ -74,7 +70,7 @@ async function queueUnitAlert(
   occurrence: string,
   content: (siteName: string) => { subject: string; paragraphs: string[] },
 ): Promise<number> {
-  const people = await subscribersOf(tx, unit.siteId, kind);
+  const people = await subscribersOf(tx, unit.siteId, kind, ctx.clock.now());
   if (people.length === 0) return 0;
   const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, unit.siteId));
   const siteName = site?.name ?? 'your site';
