@@ -7,6 +7,7 @@ import { paths } from '../../../config/paths';
 import { Button } from '../../../components/ui/button';
 import { cx } from '../../../components/ui/cx';
 import { SearchIcon } from '../../../components/ui/icons';
+import { containerSearchInput } from './container-search';
 
 /**
  * Find a unit by its ISO 6346 container number: a whole, valid number opens the unit itself; a wrong check digit says
@@ -65,15 +66,9 @@ export function FindUnitForm({ defaultValue = '', className }: { defaultValue?: 
       <div className="mt-1 flex flex-col gap-3 sm:flex-row">
         <input
           id={id}
-          name="q"
+          {...containerSearchInput}
           value={value}
           onChange={(e) => setValue(e.target.value)}
-          autoComplete="off"
-          autoCapitalize="characters"
-          autoCorrect="off"
-          spellCheck={false}
-          enterKeyHint="search"
-          maxLength={20}
           placeholder="HRLU 100001 6"
           aria-invalid={error ? true : undefined}
           aria-describedby={cx(`${id}-hint`, error && `${id}-error`)}

@@ -7,6 +7,7 @@ import { SelectField } from '../../../components/ui/field';
 import { SearchIcon } from '../../../components/ui/icons';
 import { cx } from '../../../components/ui/cx';
 import { SiteOptions } from '../../../components/ui/filter-options';
+import { containerSearchInput } from './container-search';
 
 export type UnitFilterValues = {
   q: string;
@@ -52,15 +53,9 @@ export function UnitsFilters({
         <div className="flex gap-3">
           <input
             id={id}
-            name="q"
+            {...containerSearchInput}
             value={q}
             onChange={(e) => setQ(e.target.value)}
-            autoComplete="off"
-            autoCapitalize="characters"
-            autoCorrect="off"
-            spellCheck={false}
-            enterKeyHint="search"
-            maxLength={20}
             placeholder="HRLU 10"
             className={cx(
               'min-h-touch-lg w-full min-w-0 flex-1 rounded-md border-2 border-ink-950 bg-white px-4 text-xl font-semibold uppercase tabular-nums',
