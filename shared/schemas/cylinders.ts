@@ -201,60 +201,82 @@ export const cylinderCodeParamSchema = z.object({ code: cylinderCodeSchema });
 
 // --- responses ---------------------------------------------------------------------------------------------
 
-export type CylinderDto = {
-  id: number;
-  code: string;
-  kind: CylinderKind;
-  refrigerant: string;
-  tareKg: number;
-  capacityKg: number;
-  supplier: string | null;
-  lot: string | null;
-  gasOrigin: GasOrigin | null;
-  site: { id: number; name: string } | null;
-  status: CylinderStatus;
-  notes: string | null;
-  quarantine: { at: string; reason: string; by: string } | null;
-  labelUrl: string;
-  createdAt: string;
-  ledger: CylinderLedger;
-};
+const siteRef = z.object({ id: z.number(), name: z.string() });
+const personRef = z.object({ id: z.string(), name: z.string() });
 
-export type WeighingDto = {
-  id: number;
-  grossKg: number;
-  netKg: number;
-  weighedAt: string;
-  recordedBy: { id: string; name: string };
-  note: string | null;
-};
+export const cylinderDto = z.object({
+  id: z.number(),
+  code: z.string(),
+  kind: z.enum(CYLINDER_KINDS),
+  refrigerant: z.string(),
+  tareKg: z.number(),
+  capacityKg: z.number(),
+  supplier: z.string().nullable(),
+  lot: z.string().nullable(),
+  gasOrigin: z.enum(GAS_ORIGINS).nullable(),
+  site: siteRef.nullable(),
+  status: z.enum(CYLINDER_STATUSES),
+  notes: z.string().nullable(),
+  quarantine: z.object({ at: z.string(), reason: z.string(), by: z.string() }).nullable(),
+  labelUrl: z.string(),
+  createdAt: z.string(),
+  ledger: z.custom<CylinderLedger>(),
+});
+export type CylinderDto = z.infer<typeof cylinderDto>;
 
-export type CylinderMoveDto = {
-  eventId: number;
-  unitId: number;
-  containerNumber: string;
-  kind: string;
-  direction: 'in' | 'out';
-  kg: number;
-  occurredAt: string;
-  site: { id: number; name: string } | null;
-  technician: { id: string; name: string };
-  voided: boolean;
-};
+export const weighingDto = z.object({
+  id: z.number(),
+  grossKg: z.number(),
+  netKg: z.number(),
+  weighedAt: z.string(),
+  recordedBy: personRef,
+  note: z.string().nullable(),
+});
+export type WeighingDto = z.infer<typeof weighingDto>;
 
-export type CylinderDetailDto = {
-  cylinder: CylinderDto;
-  weighings: WeighingDto[];
-  moves: CylinderMoveDto[];
+export const cylinderMoveDto = z.object({
+  eventId: z.number(),
+  unitId: z.number(),
+  containerNumber: z.string(),
+  kind: z.string(),
+  direction: z.enum(['in', 'out']),
+  kg: z.number(),
+  occurredAt: z.string(),
+  site: siteRef.nullable(),
+  technician: personRef,
+  voided: z.boolean(),
+});
+export type CylinderMoveDto = z.infer<typeof cylinderMoveDto>;
+
+export const cylinderDetailDto = z.object({
+  cylinder: cylinderDto,
+  weighings: z.array(weighingDto),
+  moves: z.array(cylinderMoveDto),
   /** Units charged from this cylinder that carry its quarantine mark. */
-  quarantinedUnits: { unitId: number; containerNumber: string; markedAt: string }[];
-};
+  quarantinedUnits: z.array(z.object({ unitId: z.number(), containerNumber: z.string(), markedAt: z.string() })),
+});
+export type CylinderDetailDto = z.infer<typeof cylinderDetailDto>;
 
-export type CylinderListDto = { cylinders: CylinderDto[]; toleranceKg: number; nearFullPct: number };
+export const cylinderResponseDto = z.object({ cylinder: cylinderDto });
+export type CylinderResponseDto = z.infer<typeof cylinderResponseDto>;
 
-export type CylinderImportResultDto = { imported: number; cylinderIds: number[] };
+export const cylinderListDto = z.object({
+  cylinders: z.array(cylinderDto),
+  toleranceKg: z.number(),
+  nearFullPct: z.number(),
+});
+export type CylinderListDto = z.infer<typeof cylinderListDto>;
+
+export const cylinderImportResultDto = z.object({ imported: z.number(), cylinderIds: z.array(z.number()) });
+export type CylinderImportResultDto = z.infer<typeof cylinderImportResultDto>;
 export type CylinderImportRowError = { row: number; field: string | null; message: string };
-export type QuarantineResultDto = { cylinder: CylinderDto; unitsMarked: number; unitIds: number[] };
+
+export const quarantineResultDto = z.object({
+  cylinder: cylinderDto,
+  unitsMarked: z.number(),
+  unitIds: z.array(z.number()),
+});
+export type QuarantineResultDto = z.infer<typeof quarantineResultDto>;
 
 /** The register's settings (settings.cylinders: tolerance and the near-full warning). */
 export type CylinderSettings = Settings['cylinders'];

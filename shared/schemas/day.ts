@@ -27,41 +27,57 @@ export const DAY_AHEAD = { leakCheckDays: 30, ptiDays: 14, forecastDays: 14 } as
 export const DAY_GROUP_LIMIT = 50;
 
 /** Which visit form a row opens: the entry to preselect. */
-export type DayAction = 'pressure' | 'leak_check' | 'pti' | 'repair' | 'top_up' | 'quarantine';
+export const DAY_ACTIONS = ['pressure', 'leak_check', 'pti', 'repair', 'top_up', 'quarantine'] as const;
+export type DayAction = (typeof DAY_ACTIONS)[number];
 
-export type DayRowDto = {
-  unitId: number;
-  containerNumber: string;
+// --- responses ---------------------------------------------------------------------------------------------
+
+export const dayRowDto = z.object({
+  unitId: z.number(),
+  containerNumber: z.string(),
   /** Why, in words. */
-  why: string;
+  why: z.string(),
   /** The day it is or was due, when there is one. */
-  dueOn: string | null;
-  action: DayAction;
-};
+  dueOn: z.string().nullable(),
+  action: z.enum(DAY_ACTIONS),
+});
+export type DayRowDto = z.infer<typeof dayRowDto>;
 
-export type DayDto = {
-  site: { id: number; name: string; code: string } | null;
+export const dayDto = z.object({
+  site: z.object({ id: z.number(), name: z.string(), code: z.string() }).nullable(),
   /** Every site, for choosing another. */
-  sites: { id: number; name: string }[];
-  today: string;
-  groups: { id: DayGroupId; label: string; total: number; rows: DayRowDto[] }[];
-};
+  sites: z.array(z.object({ id: z.number(), name: z.string() })),
+  today: z.string(),
+  groups: z.array(
+    z.object({ id: z.enum(DAY_GROUP_IDS), label: z.string(), total: z.number(), rows: z.array(dayRowDto) }),
+  ),
+});
+export type DayDto = z.infer<typeof dayDto>;
 
-export type DepotQuarantineDto = { since: string; reason: string; eventId: number; marks: number };
+export const depotQuarantineDto = z.object({
+  since: z.string(),
+  reason: z.string(),
+  eventId: z.number(),
+  marks: z.number(),
+});
+export type DepotQuarantineDto = z.infer<typeof depotQuarantineDto>;
 
-export type UnitDepotDto = {
-  rechecks: (Recheck & { words: string })[];
-  openRecheck: (Recheck & { words: string }) | null;
-  missedRechecks365: number;
-  quarantine: DepotQuarantineDto | null;
-  pti: {
-    validUntil: string | null;
-    passed: boolean | null;
+const recheckDto = z.custom<Recheck & { words: string }>();
+
+export const unitDepotDto = z.object({
+  rechecks: z.array(recheckDto),
+  openRecheck: recheckDto.nullable(),
+  missedRechecks365: z.number(),
+  quarantine: depotQuarantineDto.nullable(),
+  pti: z.object({
+    validUntil: z.string().nullable(),
+    passed: z.boolean().nullable(),
     /** Passed, not expired and the unit not in quarantine: the unit may be released. */
-    valid: boolean;
+    valid: z.boolean(),
     /** Why not, in words. */
-    invalidBecause: string | null;
+    invalidBecause: z.string().nullable(),
     /** What stands in the way of a passed PTI now (open leak, low charge, quarantine). */
-    blockers: { code: string; words: string }[];
-  };
-};
+    blockers: z.array(z.object({ code: z.string(), words: z.string() })),
+  }),
+});
+export type UnitDepotDto = z.infer<typeof unitDepotDto>;

@@ -30,5 +30,13 @@ export const liftQuarantineSchema = z.object({
 });
 export type LiftQuarantineInput = z.infer<typeof liftQuarantineSchema>;
 
-export type QuarantineUnitsResultDto = { quarantined: number[]; alreadyQuarantined: number[] };
-export type LiftQuarantineResultDto = { unitId: number; eventId: number };
+// --- responses ---------------------------------------------------------------------------------------------
+
+export const quarantineUnitsResultDto = z.object({
+  quarantined: z.array(z.number()),
+  alreadyQuarantined: z.array(z.number()),
+});
+export type QuarantineUnitsResultDto = z.infer<typeof quarantineUnitsResultDto>;
+
+export const liftQuarantineResultDto = z.object({ unitId: z.number(), eventId: z.number() });
+export type LiftQuarantineResultDto = z.infer<typeof liftQuarantineResultDto>;

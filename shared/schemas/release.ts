@@ -50,12 +50,17 @@ export const releaseUnitSchema = z.object({
 });
 export type ReleaseUnitInput = z.infer<typeof releaseUnitSchema>;
 
-export type RecordPtiResultDto = {
-  eventId: number;
-  overall: PtiOverall;
+// --- responses ---------------------------------------------------------------------------------------------
+
+export const recordPtiResultDto = z.object({
+  eventId: z.number(),
+  overall: z.enum(['passed', 'failed', 'incomplete'] satisfies PtiOverall[]),
   /** What was recorded: passed only when the checklist passed and nothing stood in the way, or an engineer overrode. */
-  passed: boolean;
-  blockers: PtiBlocker[];
-  overridden: boolean;
-};
-export type ReleaseResultDto = { eventId: number; ptiValidUntil: string };
+  passed: z.boolean(),
+  blockers: z.array(z.custom<PtiBlocker>()),
+  overridden: z.boolean(),
+});
+export type RecordPtiResultDto = z.infer<typeof recordPtiResultDto>;
+
+export const releaseResultDto = z.object({ eventId: z.number(), ptiValidUntil: z.string() });
+export type ReleaseResultDto = z.infer<typeof releaseResultDto>;
