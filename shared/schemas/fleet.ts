@@ -38,10 +38,19 @@ export const fleetFiltersSchema = z.object({
   band: z.enum(SCORE_BANDS, { message: 'Use tight, watch or chronic' }).optional(),
   /** Rolling leak rate strictly above this, in % of the full charge. */
   rateAbove: z.coerce.number({ message: 'Enter a leak rate in %' }).min(0).max(100_000).optional(),
+  /** Rolling leak rate at or above this (%): the overview's bars start here. */
+  rateFrom: z.coerce.number({ message: 'Enter a leak rate in %' }).min(0).max(100_000).optional(),
+  /** Rolling leak rate strictly below this (%): the overview's bars end here. */
+  rateBelow: z.coerce.number({ message: 'Enter a leak rate in %' }).min(0).max(100_000).optional(),
+  /** Rolling leak rate at most this (%); 0 = needed no refrigerant in the last 365 days. */
+  rateAtMost: z.coerce.number({ message: 'Enter a leak rate in %' }).min(0).max(100_000).optional(),
   /** Next top-up forecast on or before today + N days (overdue ones included). */
   forecastDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(0).max(3650).optional(),
   forecastOverdue: flag,
+  /** Leak check overdue (retired units have none due). */
   leakCheckOverdue: flag,
+  /** Leak check due from today to today + N days, not yet overdue (retired units have none due). */
+  leakCheckDueDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(0).max(3650).optional(),
   /** No passed PTI in force: expired, failed or never done. */
   ptiExpired: flag,
   /** In quarantine (not to be released until an engineer lifts it). */
@@ -132,6 +141,36 @@ export const fleetOverviewQuerySchema = z.object({
   refrigerant: refrigerantCodeSchema.optional(),
 });
 export type FleetOverviewQuery = z.output<typeof fleetOverviewQuerySchema>;
+
+/**
+ * The fleet-table filters that hold exactly the units behind each count on the overview (same site and refrigerant):
+ * every count there links to its rows. The server's overview counts with the same boundaries.
+ */
+export const overviewRows = {
+  units: (q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>): FleetFilters => ({
+    siteId: q.siteId,
+    refrigerant: q.refrigerant,
+  }),
+  /** Needed no refrigerant in the last 365 days (not drawn in the distribution). */
+  noRefrigerant: (q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>): FleetFilters => ({
+    ...overviewRows.units(q),
+    rateAtMost: 0,
+  }),
+  /** One bar of the distribution: from its start (above 0 for the first) to below its end. */
+  bin: (q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>, bin: Pick<LeakRateBinDto, 'fromPct' | 'toPct'>) => ({
+    ...overviewRows.units(q),
+    ...(bin.fromPct === 0 ? { rateAbove: 0 } : { rateFrom: bin.fromPct }),
+    rateBelow: bin.toPct ?? undefined,
+  }),
+  leakChecksDue: (q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>): FleetFilters => ({
+    ...overviewRows.units(q),
+    leakCheckDueDays: LEAK_CHECK_DUE_DAYS,
+  }),
+  leakChecksOverdue: (q: Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>): FleetFilters => ({
+    ...overviewRows.units(q),
+    leakCheckOverdue: true,
+  }),
+};
 
 export const leakRateBinDto = z.object({ fromPct: z.number(), toPct: z.number().nullable(), units: z.number() });
 export type LeakRateBinDto = z.infer<typeof leakRateBinDto>;

@@ -1,12 +1,18 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { parse } from 'csv-parse/sync';
-import { sql } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import { createApp } from '../../server/app';
 import { fleetMonthly, unitStats } from '../../server/db/schema';
 import { createStatsBackfill } from '../../server/features/history/stats-backfill';
 import { co2eTonnes } from '../../shared/domain';
-import { FLEET_SORTS, type FleetPageDto } from '../../shared/schemas/fleet';
+import {
+  FLEET_SORTS,
+  overviewRows,
+  type FleetFilters,
+  type FleetOverviewDto,
+  type FleetPageDto,
+} from '../../shared/schemas/fleet';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
 import { createTestSite, halyardNumber } from '../support/units';
@@ -320,6 +326,95 @@ describe('GET /api/fleet/overview', () => {
     ).toBe(201);
     const third = (await engineer.get(query)).body;
     expect(madeUpMay(third)).toBeCloseTo(madeUpMay(first), 9);
+  });
+});
+
+describe('every overview count links to its rows', () => {
+  const search = (f: FleetFilters) =>
+    Object.entries(f)
+      .filter(([, v]) => v !== undefined)
+      .map(([k, v]) => `${k}=${encodeURIComponent(v === true ? '1' : String(v))}`)
+      .join('&');
+  // Each unit: its rolling leak rate, when its leak check falls due (days from today), retired or not.
+  const shapes = {
+    noneOverdue: { rate: 0, due: -5 },
+    firstBar: { rate: 5, due: 10 },
+    tenExactly: { rate: 10, due: 0 },
+    justUnderTwenty: { rate: 19.99, due: 30 },
+    twentyExactly: { rate: 20, due: 31 },
+    aboveHundred: { rate: 150, due: -1 },
+    retiredOverdue: { rate: 0, due: -10, retired: true },
+  } as const;
+  const made: Record<string, number> = {};
+  let site: { id: number };
+
+  beforeAll(async () => {
+    site = await createTestSite(db, { name: 'Counting quay' });
+    let serial = 400001;
+    for (const [name, shape] of Object.entries(shapes)) {
+      made[name] = (
+        await createTestUnit(db, {
+          containerNumber: halyardNumber(serial++),
+          siteId: site.id,
+          nominalChargeKg: 5,
+          status: 'retired' in shape ? 'retired' : 'in_service',
+        })
+      ).id;
+    }
+    await createStatsBackfill().run(ctx);
+    const day = (n: number) => new Date(Date.parse('2026-06-01T00:00:00Z') + n * 86_400_000).toISOString().slice(0, 10);
+    for (const [name, shape] of Object.entries(shapes))
+      await db
+        .update(unitStats)
+        .set({ rollingLeakRatePct: shape.rate, nextLeakCheckDue: day(shape.due) })
+        .where(eq(unitStats.unitId, made[name]));
+  });
+
+  const rowsOf = async (f: FleetFilters) => {
+    const page = await list(`${search(f)}&count=1&pageSize=100`);
+    return { total: page.count!.total, ids: page.rows.map((r) => r.unitId).sort((a, b) => a - b) };
+  };
+  const idsOf = (...names: (keyof typeof shapes)[]) => names.map((n) => made[n]).sort((a, b) => a - b);
+
+  it('finds in the fleet table exactly the units behind each count, retired units out of the leak checks due', async () => {
+    const q = { siteId: site.id };
+    const res = await engineer.get(`/api/fleet/overview?siteId=${site.id}`);
+    expect(res.status).toBe(200);
+    const o = res.body as FleetOverviewDto;
+    expect(o.units).toBe(7);
+    expect(await rowsOf(overviewRows.units(q))).toEqual({ total: 7, ids: idsOf(...(Object.keys(shapes) as never[])) });
+    expect(o.leakRate.zero).toBe(2);
+    expect(await rowsOf(overviewRows.noRefrigerant(q))).toEqual({
+      total: 2,
+      ids: idsOf('noneOverdue', 'retiredOverdue'),
+    });
+    const expected: Record<number, (keyof typeof shapes)[]> = {
+      0: ['firstBar'],
+      10: ['tenExactly', 'justUnderTwenty'],
+      20: ['twentyExactly'],
+      100: ['aboveHundred'],
+    };
+    for (const bin of o.leakRate.bins) {
+      const names = expected[bin.fromPct] ?? [];
+      expect({ from: bin.fromPct, units: bin.units }).toEqual({ from: bin.fromPct, units: names.length });
+      expect(await rowsOf(overviewRows.bin(q, bin))).toEqual({ total: names.length, ids: idsOf(...names) });
+    }
+    expect(o.leakChecksDue.count).toBe(3);
+    expect(await rowsOf(overviewRows.leakChecksDue(q))).toEqual({
+      total: 3,
+      ids: idsOf('firstBar', 'tenExactly', 'justUnderTwenty'),
+    });
+    expect(o.leakChecksDue.overdue).toBe(2);
+    expect(await rowsOf(overviewRows.leakChecksOverdue(q))).toEqual({
+      total: 2,
+      ids: idsOf('noneOverdue', 'aboveHundred'),
+    });
+  });
+
+  it('answers 400 with the field for a bad rate or day count', async () => {
+    const bad = await engineer.get('/api/fleet?rateBelow=lots&leakCheckDueDays=-3');
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.body.error.fields).sort()).toEqual(['leakCheckDueDays', 'rateBelow']);
   });
 });
 

@@ -6,12 +6,14 @@ import {
   desc,
   eq,
   gt,
+  gte,
   inArray,
   isNotNull,
   isNull,
   like,
   lt,
   lte,
+  ne,
   or,
   sql,
   type SQL,
@@ -59,9 +61,19 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
   if (f.status) w.push(eq(units.status, f.status));
   if (f.band) w.push(eq(unitStats.scoreBand, f.band));
   if (f.rateAbove !== undefined) w.push(gt(unitStats.rollingLeakRatePct, f.rateAbove));
+  if (f.rateFrom !== undefined) w.push(gte(unitStats.rollingLeakRatePct, f.rateFrom));
+  if (f.rateBelow !== undefined) w.push(lt(unitStats.rollingLeakRatePct, f.rateBelow));
+  if (f.rateAtMost !== undefined) w.push(lte(unitStats.rollingLeakRatePct, f.rateAtMost));
   if (f.forecastDays !== undefined) w.push(lte(unitStats.forecastDate, dayPlus(today, f.forecastDays)));
   if (f.forecastOverdue) w.push(lt(unitStats.forecastDate, today));
-  if (f.leakCheckOverdue) w.push(lt(unitStats.nextLeakCheckDue, today));
+  // A retired unit's leak check is not due (the overview and My day leave retired units out the same way).
+  if (f.leakCheckOverdue) w.push(lt(unitStats.nextLeakCheckDue, today), ne(units.status, 'retired'));
+  if (f.leakCheckDueDays !== undefined)
+    w.push(
+      gte(unitStats.nextLeakCheckDue, today),
+      lte(unitStats.nextLeakCheckDue, dayPlus(today, f.leakCheckDueDays)),
+      ne(units.status, 'retired'),
+    );
   if (f.ptiExpired) w.push(or(isNull(unitStats.ptiValidUntil), lt(unitStats.ptiValidUntil, today))!);
   if (f.quarantined)
     w.push(
@@ -71,6 +83,9 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
   if (f.q) w.push(like(units.containerNumber, `${f.q}%`));
   return w;
 }
+
+const hasRateFilters = (f: FleetFilters) =>
+  f.rateAbove !== undefined || f.rateFrom !== undefined || f.rateBelow !== undefined || f.rateAtMost !== undefined;
 
 const hasFilters = (f: FleetFilters) =>
   Boolean(
@@ -84,8 +99,9 @@ const hasFilters = (f: FleetFilters) =>
     f.ptiExpired ||
     f.quarantined,
   ) ||
-  f.rateAbove !== undefined ||
-  f.forecastDays !== undefined;
+  hasRateFilters(f) ||
+  f.forecastDays !== undefined ||
+  f.leakCheckDueDays !== undefined;
 
 const rowFields = {
   unitId: units.id,
@@ -244,9 +260,12 @@ async function fleetPart(
 
 const hasStatsFilters = (f: FleetFilters) =>
   Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired || f.quarantined) ||
-  f.rateAbove !== undefined ||
-  f.forecastDays !== undefined;
-const hasUnitFilters = (f: FleetFilters) => Boolean(f.siteId || f.refrigerant || f.status || f.q);
+  hasRateFilters(f) ||
+  f.forecastDays !== undefined ||
+  f.leakCheckDueDays !== undefined;
+/** Filters that read the unit's row (the leak-check ones read its status: retired units have no check due). */
+const hasUnitFilters = (f: FleetFilters) =>
+  Boolean(f.siteId || f.refrigerant || f.status || f.q || f.leakCheckOverdue) || f.leakCheckDueDays !== undefined;
 
 /** What the fleet table keeps between requests (the app's caches). */
 export type FleetCaches = Pick<AppCaches, 'fleetSize' | 'filterShares'>;

@@ -77,7 +77,15 @@ function unitFilters(q: FiguresContext['q']): SQL[] {
 async function readUnitFigures(db: Db, q: FiguresContext['q'], today: string) {
   const unitWhere = unitFilters(q);
   const filtered = unitWhere.length > 0;
-  const bin = sql<number>`CASE WHEN ${unitStats.rollingLeakRatePct} <= 0 THEN -1 ELSE LEAST(FLOOR(${unitStats.rollingLeakRatePct} / ${BIN_PCT}), ${TOP_BIN}) END`;
+  // Compared, not divided, so that each bar holds exactly the units its fleet-table filter finds (overviewRows.bin).
+  const rate = unitStats.rollingLeakRatePct;
+  const bin = sql<number>`CASE WHEN ${rate} <= 0 THEN -1 ${sql.join(
+    Array.from(
+      { length: TOP_BIN },
+      (_, i) => sql`WHEN ${rate} < ${sql.raw(String((i + 1) * BIN_PCT))} THEN ${sql.raw(String(i))}`,
+    ),
+    sql` `,
+  )} ELSE ${sql.raw(String(TOP_BIN))} END`;
   const histogramQuery = filtered
     ? db
         .select({ bin, n: count() })
