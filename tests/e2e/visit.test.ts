@@ -125,6 +125,56 @@ describe('recording a visit on a phone', () => {
     }
   });
 
+  it('shows a visit sent from the queue on the unit page opened seconds later, without a reload', async () => {
+    const b = await openBrowser({ viewport: PHONE });
+    try {
+      const { page, context } = b;
+      const unit = await createHistoryUnit(db);
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await recordVisits(page.request, inject('baseUrl'), unit.id, [
+        { at: at(30 * DAY), events: [{ kind: 'top_up', kg: 0.5, cylinder: 'CYL-E2E-Q' }] },
+      ]);
+      // Seen with a connection: the unit, its figures and its history are in the page's cache.
+      await page.goto(`/units/${unit.id}`);
+      await page.getByTestId('history-entry').first().waitFor();
+      await page.evaluate(() => ((window as unknown as { sameDocument?: boolean }).sameDocument = true));
+      const note = 'Unit parked at the gate: compressor noise.';
+
+      await page.getByRole('link', { name: 'Record a visit' }).first().click();
+      await page.getByRole('button', { name: 'Add Note' }).waitFor();
+      await context.setOffline(true);
+      await page.getByRole('button', { name: 'Add Status change' }).click();
+      await page.getByText('Out of service', { exact: true }).click();
+      await page.getByRole('button', { name: 'Add Note' }).click();
+      await page.getByRole('textbox', { name: 'Note', exact: true }).last().fill(note);
+      await page.getByRole('button', { name: /Save visit/ }).click();
+      await page.getByText('Kept on this phone: no connection right now').waitFor();
+
+      // Elsewhere in the app when the signal comes back: the header's queue sends it.
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Home' }).click();
+      await context.setOffline(false);
+      await expect.poll(() => visitsOf(unit.id), { timeout: 20_000 }).toBe(2);
+      await expect.poll(() => page.getByTestId('connection-status').getAttribute('data-waiting')).toBe('0');
+      await page.waitForTimeout(6_000);
+
+      // Back to the unit within the cache's freshness: the new entry and the status it set are there.
+      await page.goBack();
+      await page.goBack();
+      await page.waitForURL(new RegExp(`/units/${unit.id}$`));
+      await page.getByTestId('history-entry').filter({ hasText: note }).waitFor({ timeout: 10_000 });
+      await page
+        .locator('section[aria-labelledby="unit-title"]')
+        .getByText('Out of service', { exact: true })
+        .waitFor({ timeout: 10_000 });
+      expect(await page.evaluate(() => (window as unknown as { sameDocument?: boolean }).sameDocument)).toBe(true);
+      expect(b.pageErrors).toEqual([]);
+      expect(b.consoleErrors).toEqual([]);
+    } finally {
+      await b.close();
+    }
+  });
+
   it('draws two pressure readings of one visit (before and after a top-up) as two points, with no warnings', async () => {
     const b = await openBrowser({ viewport: PHONE });
     try {

@@ -4,10 +4,14 @@ import { can, ROLE_LABELS } from '../../../../shared/permissions';
 import { NotAllowed } from '../../../components/errors/not-allowed';
 import { AppLayout } from '../../../components/layouts/app-layout';
 import { ConnectionStatus } from '../../../features/history/components/connection-status';
+import { unitKeys } from '../../../features/units/api/keys';
 import { paths } from '../../../config/paths';
 import { isApiError } from '../../../lib/api-client';
 import { meQuery, useUser } from '../../../lib/auth';
 import type { RouteHandle } from '../../route-module';
+
+// A visit sent from the phone's queue can change the unit's own record (its status) as well as its history.
+const sentVisitChanges = (unitId: number) => [unitKeys.detail(unitId)];
 
 /** Every protected page sits under this loader: no session, no page — off to sign-in, and back here afterwards. */
 export const loader =
@@ -34,7 +38,7 @@ export default function ProtectedLayout() {
   });
 
   return (
-    <AppLayout user={user} status={<ConnectionStatus userId={user.id} />}>
+    <AppLayout user={user} status={<ConnectionStatus userId={user.id} alsoInvalidate={sentVisitChanges} />}>
       {allowed ? <Outlet /> : <NotAllowed roleLabel={ROLE_LABELS[user.role]} />}
     </AppLayout>
   );

@@ -14,16 +14,21 @@ export async function recordVisit(input: VisitSubmission): Promise<RecordVisitRe
 /** The unit a saved visit went to (a visit has at least one entry, and every entry names its unit). */
 export const visitUnitId = (result: RecordVisitResultDto): number => result.events[0].unitId;
 
-/** After a visit is saved: its figures at once, then everything of the unit fresh from the server. */
+/**
+ * After a visit is saved: its figures at once (when the answer is at hand; another tab's visit only says which unit),
+ * then everything of the unit fresh from the server.
+ */
 export async function refreshAfterVisit(
   queryClient: QueryClient,
-  result: RecordVisitResultDto,
+  result: RecordVisitResultDto | null,
   unitId: number,
   alsoInvalidate: QueryKey[] = [],
 ) {
-  queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) =>
-    old ? { ...old, stats: result.stats } : old,
-  );
+  if (result) {
+    queryClient.setQueryData<UnitOverviewDto>(historyKeys.overview(unitId), (old) =>
+      old ? { ...old, stats: result.stats } : old,
+    );
+  }
   await Promise.all([
     queryClient.invalidateQueries({ queryKey: historyKeys.unit(unitId) }),
     ...alsoInvalidate.map((queryKey) => queryClient.invalidateQueries({ queryKey })),

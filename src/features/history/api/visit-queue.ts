@@ -2,7 +2,7 @@
 // are sent when the phone is back online, even after the browser was closed. Replaying is safe: the server answers a
 // key it already has with the first result, so a visit that did arrive before the connection dropped is not saved
 // twice; photos already on an entry (same file name) are not sent again.
-import { useQueryClient, type QueryKey } from '@tanstack/react-query';
+import { useQueryClient, type QueryClient, type QueryKey } from '@tanstack/react-query';
 import { createStore, get, set } from 'idb-keyval';
 import { useCallback, useEffect, useRef, useState, useSyncExternalStore } from 'react';
 import type { VisitSubmission } from '../../../../shared/schemas/history';
@@ -34,13 +34,35 @@ const listeners = new Set<() => void>();
 const cache = new Map<string, QueuedVisit[]>();
 const loading = new Map<string, Promise<QueuedVisit[]>>();
 const EMPTY: QueuedVisit[] = [];
-// Other tabs of the app hear of every change and read the queue again.
+// Other tabs of the app hear of every change and read the queue again, and of every visit sent, so a unit page
+// open there shows it too.
+type ChannelMessage = string | { sentToUnit: number };
 const channel = typeof BroadcastChannel === 'undefined' ? null : new BroadcastChannel('tightloop-visit-queue');
-channel?.addEventListener('message', (e: MessageEvent<string>) => {
+channel?.addEventListener('message', (e: MessageEvent<ChannelMessage>) => {
+  if (typeof e.data !== 'string') return refreshUnit(e.data.sentToUnit, null);
   cache.delete(e.data);
   loading.delete(e.data);
   void load(e.data);
 });
+
+/** Every mounted queue hook: its query client and the other features' keys its page says a visit changes. */
+type Watcher = { queryClient: QueryClient; alsoInvalidate: { current?: (unitId: number) => QueryKey[] } };
+const watchers = new Set<Watcher>();
+
+/**
+ * A queued visit reached the server: everything of its unit is fetched again, whichever hook happened to send it
+ * (one replay serves them all) — the unit's history and figures, and what the pages on screen named besides.
+ */
+function refreshUnit(unitId: number, result: Awaited<ReturnType<typeof recordVisit>> | null) {
+  const keysByClient = new Map<QueryClient, QueryKey[]>();
+  for (const w of watchers) {
+    keysByClient.set(w.queryClient, [
+      ...(keysByClient.get(w.queryClient) ?? []),
+      ...(w.alsoInvalidate.current?.(unitId) ?? []),
+    ]);
+  }
+  for (const [queryClient, keys] of keysByClient) void refreshAfterVisit(queryClient, result, unitId, keys);
+}
 
 function notify() {
   for (const l of listeners) l();
@@ -166,7 +188,7 @@ export type FlushResult = { sent: number; waiting: number; refused: number };
  */
 export function flushQueue(
   userId: string,
-  onSent: (result: Awaited<ReturnType<typeof recordVisit>>, item: QueuedVisit) => void,
+  onSent: (result: Awaited<ReturnType<typeof recordVisit>>, item: QueuedVisit) => void = () => {},
   includeRefused = false,
 ): Promise<FlushResult> {
   const running = inFlight.get(userId);
@@ -180,6 +202,8 @@ export function flushQueue(
         await sendPhotos(userId, item, result);
         await discardQueuedVisit(userId, item.input.idempotencyKey);
         sent++;
+        refreshUnit(visitUnitId(result), result);
+        channel?.postMessage({ sentToUnit: visitUnitId(result) } satisfies ChannelMessage);
         onSent(result, item);
       } catch (error) {
         const status = isApiError(error) ? error.status : 0;
@@ -235,24 +259,24 @@ export function useVisitQueue(userId: string, options: { alsoInvalidate?: (unitI
   useEffect(() => {
     alsoInvalidate.current = options.alsoInvalidate;
   });
+  useEffect(() => {
+    const watcher: Watcher = { queryClient, alsoInvalidate };
+    watchers.add(watcher);
+    return () => {
+      watchers.delete(watcher);
+    };
+  }, [queryClient]);
 
   const flush = useCallback(
     async (includeRefused: boolean) => {
       setSending(true);
       try {
-        return await flushQueue(
-          userId,
-          (result) => {
-            const unitId = visitUnitId(result);
-            void refreshAfterVisit(queryClient, result, unitId, alsoInvalidate.current?.(unitId));
-          },
-          includeRefused,
-        );
+        return await flushQueue(userId, undefined, includeRefused);
       } finally {
         setSending(false);
       }
     },
-    [userId, queryClient],
+    [userId],
   );
 
   const waiting = items.filter((i) => !i.refused).length;

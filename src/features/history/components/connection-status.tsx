@@ -1,14 +1,22 @@
+import type { QueryKey } from '@tanstack/react-query';
 import { useOnline } from '../../../lib/online';
 import { cx } from '../../../components/ui/cx';
 import { useVisitQueue } from '../api/visit-queue';
 
 /**
  * In the header of every page: whether the phone has a connection and how many visits wait on it. Mounting it on
- * every page is also what sends the waiting visits as soon as the connection is back, wherever the person is.
+ * every page is also what sends the waiting visits as soon as the connection is back, wherever the person is;
+ * `alsoInvalidate` names other features' keys of the unit a sent visit changes (its page may be opened next).
  */
-export function ConnectionStatus({ userId }: { userId: string }) {
+export function ConnectionStatus({
+  userId,
+  alsoInvalidate,
+}: {
+  userId: string;
+  alsoInvalidate?: (unitId: number) => QueryKey[];
+}) {
   const online = useOnline();
-  const queue = useVisitQueue(userId);
+  const queue = useVisitQueue(userId, { alsoInvalidate });
   const waiting = queue.waiting;
   const refused = queue.refused.length;
   const label = `${online ? 'Online' : 'Offline'}${waiting ? `, ${waiting} ${waiting === 1 ? 'visit' : 'visits'} waiting to send` : ''}${refused ? `, ${refused} not accepted` : ''}`;
