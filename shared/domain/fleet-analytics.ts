@@ -95,16 +95,30 @@ export function repairEffectiveness(
       }
     }
   }
-  const finish = (map: Map<string, RepairEffectivenessRow>) =>
-    [...map.values()]
-      .map((row) => ({ ...row, holdRatePct: row.repairs >= min ? roundTo((row.held / row.repairs) * 100, 1) : null }))
-      .sort(
-        (a, b) =>
-          b.repairs - a.repairs ||
-          String(a.location).localeCompare(String(b.location)) ||
-          String(a.action).localeCompare(String(b.action)),
-      );
-  return { rows: finish(cells), byLocation: finish(locations), holdDays: hold, minRepairs: min };
+  return {
+    rows: finishRepairRows(cells, min),
+    byLocation: finishRepairRows(locations, min),
+    holdDays: hold,
+    minRepairs: min,
+  };
+}
+
+/** The rows in the order they are shown (most repairs first), each with its hold rate, hidden below `minRepairs`. */
+export function finishRepairRows(
+  map: Map<string, RepairEffectivenessRow>,
+  minRepairs: number,
+): RepairEffectivenessRow[] {
+  return [...map.values()]
+    .map((row) => ({
+      ...row,
+      holdRatePct: row.repairs >= minRepairs ? roundTo((row.held / row.repairs) * 100, 1) : null,
+    }))
+    .sort(
+      (a, b) =>
+        b.repairs - a.repairs ||
+        String(a.location).localeCompare(String(b.location)) ||
+        String(a.action).localeCompare(String(b.action)),
+    );
 }
 
 /** The fleet's repair record at one location, in the shape compareRepairOptions takes. */

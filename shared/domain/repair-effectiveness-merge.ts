@@ -1,5 +1,4 @@
-import { roundTo } from './numbers';
-import type { RepairEffectiveness, RepairEffectivenessRow } from './fleet-analytics';
+import { finishRepairRows, type RepairEffectiveness, type RepairEffectivenessRow } from './fleet-analytics';
 import type { Settings } from '../schemas/settings';
 import { DEFAULT_SETTINGS } from '../schemas/settings';
 
@@ -36,18 +35,9 @@ export function mergeRepairEffectiveness(
     for (const r of p.rows) add(cells, r);
     for (const r of p.byLocation) add(locations, r);
   }
-  const finish = (map: Map<string, RepairEffectivenessRow>) =>
-    [...map.values()]
-      .map((row) => ({ ...row, holdRatePct: row.repairs >= min ? roundTo((row.held / row.repairs) * 100, 1) : null }))
-      .sort(
-        (a, b) =>
-          b.repairs - a.repairs ||
-          String(a.location).localeCompare(String(b.location)) ||
-          String(a.action).localeCompare(String(b.action)),
-      );
   return {
-    rows: finish(cells),
-    byLocation: finish(locations),
+    rows: finishRepairRows(cells, min),
+    byLocation: finishRepairRows(locations, min),
     holdDays: settings.windows.repairHoldDays,
     minRepairs: min,
   };
