@@ -42,6 +42,12 @@ export const textToId = (v: unknown) =>
         .toLowerCase()
         .replace(/[\s-]+/g, '_')
     : v;
+/** Free text a form or a CSV cell may leave blank: trimmed, blank is null, at most `max` characters. */
+export const optionalText = (max: number) =>
+  z.preprocess(
+    (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim()) : v),
+    z.string().max(max, `Use at most ${max} characters`).nullable(),
+  );
 
 // ---- The date rule: one place for every date the product accepts (forms, API, CSV import, query ranges) ----
 

@@ -1,8 +1,8 @@
 // The cylinder register: refrigerant and recovery cylinders, their weighings, and what visits moved through them.
 // One set of field rules serves the API and the CSV import, so a row the import accepts is one the form accepts.
 import { z } from 'zod';
-import { findRefrigerant, REFRIGERANT_CODES } from '../domain/refrigerants';
-import { blankToNull, momentSchema, textToId, textToNumber } from './common';
+import { blankToNull, momentSchema, optionalText, textToId, textToNumber } from './common';
+import { refrigerantSchema } from './units';
 import { DEFAULT_SETTINGS, type Settings } from './settings';
 import type { CylinderLedger } from '../domain/cylinders';
 
@@ -38,11 +38,6 @@ export const MAX_CYLINDER_IMPORT_ROWS = 5000;
 export const MAX_CYLINDER_IMPORT_BYTES = 2 * 1024 * 1024;
 export const MAX_REGISTER_PAGE = 500;
 
-const optionalText = (max: number) =>
-  z.preprocess(
-    (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim()) : v),
-    z.string().max(max, `Use at most ${max} characters`).nullable().optional(),
-  );
 const kgField = (what: string, min: number) =>
   z.preprocess(
     textToNumber,
@@ -60,18 +55,6 @@ export const cylinderCodeSchema = z
   .max(MAX_CYLINDER_CODE_LENGTH, `A cylinder number has at most ${MAX_CYLINDER_CODE_LENGTH} characters`)
   .regex(/^[A-Z0-9][A-Z0-9./-]*$/, 'Use letters, digits, dots, slashes and hyphens');
 
-const refrigerant = z.string({ error: 'Choose the refrigerant' }).transform((v, ctx) => {
-  const r = findRefrigerant(v);
-  if (!r) {
-    ctx.addIssue({
-      code: 'custom',
-      message: `Unknown refrigerant "${v}". Use one of ${REFRIGERANT_CODES.join(', ')}.`,
-    });
-    return z.NEVER;
-  }
-  return r.code;
-});
-
 const cylinderFields = z.object({
   code: z.preprocess(blankToNull, cylinderCodeSchema.nullable().optional()),
   kind: z.preprocess(
@@ -81,12 +64,12 @@ const cylinderFields = z.object({
     },
     z.enum(CYLINDER_KINDS, { message: 'Use new (refrigerant supply) or recovery' }),
   ),
-  refrigerant,
+  refrigerant: refrigerantSchema,
   tareKg: kgField('tare', 0.5),
   /** The cylinder maker's marked maximum fill, in kg of refrigerant. */
   capacityKg: kgField('maximum fill', 0.5),
-  supplier: optionalText(MAX_CYLINDER_TEXT),
-  lot: optionalText(64),
+  supplier: optionalText(MAX_CYLINDER_TEXT).optional(),
+  lot: optionalText(64).optional(),
   gasOrigin: z.preprocess(
     (v) => (blankToNull(v) === null ? null : textToId(v)),
     z.enum(GAS_ORIGINS, { message: 'Use virgin, recycled or reclaimed' }).nullable().optional(),
@@ -97,7 +80,7 @@ const cylinderFields = z.object({
   ),
   /** A first weighing taken when the cylinder is registered. */
   grossKg: z.preprocess(textToNumber, kgField('gross weight', 0.5).nullable().optional()),
-  notes: optionalText(500),
+  notes: optionalText(500).optional(),
 });
 
 type FieldsOut = z.output<typeof cylinderFields>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, parseContainerNumber, REFRIGERANT_CODES } from '../domain';
-import { blankToNull, daySchema, EARLIEST_RECORD_DAY, textToId, textToNumber } from './common';
+import { blankToNull, daySchema, EARLIEST_RECORD_DAY, optionalText, textToId, textToNumber } from './common';
 import { SITE_KINDS } from './sites';
 
 export const UNIT_STATUSES = ['in_service', 'out_of_service', 'retired'] as const;
@@ -22,15 +22,7 @@ export const MAX_SERIAL_LENGTH = 40;
 export const MAX_MODEL_LENGTH = 60;
 export const MAX_UNIT_PAGE_SIZE = 100;
 
-export const containerNumberSchema = z.string({ error: 'Enter the container number' }).transform((v, ctx) => {
-  const r = parseContainerNumber(v);
-  if (!r.ok) {
-    ctx.addIssue({ code: 'custom', message: r.error });
-    return z.NEVER;
-  }
-  return r.value;
-});
-
+/** A refrigerant by any usual spelling (r134a, R-134A), as its code. */
 export const refrigerantSchema = z.string({ error: 'Choose the refrigerant' }).transform((v, ctx) => {
   const r = findRefrigerant(v);
   if (!r) {
@@ -43,11 +35,14 @@ export const refrigerantSchema = z.string({ error: 'Choose the refrigerant' }).t
   return r.code;
 });
 
-const optionalText = (max: number) =>
-  z.preprocess(
-    (v) => (typeof v === 'string' ? (v.trim() === '' ? null : v.trim()) : v),
-    z.string().max(max, `Use at most ${max} characters`).nullable(),
-  );
+export const containerNumberSchema = z.string({ error: 'Enter the container number' }).transform((v, ctx) => {
+  const r = parseContainerNumber(v);
+  if (!r.ok) {
+    ctx.addIssue({ code: 'custom', message: r.error });
+    return z.NEVER;
+  }
+  return r.value;
+});
 
 const moneySchema = z.preprocess(
   textToNumber,
