@@ -11,6 +11,7 @@ import { queueDailyDigest, queueOverdueLeakAlerts } from '../../server/features/
 import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { containerCheckDigit } from '../../shared/domain/container-number';
 import { isoDate, dayOf, MS_PER_DAY } from '../../shared/domain/dates';
+import { fmtIsoDay } from '../../shared/format-dates';
 import { ALERT_KINDS, type AlertKind } from '../../shared/schemas/alerts';
 import { openTestDb, resetDb } from '../support/db';
 import { signInAs, TEST_ORIGIN } from '../support/factories';
@@ -312,7 +313,11 @@ describe('daily digest', () => {
     expect(await queueDailyDigest(db, ctx, asOf)).toBe(0);
     await worker.drain();
     const mail = smtp.messages.find((m) => m.envelopeTo.includes(user.email))!;
-    expect(mail.subject).toBe(`Tightloop daily digest for Digest Depot, ${day(0)}`);
+    // Days the app's way (4 Mar 2026), never ISO, in the subject and the rows.
+    expect(mail.subject).toBe(`Tightloop daily digest for Digest Depot, ${fmtIsoDay(day(0))}`);
+    expect(mail.text).not.toMatch(/\d{4}-\d{2}-\d{2}/);
+    expect(mail.text).toContain(`overdue since ${fmtIsoDay(day(-3))}`);
+    expect(mail.text).toContain(`around ${fmtIsoDay(day(9))} (${fmtIsoDay(day(5))} – ${fmtIsoDay(day(20))})`);
     expect(mail.text).toMatch(/Leak checks due within 30 days or overdue[\s\S]*overdue since/);
     expect(mail.text).toMatch(/Top-ups forecast within 14 days[\s\S]*around/);
     expect(mail.text).toMatch(/PTIs running out within 7 days/);
@@ -320,6 +325,41 @@ describe('daily digest', () => {
     for (const u of [quiet, notMine]) expect(mail.text).not.toContain(`${PUBLIC_URL}/units/${u.id}\n`);
     expect(mail.html).toContain('Digest Depot');
     expect(mail.text).toMatch(/unsubscribe: http:\/\/localhost:3000\/unsubscribe\?.*kind=digest/);
+  });
+
+  it('words each site’s leak checks by the site’s own rule: EU regulation, US reference, the company’s rule', async () => {
+    const asOf = clock.now();
+    const rules = [
+      ['EU', 'Rule EU Quay', 'EU 2024/573: every 12 months'],
+      ['US', 'Rule US Yard', 'US reference (40 CFR 82.157): every 12 months'],
+      ['custom', 'Rule Own Depot', "your company's rule: every 12 months"],
+      [null, 'Rule Fleet Depot', 'EU 2024/573: every 12 months'], // no rule of its own: the fleet's policy (EU)
+    ] as const;
+    const subs: { siteId: number; kind: AlertKind }[] = [];
+    const unitsBySite: number[] = [];
+    for (const [jurisdiction, name] of rules) {
+      const siteId = await createSite(name);
+      await db.update(sites).set({ jurisdiction }).where(eq(sites.id, siteId));
+      const unit = await createUnit(siteId);
+      await setStats(unit.id, {
+        nextLeakCheckDue: isoDate(dayOf(asOf.getTime()) - 2),
+        leakCheckIntervalMonths: 12,
+      });
+      subs.push({ siteId, kind: 'digest' });
+      unitsBySite.push(unit.id);
+    }
+    const { agent, user } = await signInAs(app, db, 'engineer');
+    await subscribe(agent, subs);
+    expect(await queueDailyDigest(db, ctx, asOf)).toBeGreaterThanOrEqual(1);
+    await worker.drain();
+    const mail = smtp.messages.find((m) => m.envelopeTo.includes(user.email))!;
+    const lines = mail.text.split('\n');
+    rules.forEach(([, name, words]) => {
+      const row = lines.find((l) => l.includes(`· ${name}`));
+      expect(row, name).toContain(`· ${words} · ${name}`);
+    });
+    expect(lines.find((l) => l.includes('· Rule US Yard'))).not.toContain('EU');
+    expect(lines.find((l) => l.includes('· Rule Own Depot'))).not.toMatch(/EU|CFR/);
   });
 
   it('sends no digest when nothing is due', async () => {

@@ -5,6 +5,7 @@ import type { DbOrTx } from '../../db/client';
 import type { AppContext } from '../../lib/app-context';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail } from '../../lib/mail/layout';
+import { fmtDateTimeInZone } from '../../../shared/format-dates';
 
 const FORGOT_PASSWORD_PATH = '/forgot-password';
 
@@ -28,7 +29,7 @@ export async function queuePasswordChangedNotice(
       ...renderMail({
         heading: subject,
         paragraphs: [
-          `${user.name}, the password of ${user.email} was ${how === 'reset' ? 'reset through an e-mailed link' : 'changed on the account page'} on ${now.toUTCString()}, from ${from.address}${from.browser ? ` (${from.browser.slice(0, 120)})` : ''}.`,
+          `${user.name}, the password of ${user.email} was ${how === 'reset' ? 'reset through an e-mailed link' : 'changed on the account page'} on ${fmtDateTimeInZone(now, null)}, from ${from.address}${from.browser ? ` (${from.browser.slice(0, 120)})` : ''}.`,
           'Every other device was signed out.',
           'If this was not you, reset the password now with the link below and tell an administrator.',
         ],

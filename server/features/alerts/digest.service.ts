@@ -1,10 +1,15 @@
-// The once-a-day mails: a digest per engineer for the sites they follow, and alerts for leaks left open too long.
+// The once-a-day mails: a digest per engineer for the sites they follow, alerts for leaks left open too long and for
+// re-checks due or missed. Days are written the app's way (4 Mar 2026); leak checks in the words of each site's rule.
 import { and, asc, count, eq, gte, inArray, isNotNull, lte, ne, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
-import { mailOutbox, sites, units, unitStats } from '../../db/schema';
+import { events, mailOutbox, sites, unitDepotState, units, unitStats } from '../../db/schema';
 import { can } from '../../../shared/permissions';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
+import { leakCheckRuleShort, type SiteRule } from '../../../shared/domain/rule-words';
+import { fmtIsoDay } from '../../../shared/format-dates';
+import type { Settings } from '../../../shared/schemas/settings';
+import { queueRecheckAlerts } from '../../lib/record/recheck-alerts';
 import { followersOf } from '../../lib/alert-recipients';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail, type MailSection } from '../../lib/mail/layout';
@@ -30,11 +35,12 @@ async function section(
   heading: string,
   where: SQL,
   order: SQL | typeof unitStats.nextLeakCheckDue,
-  detail: (s: typeof unitStats.$inferSelect, siteName: string) => string,
+  detail: (s: typeof unitStats.$inferSelect, site: { name: string; rule: SiteRule }) => string,
+  settings: Settings,
 ): Promise<MailSection | null> {
   const scope = and(inArray(units.siteId, siteIds), ne(units.status, 'retired'), where);
   const rows = await db
-    .select({ unit: units, stats: unitStats, siteName: sites.name })
+    .select({ unit: units, stats: unitStats, siteName: sites.name, jurisdiction: sites.jurisdiction })
     .from(unitStats)
     .innerJoin(units, eq(units.id, unitStats.unitId))
     .innerJoin(sites, eq(sites.id, units.siteId))
@@ -55,8 +61,56 @@ async function section(
     heading,
     rows: rows.slice(0, DIGEST_SECTION_LIMIT).map((r) => ({
       label: formatContainerNumber(r.unit.containerNumber),
-      detail: detail(r.stats, r.siteName),
+      detail: detail(r.stats, { name: r.siteName, rule: r.jurisdiction ?? settings.policy }),
       url: `${ctx.publicUrl}/units/${r.unit.id}`,
+    })),
+    more,
+  };
+}
+
+/** Open re-checks due today or missed at these sites (the unit's depot state), most overdue first. */
+async function recheckSection(
+  db: Db,
+  ctx: AlertContext,
+  siteIds: number[],
+  today: string,
+): Promise<MailSection | null> {
+  const scope = and(inArray(units.siteId, siteIds), ne(units.status, 'retired'), lte(unitDepotState.recheckDue, today));
+  const rows = await db
+    .select({
+      unitId: units.id,
+      containerNumber: units.containerNumber,
+      siteName: sites.name,
+      reason: unitDepotState.recheckReason,
+      dueOn: unitDepotState.recheckDue,
+      sourceAt: events.occurredAt,
+    })
+    .from(unitDepotState)
+    .innerJoin(units, eq(units.id, unitDepotState.unitId))
+    .innerJoin(sites, eq(sites.id, units.siteId))
+    .innerJoin(events, eq(events.id, unitDepotState.recheckSourceEventId))
+    .where(scope)
+    .orderBy(asc(unitDepotState.recheckDue), asc(units.containerNumber))
+    .limit(DIGEST_SECTION_LIMIT + 1);
+  if (rows.length === 0) return null;
+  let more: string | undefined;
+  if (rows.length > DIGEST_SECTION_LIMIT) {
+    const [{ n }] = await db
+      .select({ n: count() })
+      .from(unitDepotState)
+      .innerJoin(units, eq(units.id, unitDepotState.unitId))
+      .where(scope);
+    more = `…and ${n - DIGEST_SECTION_LIMIT} more in Tightloop.`;
+  }
+  return {
+    heading: 'Re-checks due or missed',
+    rows: rows.slice(0, DIGEST_SECTION_LIMIT).map((r) => ({
+      label: formatContainerNumber(r.containerNumber),
+      detail:
+        `${r.reason === 'repair' ? 'leak check after the repair' : 're-check after the top-up'} of ` +
+        `${fmtIsoDay(isoDate(dayOf(r.sourceAt.getTime())))}, ` +
+        `${r.dueOn === today ? 'due today' : `missed (due ${fmtIsoDay(r.dueOn)})`} · ${r.siteName}`,
+      url: `${ctx.publicUrl}/units/${r.unitId}`,
     })),
     more,
   };
@@ -64,7 +118,9 @@ async function section(
 
 async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf: Date): Promise<MailSection[]> {
   const today = dayPlus(asOf, 0);
+  const settings = await ctx.caches.settings.get(db);
   const found = await Promise.all([
+    recheckSection(db, ctx, siteIds, today),
     section(
       db,
       ctx,
@@ -72,7 +128,10 @@ async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf
       `Leak checks due within ${DIGEST_LEAK_CHECK_DAYS} days or overdue`,
       lte(unitStats.nextLeakCheckDue, dayPlus(asOf, DIGEST_LEAK_CHECK_DAYS)),
       asc(unitStats.nextLeakCheckDue),
-      (s, site) => `${s.nextLeakCheckDue! < today ? 'overdue since' : 'due'} ${s.nextLeakCheckDue} · ${site}`,
+      (s, site) =>
+        `${s.nextLeakCheckDue! < today ? 'overdue since' : 'due'} ${fmtIsoDay(s.nextLeakCheckDue)} · ` +
+        `${leakCheckRuleShort(site.rule, s.leakCheckIntervalMonths)} · ${site.name}`,
+      settings,
     ),
     section(
       db,
@@ -82,8 +141,9 @@ async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf
       lte(unitStats.forecastDate, dayPlus(asOf, DIGEST_FORECAST_DAYS)),
       asc(unitStats.forecastDate),
       (s, site) =>
-        `${s.forecastDate! < today || s.forecastOverdue ? 'expected already, since' : 'around'} ${s.forecastDate}` +
-        `${s.forecastEarliest && s.forecastLatest ? ` (${s.forecastEarliest} – ${s.forecastLatest})` : ''} · ${site}`,
+        `${s.forecastDate! < today || s.forecastOverdue ? 'expected already, since' : 'around'} ${fmtIsoDay(s.forecastDate)}` +
+        `${s.forecastEarliest && s.forecastLatest ? ` (${fmtIsoDay(s.forecastEarliest)} – ${fmtIsoDay(s.forecastLatest)})` : ''} · ${site.name}`,
+      settings,
     ),
     section(
       db,
@@ -92,7 +152,8 @@ async function digestSections(db: Db, ctx: AlertContext, siteIds: number[], asOf
       `PTIs running out within ${DIGEST_PTI_DAYS} days`,
       and(gte(unitStats.ptiValidUntil, today), lte(unitStats.ptiValidUntil, dayPlus(asOf, DIGEST_PTI_DAYS)))!,
       asc(unitStats.ptiValidUntil),
-      (s, site) => `PTI valid until ${s.ptiValidUntil} · ${site}`,
+      (s, site) => `PTI valid until ${fmtIsoDay(s.ptiValidUntil)} · ${site.name}`,
+      settings,
     ),
   ]);
   return found.filter((s): s is MailSection => s != null);
@@ -127,7 +188,7 @@ export async function queueDailyDigest(db: Db, ctx: AlertContext, asOf: Date): P
     const sections = await digestSections(db, ctx, p.siteIds, asOf);
     if (sections.length === 0) continue;
     const where = p.siteNames.length === 1 ? p.siteNames[0] : `${p.siteNames.length} sites`;
-    const subject = `Tightloop daily digest for ${where}, ${today}`;
+    const subject = `Tightloop daily digest for ${where}, ${fmtIsoDay(today)}`;
     await db.transaction(async (tx) => {
       const { stopUrl, footer } = await subscriptionFooter(tx, ctx, userId, 'digest', p.siteNames.join(', '));
       const mail = renderMail({
@@ -192,5 +253,9 @@ export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Da
 }
 
 export async function runDailyMailJobs(db: Db, ctx: AlertContext, asOf: Date) {
-  return { openLeaks: await queueOverdueLeakAlerts(db, ctx, asOf), digests: await queueDailyDigest(db, ctx, asOf) };
+  return {
+    openLeaks: await queueOverdueLeakAlerts(db, ctx, asOf),
+    rechecks: await queueRecheckAlerts(db, ctx, asOf),
+    digests: await queueDailyDigest(db, ctx, asOf),
+  };
 }

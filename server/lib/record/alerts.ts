@@ -10,7 +10,8 @@ import { ALERT_KIND_LABELS, type AlertKind } from '../../../shared/schemas/alert
 import { MAIL_PAGE_PATHS } from '../../../shared/schemas/mail';
 import { formatContainerNumber } from '../../../shared/domain/container-number';
 import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
-import { roundTo } from '../../../shared/domain/numbers';
+import { fmtDayInZone } from '../../../shared/format-dates';
+import { fmtPct } from '../../../shared/format';
 import { enqueueMail } from '../mail/outbox';
 import { renderMail, type MailContent } from '../mail/layout';
 import { unsubscribeUrl } from '../mail/unsubscribe-link';
@@ -68,13 +69,16 @@ async function queueUnitAlert(
   unit: AlertUnit,
   /** Identifies the crossing, so the same one is never mailed twice. */
   occurrence: string,
-  content: (siteName: string) => { subject: string; paragraphs: string[] },
+  content: (siteName: string, timeZone: string | null) => { subject: string; paragraphs: string[] },
 ): Promise<number> {
   const people = await subscribersOf(tx, unit.siteId, kind, ctx.clock.now());
   if (people.length === 0) return 0;
-  const [site] = await tx.select({ name: sites.name }).from(sites).where(eq(sites.id, unit.siteId));
+  const [site] = await tx
+    .select({ name: sites.name, timeZone: sites.timeZone })
+    .from(sites)
+    .where(eq(sites.id, unit.siteId));
   const siteName = site?.name ?? 'your site';
-  const { subject, paragraphs } = content(siteName);
+  const { subject, paragraphs } = content(siteName, site?.timeZone ?? null);
   let queued = 0;
   for (const p of people) {
     const { stopUrl, footer } = await subscriptionFooter(tx, ctx, p.id, kind, siteName);
@@ -116,17 +120,16 @@ export function queueOpenLeakAlert(
   const days = openLeakDays(foundAt, now);
   if (days < OPEN_LEAK_ALERT_DAYS) return Promise.resolve(0);
   const shown = formatContainerNumber(unit.containerNumber);
-  return queueUnitAlert(tx, ctx, 'open_leak', unit, foundAt.toISOString(), (siteName) => ({
+  return queueUnitAlert(tx, ctx, 'open_leak', unit, foundAt.toISOString(), (siteName, timeZone) => ({
     subject: `${shown}: leak found ${days} days ago and still not repaired`,
     paragraphs: [
-      `A leak was found on unit ${shown} at ${siteName} on ${isoDate(dayOf(foundAt.getTime()))}, and no repair has been recorded since.`,
+      `A leak was found on unit ${shown} at ${siteName} on ${fmtDayInZone(foundAt, timeZone)}, and no repair has been recorded since.`,
       `The policy allows ${OPEN_LEAK_ALERT_DAYS} days between finding a leak and repairing it. Plan the repair, or record it if it was done.`,
     ],
   }));
 }
 
-// The screens' rule (src/lib/format.ts fmtPct): one decimal at most, trailing zero dropped — 100 %, 100.5 %.
-const pct = (n: number) => `${roundTo(n, 1)} %`;
+const pct = fmtPct;
 
 /**
  * Call inside the write transaction, after recomputing a unit's statistics. Mails a subscriber once when the unit

@@ -3,7 +3,8 @@
 //   1. lock the unit row (SELECT … FOR UPDATE) before any other read, so writers of one unit queue here;
 //   2. the caller's change (events, voids, unit fields), reading the history after the lock;
 //   3. what every write sets off, always in this order (writeEffects): statistics, monthly made-up totals,
-//      alerts, the depot state (re-checks, quarantine); and after the commit, this process's cache versions.
+//      alerts, the depot state (re-checks, quarantine) and its re-check alert; and after the commit, this process's
+//      cache versions.
 // Derived rows are upserts keyed by the locked unit or its visits, never locks on rows that may not exist. READ
 // COMMITTED: each read after the lock sees what the writers before it committed, and inserts take no gap locks.
 // A deadlock or lock-wait timeout runs the attempt again (retryTransaction); each write is idempotent by its
@@ -19,6 +20,7 @@ import type { Settings } from '../../../shared/schemas/settings';
 import { queueAlertsForStatsChange } from './alerts';
 import { applyToFleetMonthly } from './monthly-totals';
 import { applyDepotState } from './depot-state';
+import { queueRecheckAlertForUnit } from './recheck-alerts';
 import {
   computeStatsRows,
   lockUnitForHistory,
@@ -103,7 +105,8 @@ export async function writeEffects(
     before,
     after,
   });
-  await applyDepotState(tx, unit, now, settings);
+  const depot = await applyDepotState(tx, unit, now, settings);
+  await queueRecheckAlertForUnit(tx, ctx, unit, depot.rechecks.open, now, settings);
   return { before, stats: after, detail };
 }
 
