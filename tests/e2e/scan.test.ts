@@ -8,7 +8,7 @@ import { units } from '../../server/db/schema';
 import { newToken } from '../../server/lib/ids';
 import { formatContainerNumber } from '../../shared/domain';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
 import { halyardNumber, withWrongCheckDigit } from '../support/units';
 import { writeQrY4m, zxingReadsFrame } from '../support/y4m';
 
@@ -100,6 +100,82 @@ describe('scanning a label', () => {
       await page.getByText('Valid ISO 6346 number').waitFor();
       await page.getByRole('button', { name: 'Open unit' }).click();
       await page.waitForURL(new RegExp(`/units/${unit.id}$`));
+      expect(browser.pageErrors).toEqual([]);
+      expect(browser.consoleErrors).toEqual([]);
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('fits the number box’s example and a typed number inside the box on a 390 px phone', async () => {
+    const browser = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('link', { name: 'Home' }).first().waitFor();
+      await page.goto('/scan');
+      const field = page.getByLabel('Container number', { exact: true });
+      await field.waitFor();
+      // The placeholder is drawn inside the input, where scrollWidth cannot see it: measured in its own font.
+      const placeholder = await field.evaluate((input: HTMLInputElement) => {
+        const box = getComputedStyle(input);
+        const ph = getComputedStyle(input, '::placeholder');
+        const probe = document.createElement('span');
+        probe.textContent = input.placeholder;
+        Object.assign(probe.style, {
+          position: 'absolute',
+          whiteSpace: 'pre',
+          fontFamily: ph.fontFamily,
+          fontSize: ph.fontSize,
+          fontWeight: ph.fontWeight,
+          letterSpacing: ph.letterSpacing,
+          textTransform: ph.textTransform,
+        });
+        document.body.append(probe);
+        const text = probe.getBoundingClientRect().width;
+        probe.remove();
+        const room = input.clientWidth - parseFloat(box.paddingLeft) - parseFloat(box.paddingRight);
+        return { text, room };
+      });
+      expect(placeholder.text).toBeGreaterThan(0);
+      expect(placeholder.text).toBeLessThanOrEqual(placeholder.room);
+      await field.fill(formatContainerNumber(unit.containerNumber));
+      const typed = await field.evaluate((input: HTMLInputElement) => [input.scrollWidth, input.clientWidth]);
+      expect(typed[0]).toBeLessThanOrEqual(typed[1]);
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('keeps a foreign QR code’s long address inside its message on a 390 px phone', async () => {
+    // A supplier's long link, as printed on a spare part's box: not a Tightloop label.
+    let text = '';
+    for (let i = 0; !text || !zxingReadsFrame(text); i++)
+      text = `https://catalogue.parts-supplier.example/products/reefer/controller/spare-part-0042-${i}?ref=QRCODE0123456789ABCDEFGHIJKLMNOP`;
+    const video = path.join(tmp, 'foreign.y4m');
+    writeQrY4m(video, text);
+    const browser = await openBrowser({
+      viewport: PHONE,
+      extraArgs: [
+        '--use-fake-ui-for-media-stream',
+        '--use-fake-device-for-media-stream',
+        `--use-file-for-fake-video-capture=${video}`,
+      ],
+    });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
+      await page.getByRole('link', { name: 'Home' }).first().waitFor();
+      await page.goto('/scan');
+      const alert = page.getByRole('status').filter({ hasText: 'That QR code is not a Tightloop label' });
+      await alert.waitFor({ timeout: 60_000 });
+      const fits = await alert.evaluate(
+        (box) =>
+          [box, ...box.querySelectorAll('*')].every((el) => el.scrollWidth <= el.clientWidth || el.clientWidth === 0) &&
+          box.getBoundingClientRect().right <= document.documentElement.clientWidth,
+      );
+      expect(fits).toBe(true);
+      expect(await alert.textContent()).toContain(text.slice(0, 40));
       expect(browser.pageErrors).toEqual([]);
       expect(browser.consoleErrors).toEqual([]);
     } finally {

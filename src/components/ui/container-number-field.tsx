@@ -64,7 +64,8 @@ export function ContainerNumberField({ label, value, error, scale = 'lg', classN
         className={cx(
           'w-full min-w-0 rounded-md border-2 bg-white px-4 font-semibold uppercase tabular-nums tracking-wide',
           'placeholder:font-normal placeholder:normal-case placeholder:text-ink-300 focus-visible:border-ink-950',
-          scale === 'xl' ? 'min-h-18 text-3xl' : 'min-h-touch-lg text-figure',
+          // A whole number in the largest type still fits a 360 px phone's box.
+          scale === 'xl' ? 'min-h-18 text-2xl sm:text-3xl' : 'min-h-touch-lg text-figure',
           error || hint?.tone === 'alarm' ? 'border-alarm-700' : 'border-ink-950',
         )}
         {...props}

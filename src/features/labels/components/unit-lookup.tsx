@@ -62,7 +62,7 @@ export function useUnitLookup(
     // Some fleets' own labels carry just the container number.
     const number = parseContainerNumber(text);
     if (number.ok) return byNumber(number.value);
-    setState({ kind: 'not-a-label', text: text.slice(0, 80) });
+    setState({ kind: 'not-a-label', text: text.length > 80 ? `${text.slice(0, 80)}…` : text });
   };
 
   return { state, byScan, byNumber, reset: () => setState({ kind: 'idle' }) };
@@ -113,7 +113,9 @@ export function LookupMessage({
     case 'not-a-label':
       return (
         <Alert tone="heed" title="That QR code is not a Tightloop label">
-          It reads “{state.text}”. Point the camera at the unit’s Tightloop label, or type the container number.
+          {/* A link's address has no spaces to wrap at: it may break anywhere rather than run past the box. */}
+          It reads “<span className="wrap-anywhere">{state.text}</span>”. Point the camera at the unit’s Tightloop
+          label, or type the container number.
         </Alert>
       );
     case 'failed':
