@@ -154,3 +154,49 @@ describe('fleet table to decision', () => {
     }
   });
 });
+
+describe('overview counts to fleet rows', () => {
+  it('an engineer clicks a count on the overview and lands on a fleet table with exactly that many units', async () => {
+    const site = await createTestSite(db, { name: `E2E counting quay ${Date.now() % 100000}` });
+    // Leak checked 400 days ago twice (overdue under a 12-month interval), 350 days ago (due within 30 days), 20 days ago.
+    const checkedDaysAgo = [400, 400, 350, 20];
+    const engineer = await openBrowser({ viewport: DESKTOP });
+    try {
+      const { page } = engineer;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      for (const daysAgo of checkedDaysAgo) {
+        const unit = await createHistoryUnit(db, { siteId: site.id, nominalChargeKg: 5, commissionedOn: '2019-06-01' });
+        await recordVisits(page.request, inject('baseUrl'), unit.id, [
+          { at: at(daysAgo), events: [{ kind: 'leak_check', method: 'electronic_detector', leakFound: false }] },
+        ]);
+      }
+
+      const tile = (label: RegExp) => page.getByTestId('overview-count').filter({ hasText: label });
+      for (const [label, expected, param] of [
+        [/overdue/, 2, 'leakCheckOverdue=1'],
+        [/due in the next 30 days/, 1, 'leakCheckDueDays=30'],
+        [/needed no refrigerant/, 4, 'rateAtMost=0'],
+        [/units/, 4, `siteId=${site.id}`],
+      ] as const) {
+        await page.goto(`/fleet/overview?siteId=${site.id}`);
+        await tile(label).waitFor();
+        const shown = Number((await tile(label).locator('span').first().textContent())!.replace(/\D/g, ''));
+        expect({ label: String(label), shown }).toEqual({ label: String(label), shown: expected });
+        await tile(label).click();
+        await page.waitForURL((u) => u.pathname === '/fleet' && u.search.includes(param));
+        expect(new URL(page.url()).searchParams.get('siteId')).toBe(String(site.id));
+        await expect.poll(() => page.getByTestId('fleet-row').count()).toBe(expected);
+      }
+      // A filter without a control of its own is said in words and can be removed.
+      await page.goto(`/fleet?siteId=${site.id}&leakCheckDueDays=30`);
+      await page.getByRole('button', { name: 'Remove the filter: Leak check due within 30 days' }).click();
+      await page.waitForURL((u) => !u.search.includes('leakCheckDueDays'));
+      await expect.poll(() => page.getByTestId('fleet-row').count()).toBe(4);
+      expect(engineer.pageErrors).toEqual([]);
+      expect(engineer.consoleErrors).toEqual([]);
+    } finally {
+      await engineer.close();
+    }
+  });
+});

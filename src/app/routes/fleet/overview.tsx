@@ -1,7 +1,8 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
+import { Link, useSearchParams, type LoaderFunctionArgs } from 'react-router-dom';
 import {
   fleetOverviewQuerySchema,
+  overviewRows,
   type FleetOverviewDto,
   type FleetOverviewQuery,
 } from '../../../../shared/schemas/fleet';
@@ -14,13 +15,16 @@ import { EmissionsChart, LeakRateHistogram } from '../../../features/fleet/compo
 import { toSearch } from '../../../lib/query-string';
 import {
   ChronicLeakersList,
+  CountTile,
+  fleetRowsHref,
   LeakChecksDueList,
+  LeakRateBars,
   RepairEffectivenessTable,
 } from '../../../features/fleet/components/overview-panels';
 import { ForecastAccuracy } from '../../../features/forecast/components/forecast-accuracy';
 import { RefreshJob } from '../../../features/jobs/components/refresh-job';
 import { fleetKeys } from '../../../features/fleet/api/keys';
-import { fmtCount, fmtDateTime, fmtTime } from '../../../lib/format';
+import { fmtDateTime, fmtTime } from '../../../lib/format';
 import { RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
@@ -94,7 +98,7 @@ export default function FleetOverviewPage() {
           There are no units here yet, or none match the site and refrigerant chosen.
         </EmptyState>
       ) : (
-        <OverviewBody o={overview.data} busy={overview.isPlaceholderData} />
+        <OverviewBody o={overview.data} q={q} busy={overview.isPlaceholderData} />
       )}
     </div>
   );
@@ -103,7 +107,8 @@ export default function FleetOverviewPage() {
 // A background job's new figures show in the overview.
 const OVERVIEWS = [fleetKeys.overviews()];
 
-function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
+function OverviewBody({ o, q, busy }: { o: FleetOverviewDto; q: FleetOverviewQuery; busy: boolean }) {
+  const scope = { siteId: q.siteId, refrigerant: q.refrigerant };
   const computedAt = o.repairEffectiveness.computedAt;
   const builtAt = o.forecastAccuracy?.builtAt ?? null;
   return (
@@ -113,9 +118,16 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
           <h2 id="ov-rate" className="text-xl font-bold">
             Leak-rate distribution
           </h2>
-          <p className="mt-1 text-base text-ink-700">
-            {fmtCount(o.units)} units; {fmtCount(o.leakRate.zero)} needed no refrigerant in the last 365 days and are
-            not drawn. Bars at or above the alert threshold are red.
+          <div className="mt-3 grid grid-cols-2 gap-3">
+            <CountTile count={o.units} label="units" filters={overviewRows.units(scope)} />
+            <CountTile
+              count={o.leakRate.zero}
+              label="needed no refrigerant in 365 days"
+              filters={overviewRows.noRefrigerant(scope)}
+            />
+          </div>
+          <p className="mt-3 text-base text-ink-700">
+            Units that needed no refrigerant are not drawn. Bars at or above the alert threshold are red.
           </p>
           <p className="mt-1 text-sm text-ink-600">
             The distribution, repeat leakers and checks due are read at most every 15 seconds; these are from{' '}
@@ -124,18 +136,26 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
           <div className="mt-3">
             <LeakRateHistogram data={o.leakRate} />
           </div>
+          <LeakRateBars leakRate={o.leakRate} scope={scope} />
         </Panel>
         <Panel aria-labelledby="ov-due">
           <h2 id="ov-due" className="text-xl font-bold">
             Leak checks due
           </h2>
-          <p className="mt-1 text-base text-ink-700">
-            <strong>{fmtCount(o.leakChecksDue.count)}</strong> due in the next {o.leakChecksDue.days} days;{' '}
-            <strong className={o.leakChecksDue.overdue ? 'text-alarm-700' : undefined}>
-              {fmtCount(o.leakChecksDue.overdue)}
-            </strong>{' '}
-            overdue.
-          </p>
+          <div className="mt-3 grid grid-cols-2 gap-3">
+            <CountTile
+              count={o.leakChecksDue.overdue}
+              label="overdue"
+              alarm
+              filters={overviewRows.leakChecksOverdue(scope)}
+            />
+            <CountTile
+              count={o.leakChecksDue.count}
+              label={`due in the next ${o.leakChecksDue.days} days`}
+              filters={overviewRows.leakChecksDue(scope)}
+            />
+          </div>
+          {o.leakChecksDue.units.length > 0 && <p className="mt-3 text-base text-ink-700">Falling due soonest:</p>}
           <LeakChecksDueList due={o.leakChecksDue} />
         </Panel>
       </div>
@@ -157,6 +177,12 @@ function OverviewBody({ o, busy }: { o: FleetOverviewDto; busy: boolean }) {
           </h2>
           <p className="mt-1 text-base text-ink-700">The highest repeat-leak scores, with what drives each.</p>
           <ChronicLeakersList leakers={o.chronicLeakers} />
+          <Link
+            to={fleetRowsHref(overviewRows.units(scope))}
+            className="mt-3 inline-flex min-h-touch items-center text-sm font-semibold text-fjord-700 underline underline-offset-4"
+          >
+            Every unit by repeat-leak score
+          </Link>
         </Panel>
         <Panel aria-labelledby="ov-repairs">
           <h2 id="ov-repairs" className="text-xl font-bold">

@@ -159,6 +159,49 @@ const FORECAST_OPTIONS = [
 
 type Props = { filters: FleetFilters; sites: SiteOption[]; onChange: (next: FleetFilters) => void };
 
+/** The filters the overview's counts link with that have no control of their own: said in words, each removable. */
+function linkedFilters(f: FleetFilters): { words: string; drop: (keyof FleetFilters)[] }[] {
+  const out: { words: string; drop: (keyof FleetFilters)[] }[] = [];
+  if (f.rateAtMost === 0) out.push({ words: 'Needed no refrigerant in 365 days', drop: ['rateAtMost'] });
+  else if (f.rateAtMost !== undefined) out.push({ words: `Leak rate at most ${f.rateAtMost} %`, drop: ['rateAtMost'] });
+  if (f.rateFrom !== undefined && f.rateBelow !== undefined)
+    out.push({ words: `Leak rate ${f.rateFrom} % to under ${f.rateBelow} %`, drop: ['rateFrom', 'rateBelow'] });
+  else if (f.rateFrom !== undefined) out.push({ words: `Leak rate ${f.rateFrom} % or more`, drop: ['rateFrom'] });
+  else if (f.rateBelow !== undefined) out.push({ words: `Leak rate under ${f.rateBelow} %`, drop: ['rateBelow'] });
+  if (f.leakCheckDueDays !== undefined)
+    out.push({ words: `Leak check due within ${f.leakCheckDueDays} days`, drop: ['leakCheckDueDays'] });
+  return out;
+}
+
+function LinkedFilterChips({ filters, onChange }: Pick<Props, 'filters' | 'onChange'>) {
+  const chips = linkedFilters(filters);
+  if (chips.length === 0) return null;
+  return (
+    <ul aria-label="Also filtered by" className="flex flex-wrap gap-2">
+      {chips.map((c) => (
+        <li
+          key={c.words}
+          className="inline-flex min-h-touch items-center gap-1 rounded-full border-2 border-fjord-700 pl-3 text-sm font-semibold text-ink-950"
+        >
+          {c.words}
+          <button
+            type="button"
+            className="inline-flex min-h-touch min-w-touch items-center justify-center rounded-full text-lg text-ink-700 hover:text-ink-950"
+            aria-label={`Remove the filter: ${c.words}`}
+            onClick={() =>
+              onChange(
+                Object.fromEntries(Object.entries(filters).filter(([k]) => !c.drop.includes(k as keyof FleetFilters))),
+              )
+            }
+          >
+            ×
+          </button>
+        </li>
+      ))}
+    </ul>
+  );
+}
+
 /** Every filter of the fleet table; on phones folded under one "Filters" button. */
 export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
   const set = (patch: Partial<FleetFilters>) => onChange({ ...filters, ...patch });
@@ -172,6 +215,7 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
   return (
     <div className="flex flex-col gap-3">
       <NumberSearch value={filters.q} onSearch={(q) => set({ q })} />
+      <LinkedFilterChips filters={filters} onChange={onChange} />
       <details
         className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1"
         open={active > 0 ? true : undefined}

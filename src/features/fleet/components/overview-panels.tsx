@@ -1,9 +1,76 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { LEAK_LOCATIONS, REPAIR_ACTIONS, termLabel } from '../../../../shared/domain';
-import type { FleetOverviewDto } from '../../../../shared/schemas/fleet';
+import {
+  overviewRows,
+  type FleetFilters,
+  type FleetOverviewDto,
+  type FleetOverviewQuery,
+} from '../../../../shared/schemas/fleet';
+import { cx } from '../../../components/ui/cx';
 import { paths } from '../../../config/paths';
-import { fmtContainer, fmtDay, fmtPct } from '../../../lib/format';
+import { fmtContainer, fmtCount, fmtDay, fmtPct } from '../../../lib/format';
+import { filtersSearch } from '../utils/fleet-params';
 import { ScoreBadge } from './band-badge';
+
+type Scope = Pick<FleetOverviewQuery, 'siteId' | 'refrigerant'>;
+
+/** The fleet table on exactly the units in `filters`. */
+export const fleetRowsHref = (filters: FleetFilters) => paths.fleet.getHref(filtersSearch(filters));
+
+/** A count on the overview, as a link to its units in the fleet table. */
+export function CountTile({
+  count,
+  label,
+  filters,
+  alarm,
+}: {
+  count: number;
+  label: ReactNode;
+  filters: FleetFilters;
+  alarm?: boolean;
+}) {
+  return (
+    <Link
+      to={fleetRowsHref(filters)}
+      data-testid="overview-count"
+      className="flex min-h-touch-lg min-w-0 flex-col justify-center rounded-md border-2 border-ink-200 px-3 py-2 hover:border-ink-950"
+    >
+      <span className={cx('text-2xl font-bold tabular-nums', alarm && count > 0 ? 'text-alarm-700' : 'text-ink-950')}>
+        {fmtCount(count)}
+      </span>
+      <span className="text-sm font-semibold text-fjord-700">
+        {label} <span aria-hidden="true">›</span>
+      </span>
+    </Link>
+  );
+}
+
+const binWords = (b: FleetOverviewDto['leakRate']['bins'][number]) =>
+  b.toPct === null ? `${b.fromPct} % and above` : `${b.fromPct}–${b.toPct} %`;
+
+/** Each bar of the distribution with its count, as links to its units (bars with none are left out). */
+export function LeakRateBars({ leakRate, scope }: { leakRate: FleetOverviewDto['leakRate']; scope: Scope }) {
+  const bars = leakRate.bins.filter((b) => b.units > 0);
+  if (bars.length === 0) return null;
+  return (
+    <ul aria-label="Units per bar" className="mt-3 flex flex-wrap gap-2">
+      {bars.map((b) => (
+        <li key={b.fromPct}>
+          <Link
+            to={fleetRowsHref(overviewRows.bin(scope, b))}
+            className={cx(
+              'inline-flex min-h-touch items-center gap-1 rounded-full border-2 px-3 text-sm font-semibold whitespace-nowrap hover:border-ink-950',
+              b.fromPct >= leakRate.thresholdPct ? 'border-alarm-700 text-alarm-700' : 'border-ink-300 text-ink-800',
+            )}
+          >
+            {binWords(b)}: <span className="tabular-nums">{fmtCount(b.units)}</span>
+          </Link>
+        </li>
+      ))}
+    </ul>
+  );
+}
 
 /** The units whose leak check falls due soonest. */
 export function LeakChecksDueList({ due }: { due: FleetOverviewDto['leakChecksDue'] }) {
