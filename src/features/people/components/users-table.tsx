@@ -1,9 +1,9 @@
-import type { ReactNode } from 'react';
+import { useState, type ReactNode } from 'react';
 import type { UserDto } from '../../../../shared/schemas/account';
 import { cx } from '../../../components/ui/cx';
 import { Badge } from '../../../components/ui/page';
-import { fmtDay } from '../../../lib/format';
 import { ActiveControl } from './active-control';
+import { CertificateControl } from './certificate-control';
 import { RoleControl } from './role-control';
 import { UserSessionsControl } from './user-sessions-control';
 
@@ -74,6 +74,7 @@ function Cell({
 }
 
 function UserRow({ user, isSelf }: { user: UserDto; isSelf: boolean }) {
+  const [editingCertificate, setEditingCertificate] = useState(false);
   return (
     <tr
       role="row"
@@ -94,19 +95,9 @@ function UserRow({ user, isSelf }: { user: UserDto; isSelf: boolean }) {
       <Cell label="Role" className="col-span-2 md:w-48">
         <RoleControl key={user.role} user={user} isSelf={isSelf} />
       </Cell>
-      <Cell label="Certificate">
-        {user.certificateNumber ? (
-          <span>
-            <span className="font-semibold tabular-nums">{user.certificateNumber}</span>
-            {user.certificateExpiresOn && (
-              <span className="block text-sm text-ink-600">valid until {fmtDay(user.certificateExpiresOn)}</span>
-            )}
-          </span>
-        ) : (
-          <span className="text-ink-600">
-            —<span className="sr-only">none</span>
-          </span>
-        )}
+      {/* On a phone card the form takes the card's width while it is open. */}
+      <Cell label="Certificate" className={editingCertificate ? 'col-span-2' : undefined}>
+        <CertificateControl user={user} editing={editingCertificate} onEditing={setEditingCertificate} />
       </Cell>
       <Cell label="Status">
         <span>{user.active ? <Badge tone="okay">Active</Badge> : <Badge tone="muted">Deactivated</Badge>}</span>
