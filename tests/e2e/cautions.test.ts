@@ -3,7 +3,7 @@ import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
-import { units } from '../../server/db/schema';
+import { cylinders, units } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
 import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
 import { createTestUnit } from '../support/factories';
@@ -56,6 +56,30 @@ describe('cautions where the work can hurt (390 px)', () => {
       await expect.poll(() => note.textContent()).toMatch(PRECEDENCE);
       await note.scrollIntoViewIfNeeded();
       await shot(page, 'caution-computed-dates-390');
+    } finally {
+      await browser.close();
+    }
+  });
+
+  it('puts the entry, PTI and cylinder cautions in the one caution box, each with the precedence sentence', async () => {
+    const unit = await createTestUnit(db, { refrigerant: 'R-134a', nominalChargeKg: 4 });
+    const [cylinder] = await db.select({ id: cylinders.id }).from(cylinders).orderBy(cylinders.id).limit(1);
+    const browser = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = browser;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      // The shared box (data-testid="caution") is what always adds the sentence.
+      const box = (hasText: RegExp) => page.getByTestId('caution').filter({ hasText });
+      await page.goto(`/units/${unit.id}/visit`);
+      await page.getByRole('button', { name: 'Add Repair' }).click();
+      await expect.poll(() => box(/Opening the circuit/).textContent()).toMatch(PRECEDENCE);
+      await page.goto(`/units/${unit.id}/release`);
+      await expect.poll(() => box(/380–460 V three-phase/).textContent()).toMatch(PRECEDENCE);
+      await page.goto(`/cylinders/${cylinder.id}`);
+      await expect.poll(() => box(/Never mix refrigerants in one cylinder/).textContent()).toMatch(PRECEDENCE);
+      expect(browser.pageErrors).toEqual([]);
+      expect(browser.consoleErrors).toEqual([]);
     } finally {
       await browser.close();
     }

@@ -127,7 +127,10 @@ describe('the depot’s day on a phone', () => {
       const checklist = page.getByRole('form', { name: 'PTI checklist' });
       await checklist.waitFor();
       await page.getByText(/380–460 V three-phase/).waitFor();
-      await page.getByText(/take precedence over this checklist/).waitFor();
+      await page
+        .getByRole('complementary', { name: 'Safety' })
+        .getByText(/take precedence over anything Tightloop computes/)
+        .waitFor();
       const passes = checklist.getByRole('button', { name: 'Pass', exact: true });
       for (let i = 0; i < (await passes.count()); i++) await passes.nth(i).click();
       await page
