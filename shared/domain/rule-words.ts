@@ -64,3 +64,22 @@ export function leakCheckRuleShort(rule: SiteRule, intervalMonths: number | null
   if (rule === 'US') return `US reference (40 CFR 82.157): ${every}`;
   return `your company's rule: ${every}`;
 }
+
+/** A list row's reason: "Leak check overdue since 4 Mar 2026 — EU 2024/573: every 12 months." */
+export function leakCheckDueShort(
+  rule: SiteRule,
+  c: { dueOn: string; today: string; intervalMonths?: number | null },
+): string {
+  const when =
+    c.dueOn < c.today ? `Leak check overdue since ${fmtIsoDay(c.dueOn)}` : `Leak check due on ${fmtIsoDay(c.dueOn)}`;
+  return `${when} — ${leakCheckRuleShort(rule, c.intervalMonths)}.`;
+}
+
+/** Why a repair is followed by a leak check, in a few words, by the site's rule. */
+export function repairRecheckShort(rule: SiteRule, days: number): string {
+  // Source: Regulation (EU) 2024/573 — a leak check within one month of a repair.
+  if (rule === 'EU') return 'EU 2024/573: a leak check within a month of a repair';
+  // Source: 40 CFR 82.157 (reference only): verification tests after a repair.
+  if (rule === 'US') return 'US reference (40 CFR 82.157): verification after a repair';
+  return `your company's rule: a leak check ${days} days after a repair`;
+}

@@ -8,7 +8,7 @@ export function dayRoutes(ctx: AppContext) {
   return [
     route('get', '/api/day', 'view:unit', async (req, res) => {
       const { siteId } = dayQuerySchema.parse(req.query);
-      res.json(await myDay(ctx.db, req.user!, siteId, ctx.clock.now()));
+      res.json(await myDay(ctx.db, req.user!, siteId, ctx.clock.now(), await ctx.caches.settings.get(ctx.db)));
     }),
     route('get', '/api/units/:id/depot', 'view:unit', async (req, res) => {
       const { id } = unitIdParam.parse(req.params);

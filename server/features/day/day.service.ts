@@ -10,6 +10,7 @@ import type { SessionUser } from '../../lib/session';
 import { dayOf, isoDate } from '../../../shared/domain/dates';
 import { ptiBlockers } from '../../../shared/domain/pti';
 import { recheckWords } from '../../../shared/domain/rechecks';
+import { leakCheckDueShort, repairRecheckShort, type SiteRule } from '../../../shared/domain/rule-words';
 import {
   DAY_AHEAD,
   DAY_GROUP_LIMIT,
@@ -20,7 +21,7 @@ import {
   type DayRowDto,
   type UnitDepotDto,
 } from '../../../shared/schemas/day';
-import type { Settings } from '../../../shared/schemas/settings';
+import { DEFAULT_SETTINGS, type Settings } from '../../../shared/schemas/settings';
 import { dayWords } from '../../../shared/schemas/common';
 
 const dayPlus = (today: string, n: number) => isoDate(dayOf(Date.parse(`${today}T00:00:00Z`)) + n);
@@ -75,6 +76,7 @@ type GroupRow = {
   unitId: number;
   containerNumber: string;
   nextLeakCheckDue: string | null;
+  leakCheckIntervalMonths: number | null;
   ptiValidUntil: string | null;
   openLeakFoundAt: Date | null;
   forecastDate: string | null;
@@ -86,7 +88,10 @@ type GroupRow = {
   quarantineReason: string | null;
 };
 
-function groupSpecs(today: string): Record<DayGroupId, GroupSpec> {
+/** The words of each row follow the site's leak-check rule (its own, else the fleet's policy). */
+function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<DayGroupId, GroupSpec> {
+  const leakCheckWhy = (r: GroupRow) =>
+    leakCheckDueShort(rule, { dueOn: r.nextLeakCheckDue!, today, intervalMonths: r.leakCheckIntervalMonths });
   const s = unitStats;
   const d = unitDepotState;
   return {
@@ -105,7 +110,7 @@ function groupSpecs(today: string): Record<DayGroupId, GroupSpec> {
       row: (r) => ({
         why:
           r.recheckReason === 'repair'
-            ? `Leak check within a month of a repair${r.recheckDue! < today ? `, overdue since ${dayWords(r.recheckDue!)}` : ', due today'}.`
+            ? `Leak check after a repair${r.recheckDue! < today ? `, overdue since ${dayWords(r.recheckDue!)}` : ', due today'} — ${repairRecheckShort(rule, settings.rechecks.afterRepairDays)}.`
             : `Re-check after a top-up: see that the charge held${r.recheckDue! < today ? ` (was due ${dayWords(r.recheckDue!)})` : ' (due today)'}.`,
         dueOn: r.recheckDue,
         action: r.recheckReason === 'repair' ? 'leak_check' : 'pressure',
@@ -115,7 +120,7 @@ function groupSpecs(today: string): Record<DayGroupId, GroupSpec> {
       where: lt(s.nextLeakCheckDue, today),
       order: [asc(s.nextLeakCheckDue)],
       row: (r) => ({
-        why: `Leak check overdue since ${dayWords(r.nextLeakCheckDue!)}.`,
+        why: leakCheckWhy(r),
         dueOn: r.nextLeakCheckDue,
         action: 'leak_check',
       }),
@@ -142,7 +147,7 @@ function groupSpecs(today: string): Record<DayGroupId, GroupSpec> {
       where: and(gte(s.nextLeakCheckDue, today), lte(s.nextLeakCheckDue, dayPlus(today, DAY_AHEAD.leakCheckDays)))!,
       order: [asc(s.nextLeakCheckDue)],
       row: (r) => ({
-        why: `Leak check due on ${dayWords(r.nextLeakCheckDue!)}.`,
+        why: leakCheckWhy(r),
         dueOn: r.nextLeakCheckDue,
         action: 'leak_check',
       }),
@@ -192,12 +197,23 @@ async function siteFor(db: Db, user: SessionUser, siteId: number | undefined) {
   return site;
 }
 
-export async function myDay(db: Db, user: SessionUser, siteId: number | undefined, now: Date): Promise<DayDto> {
+export async function myDay(
+  db: Db,
+  user: SessionUser,
+  siteId: number | undefined,
+  now: Date,
+  // The seed counts rows only; the API passes the settings in force.
+  settings: Settings = DEFAULT_SETTINGS,
+): Promise<DayDto> {
   const today = now.toISOString().slice(0, 10);
   const site = await siteFor(db, user, siteId);
   const allSites = await db.select({ id: sites.id, name: sites.name }).from(sites).orderBy(asc(sites.name));
   if (!site) return { site: null, sites: allSites, today, groups: [] };
-  const specs = groupSpecs(today);
+  const [{ jurisdiction }] = await db
+    .select({ jurisdiction: sites.jurisdiction })
+    .from(sites)
+    .where(eq(sites.id, site.id));
+  const specs = groupSpecs(today, jurisdiction ?? settings.policy, settings);
   const base = and(eq(units.siteId, site.id), ne(units.status, 'retired'));
   const groups = [];
   for (const g of DAY_GROUPS) {
@@ -208,6 +224,7 @@ export async function myDay(db: Db, user: SessionUser, siteId: number | undefine
           unitId: units.id,
           containerNumber: units.containerNumber,
           nextLeakCheckDue: unitStats.nextLeakCheckDue,
+          leakCheckIntervalMonths: unitStats.leakCheckIntervalMonths,
           ptiValidUntil: unitStats.ptiValidUntil,
           openLeakFoundAt: unitStats.openLeakFoundAt,
           forecastDate: unitStats.forecastDate,
