@@ -16,7 +16,7 @@ export default function AlertSettingsPage() {
     <div className="flex flex-col gap-6">
       <PageHeader
         title="Alerts by e-mail"
-        description="Choose, per site, which alerts reach your inbox. Every alert mail also has a link to stop that kind."
+        description="Choose which alerts reach your inbox: your role’s default, every site, or the sites you tick. Every alert mail also has a link to stop that kind."
       />
       {subs.isPending ? (
         <p className="flex items-center gap-3 text-ink-700">
