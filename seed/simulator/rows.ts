@@ -47,9 +47,23 @@ export function siteRows(fleet: Fleet, firstId: number): SiteRow[] {
   }));
 }
 
+/**
+ * Days from today to each certificate's last valid day, taken in turn: most run a year or more, one in about every
+ * eight has expired and a few run out within two months, so the people page's expiring list has something to show.
+ * The demo sign-ins' certificates run well past today.
+ */
+const CERTIFICATE_DAYS_LEFT = [410, 720, -25, 190, 38, 905, 560, 12];
+const DEMO_CERTIFICATE_DAYS_LEFT = 480;
+
+function certificateExpiry(fleet: Fleet, p: Fleet['people'][number], i: number): string | null {
+  if (!p.certificateNumber) return null;
+  const left = p.demo ? DEMO_CERTIFICATE_DAYS_LEFT : CERTIFICATE_DAYS_LEFT[i % CERTIFICATE_DAYS_LEFT.length];
+  return new Date((fleet.ctx.todayDay + left) * 86_400_000).toISOString().slice(0, 10);
+}
+
 export function userRows(fleet: Fleet, demoPasswordHash: string | null): UserRow[] {
   const at = new Date((fleet.ctx.todayDay - Math.round(fleet.ctx.historyYears * 365.25) - 60) * 86_400_000);
-  return fleet.people.map((p) => ({
+  return fleet.people.map((p, i) => ({
     id: p.id,
     email: p.email,
     name: p.name,
@@ -57,6 +71,7 @@ export function userRows(fleet: Fleet, demoPasswordHash: string | null): UserRow
     // Only the demo sign-ins can sign in; the simulated staff would be invited.
     passwordHash: p.demo ? demoPasswordHash : null,
     certificateNumber: p.certificateNumber,
+    certificateExpiresOn: certificateExpiry(fleet, p, i),
     active: true,
     createdAt: at,
   }));

@@ -4,7 +4,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { eq, isNotNull } from 'drizzle-orm';
 import { createApp } from '../../server/app';
-import { sites, units, unitStats } from '../../server/db/schema';
+import { sites, units, unitStats, users } from '../../server/db/schema';
 import { recomputeUnitStats } from '../../server/lib/record/stats';
 import { getSettings } from '../../server/lib/settings';
 import { DEMO_UNITS, seedDemo } from '../../seed/index';
@@ -62,6 +62,18 @@ describe('the demo fleet', () => {
     expect(withRule('US').every((s) => s.timeZone?.startsWith('America/'))).toBe(true);
     expect(withRule('custom').length).toBeGreaterThan(0);
     expect(rows.filter((s) => s.kind !== 'vessel').every((s) => s.timeZone)).toBe(true);
+  });
+
+  it("gives certificates expiries: the demo sign-ins' well ahead, some of the staff's expiring within 60 days or expired", async () => {
+    const today = now.toISOString().slice(0, 10);
+    const in60 = new Date(now.getTime() + 60 * 86_400_000).toISOString().slice(0, 10);
+    const people = await db.select().from(users).where(isNotNull(users.certificateNumber));
+    expect(people.every((p) => p.certificateExpiresOn)).toBe(true);
+    const demo = people.filter((p) => DEMO_ACCOUNTS.some((a) => a.email === p.email));
+    expect(demo.length).toBe(2);
+    expect(demo.every((p) => p.certificateExpiresOn! > in60)).toBe(true);
+    expect(people.some((p) => p.certificateExpiresOn! < today)).toBe(true);
+    expect(people.some((p) => p.certificateExpiresOn! >= today && p.certificateExpiresOn! <= in60)).toBe(true);
   });
 
   it("stores every unit's leak-check figures under its own site's rule, as the write path would", async () => {
