@@ -2,6 +2,7 @@
 import { assessPressureHealth, type PressureSnapshotInput } from './pressure-health';
 import { dayOf, isoDate, isoToMs } from './dates';
 import { roundTo } from './numbers';
+import { fmtIsoDay } from '../format-dates';
 import type { SightGlassState } from './service-terms';
 import { DEFAULT_SETTINGS, type Settings } from '../schemas/settings';
 
@@ -219,6 +220,6 @@ function pressureVerdicts(
 /** A re-check's reason in words, for lists. */
 export function recheckWords(c: Pick<Recheck, 'reason' | 'sourceAt' | 'dueOn'>): string {
   return c.reason === 'top_up'
-    ? `Re-check after the top-up of ${dayText(c.sourceAt)}: see that the charge held (due ${c.dueOn}).`
-    : `Leak check within a month of the repair of ${dayText(c.sourceAt)} (due ${c.dueOn}).`;
+    ? `Re-check after the top-up of ${fmtIsoDay(dayText(c.sourceAt))}: see that the charge held (due ${fmtIsoDay(c.dueOn)}).`
+    : `Leak check after the repair of ${fmtIsoDay(dayText(c.sourceAt))} (due ${fmtIsoDay(c.dueOn)}).`;
 }
