@@ -159,6 +159,13 @@ const FORECAST_OPTIONS = [
 
 type Props = { filters: FleetFilters; sites: SiteOption[]; onChange: (next: FleetFilters) => void };
 
+const LINKED_ONLY: ReadonlySet<keyof FleetFilters> = new Set([
+  'rateFrom',
+  'rateBelow',
+  'rateAtMost',
+  'leakCheckDueDays',
+]);
+
 /** The filters the overview's counts link with that have no control of their own: said in words, each removable. */
 function linkedFilters(f: FleetFilters): { words: string; drop: (keyof FleetFilters)[] }[] {
   const out: { words: string; drop: (keyof FleetFilters)[] }[] = [];
@@ -206,6 +213,10 @@ function LinkedFilterChips({ filters, onChange }: Pick<Props, 'filters' | 'onCha
 export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
   const set = (patch: Partial<FleetFilters>) => onChange({ ...filters, ...patch });
   const active = activeFilterCount(filters);
+  // The filters said as chips above are not counted on (or opening) the panel, where they have no control.
+  const inPanel = activeFilterCount(
+    Object.fromEntries(Object.entries(filters).filter(([k]) => !LINKED_ONLY.has(k as keyof FleetFilters))),
+  );
   const forecastValue = filters.forecastOverdue
     ? 'overdue'
     : filters.forecastDays !== undefined
@@ -218,13 +229,13 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
       <LinkedFilterChips filters={filters} onChange={onChange} />
       <details
         className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1"
-        open={active > 0 ? true : undefined}
+        open={inPanel > 0 ? true : undefined}
       >
         <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 text-base font-semibold select-none">
           <span>
             Filters
-            {active > 0 && (
-              <span className="ml-2 rounded-full bg-fjord-700 px-2 py-0.5 text-sm text-white">{active}</span>
+            {inPanel > 0 && (
+              <span className="ml-2 rounded-full bg-fjord-700 px-2 py-0.5 text-sm text-white">{inPanel}</span>
             )}
           </span>
           <span aria-hidden="true" className="text-ink-600 group-open:rotate-180">
