@@ -8,7 +8,7 @@ import {
   type ScoreEvidence,
   type ScoreFactorName,
 } from '../../../../shared/domain';
-import { PRESSURE_FLAG_WORDS } from '../../../../shared/domain/words';
+import { PRESSURE_FLAG_WORDS, SCORE_FACTOR_WORDS as FACTOR_LABELS } from '../../../../shared/domain/words';
 import type { UnitStatsDto } from '../../../../shared/schemas/history';
 import { Caution } from '../../../components/ui/caution';
 import { cx } from '../../../components/ui/cx';
@@ -16,12 +16,6 @@ import { BAND_LABELS, BAND_TONES } from '../utils/labels';
 import { statsDetail } from '../utils/stats-detail';
 import { fmtDay, fmtK, fmtKg, fmtNumber, fmtPct, fmtTonnes } from '../../../lib/format';
 
-const FACTOR_LABELS: Record<ScoreFactorName, string> = {
-  rate: 'Leak rate',
-  count: 'Repeated top-ups',
-  afterRepair: 'Back after a repair',
-  sameSpot: 'Same spot again',
-};
 const FACTOR_ORDER: ScoreFactorName[] = ['rate', 'count', 'afterRepair', 'sameSpot'];
 
 /** The loop, as in the logo: closed when it holds, opened when it slips, broken for a repeat leaker. */
@@ -98,6 +92,9 @@ function Flag({ tone, children }: { tone: 'alarm' | 'heed' | 'okay'; children: R
   );
 }
 
+/** The newest missed re-checks listed; the rest are counted (the history has them all). */
+const MISSED_RECHECKS_SHOWN = 3;
+
 /** Re-checks the record shows missed: facts from the history, weighed on top of the four factors. */
 function MissedRechecks({ evidence }: { evidence: ScoreEvidence }) {
   return (
@@ -108,12 +105,23 @@ function MissedRechecks({ evidence }: { evidence: ScoreEvidence }) {
           <span className="font-bold">{fmtNumber(evidence.points, 1)}</span> of {MISSED_RECHECK_MAX_POINTS} points
         </span>
       </div>
+      <div className="h-2 rounded-full bg-ink-100" aria-hidden="true">
+        <div
+          className="h-2 rounded-full bg-ink-950"
+          style={{ width: `${Math.min(100, (evidence.points / MISSED_RECHECK_MAX_POINTS) * 100)}%` }}
+        />
+      </div>
       <p className="text-sm text-ink-700">{evidence.explanation}</p>
       {evidence.items.length > 0 && (
         <ul className="list-disc pl-5 text-sm text-ink-800">
-          {evidence.items.map((item) => (
+          {evidence.items.slice(0, MISSED_RECHECKS_SHOWN).map((item) => (
             <li key={item}>{item}</li>
           ))}
+          {evidence.items.length > MISSED_RECHECKS_SHOWN && (
+            <li className="list-none text-ink-600">
+              …and {evidence.items.length - MISSED_RECHECKS_SHOWN} earlier, in the history below.
+            </li>
+          )}
         </ul>
       )}
     </li>
