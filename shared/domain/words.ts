@@ -1,7 +1,7 @@
 // The words people read for the product's internal codes: one map, used by the screens, the CSV exports and the mails,
 // so an export never says `chronic` where the screen says "Repeat leaker". A unit's status words are
 // UNIT_STATUS_LABELS in shared/schemas/units.ts.
-import type { ScoreBand } from './score';
+import type { ScoreBand, ScoreFactorName } from './score';
 import type { PressureFlag } from './pressure-health';
 
 /** The repeat-leak score's three bands in our own words; the engine's ids stay internal. */
@@ -25,6 +25,14 @@ export const ENTRY_KIND_WORDS = {
   note: 'Note',
   decision: 'Decision',
 } as const;
+
+/** The four reasons a repeat-leak score is made of. */
+export const SCORE_FACTOR_WORDS: Record<ScoreFactorName, string> = {
+  rate: 'Leak rate',
+  count: 'Repeated top-ups',
+  afterRepair: 'Back after a repair',
+  sameSpot: 'Same spot again',
+};
 
 export const PRESSURE_FLAG_WORDS: Record<PressureFlag, string> = {
   ok: 'Charge looks right',

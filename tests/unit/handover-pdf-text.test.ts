@@ -20,7 +20,7 @@ describe('text written into the handover PDF', () => {
 });
 
 describe('numbers written into the handover PDF', () => {
-  it('follows the screens’ rule: a whole leak rate without ".0", kilograms to 10 g, a true minus made plain later', () => {
+  it('follows the screens’ rules and words: a whole leak rate without ".0", kilograms to 10 g, a true minus made plain later', () => {
     const x = {
       record: {
         figures: {
@@ -36,13 +36,17 @@ describe('numbers written into the handover PDF', () => {
           forecast: null,
           computedAt: '2026-06-01T12:00:00.000Z',
           computeError: null,
-          detail: null,
+          detail: { score: { factors: { afterRepair: { points: 20, explanation: 'A leak came back.' } } } },
         },
       },
     } as unknown as HandoverExport;
     const rows = Object.fromEntries(figureRows(x));
     expect(rows['Rolling leak rate']).toBe('34 % of the full charge over 365 days');
     expect(rows['Calendar-year share']).toBe('12 %');
+    // The screens' words, not the engine's codes.
+    expect(rows['Repeat-leak score']).toBe('61 of 100 (Slipping)');
+    expect(rows['  Back after a repair']).toBe('20 points: A leak came back.');
+    expect(rows['Pressure health']).toBe('Charge looks right');
 
     const topUp = { kind: 'top_up', kg: 0.125, details: {}, note: null } as unknown as HandoverEvent;
     expect(eventSummary(topUp)).toBe('Added 0.13 kg');

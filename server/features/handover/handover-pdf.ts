@@ -14,6 +14,14 @@ import {
   termLabel,
 } from '../../../shared/domain';
 import type { HandoverEvent, HandoverExport } from '../../../shared/schemas/handover';
+import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
+import {
+  ENTRY_KIND_WORDS,
+  PRESSURE_FLAG_WORDS,
+  SCORE_BAND_WORDS,
+  SCORE_FACTOR_WORDS,
+  wordFor,
+} from '../../../shared/domain/words';
 import { fmtC, fmtCount, fmtKg, fmtMoney, fmtNumber, fmtPct, fmtTonnes } from '../../../shared/format';
 
 const GREY = rgb(0.42, 0.42, 0.42);
@@ -23,20 +31,8 @@ const MARGIN = 16 * MM;
 const FOOTER = 14 * MM;
 const WIDTH = A4.width - 2 * MARGIN;
 
-const KIND_LABELS: Record<string, string> = {
-  pti: 'PTI',
-  leak_check: 'Leak check',
-  repair: 'Repair',
-  component_replacement: 'Component replaced',
-  status_change: 'Status change',
-  note: 'Note',
-  decision: 'Decision',
-  top_up: 'Top-up',
-  recovery: 'Recovery',
-  recharge: 'Recharge',
-  pressure: 'Pressure snapshot',
-  void: 'Correction (void)',
-};
+// The screens' words for the codes (shared/domain/words.ts), so the pack never says `chronic` or `afterRepair`.
+const KIND_LABELS: Record<string, string> = { ...ENTRY_KIND_WORDS, void: 'Correction (void)' };
 
 // Windows-1252's characters above 0x7f that are not Latin-1 code points.
 const CP1252_EXTRA = new Set(
@@ -126,7 +122,7 @@ export function eventSummary(e: HandoverEvent): string {
       parts.push(String(d.component ?? ''));
       break;
     case 'status_change':
-      parts.push(`to ${String(d.status ?? '').replace(/_/g, ' ')}`);
+      parts.push(`to ${wordFor(UNIT_STATUS_LABELS, String(d.status ?? '')).toLowerCase()}`);
       break;
     case 'decision':
       parts.push(decisionLine(e));
@@ -351,12 +347,15 @@ export function figureRows(x: HandoverExport): [string, string][] {
   const rows: [string, string][] = [
     ['Rolling leak rate', `${fmtPct(f.rollingLeakRatePct)} of the full charge over 365 days`],
     ['Calendar-year share', fmtPct(f.calendarYearSharePct)],
-    ['Repeat-leak score', `${f.score} of 100 (${f.scoreBand})`],
+    ['Repeat-leak score', `${f.score} of 100 (${SCORE_BAND_WORDS[f.scoreBand].label})`],
   ];
   const factors = (f.detail?.score as { factors?: Record<string, { explanation: string; points: number }> } | undefined)
     ?.factors;
   for (const [name, factor] of Object.entries(factors ?? {})) {
-    rows.push([`  ${name}`, `${fmtNumber(factor.points, 1)} points: ${factor.explanation}`]);
+    rows.push([
+      `  ${wordFor(SCORE_FACTOR_WORDS, name)}`,
+      `${fmtNumber(factor.points, 1)} points: ${factor.explanation}`,
+    ]);
   }
   rows.push(
     [
@@ -371,7 +370,7 @@ export function figureRows(x: HandoverExport): [string, string][] {
         ? 'none recorded'
         : `${f.ptiPassed ? 'passed' : 'failed'}; valid until ${f.ptiValidUntil ?? '-'}`,
     ],
-    ['Pressure health', f.pressureFlag.replace(/_/g, ' ')],
+    ['Pressure health', PRESSURE_FLAG_WORDS[f.pressureFlag]],
     [
       'Next top-up forecast',
       f.forecast
@@ -456,7 +455,7 @@ export async function renderHandoverPdf(
   w.pairs([
     ['Container number', number],
     ['Site', u.site ?? '-'],
-    ['Status', u.status.replace(/_/g, ' ')],
+    ['Status', wordFor(UNIT_STATUS_LABELS, u.status)],
     ['Machinery serial', u.machinerySerial ?? '-'],
     ['Model, year', `${u.model ?? '-'}, ${u.manufactureYear ?? '-'}`],
     ['Commissioned', u.commissionedOn ?? '-'],
