@@ -731,6 +731,8 @@ export const ROUTE_SHAPES: Record<string, RouteShape> = {
   'put /api/alerts/subscriptions': {
     body: rec({
       subscriptions: fc.array(rec({ siteId: ref('siteId'), kind: fc.constantFrom(...ALERT_KINDS) }), { maxLength: 6 }),
+      allSites: opt(fc.subarray([...ALERT_KINDS])),
+      useDefaults: opt(fc.subarray([...ALERT_KINDS])),
     }),
   },
   'post /api/alerts/unsubscribe': {
