@@ -23,9 +23,10 @@ type FieldShellProps = {
   className?: string;
 };
 
-function FieldShell({ id, label, hint, error, optional, children, className }: FieldShellProps) {
+/** A field's label, with "(optional)" when it may stay empty, and its hint below it (`${id}-hint`). */
+export function FieldLabel({ id, label, hint, optional }: Pick<FieldShellProps, 'id' | 'label' | 'hint' | 'optional'>) {
   return (
-    <div className={cx('flex flex-col gap-1.5', className)}>
+    <>
       <label htmlFor={id} className="text-base font-semibold text-ink-950">
         {label}
         {optional && <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>}
@@ -35,6 +36,14 @@ function FieldShell({ id, label, hint, error, optional, children, className }: F
           {hint}
         </p>
       )}
+    </>
+  );
+}
+
+function FieldShell({ id, label, hint, error, optional, children, className }: FieldShellProps) {
+  return (
+    <div className={cx('flex flex-col gap-1.5', className)}>
+      <FieldLabel id={id} label={label} hint={hint} optional={optional} />
       {children}
       {error && (
         <p id={`${id}-error`} className="flex items-start gap-1.5 text-sm font-semibold text-alarm-700">

@@ -8,6 +8,7 @@ import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { useRequestPasswordReset } from '../api/account-links';
+import { emailInput } from './email-input';
 
 type FormInput = z.input<typeof requestPasswordResetSchema>;
 type FormOutput = z.output<typeof requestPasswordResetSchema>;
@@ -45,12 +46,7 @@ export function ForgotPasswordForm() {
         </Alert>
       )}
       <TextField
-        label="E-mail"
-        type="email"
-        inputMode="email"
-        autoComplete="username"
-        autoCapitalize="none"
-        spellCheck={false}
+        {...emailInput}
         error={errors.email?.message ?? (isApiError(request.error) ? request.error.fields?.email : undefined)}
         {...register('email')}
       />

@@ -10,6 +10,7 @@ import { PasswordField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { useSignIn } from '../../../lib/auth';
 import { noteRole, type RoleChange } from '../utils/last-role';
+import { emailInput } from './email-input';
 
 type SignInFormInput = z.input<typeof signInSchema>;
 type SignInFormOutput = z.output<typeof signInSchema>;
@@ -116,13 +117,8 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
         </div>
       )}
       <TextField
-        label="E-mail"
-        type="email"
-        inputMode="email"
-        autoComplete="username"
-        autoCapitalize="none"
+        {...emailInput}
         autoCorrect="off"
-        spellCheck={false}
         enterKeyHint="next"
         error={errors.email?.message}
         {...register('email')}

@@ -25,6 +25,19 @@ const SERIES = [
   '#13222b',
 ];
 const tickLabel = { fill: INK, fontSize: 13, fontFamily: 'Work Sans, sans-serif' };
+/** The charts' axes: ink lines, labels in the app's type; the count axis on the left with four ticks. */
+const leftAxis = {
+  numTicks: 4,
+  stroke: INK,
+  tickStroke: INK,
+  tickLabelProps: () => ({ ...tickLabel, textAnchor: 'end' as const, dx: -4, dy: 4 }),
+  labelProps: { ...tickLabel, fontSize: 12 },
+};
+const bottomAxis = {
+  stroke: INK,
+  tickStroke: INK,
+  tickLabelProps: () => ({ ...tickLabel, textAnchor: 'middle' as const }),
+};
 
 /** Histogram of the rolling 365-day leak rate across the fleet, with the alert threshold marked. */
 export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate'] }) {
@@ -77,23 +90,13 @@ export function LeakRateHistogram({ data }: { data: FleetOverviewDto['leakRate']
           <text x={x(t) + 6} y={12} fontSize={13} fill="#0b161d" fontWeight={600} fontFamily="Work Sans, sans-serif">
             alert {data.thresholdPct} %
           </text>
-          <AxisLeft
-            scale={y}
-            numTicks={4}
-            stroke={INK}
-            tickStroke={INK}
-            tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })}
-            label="units"
-            labelProps={{ ...tickLabel, fontSize: 12 }}
-          />
+          <AxisLeft scale={y} {...leftAxis} label="units" />
           <AxisBottom
             top={innerH}
             scale={x}
             tickValues={[0, 20, 40, 60, 80, 100]}
             tickFormat={(v) => (Number(v) === 100 ? '≥100 %' : `${v} %`)}
-            stroke={INK}
-            tickStroke={INK}
-            tickLabelProps={() => ({ ...tickLabel, textAnchor: 'middle' })}
+            {...bottomAxis}
             label="rolling leak rate, share of full charge in 365 days"
             labelProps={{ ...tickLabel, fontSize: 12, textAnchor: 'middle' }}
           />
@@ -258,23 +261,13 @@ export function EmissionsChart({ data }: { data: FleetOverviewDto['emissions'] }
                 );
               });
             })}
-            <AxisLeft
-              scale={y}
-              numTicks={4}
-              stroke={INK}
-              tickStroke={INK}
-              tickLabelProps={() => ({ ...tickLabel, textAnchor: 'end', dx: -4, dy: 4 })}
-              label={unit}
-              labelProps={{ ...tickLabel, fontSize: 12 }}
-            />
+            <AxisLeft scale={y} {...leftAxis} label={unit} />
             <AxisBottom
               top={innerH}
               scale={x}
               tickValues={data.months.filter((_, i) => (data.months.length - 1 - i) % every === 0)}
               tickFormat={(v) => fmtMonth(String(v))}
-              stroke={INK}
-              tickStroke={INK}
-              tickLabelProps={() => ({ ...tickLabel, textAnchor: 'middle' })}
+              {...bottomAxis}
             />
           </Group>
         </svg>

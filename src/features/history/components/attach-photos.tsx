@@ -1,6 +1,6 @@
 import { useId, useState, type ChangeEvent } from 'react';
 import { MAX_PHOTOS_PER_EVENT, MAX_UPLOAD_BYTES, type AttachmentDto } from '../../../../shared/schemas/history';
-import { PhotoPicker } from './photo-picker';
+import { PhotoPicker, PhotoProblem, tooManyPhotos } from './photo-picker';
 import { Spinner } from '../../../components/ui/spinner';
 import { useUploadAttachments, type UploadProgress } from '../api/upload-attachments';
 import { downscalePhoto } from '../utils/downscale-photo';
@@ -41,11 +41,8 @@ export function AttachPhotos({
     const files = await Promise.all(Array.from(e.target.files ?? []).map(downscalePhoto));
     e.target.value = '';
     if (files.length === 0) return;
-    setProblem(null);
-    if (files.length > room) {
-      setProblem(`At most ${MAX_PHOTOS_PER_EVENT} files per entry; there is room for ${Math.max(0, room)} more.`);
-      return;
-    }
+    setProblem(tooManyPhotos(files.length, room));
+    if (files.length > room) return;
     const big = files.find((f) => f.size > MAX_UPLOAD_BYTES);
     if (big) {
       setProblem(
@@ -109,11 +106,7 @@ export function AttachPhotos({
           {done.length === 1 ? '1 file attached' : `${done.length} files attached`}
         </p>
       )}
-      {problem && (
-        <p role="alert" className="text-sm font-semibold text-alarm-700">
-          {problem}
-        </p>
-      )}
+      <PhotoProblem problem={problem} />
     </div>
   );
 }

@@ -3,6 +3,7 @@
 import { createContext, useContext, useId, type ReactNode } from 'react';
 import { get, useController, useFormState, type FieldPath } from 'react-hook-form';
 import { cx } from '../../../components/ui/cx';
+import { FieldLabel } from '../../../components/ui/field';
 import type { VisitControl, VisitFormValues } from '../utils/visit-form-model';
 
 type Name = FieldPath<VisitFormValues>;
@@ -366,15 +367,7 @@ export function TextInput({
   };
   return (
     <div className="flex min-w-0 flex-col gap-1.5">
-      <label htmlFor={id} className="text-base font-semibold">
-        {label}
-        {optional && <span className="ml-2 text-sm font-normal text-ink-600">(optional)</span>}
-      </label>
-      {hint && (
-        <p id={`${id}-hint`} className="text-sm text-ink-600">
-          {hint}
-        </p>
-      )}
+      <FieldLabel id={id} label={label} hint={hint} optional={optional} />
       {multiline ? (
         <textarea {...common} ref={field.ref} rows={3} onChange={(e) => field.onChange(e.target.value)} />
       ) : (

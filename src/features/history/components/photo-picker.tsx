@@ -1,4 +1,5 @@
 import type { ChangeEvent, ReactNode } from 'react';
+import { MAX_PHOTOS_PER_EVENT } from '../../../../shared/schemas/history';
 import { cx } from '../../../components/ui/cx';
 
 /** The big dashed "Add photos" target (camera first on a phone) that both the sent and the waiting visit use. */
@@ -37,5 +38,22 @@ export function PhotoPicker({
         data-testid={testId}
       />
     </label>
+  );
+}
+
+/** Why the picked files are not taken: more than the entry has room for. */
+export function tooManyPhotos(picked: number, room: number): string | null {
+  return picked > room
+    ? `At most ${MAX_PHOTOS_PER_EVENT} files per entry; there is room for ${Math.max(0, room)} more.`
+    : null;
+}
+
+/** What went wrong with the last pick or upload, read out at once. */
+export function PhotoProblem({ problem }: { problem: string | null }) {
+  if (!problem) return null;
+  return (
+    <p role="alert" className="text-sm font-semibold text-alarm-700">
+      {problem}
+    </p>
   );
 }

@@ -1,6 +1,6 @@
 import { useId, useState, type ChangeEvent } from 'react';
 import { MAX_PHOTOS_PER_EVENT, type VisitSubmission } from '../../../../shared/schemas/history';
-import { PhotoPicker } from './photo-picker';
+import { PhotoPicker, PhotoProblem, tooManyPhotos } from './photo-picker';
 import { addQueuedPhotos, useVisitQueue } from '../api/visit-queue';
 import { downscalePhoto } from '../utils/downscale-photo';
 import { entryKindLabel } from '../utils/labels';
@@ -44,11 +44,8 @@ function QueuedPhotoInput(props: {
     const files = Array.from(e.target.files ?? []);
     e.target.value = '';
     if (files.length === 0) return;
-    setProblem(null);
-    if (files.length > room) {
-      setProblem(`At most ${MAX_PHOTOS_PER_EVENT} files per entry; there is room for ${Math.max(0, room)} more.`);
-      return;
-    }
+    setProblem(tooManyPhotos(files.length, room));
+    if (files.length > room) return;
     setBusy(true);
     try {
       const small = await Promise.all(files.map(downscalePhoto));
@@ -82,11 +79,7 @@ function QueuedPhotoInput(props: {
           {props.kept === 1 ? '1 photo waiting with the visit' : `${props.kept} photos waiting with the visit`}
         </p>
       )}
-      {problem && (
-        <p role="alert" className="text-sm font-semibold text-alarm-700">
-          {problem}
-        </p>
-      )}
+      <PhotoProblem problem={problem} />
     </div>
   );
 }
