@@ -34,8 +34,8 @@ export const MY_SITES_DAYS = 90;
 /**
  * What a person follows until they choose for themselves. Engineers look after the units at the sites they work at;
  * the owner decides about repeat leakers (retirement) across the fleet; the administrator sets the leak-rate policy
- * and hears when a unit crosses it anywhere. Technicians get no alert mails: alerts link to fleet views they cannot
- * open.
+ * and hears when a unit crosses it anywhere. Technicians get no alert mails: the alert settings and most alert links
+ * are fleet views they cannot open, and their re-checks due already stand on My day.
  */
 export const ROLE_ALERT_DEFAULTS: Record<Role, Partial<Record<AlertKind, DefaultReach>>> = {
   technician: {},
