@@ -156,6 +156,27 @@ describe('fleet table to decision', () => {
 });
 
 describe('overview counts to fleet rows', () => {
+  it('on a phone, a count tapped low on the overview opens the fleet table at its top', async () => {
+    const phone = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = phone;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto('/fleet/overview');
+      const overdue = page.getByTestId('overview-count').filter({ hasText: /overdue/ });
+      await overdue.scrollIntoViewIfNeeded();
+      expect(await page.evaluate(() => window.scrollY)).toBeGreaterThan(0);
+      await overdue.click();
+      await page.waitForURL((u) => u.pathname === '/fleet' && u.search.includes('leakCheckOverdue=1'));
+      await page.getByRole('heading', { level: 1, name: 'Fleet' }).waitFor();
+      await expect.poll(() => page.evaluate(() => window.scrollY)).toBe(0);
+      expect(phone.pageErrors).toEqual([]);
+      expect(phone.consoleErrors).toEqual([]);
+    } finally {
+      await phone.close();
+    }
+  });
+
   it('an engineer clicks a count on the overview and lands on a fleet table with exactly that many units', async () => {
     const site = await createTestSite(db, { name: `E2E counting quay ${Date.now() % 100000}` });
     // Leak checked 400 days ago twice (overdue under a 12-month interval), 350 days ago (due within 30 days), 20 days ago.
