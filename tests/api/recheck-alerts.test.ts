@@ -6,7 +6,7 @@ import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app';
 import { createOutboxWorker } from '../../server/lib/mail/sender';
 import { queueRecheckAlerts } from '../../server/lib/record/recheck-alerts';
-import { queueDailyDigest } from '../../server/features/alerts/digest.service';
+import { queueDailyDigest, refreshMissedRechecks } from '../../server/features/alerts/digest.service';
 import { formatContainerNumber } from '../../shared/domain/container-number';
 import type { Jurisdiction } from '../../shared/schemas/sites';
 import { openTestDb, resetDb } from '../support/db';
@@ -107,6 +107,15 @@ describe('re-check alerts', () => {
     const [missed] = mailsTo(engineerEmail);
     expect(missed.subject).toBe(`${shown}: re-check after the top-up of 3 Mar 2026 missed (due 4 Mar 2026)`);
     expect(missed.text).toContain('was due on 4 Mar 2026 and nobody has recorded one since');
+
+    // The daily run writes the unit again, so its score's reasons show the missed re-check before anyone comes back;
+    // the mail it would set off went already.
+    expect(await refreshMissedRechecks(db, ctx, now)).toBe(1);
+    expect(await refreshMissedRechecks(db, ctx, now)).toBe(0);
+    const before = (await (await technician()).get(`/api/units/${unitId}/overview`)).body;
+    expect(before.stats.detail.score.missedRechecks.items).toEqual([
+      'Re-check after the top-up of 3 Mar 2026 missed (due 4 Mar 2026, not done).',
+    ]);
 
     // The day's digest lists it too, in the app's date format.
     smtp.clear();

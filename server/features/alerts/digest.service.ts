@@ -1,6 +1,6 @@
 // The once-a-day mails: a digest per engineer for the sites they follow, alerts for leaks left open too long and for
 // re-checks due or missed. Days are written the app's way (4 Mar 2026); leak checks in the words of each site's rule.
-import { and, asc, count, eq, gte, inArray, isNotNull, lte, ne, type SQL } from 'drizzle-orm';
+import { and, asc, count, eq, gte, inArray, isNotNull, lt, lte, ne, sql, type SQL } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { events, mailOutbox, sites, unitDepotState, units, unitStats } from '../../db/schema';
 import { can } from '../../../shared/permissions';
@@ -9,7 +9,8 @@ import { dayOf, isoDate, MS_PER_DAY } from '../../../shared/domain/dates';
 import { leakCheckRuleShort, type SiteRule } from '../../../shared/domain/rule-words';
 import { fmtIsoDay } from '../../../shared/format-dates';
 import type { Settings } from '../../../shared/schemas/settings';
-import { queueRecheckAlerts } from '../../lib/record/recheck-alerts';
+import { queueRecheckAlerts, RECHECK_MISSED_ALERT_DAYS } from '../../lib/record/recheck-alerts';
+import { writeUnit } from '../../lib/record/write-path';
 import { followersOf } from '../../lib/alert-recipients';
 import { enqueueMail } from '../../lib/mail/outbox';
 import { renderMail, type MailSection } from '../../lib/mail/layout';
@@ -252,10 +253,33 @@ export async function queueOverdueLeakAlerts(db: Db, ctx: AlertContext, asOf: Da
   return queued;
 }
 
+/**
+ * Units whose re-check was missed since their figures were last computed: written again through the write path (no
+ * change), so the score's reasons and the missed count show it without waiting for the next visit. Bounded to re-checks
+ * missed in the last days; older ones show at the unit's next write.
+ */
+export async function refreshMissedRechecks(db: Db, ctx: AlertContext, asOf: Date): Promise<number> {
+  const today = dayPlus(asOf, 0);
+  const rows = await db
+    .select({ unitId: unitDepotState.unitId })
+    .from(unitDepotState)
+    .where(
+      and(
+        gte(unitDepotState.recheckDue, dayPlus(asOf, -RECHECK_MISSED_ALERT_DAYS)),
+        lt(unitDepotState.recheckDue, today),
+        // Computed before the day after the re-check's day: the missed re-check is not in its figures yet.
+        lt(unitDepotState.computedAt, sql`DATE_ADD(${unitDepotState.recheckDue}, INTERVAL 1 DAY)`),
+      ),
+    );
+  for (const r of rows) await writeUnit({ ...ctx, db }, r.unitId, async () => ({ result: null }));
+  return rows.length;
+}
+
 export async function runDailyMailJobs(db: Db, ctx: AlertContext, asOf: Date) {
   return {
     openLeaks: await queueOverdueLeakAlerts(db, ctx, asOf),
     rechecks: await queueRecheckAlerts(db, ctx, asOf),
+    refreshed: await refreshMissedRechecks(db, ctx, asOf),
     digests: await queueDailyDigest(db, ctx, asOf),
   };
 }
