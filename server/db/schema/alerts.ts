@@ -15,6 +15,7 @@ import {
 import { ALERT_KINDS, type AlertKind } from '../../../shared/schemas/alerts';
 import { users } from './people';
 import { sites } from './sites';
+import { createdAndUpdatedAt } from '../columns';
 
 export const alertSubscriptions = mysqlTable(
   'alert_subscriptions',
@@ -51,12 +52,7 @@ export const alertKindChoices = mysqlTable(
       .references(() => users.id),
     kind: varchar('kind', { length: 32 }).$type<AlertKind>().notNull(),
     allSites: boolean('all_sites').notNull(),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
-    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
+    ...createdAndUpdatedAt(),
   },
   (t) => [primaryKey({ columns: [t.userId, t.kind] })],
 );

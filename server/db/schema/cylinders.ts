@@ -7,6 +7,7 @@ import { events, visits } from './history';
 import { users } from './people';
 import { sites } from './sites';
 import { units } from './units';
+import { createdAndUpdatedAt } from '../columns';
 
 export const cylinders = mysqlTable(
   'cylinders',
@@ -31,12 +32,7 @@ export const cylinders = mysqlTable(
     createdBy: varchar('created_by', { length: 32 })
       .notNull()
       .references(() => users.id),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
-    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
+    ...createdAndUpdatedAt(),
   },
   (t) => [index('cylinders_site_idx').on(t.siteId, t.status), index('cylinders_lot_idx').on(t.lot)],
 );

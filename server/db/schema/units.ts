@@ -17,6 +17,7 @@ import { sites } from './sites';
 import { users } from './people';
 import { IMPORT_STATUSES } from '../../../shared/schemas/imports';
 import { UNIT_STATUSES } from '../../../shared/schemas/units';
+import { createdAndUpdatedAt } from '../columns';
 
 export { IMPORT_STATUSES, UNIT_STATUSES };
 
@@ -43,12 +44,7 @@ export const units = mysqlTable(
     qrIssuedAt: datetime('qr_issued_at', { mode: 'date', fsp: 3 })
       .notNull()
       .default(sql`CURRENT_TIMESTAMP(3)`),
-    createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
-    updatedAt: datetime('updated_at', { mode: 'date', fsp: 3 })
-      .notNull()
-      .default(sql`CURRENT_TIMESTAMP(3)`),
+    ...createdAndUpdatedAt(),
   },
   (t) => [
     index('units_site_idx').on(t.siteId),

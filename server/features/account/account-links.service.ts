@@ -41,9 +41,8 @@ const LINK = {
 const invalidLink = () =>
   new HttpError(404, 'link_invalid', 'This link is not valid. Check that you opened the whole link from the e-mail.');
 
-/** Makes a link for the user, replacing any unused one of the same purpose; returns the token for the mail. */
-async function issueLink(tx: DbOrTx, ctx: LinkContext, userId: string, purpose: Purpose) {
-  const now = ctx.clock.now();
+/** Ends the user's unused links of one purpose now (a newer link replaces them, or the password they set changed). */
+export async function expireOpenLinks(tx: DbOrTx, userId: string, purpose: Purpose, now: Date) {
   await tx
     .update(accountLinks)
     .set({ expiresAt: now })
@@ -55,6 +54,12 @@ async function issueLink(tx: DbOrTx, ctx: LinkContext, userId: string, purpose: 
         gt(accountLinks.expiresAt, now),
       ),
     );
+}
+
+/** Makes a link for the user, replacing any unused one of the same purpose; returns the token for the mail. */
+async function issueLink(tx: DbOrTx, ctx: LinkContext, userId: string, purpose: Purpose) {
+  const now = ctx.clock.now();
+  await expireOpenLinks(tx, userId, purpose, now);
   const token = newToken();
   const expiresAt = new Date(now.getTime() + LINK[purpose].hours * HOUR_MS);
   const [result] = await tx.insert(accountLinks).values({ userId, purpose, tokenHash: hashToken(token), expiresAt });

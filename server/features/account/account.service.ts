@@ -1,13 +1,14 @@
 // The signed-in person's own account: confirming their password, changing it, ending their other sessions.
-import { and, eq, gt, isNull } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { Request } from 'express';
-import { accountLinks, users } from '../../db/schema';
+import { users } from '../../db/schema';
 import type { AppContext } from '../../lib/app-context';
 import { badRequest, notFound } from '../../lib/http-error';
 import { hashPassword, verifyPassword } from '../../lib/password';
 import { assertAcceptablePassword } from '../../lib/password-policy';
 import type { SessionUser } from '../../lib/session';
 import { clientAddress } from '../../lib/client-address';
+import { expireOpenLinks } from './account-links.service';
 import { queuePasswordChangedNotice } from './password-notice';
 
 /** Checks the person's password again, under the same throttle as sign-in; a wrong one is a 400 on `field`. */
@@ -47,18 +48,7 @@ export async function changePassword(
     const [row] = await tx.select({ id: users.id }).from(users).where(eq(users.id, user.id)).for('update');
     if (!row) throw notFound('No such user.');
     await tx.update(users).set({ passwordHash }).where(eq(users.id, user.id));
-    const now = ctx.clock.now();
-    await tx
-      .update(accountLinks)
-      .set({ expiresAt: now })
-      .where(
-        and(
-          eq(accountLinks.userId, user.id),
-          eq(accountLinks.purpose, 'password_reset'),
-          isNull(accountLinks.usedAt),
-          gt(accountLinks.expiresAt, now),
-        ),
-      );
+    await expireOpenLinks(tx, user.id, 'password_reset', ctx.clock.now());
     await queuePasswordChangedNotice(tx, ctx, user, 'changed', {
       address: clientAddress(req),
       browser: req.get('user-agent') ?? null,

@@ -1,6 +1,7 @@
 // Repair or retire (DOMAIN.md §9): the four options of a unit priced from its own history and the fleet's repair
 // record, the fleet's candidates ranked by yearly saving, and recording a decision as a unit event.
 import { writeUnit, type WriteContext } from '../../lib/record/write-path';
+import { loadUnitWithStats } from '../../lib/record/stats';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, inArray, isNotNull, ne, or, sql } from 'drizzle-orm';
@@ -15,7 +16,7 @@ import {
   users,
   visits,
 } from '../../db/schema';
-import { conflict, HttpError, notFound } from '../../lib/http-error';
+import { conflict, HttpError } from '../../lib/http-error';
 import type { SessionUser } from '../../lib/session';
 import {
   compareRepairOptions,
@@ -167,20 +168,7 @@ function submissionHash(unitId: number, body: RecordDecisionInput): string {
     .digest('hex');
 }
 
-async function loadUnit(db: DbOrTx, unitId: number) {
-  const q = db
-    .select({ u: units, siteName: sites.name, stats: unitStats, detail: unitStatsDetail.detail })
-    .from(units)
-    .leftJoin(sites, eq(sites.id, units.siteId))
-    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
-    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, units.id))
-    .where(eq(units.id, unitId));
-  const [row] = await q;
-  if (!row) throw notFound('No such unit.');
-  return row;
-}
-
-async function engineInputOf(db: DbOrTx, row: Awaited<ReturnType<typeof loadUnit>>, asOf: Date) {
+async function engineInputOf(db: DbOrTx, row: Awaited<ReturnType<typeof loadUnitWithStats>>, asOf: Date) {
   const detail = (row.detail ?? {}) as Detail;
   const forecast = detail.forecast ?? null;
   const locations = await leakLocationsOf(db, [row.u.id], new Map([[row.u.id, detail.openLeak?.location ?? null]]));
@@ -224,7 +212,7 @@ export async function getUnitDecision(
   unitId: number,
   now: Date,
 ): Promise<UnitDecisionDto> {
-  const row = await loadUnit(db, unitId);
+  const row = await loadUnitWithStats(db, unitId);
   const { settings } = await cache.current(db);
   const { input, sources } = await pricing(() => engineInputOf(db, row, now));
   const result = await pricing(() => compareRepairOptions(input, settings));
@@ -295,7 +283,7 @@ export async function recordDecision(ctx: WriteContext, user: SessionUser, unitI
   if (earlier) return earlier;
   try {
     const { result: eventId } = await writeUnit(ctx, unitId, async (tx, _locked, now) => {
-      const row = await loadUnit(tx, unitId);
+      const row = await loadUnitWithStats(tx, unitId);
       const { settings, version } = await ctx.caches.settings.current(tx);
       const { input: facts } = await pricing(() => engineInputOf(tx, row, now));
       const inputs: DecisionInputs = body.inputs;

@@ -6,20 +6,9 @@ import canonicalize from 'canonicalize';
 import { and, asc, eq, gte, inArray, lt, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import type { Db } from '../../db/client';
-import {
-  attachments,
-  cylinderMoves,
-  cylinders,
-  events,
-  sites,
-  units,
-  unitStats,
-  unitStatsDetail,
-  users,
-} from '../../db/schema';
-import { notFound } from '../../lib/http-error';
+import { attachments, cylinderMoves, cylinders, events, sites, users } from '../../db/schema';
 import { dayPlus } from '../../lib/dates';
-import { toStatsDto } from '../../lib/record/stats';
+import { loadUnitWithStats, toStatsDto } from '../../lib/record/stats';
 import { gwp } from '../../../shared/domain';
 import {
   HANDOVER_FORMAT,
@@ -39,14 +28,7 @@ export function recordChecksum(record: HandoverRecord): string {
 const bool = (v: boolean | number | null) => (v == null ? null : Boolean(v));
 
 export async function buildHandover(db: Db, unitId: number, q: HandoverQuery, now: Date): Promise<HandoverExport> {
-  const [found] = await db
-    .select({ u: units, siteName: sites.name, stats: unitStats, detail: unitStatsDetail.detail })
-    .from(units)
-    .leftJoin(sites, eq(sites.id, units.siteId))
-    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
-    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, units.id))
-    .where(eq(units.id, unitId));
-  if (!found) throw notFound('No such unit.');
+  const found = await loadUnitWithStats(db, unitId);
   const where: SQL[] = [eq(events.unitId, unitId)];
   if (q.from) where.push(gte(events.occurredAt, new Date(`${q.from}T00:00:00Z`)));
   if (q.to) where.push(lt(events.occurredAt, new Date(`${dayPlus(q.to, 1)}T00:00:00Z`)));

@@ -3,6 +3,7 @@
 // Runs inside the caller's transaction so the figures always match the events they came from.
 import { and, asc, eq, getTableColumns, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../../db/client';
+import { notFound } from '../http-error';
 import { events, sites, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { computeUnitStats, type ForecastCaseBase } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
@@ -336,4 +337,17 @@ export function toStatsDto(row: UnitStatsRow, detail: UnitStatsDetailRow['detail
     detail: row.computeError ? null : ((detail as unknown as UnitStatsSummary | null) ?? null),
     computeError: row.computeError ?? null,
   };
+}
+
+/** A unit with its site's name and both parts of its stored figures; a 404 when there is no such unit. */
+export async function loadUnitWithStats(db: DbOrTx, unitId: number) {
+  const [row] = await db
+    .select({ u: units, siteName: sites.name, stats: unitStats, detail: unitStatsDetail.detail })
+    .from(units)
+    .leftJoin(sites, eq(sites.id, units.siteId))
+    .leftJoin(unitStats, eq(unitStats.unitId, units.id))
+    .leftJoin(unitStatsDetail, eq(unitStatsDetail.unitId, units.id))
+    .where(eq(units.id, unitId));
+  if (!row) throw notFound('No such unit.');
+  return row;
 }
