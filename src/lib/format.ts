@@ -33,25 +33,5 @@ export function timeTick(d: Date | { valueOf(): number }, spanDays: number): str
 /** HRLU 100001 6: owner code, serial and check digit apart, as painted on the unit. */
 export const fmtContainer = (containerNumber: string) => formatContainerNumber(containerNumber);
 
-/**
- * A moment as read at a site: its wall-clock time in the site's IANA zone with the offset, e.g.
- * "12 Mar 2026, 14:05 UTC+8" (UTC when the site has no zone).
- */
-export function fmtDateTimeInZone(v: string | Date, timeZone: string | null | undefined): string {
-  const parts = new Intl.DateTimeFormat('en-GB', {
-    timeZone: timeZone ?? 'UTC',
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-    hour: '2-digit',
-    minute: '2-digit',
-    hourCycle: 'h23',
-    timeZoneName: 'shortOffset',
-  }).formatToParts(toDate(v));
-  const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((p) => p.type === type)?.value ?? '';
-  // Engines write the offset as GMT+8 or UTC+8, and a zero offset as GMT, UTC or UTC+0: one form here.
-  const offset = part('timeZoneName')
-    .replace(/^(GMT|UTC)/, 'UTC')
-    .replace(/^UTC[+-]0?$|^$/, 'UTC');
-  return `${part('day')} ${part('month')} ${part('year')}, ${part('hour')}:${part('minute')} ${offset}`;
-}
+/** A moment as read at a site, e.g. "12 Mar 2026, 14:05 UTC+8": the server's mails write it the same way. */
+export { fmtDateTimeInZone } from '../../shared/format-dates';

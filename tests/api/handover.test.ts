@@ -139,6 +139,10 @@ describe('the handover PDF', () => {
     );
     expect(text).not.toMatch(/\d\.0 %/);
     expect(text).not.toMatch(/\d\.\d{3} kg/);
+    // Days and times as the screens write them, not ISO.
+    expect(text).toContain('Produced 1 Jun 2026, 12:00 UTC');
+    expect(text).toContain('Commissioned 1 Jan 2020');
+    expect(text).toMatch(/#\d+ \d{1,2} [A-Z][a-z]{2} 20\d\d, \d\d:\d\d UTC /);
     // Kept for looking at the pages (scripts/handover-preview renders page 1).
     const dir = process.env.HANDOVER_PDF_DIR;
     if (dir) {

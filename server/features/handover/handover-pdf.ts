@@ -22,6 +22,7 @@ import {
   SCORE_FACTOR_WORDS,
   wordFor,
 } from '../../../shared/domain/words';
+import { fmtDateTimeInZone, fmtIsoDay } from '../../../shared/format-dates';
 import { fmtC, fmtCount, fmtKg, fmtMoney, fmtNumber, fmtPct, fmtTonnes } from '../../../shared/format';
 
 const GREY = rgb(0.42, 0.42, 0.42);
@@ -54,8 +55,9 @@ export function pdfText(s: string): string {
   return out;
 }
 
-const day = (iso: string) => iso.slice(0, 10);
-const when = (iso: string) => `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
+// Days and times the screens' way (4 Mar 2026); a moment in UTC, which the pack states, as the record keeps it.
+const day = (iso: string) => fmtIsoDay(iso);
+const when = (iso: string) => fmtDateTimeInZone(iso, null);
 const kg = (v: number | null | undefined) => (v == null ? '-' : fmtKg(v));
 
 function wrap(font: PDFFont, text: string, size: number, width: number): string[] {
@@ -361,20 +363,20 @@ export function figureRows(x: HandoverExport): [string, string][] {
     [
       'Leak checks',
       f.leakCheckIntervalMonths
-        ? `every ${f.leakCheckIntervalMonths} months; next due ${f.nextLeakCheckDue ?? '-'}`
+        ? `every ${f.leakCheckIntervalMonths} months; next due ${f.nextLeakCheckDue ? day(f.nextLeakCheckDue) : '-'}`
         : 'no periodic check required by the charge',
     ],
     [
       'Last PTI',
       f.ptiPassed == null
         ? 'none recorded'
-        : `${f.ptiPassed ? 'passed' : 'failed'}; valid until ${f.ptiValidUntil ?? '-'}`,
+        : `${f.ptiPassed ? 'passed' : 'failed'}; valid until ${f.ptiValidUntil ? day(f.ptiValidUntil) : '-'}`,
     ],
     ['Pressure health', PRESSURE_FLAG_WORDS[f.pressureFlag]],
     [
       'Next top-up forecast',
       f.forecast
-        ? `${f.forecast.date}${f.forecast.earliest && f.forecast.latest ? ` (range ${f.forecast.earliest} to ${f.forecast.latest})` : ''}`
+        ? `${day(f.forecast.date)}${f.forecast.earliest && f.forecast.latest ? ` (range ${day(f.forecast.earliest)} to ${day(f.forecast.latest)})` : ''}`
         : 'no leak evidence',
     ],
     ['Figures computed', when(f.computedAt)],
@@ -439,7 +441,10 @@ export async function renderHandoverPdf(
   const u = x.record.unit;
   const number = formatContainerNumber(u.containerNumber);
   const { doc, fonts } = await newDocument(`Tightloop handover ${number}`);
-  const range = x.range.from || x.range.to ? `${x.range.from ?? 'start'} to ${x.range.to ?? 'today'}` : 'whole record';
+  const range =
+    x.range.from || x.range.to
+      ? `${x.range.from ? day(x.range.from) : 'start'} to ${x.range.to ? day(x.range.to) : 'today'}`
+      : 'whole record';
   const w = new Writer(doc, fonts, `Tightloop service record handover - ${number} - ${range}`);
   const total = x.record.events.length + 4;
   let done = 0;
@@ -458,7 +463,7 @@ export async function renderHandoverPdf(
     ['Status', wordFor(UNIT_STATUS_LABELS, u.status)],
     ['Machinery serial', u.machinerySerial ?? '-'],
     ['Model, year', `${u.model ?? '-'}, ${u.manufactureYear ?? '-'}`],
-    ['Commissioned', u.commissionedOn ?? '-'],
+    ['Commissioned', u.commissionedOn ? day(u.commissionedOn) : '-'],
     ['Refrigerant', `${u.refrigerant} (GWP ${u.gwp}, 100-year, AR4)`],
     ['Full charge', kg(u.nominalChargeKg)],
     ['CO2-equivalent', `${fmtTonnes(u.co2eTonnes)} CO2e (charge x GWP / 1000)`],
