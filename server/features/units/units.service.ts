@@ -26,6 +26,16 @@ const numberTaken = (containerNumber: string) =>
     containerNumber: 'Already registered',
   });
 
+/** Refuses a container number another unit already has (409), before the unique index would. */
+async function requireNumberFree(tx: DbOrTx, containerNumber: string) {
+  const [taken] = await tx
+    .select({ id: units.id })
+    .from(units)
+    .where(eq(units.containerNumber, containerNumber))
+    .limit(1);
+  if (taken) throw numberTaken(containerNumber);
+}
+
 const SORT_COLUMNS = {
   containerNumber: units.containerNumber,
   updatedAt: units.updatedAt,
@@ -95,12 +105,7 @@ export async function createUnit(ctx: WriteContext, actorId: string, input: Crea
   try {
     return await retryTransaction(() =>
       ctx.db.transaction(async (tx) => {
-        const [taken] = await tx
-          .select({ id: units.id })
-          .from(units)
-          .where(eq(units.containerNumber, input.containerNumber))
-          .limit(1);
-        if (taken) throw numberTaken(input.containerNumber);
+        await requireNumberFree(tx, input.containerNumber);
         if (input.siteId != null) await requireSite(tx, input.siteId);
         const now = ctx.clock.now();
         const [{ id }] = await tx
@@ -156,12 +161,7 @@ export async function updateUnit(
   try {
     const { result } = await writeUnit(ctx, id, async (tx, { unit: current }, now) => {
       if (input.containerNumber !== undefined && input.containerNumber !== current.containerNumber) {
-        const [taken] = await tx
-          .select({ id: units.id })
-          .from(units)
-          .where(eq(units.containerNumber, input.containerNumber))
-          .limit(1);
-        if (taken) throw numberTaken(input.containerNumber);
+        await requireNumberFree(tx, input.containerNumber);
       }
       if (input.commissionedOn && input.commissionedOn !== current.commissionedOn) {
         await requireHistoryFits(tx, id, input.commissionedOn);

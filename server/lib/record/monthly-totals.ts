@@ -7,6 +7,14 @@ import { groupVisits, type UnitEvent } from '../../../shared/domain';
 import { bumpVersion, readVersion } from '../cache-versions';
 
 const MOVEMENTS = ['top_up', 'recovery', 'recharge'] as const;
+/** What the made-up share of a visit is computed from, per refrigerant movement. */
+const MOVEMENT_COLUMNS = {
+  visitId: events.visitId,
+  kind: events.kind,
+  kg: events.kg,
+  excludedFromLeakRate: events.excludedFromLeakRate,
+  occurredAt: events.occurredAt,
+};
 const notVoided = sql`NOT EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
 
 type MovementRow = {
@@ -87,13 +95,7 @@ export async function applyToFleetMonthly(tx: DbOrTx, visitIds: readonly number[
     // No lock of its own: the caller holds the unit's row, and only writes to that unit touch its visits' shares.
     const [prev] = await tx.select().from(visitMadeUp).where(eq(visitMadeUp.visitId, visitId));
     const rows = await tx
-      .select({
-        visitId: events.visitId,
-        kind: events.kind,
-        kg: events.kg,
-        excludedFromLeakRate: events.excludedFromLeakRate,
-        occurredAt: events.occurredAt,
-      })
+      .select(MOVEMENT_COLUMNS)
       .from(events)
       .where(and(eq(events.visitId, visitId), inArray(events.kind, [...MOVEMENTS]), notVoided));
     const kg = madeUpOf(rows);
@@ -128,13 +130,7 @@ export async function rebuildFleetMonthly(
   while (from < top) {
     const to = from + batch;
     const rows = await db
-      .select({
-        visitId: events.visitId,
-        kind: events.kind,
-        kg: events.kg,
-        excludedFromLeakRate: events.excludedFromLeakRate,
-        occurredAt: events.occurredAt,
-      })
+      .select(MOVEMENT_COLUMNS)
       .from(events)
       .where(and(gt(events.visitId, from), lte(events.visitId, to), inArray(events.kind, [...MOVEMENTS]), notVoided))
       .orderBy(asc(events.visitId));
