@@ -174,7 +174,14 @@ export function SubscriptionsForm({ data }: { data: SubscriptionsDto }) {
           />
         ))}
       </section>
-      <div className="sticky bottom-[calc(var(--spacing-tabbar)+env(safe-area-inset-bottom))] z-10 flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-3 shadow-raised md:bottom-4">
+      <div
+        className={cx(
+          'flex flex-col gap-3 rounded-lg border-2 border-ink-200 bg-white p-3 shadow-raised',
+          // In reach while there is something to save or to hear back; otherwise it does not cover the list.
+          (dirty || !save.isIdle) &&
+            'sticky bottom-[calc(var(--spacing-tabbar)+env(safe-area-inset-bottom))] z-10 md:bottom-4',
+        )}
+      >
         {save.isError && (
           <Alert tone="alarm" title="The alert settings were not saved">
             {isApiError(save.error) ? save.error.message : 'Something unexpected went wrong. Try again.'}
