@@ -125,7 +125,7 @@ export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAUL
   const fSame = sameSpot !== null && sameSpot.visits >= 2 ? 1 : 0;
 
   const since = inputs.rollingSince
-    ? ` since the verified repair on ${inputs.rollingSince}`
+    ? ` since the verified repair on ${fmtIsoDay(inputs.rollingSince)}`
     : ` over ${rollingDays} days`;
   const factor = (value: number, weight: number, explanation: string): ScoreFactor => ({
     value: roundTo(value, 4),

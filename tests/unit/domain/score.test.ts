@@ -24,7 +24,7 @@ describe('repeat-leak score, DOMAIN.md §6 example', () => {
     expect(s.factors.sameSpot).toMatchObject({ value: 1, weight: 0.15, points: 15 });
     expect(s.factors.afterRepair.explanation).toContain('110 days');
     expect(s.factors.sameSpot.explanation).toContain('service valve on 2 visits');
-    expect(s.factors.rate.explanation).toContain(`since the verified repair on ${day(-150)}`);
+    expect(s.factors.rate.explanation).toContain(`since the verified repair on ${fmtIsoDay(day(-150))}`);
   });
 
   it('gives the same figure from the inputs alone', () => {
