@@ -170,6 +170,10 @@ describe('overview counts to fleet rows', () => {
       await page.waitForURL((u) => u.pathname === '/fleet' && u.search.includes('leakCheckOverdue=1'));
       await page.getByRole('heading', { level: 1, name: 'Fleet' }).waitFor();
       await expect.poll(() => page.evaluate(() => window.scrollY)).toBe(0);
+      // The filter is counted on the folded panel, which stays folded on a phone: the first unit is on screen.
+      const panel = page.locator('details').filter({ has: page.locator('summary', { hasText: 'Filters' }) });
+      expect(await panel.evaluate((d) => (d as HTMLDetailsElement).open)).toBe(false);
+      expect((await page.getByTestId('fleet-row').first().boundingBox())!.y).toBeLessThan(PHONE.height - 120);
       expect(phone.pageErrors).toEqual([]);
       expect(phone.consoleErrors).toEqual([]);
     } finally {

@@ -157,6 +157,9 @@ const FORECAST_OPTIONS = [
   ['90', 'Within 90 days or overdue'],
 ] as const;
 
+// Open with filters set only where it sits beside the rows; on a phone the open panel would push them off screen.
+const wideScreen = () => typeof window !== 'undefined' && window.matchMedia('(min-width: 48rem)').matches;
+
 type Props = { filters: FleetFilters; sites: SiteOption[]; onChange: (next: FleetFilters) => void };
 
 const LINKED_ONLY: ReadonlySet<keyof FleetFilters> = new Set([
@@ -229,7 +232,7 @@ export function FleetFiltersPanel({ filters, sites, onChange }: Props) {
       <LinkedFilterChips filters={filters} onChange={onChange} />
       <details
         className="group rounded-lg border-2 border-ink-200 bg-white md:open:pb-1"
-        open={inPanel > 0 ? true : undefined}
+        open={inPanel > 0 && wideScreen() ? true : undefined}
       >
         <summary className="flex min-h-touch cursor-pointer items-center justify-between gap-2 px-4 text-base font-semibold select-none">
           <span>
