@@ -92,6 +92,9 @@ export const unitFields = {
   notes: optionalText(MAX_NOTES_LENGTH),
 };
 
+/** A unit's own fields, in the order the form shows them. */
+export const UNIT_INPUT_FIELDS = Object.keys(unitFields) as (keyof typeof unitFields)[];
+
 /** The unit's details a form or a CSV row may leave out (left out: not given, or on an edit unchanged). */
 export const unitDetailFields = {
   machinerySerial: unitFields.machinerySerial.optional(),

@@ -8,6 +8,7 @@ import { newToken } from '../../lib/ids';
 import { formatContainerNumber } from '../../../shared/domain';
 import {
   UNIT_FIELD_LABELS,
+  UNIT_INPUT_FIELDS,
   type CreateUnitInput,
   type UnitChangeDto,
   type UnitDto,
@@ -168,19 +169,8 @@ export async function updateUnit(
       }
       const changes: { field: UnitField; before: string | null; after: string | null }[] = [];
       const set: Partial<typeof units.$inferInsert> = {};
-      const plain = [
-        'containerNumber',
-        'refrigerant',
-        'nominalChargeKg',
-        'commissionedOn',
-        'status',
-        'machinerySerial',
-        'model',
-        'manufactureYear',
-        'purchaseCost',
-        'residualValue',
-        'notes',
-      ] as const;
+      // The site is recorded by its code, below.
+      const plain = UNIT_INPUT_FIELDS.filter((f): f is Exclude<typeof f, 'siteId'> => f !== 'siteId');
       for (const field of plain) {
         const next = input[field];
         if (next === undefined) continue;

@@ -3,7 +3,12 @@ import { useState } from 'react';
 import { useForm, type Path } from 'react-hook-form';
 import type { z } from 'zod';
 import { formatContainerNumber } from '../../../../shared/domain';
-import { createUnitSchema, type UnitDto, type UpdateUnitInput } from '../../../../shared/schemas/units';
+import {
+  createUnitSchema,
+  UNIT_INPUT_FIELDS,
+  type UnitDto,
+  type UpdateUnitInput,
+} from '../../../../shared/schemas/units';
 import { isApiError } from '../../../lib/api-client';
 import { useCreateUnit } from '../api/create-unit';
 import { useUpdateUnit } from '../api/update-unit';
@@ -11,20 +16,7 @@ import { useUpdateUnit } from '../api/update-unit';
 export type FormInput = z.input<typeof createUnitSchema>;
 export type FormOutput = z.output<typeof createUnitSchema>;
 
-const FIELDS = [
-  'containerNumber',
-  'refrigerant',
-  'nominalChargeKg',
-  'commissionedOn',
-  'siteId',
-  'status',
-  'machinerySerial',
-  'model',
-  'manufactureYear',
-  'purchaseCost',
-  'residualValue',
-  'notes',
-] as const satisfies readonly Path<FormInput>[];
+const FIELDS = UNIT_INPUT_FIELDS satisfies readonly Path<FormInput>[];
 export type Field = (typeof FIELDS)[number];
 const isField = (key: string): key is Field => (FIELDS as readonly string[]).includes(key);
 
