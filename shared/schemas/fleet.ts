@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { findRefrigerant, normalizeContainerNumber, REFRIGERANT_CODES } from '../domain';
 import { positiveId } from './common';
+import { DAY_AHEAD, type DayGroupId } from './day';
 import { forecastAccuracyDto } from './forecast';
 import { UNIT_STATUS_VALUES } from './history';
 
@@ -55,6 +56,17 @@ export const fleetFiltersSchema = z.object({
   ptiExpired: flag,
   /** In quarantine (not to be released until an engineer lifts it). */
   quarantined: flag,
+  // My day's groups, each as a filter (retired units are in none of them): the same units at a site.
+  /** A re-check due today or missed. */
+  recheckDue: flag,
+  /** A leak found and not repaired yet. */
+  openLeak: flag,
+  /** PTI expired within the last N days. */
+  ptiExpiredDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(1).max(3650).optional(),
+  /** PTI running out from today to today + N days. */
+  ptiExpiringDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(0).max(3650).optional(),
+  /** The next top-up's forecast range reaches into the next N days. */
+  forecastRangeDays: z.coerce.number({ message: 'Enter a number of days' }).int().min(0).max(3650).optional(),
   /** The start of a container number, typed loosely ("hrlu 12"). */
   q: z
     .string()
@@ -171,6 +183,29 @@ export const overviewRows = {
     leakCheckOverdue: true,
   }),
 };
+
+/** The fleet-table filters that hold the units of each group of My day at a site (the same rules, shared/schemas/day). */
+export function dayGroupRows(siteId: number, group: DayGroupId): FleetFilters {
+  const at = { siteId };
+  switch (group) {
+    case 'quarantine':
+      return { ...at, quarantined: true };
+    case 'recheck':
+      return { ...at, recheckDue: true };
+    case 'leak_check_overdue':
+      return { ...at, leakCheckOverdue: true };
+    case 'open_leak':
+      return { ...at, openLeak: true };
+    case 'pti_expired':
+      return { ...at, ptiExpiredDays: 30 };
+    case 'leak_check_due':
+      return { ...at, leakCheckDueDays: DAY_AHEAD.leakCheckDays };
+    case 'pti_expiring':
+      return { ...at, ptiExpiringDays: DAY_AHEAD.ptiDays };
+    case 'forecast':
+      return { ...at, forecastRangeDays: DAY_AHEAD.forecastDays };
+  }
+}
 
 export const leakRateBinDto = z.object({ fromPct: z.number(), toPct: z.number().nullable(), units: z.number() });
 export type LeakRateBinDto = z.infer<typeof leakRateBinDto>;

@@ -10,6 +10,7 @@ import { getSettings } from '../../server/lib/settings';
 import { DEMO_UNITS, seedDemo } from '../../seed/index';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
 import { DAY_GROUPS, type DayDto } from '../../shared/schemas/day';
+import { dayGroupRows, type FleetPageDto } from '../../shared/schemas/fleet';
 import { openTestDb, resetDb } from '../support/db';
 import { TEST_ORIGIN } from '../support/factories';
 
@@ -28,15 +29,19 @@ async function seeded(units: number, at: string) {
   await seedDemo(db, { units, now, log: () => undefined });
 }
 
-async function technicianDay(): Promise<DayDto> {
+async function demoAgent(role: string) {
   const agent = request.agent(app);
-  const tech = DEMO_ACCOUNTS.find((a) => a.role === 'technician')!;
+  const account = DEMO_ACCOUNTS.find((a) => a.role === role)!;
   const signIn = await agent
     .post('/api/auth/sign-in')
     .set('Origin', TEST_ORIGIN)
-    .send({ email: tech.email, password: DEMO_PASSWORD });
+    .send({ email: account.email, password: DEMO_PASSWORD });
   expect(signIn.status).toBe(200);
-  const res = await agent.get('/api/day');
+  return agent;
+}
+
+async function technicianDay(): Promise<DayDto> {
+  const res = await (await demoAgent('technician')).get('/api/day');
   expect(res.status).toBe(200);
   return res.body as DayDto;
 }
@@ -102,10 +107,25 @@ describe('the demo fleet', () => {
     [40, '2026-11-20T08:00:00Z'],
     [80, '2027-03-09T15:00:00Z'],
   ])(
-    'has units in every group of My day in a fleet of %i seen on %s (the browser tests run on 40)',
+    "has units in every group of My day in a fleet of %i seen on %s, the fleet table the same under each group's filters",
     async (n, at) => {
       await seeded(n, at);
-      expect(nonEmptyGroups(await technicianDay())).toEqual(everyGroup);
+      const day = await technicianDay();
+      expect(nonEmptyGroups(day)).toEqual(everyGroup);
+      // Each group's units are the fleet table's under the group's filters (My day's links for engineers).
+      const engineer = await demoAgent('engineer');
+      for (const g of day.groups) {
+        const filters = Object.entries(dayGroupRows(day.site!.id, g.id)).map(([k, v]) => `${k}=${v === true ? 1 : v}`);
+        const res = await engineer.get(`/api/fleet?${filters.join('&')}&count=1&pageSize=100`);
+        expect(res.status).toBe(200);
+        const page = res.body as FleetPageDto;
+        expect({ group: g.id, total: page.count!.total }).toEqual({ group: g.id, total: g.total });
+        const ids = new Set(page.rows.map((r) => r.unitId));
+        expect({ group: g.id, missing: g.rows.filter((r) => !ids.has(r.unitId)) }).toEqual({
+          group: g.id,
+          missing: [],
+        });
+      }
     },
     60_000,
   );

@@ -411,6 +411,20 @@ describe('every overview count links to its rows', () => {
     });
   });
 
+  it("counts the whole fleet under each of My day's filters without a site", async () => {
+    for (const f of [
+      'quarantined=1',
+      'recheckDue=1',
+      'openLeak=1',
+      'ptiExpiredDays=30',
+      'ptiExpiringDays=14',
+      'forecastRangeDays=14',
+    ]) {
+      const page = await list(`${f}&count=1`);
+      expect({ f, total: page.count!.total }).toEqual({ f, total: page.rows.length });
+    }
+  });
+
   it('answers 400 with the field for a bad rate or day count', async () => {
     const bad = await engineer.get('/api/fleet?rateBelow=lots&leakCheckDueDays=-3');
     expect(bad.status).toBe(400);

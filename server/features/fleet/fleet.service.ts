@@ -79,6 +79,28 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
     w.push(
       sql`EXISTS (SELECT 1 FROM unit_depot_state d WHERE d.unit_id = ${units.id} AND d.quarantined_since IS NOT NULL)`,
     );
+  // My day's groups (server/features/day): the same conditions, retired units left out as there.
+  const active = ne(units.status, 'retired');
+  if (f.recheckDue)
+    w.push(
+      sql`EXISTS (SELECT 1 FROM unit_depot_state d WHERE d.unit_id = ${units.id} AND d.recheck_due <= ${today})`,
+      active,
+    );
+  if (f.openLeak) w.push(isNotNull(unitStats.openLeakFoundAt), active);
+  if (f.ptiExpiredDays !== undefined)
+    w.push(gte(unitStats.ptiValidUntil, dayPlus(today, -f.ptiExpiredDays)), lt(unitStats.ptiValidUntil, today), active);
+  if (f.ptiExpiringDays !== undefined)
+    w.push(
+      gte(unitStats.ptiValidUntil, today),
+      lte(unitStats.ptiValidUntil, dayPlus(today, f.ptiExpiringDays)),
+      active,
+    );
+  if (f.forecastRangeDays !== undefined)
+    w.push(
+      lte(unitStats.forecastEarliest, dayPlus(today, f.forecastRangeDays)),
+      or(isNull(unitStats.forecastLatest), gte(unitStats.forecastLatest, today))!,
+      active,
+    );
   // A prefix LIKE on the unique index; the normalised query has letters and digits only, so no wildcard escapes.
   if (f.q) w.push(like(units.containerNumber, `${f.q}%`));
   return w;
@@ -86,6 +108,12 @@ export function fleetWhere(f: FleetFilters, today: string): SQL[] {
 
 const hasRateFilters = (f: FleetFilters) =>
   f.rateAbove !== undefined || f.rateFrom !== undefined || f.rateBelow !== undefined || f.rateAtMost !== undefined;
+
+const hasDayFilters = (f: FleetFilters) =>
+  Boolean(f.recheckDue || f.openLeak) ||
+  f.ptiExpiredDays !== undefined ||
+  f.ptiExpiringDays !== undefined ||
+  f.forecastRangeDays !== undefined;
 
 const hasFilters = (f: FleetFilters) =>
   Boolean(
@@ -101,7 +129,8 @@ const hasFilters = (f: FleetFilters) =>
   ) ||
   hasRateFilters(f) ||
   f.forecastDays !== undefined ||
-  f.leakCheckDueDays !== undefined;
+  f.leakCheckDueDays !== undefined ||
+  hasDayFilters(f);
 
 const rowFields = {
   unitId: units.id,
@@ -262,10 +291,16 @@ const hasStatsFilters = (f: FleetFilters) =>
   Boolean(f.band || f.forecastOverdue || f.leakCheckOverdue || f.ptiExpired || f.quarantined) ||
   hasRateFilters(f) ||
   f.forecastDays !== undefined ||
-  f.leakCheckDueDays !== undefined;
-/** Filters that read the unit's row (the leak-check ones read its status: retired units have no check due). */
+  f.leakCheckDueDays !== undefined ||
+  hasDayFilters(f);
+/**
+ * Filters that read the unit's row (the leak-check and My day ones read its status, retired units have nothing due;
+ * quarantine looks up its depot state by the unit's id).
+ */
 const hasUnitFilters = (f: FleetFilters) =>
-  Boolean(f.siteId || f.refrigerant || f.status || f.q || f.leakCheckOverdue) || f.leakCheckDueDays !== undefined;
+  Boolean(f.siteId || f.refrigerant || f.status || f.q || f.leakCheckOverdue || f.quarantined) ||
+  f.leakCheckDueDays !== undefined ||
+  hasDayFilters(f);
 
 /** What the fleet table keeps between requests (the app's caches). */
 export type FleetCaches = Pick<AppCaches, 'fleetSize' | 'filterShares'>;

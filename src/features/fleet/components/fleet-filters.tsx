@@ -167,9 +167,14 @@ const LINKED_ONLY: ReadonlySet<keyof FleetFilters> = new Set([
   'rateBelow',
   'rateAtMost',
   'leakCheckDueDays',
+  'recheckDue',
+  'openLeak',
+  'ptiExpiredDays',
+  'ptiExpiringDays',
+  'forecastRangeDays',
 ]);
 
-/** The filters the overview's counts link with that have no control of their own: said in words, each removable. */
+/** The filters the overview's counts and My day's groups link with that have no control of their own: said in words, each removable. */
 function linkedFilters(f: FleetFilters): { words: string; drop: (keyof FleetFilters)[] }[] {
   const out: { words: string; drop: (keyof FleetFilters)[] }[] = [];
   if (f.rateAtMost === 0) out.push({ words: 'Needed no refrigerant in 365 days', drop: ['rateAtMost'] });
@@ -180,6 +185,14 @@ function linkedFilters(f: FleetFilters): { words: string; drop: (keyof FleetFilt
   else if (f.rateBelow !== undefined) out.push({ words: `Leak rate under ${f.rateBelow} %`, drop: ['rateBelow'] });
   if (f.leakCheckDueDays !== undefined)
     out.push({ words: `Leak check due within ${f.leakCheckDueDays} days`, drop: ['leakCheckDueDays'] });
+  if (f.recheckDue) out.push({ words: 'Re-check due', drop: ['recheckDue'] });
+  if (f.openLeak) out.push({ words: 'Open leak without a repair', drop: ['openLeak'] });
+  if (f.ptiExpiredDays !== undefined)
+    out.push({ words: `PTI expired in the last ${f.ptiExpiredDays} days`, drop: ['ptiExpiredDays'] });
+  if (f.ptiExpiringDays !== undefined)
+    out.push({ words: `PTI running out within ${f.ptiExpiringDays} days`, drop: ['ptiExpiringDays'] });
+  if (f.forecastRangeDays !== undefined)
+    out.push({ words: `Top-up forecast within ${f.forecastRangeDays} days`, drop: ['forecastRangeDays'] });
   return out;
 }
 
