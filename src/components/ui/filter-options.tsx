@@ -1,3 +1,4 @@
+import type { ComponentProps } from 'react';
 import { REFRIGERANT_CODES } from '../../../shared/domain';
 
 /** A filter's site choices: "All sites" (the empty value) then each site, by name or by code. */
@@ -29,5 +30,15 @@ export function RefrigerantOptions() {
         <option key={r}>{r}</option>
       ))}
     </>
+  );
+}
+
+/** A filter's choice with its label above it, as the filter rows of the overview and the refrigerant log show it. */
+export function FilterSelect({ label, ...props }: ComponentProps<'select'> & { label: string }) {
+  return (
+    <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
+      {label}
+      <select {...props} />
+    </label>
   );
 }

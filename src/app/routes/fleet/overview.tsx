@@ -25,7 +25,7 @@ import { ForecastAccuracy } from '../../../features/forecast/components/forecast
 import { RefreshJob } from '../../../features/jobs/components/refresh-job';
 import { fleetKeys } from '../../../features/fleet/api/keys';
 import { fmtDateTime, fmtTime } from '../../../lib/format';
-import { RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
+import { FilterSelect, RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
 
 function readQuery(sp: URLSearchParams): FleetOverviewQuery {
   const parsed = fleetOverviewQuerySchema.safeParse(Object.fromEntries(sp.entries()));
@@ -64,26 +64,22 @@ export default function FleetOverviewPage() {
             ))}
           </select>
         </label>
-        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
-          Site
-          <select
-            className={select}
-            value={q.siteId ?? ''}
-            onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
-          >
-            <SiteOptions sites={sites.data} />
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
-          Refrigerant
-          <select
-            className={select}
-            value={q.refrigerant ?? ''}
-            onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}
-          >
-            <RefrigerantOptions />
-          </select>
-        </label>
+        <FilterSelect
+          label="Site"
+          className={select}
+          value={q.siteId ?? ''}
+          onChange={(e) => set({ siteId: e.target.value ? Number(e.target.value) : undefined })}
+        >
+          <SiteOptions sites={sites.data} />
+        </FilterSelect>
+        <FilterSelect
+          label="Refrigerant"
+          className={select}
+          value={q.refrigerant ?? ''}
+          onChange={(e) => set({ refrigerant: (e.target.value || undefined) as FleetOverviewQuery['refrigerant'] })}
+        >
+          <RefrigerantOptions />
+        </FilterSelect>
       </div>
       {overview.isPending ? (
         <LoadingPanel>Loading the overview…</LoadingPanel>

@@ -4,7 +4,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Panel } from '../../../components/ui/page';
 import { fmtDay } from '../../../lib/format';
 import { PERIOD_LABELS, PERIODS, type Period } from './period';
-import { RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
+import { FilterSelect, RefrigerantOptions, SiteOptions } from '../../../components/ui/filter-options';
 
 const select = 'min-h-touch w-full rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950';
 
@@ -54,26 +54,22 @@ export function LogFilters({
             </label>
           </>
         )}
-        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
-          Site
-          <select
-            className={select}
-            value={q.siteId ?? ''}
-            onChange={(e) => onChange({ siteId: e.target.value || undefined })}
-          >
-            <SiteOptions sites={sites} />
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
-          Refrigerant
-          <select
-            className={select}
-            value={q.refrigerant ?? ''}
-            onChange={(e) => onChange({ refrigerant: e.target.value || undefined })}
-          >
-            <RefrigerantOptions />
-          </select>
-        </label>
+        <FilterSelect
+          label="Site"
+          className={select}
+          value={q.siteId ?? ''}
+          onChange={(e) => onChange({ siteId: e.target.value || undefined })}
+        >
+          <SiteOptions sites={sites} />
+        </FilterSelect>
+        <FilterSelect
+          label="Refrigerant"
+          className={select}
+          value={q.refrigerant ?? ''}
+          onChange={(e) => onChange({ refrigerant: e.target.value || undefined })}
+        >
+          <RefrigerantOptions />
+        </FilterSelect>
       </div>
       <p className="mt-3 text-base text-ink-700">
         {fmtDay(q.from)} to {fmtDay(q.to)} (UTC days). Voided entries are left out
