@@ -156,6 +156,38 @@ describe('fleet table to decision', () => {
 });
 
 describe('overview counts to fleet rows', () => {
+  it("an engineer follows a My day group to the fleet table and finds the group's units there", async () => {
+    const site = await createTestSite(db, { name: `E2E leak quay ${Date.now() % 100000}` });
+    const engineer = await openBrowser({ viewport: DESKTOP });
+    try {
+      const { page } = engineer;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      for (const daysAgo of [3, 9]) {
+        const unit = await createHistoryUnit(db, { siteId: site.id, nominalChargeKg: 5, commissionedOn: '2019-06-01' });
+        await recordVisits(page.request, inject('baseUrl'), unit.id, [
+          {
+            at: at(daysAgo),
+            events: [{ kind: 'leak_check', method: 'electronic_detector', leakFound: true, location: 'service_valve' }],
+          },
+        ]);
+      }
+      await page.goto('/');
+      const myDay = page.getByRole('region', { name: /^My day/ });
+      await myDay.getByLabel('Site').selectOption(String(site.id));
+      const group = myDay.locator('#day-open_leak');
+      await group.getByRole('heading', { name: /Open leaks without a repair \(2\)/ }).waitFor();
+      await group.getByRole('link', { name: 'In the fleet table' }).click();
+      await page.waitForURL((u) => u.pathname === '/fleet' && u.search.includes('openLeak=1'));
+      await page.getByRole('list', { name: 'Also filtered by' }).getByText('Open leak without a repair').waitFor();
+      await expect.poll(() => page.getByTestId('fleet-row').count()).toBe(2);
+      expect(engineer.pageErrors).toEqual([]);
+      expect(engineer.consoleErrors).toEqual([]);
+    } finally {
+      await engineer.close();
+    }
+  });
+
   it('on a phone, a count tapped low on the overview opens the fleet table at its top', async () => {
     const phone = await openBrowser({ viewport: PHONE });
     try {

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { DAY_GROUP_LIMIT, type DayAction, type DayDto, type DayGroupId } from '../../../../shared/schemas/day';
+import { dayGroupRows } from '../../../../shared/schemas/fleet';
 import { cx } from '../../../components/ui/cx';
 import { Panel } from '../../../components/ui/page';
 import { LoadError } from '../../../components/ui/query-state';
@@ -8,6 +9,7 @@ import { Spinner } from '../../../components/ui/spinner';
 import { paths } from '../../../config/paths';
 import { useCan } from '../../../lib/can';
 import { fmtContainer, fmtDay } from '../../../lib/format';
+import { toSearch } from '../../../lib/query-string';
 import { useDay } from '../api/get-day';
 
 /** Where a row leads: the visit form with the right entry chosen, or the PTI and release page. */
@@ -32,13 +34,6 @@ const URGENT: ReadonlySet<DayGroupId> = new Set([
   'open_leak',
   'pti_expired',
 ]);
-
-/** The fleet table's filter that holds the same units, for the groups that have one. */
-const FLEET_FILTER: Partial<Record<DayGroupId, string>> = {
-  quarantine: 'quarantined=1',
-  leak_check_overdue: 'leakCheckOverdue=1',
-  pti_expired: 'ptiExpired=1',
-};
 
 const SITE_KEY = 'tightloop:my-day-site';
 
@@ -156,9 +151,10 @@ function DayGroups({ day }: { day: DayDto }) {
               The first {DAY_GROUP_LIMIT} of {g.total}, earliest first.
             </p>
           )}
-          {fleet && FLEET_FILTER[g.id] && (
+          {fleet && (
             <Link
-              to={paths.fleet.getHref(`${FLEET_FILTER[g.id]}&siteId=${day.site!.id}`)}
+              // The fleet table's filters that hold exactly this group's units.
+              to={paths.fleet.getHref(toSearch(dayGroupRows(day.site!.id, g.id)))}
               className="mt-2 inline-block text-sm font-semibold text-fjord-700 underline underline-offset-4"
             >
               In the fleet table
