@@ -8,6 +8,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
+import { placeFieldErrors } from '../../../lib/form-errors';
 import { fmtDay } from '../../../lib/format';
 import { useUpdateUser } from '../api/update-user';
 
@@ -15,7 +16,6 @@ import { useUpdateUser } from '../api/update-user';
 type FormInput = z.input<typeof updateUserSchema>;
 type FormOutput = z.output<typeof updateUserSchema>;
 const FIELDS = ['certificateNumber', 'certificateExpiresOn'] as const;
-const isField = (key: string): key is (typeof FIELDS)[number] => (FIELDS as readonly string[]).includes(key);
 
 /** A person's refrigerant certificate as it stands, and its number and expiry changed in place. */
 export function CertificateControl({
@@ -101,16 +101,8 @@ function CertificateForm({ user, onDone }: { user: UserDto; onDone: (saved: bool
             setFormError('Something unexpected went wrong. Try again.');
             return;
           }
-          let first: (typeof FIELDS)[number] | null = null;
-          const unplaced: string[] = [];
-          for (const [field, message] of Object.entries(error.fields ?? {})) {
-            if (isField(field)) {
-              setError(field, { type: 'server', message });
-              first ??= field;
-            } else unplaced.push(message);
-          }
-          if (first) setFocus(first);
-          if (!first || unplaced.length > 0) setFormError(unplaced.length > 0 ? unplaced.join(' ') : error.message);
+          const { placed, unplaced } = placeFieldErrors(error, FIELDS, { setError, setFocus });
+          if (!placed || unplaced.length > 0) setFormError(unplaced.length > 0 ? unplaced.join(' ') : error.message);
         },
       },
     );

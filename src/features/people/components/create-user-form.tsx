@@ -9,6 +9,7 @@ import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
 import { PasswordField, SelectField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
+import { placeFieldErrors } from '../../../lib/form-errors';
 import { PasswordStrength } from '../../../components/ui/password-strength';
 import { usePasswordCheck } from '../../../lib/password-check';
 import { useCreateUser } from '../api/create-user';
@@ -24,7 +25,6 @@ const FIELDS = [
   'certificateExpiresOn',
   'password',
 ] as const satisfies readonly Path<FormInput>[];
-const isFormField = (key: string): key is (typeof FIELDS)[number] => (FIELDS as readonly string[]).includes(key);
 
 export function CreateUserForm({
   onCreated,
@@ -67,16 +67,8 @@ export function CreateUserForm({
           setFocus('email');
           return;
         }
-        const unplaced: string[] = [];
-        let first: (typeof FIELDS)[number] | null = null;
-        for (const [field, message] of Object.entries(error.fields ?? {})) {
-          if (isFormField(field)) {
-            setError(field, { type: 'server', message });
-            first ??= field;
-          } else unplaced.push(message);
-        }
-        if (first) setFocus(first);
-        if (!first || unplaced.length > 0) setFormError(unplaced.length > 0 ? unplaced.join(' ') : error.message);
+        const { placed, unplaced } = placeFieldErrors(error, FIELDS, { setError, setFocus });
+        if (!placed || unplaced.length > 0) setFormError(unplaced.length > 0 ? unplaced.join(' ') : error.message);
       },
     });
   });

@@ -10,6 +10,7 @@ import {
   type UpdateUnitInput,
 } from '../../../../shared/schemas/units';
 import { isApiError } from '../../../lib/api-client';
+import { placeFieldErrors } from '../../../lib/form-errors';
 import { useCreateUnit } from '../api/create-unit';
 import { useUpdateUnit } from '../api/update-unit';
 
@@ -18,7 +19,6 @@ export type FormOutput = z.output<typeof createUnitSchema>;
 
 const FIELDS = UNIT_INPUT_FIELDS satisfies readonly Path<FormInput>[];
 export type Field = (typeof FIELDS)[number];
-const isField = (key: string): key is Field => (FIELDS as readonly string[]).includes(key);
 
 const text = (v: string | number | null | undefined) => (v === null || v === undefined ? '' : String(v));
 
@@ -77,16 +77,8 @@ export function useUnitForm({
       setFormError('Something unexpected went wrong. Try again.');
       return;
     }
-    let first: Field | null = null;
-    const unplaced: string[] = [];
-    for (const [field, message] of Object.entries(error.fields ?? {})) {
-      if (isField(field)) {
-        setError(field, { type: 'server', message });
-        first ??= field;
-      } else unplaced.push(message);
-    }
-    if (first) setFocus(first);
-    if (!first || unplaced.length > 0) setFormError(error.message);
+    const { placed, unplaced } = placeFieldErrors(error, FIELDS, { setError, setFocus });
+    if (!placed || unplaced.length > 0) setFormError(error.message);
   };
 
   const onSubmit = handleSubmit((values) => {
