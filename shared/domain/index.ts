@@ -106,8 +106,6 @@ export {
   repeatLeakScore,
   scoreBand,
   missedRecheckWords,
-  MISSED_RECHECK_POINTS,
-  MISSED_RECHECK_MAX_POINTS,
   type MissedRecheck,
   type ScoreEvidence,
   type RepeatLeakScore,

@@ -28,11 +28,10 @@ export interface MissedRecheck {
   doneOn: string | null;
 }
 
-/** Evidence the record holds beside the four factors: re-checks missed in the trailing window. */
+/** Evidence the record holds beside the four factors: re-checks missed in the trailing window. Adds no points. */
 export interface ScoreEvidence {
-  points: number;
   explanation: string;
-  /** One line per missed re-check, newest first. */
+  /** One line per missed re-check, newest first; its length is the count. */
   items: string[];
 }
 
@@ -43,12 +42,6 @@ export interface RepeatLeakScore {
   missedRechecks: ScoreEvidence;
 }
 
-// Common practice, no published source: a re-check nobody made leaves a top-up or repair unverified, which is what a
-// repeat leaker's record looks like; recorded fact, so it counts — 5 points each, at most 10, on top of the factors.
-// The 30-day re-check after a repair is the leak check Regulation (EU) 2024/573 asks for within one month of a repair.
-export const MISSED_RECHECK_POINTS = 5;
-export const MISSED_RECHECK_MAX_POINTS = 10;
-
 /** A missed re-check in words: "Re-check after the top-up of 3 Mar 2026 missed (due 4 Mar 2026, not done)". */
 export function missedRecheckWords(m: MissedRecheck): string {
   const what =
@@ -58,15 +51,17 @@ export function missedRecheckWords(m: MissedRecheck): string {
   return `${what} missed (due ${fmtIsoDay(m.dueOn)}, ${m.doneOn ? `done ${fmtIsoDay(m.doneOn)}` : 'not done'}).`;
 }
 
+// Common practice, no published source: a re-check nobody made leaves a top-up or repair unverified, a fact of the
+// record worth reading beside the factors. It is listed, not weighed, so the score stays the formula and check values
+// of DOMAIN.md §6. The 30-day re-check after a repair is the leak check Regulation (EU) 2024/573 asks for within one
+// month of a repair.
 function missedRecheckEvidence(missed: readonly MissedRecheck[], rollingDays: number): ScoreEvidence {
   const n = missed.length;
-  const points = Math.min(MISSED_RECHECK_MAX_POINTS, n * MISSED_RECHECK_POINTS);
   return {
-    points,
     explanation:
       n === 0
         ? `No re-check missed in the last ${rollingDays} days.`
-        : `${plural(n, 're-check', 're-checks')} after a top-up or repair missed in the last ${rollingDays} days: ${MISSED_RECHECK_POINTS} points each, at most ${MISSED_RECHECK_MAX_POINTS}.`,
+        : `${plural(n, 're-check', 're-checks')} after a top-up or repair missed in the last ${rollingDays} days — listed as evidence; ${n === 1 ? 'it does' : 'they do'} not change the score.`,
     items: [...missed].sort((a, b) => (a.dueOn < b.dueOn ? 1 : a.dueOn > b.dueOn ? -1 : 0)).map(missedRecheckWords),
   };
 }
@@ -84,7 +79,7 @@ export interface ScoreInputs {
   sameSpot: { location: LeakLocationId; visits: number } | null;
   /** Start of the rolling window when a verified repair cut it short (ISO date), for the explanation. */
   rollingSince?: string | null;
-  /** Re-checks missed with their due day in the trailing window (evidence, not a factor). */
+  /** Re-checks missed with their due day in the trailing window: evidence listed in the reasons, no points. */
   missedRechecks?: readonly MissedRecheck[];
 }
 
@@ -100,10 +95,11 @@ function plural(n: number, one: string, many: string): string {
 }
 
 /**
- * Repeat-leak score = round(100 × Σ weight × factor), factors per DOMAIN.md §6 (our definition):
- * rate = min(1, rolling % / cap); count = min(1, max(0, visits − 1) / 3);
- * afterRepair = 1 within 180 days of a repair, 0.5 within 181–365, else 0; sameSpot = 1 for a location on ≥ 2 visits;
- * plus the evidence points of missed re-checks (MISSED_RECHECK_POINTS), capped at 100.
+ * Repeat-leak score per DOMAIN.md §6 (our definition):
+ * score = round(100 × (0.40 f_rate + 0.25 f_count + 0.20 f_after_repair + 0.15 f_same_spot)), weights from settings;
+ * f_rate = min(1, rolling % / cap); f_count = min(1, max(0, visits − 1) / 3);
+ * f_after_repair = 1 within 180 days of a repair, 0.5 within 181–365, else 0; f_same_spot = 1 for a location on ≥ 2
+ * visits. Missed re-checks are listed beside the factors as evidence and add nothing.
  */
 export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAULT_SETTINGS): RepeatLeakScore {
   const { rollingLeakRatePct: rate, visitsWithMadeUp, daysFromRepairToRecurrence: gap, sameSpot } = inputs;
@@ -162,8 +158,8 @@ export function repeatLeakScore(inputs: ScoreInputs, settings: Settings = DEFAUL
     ),
   };
   const raw = 100 * (w.rate * fRate + w.count * fCount + w.afterRepair * fAfter + w.sameSpot * fSame);
+  const value = Math.min(100, Math.max(0, Math.round(raw)));
   const missedRechecks = missedRecheckEvidence(inputs.missedRechecks ?? [], rollingDays);
-  const value = Math.min(100, Math.max(0, Math.round(raw) + missedRechecks.points));
   return { value, band: scoreBand(value, settings), factors, missedRechecks };
 }
 

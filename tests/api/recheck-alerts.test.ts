@@ -147,7 +147,12 @@ describe('re-check alerts', () => {
     expect(overview.stats.detail.score.missedRechecks.items).toEqual([
       'Re-check after the top-up of 3 Mar 2026 missed (due 4 Mar 2026, done 5 Mar 2026).',
     ]);
-    expect(overview.stats.detail.score.missedRechecks.points).toBe(5);
+    // Evidence only: the score is the four factors' sum, the missed re-check adds nothing (DOMAIN.md §6).
+    expect(overview.stats.detail.score.missedRechecks.explanation).toContain('it does not change the score');
+    const factorSum = Object.values(
+      overview.stats.detail.score.factors as Record<string, { weight: number; value: number }>,
+    ).reduce((sum, f) => sum + 100 * f.weight * f.value, 0);
+    expect(overview.stats.score).toBe(Math.round(factorSum));
   });
 
   it('mails nothing to people who do not follow re-checks at the site', async () => {

@@ -8,15 +8,17 @@ import { D, day, historyArb, section6Events, unitArb } from './helpers';
 const unit = { refrigerant: 'R-134a', nominalChargeKg: 5, commissionedOn: day(-2000) };
 
 describe('repeat-leak score, DOMAIN.md §6 example', () => {
-  it('scores the §6 unit 64 from its factors, plus 10 for the re-checks its record shows missed, chronic', () => {
-    // Our definition (DOMAIN.md §6): f_rate 0.8/5 = 16 % → 0.32; f_count (3−1)/3 = 0.667; f_after_repair 1 (110 days);
-    // f_same_spot 1 → round(100 × (0.128 + 0.1667 + 0.2 + 0.15)) = round(64.47) = 64, "chronic".
+  it('scores the §6 unit 64, chronic, and lists the re-checks its record shows missed', () => {
+    // Source: DOMAIN.md §6 worked example: f_rate 0.8/5 = 16 % → 0.32; f_count (3−1)/3 = 0.667; f_after_repair 1
+    // (110 days); f_same_spot 1 → round(100 × (0.128 + 0.1667 + 0.2 + 0.15)) = round(64.47) = 64, "chronic".
     // The history has no reading the day after any top-up and no leak check within 30 days of the repair: 3 re-checks
-    // missed (D−299, D−120, D−39), 5 points each, at most 10 → 74.
+    // missed (due D−299, D−120, D−39), listed as evidence, no points.
     const s = computeUnitStats(unit, section6Events, D).score;
-    expect(s.value).toBe(74);
-    expect(s.missedRechecks.points).toBe(10);
+    expect(s.value).toBe(64);
     expect(s.missedRechecks.items).toHaveLength(3);
+    expect(s.missedRechecks.explanation).toBe(
+      '3 re-checks after a top-up or repair missed in the last 365 days — listed as evidence; they do not change the score.',
+    );
     expect(s.band).toBe('chronic');
     expect(s.factors.rate).toMatchObject({ value: 0.32, weight: 0.4, points: 12.8 });
     expect(s.factors.count).toMatchObject({ value: 0.6667, weight: 0.25, points: 16.7 });
@@ -40,12 +42,12 @@ describe('repeat-leak score, DOMAIN.md §6 example', () => {
 });
 
 describe('repeat-leak score, our worked examples', () => {
-  it('scores a unit with one small top-up 8, plus 5 for its missed re-check, tight', () => {
+  it('scores a unit with one small top-up 8, tight, and lists its missed re-check', () => {
     // Our worked example: 5 kg unit, 0.5 kg on D−200, nothing else.
     // rate 0.5/5 = 10 % → 10/50 = 0.2 → 0.40 × 0.2 = 0.08; count (1−1)/3 = 0; after repair 0; same spot 0
-    // → round(100 × 0.08) = 8; nobody came back the next day: one missed re-check, 5 points → 13, "tight"
+    // → round(100 × 0.08) = 8, "tight"; nobody came back the next day: one missed re-check, listed, no points
     const s = computeUnitStats(unit, [{ kind: 'top_up', at: day(-200), kg: 0.5 }], D).score;
-    expect(s).toMatchObject({ value: 13, band: 'tight' });
+    expect(s).toMatchObject({ value: 8, band: 'tight' });
     expect(s.missedRechecks.items).toEqual([
       `Re-check after the top-up of ${fmtIsoDay(day(-200))} missed (due ${fmtIsoDay(day(-199))}, not done).`,
     ]);
@@ -61,8 +63,8 @@ describe('repeat-leak score, our worked examples', () => {
     // count (2−1)/3 = 0.3333 → 25 × 0.3333 = 8.33 points
     // after repair: first recurrence 230 days after the repair → 0.5 → 10 points
     // same spot: brazed joint and condenser coil differ → 0
-    // → round(40 + 8.33 + 10) = 58; re-checks missed: the repair's (due D−300, leak check only on D−100) and both
-    // top-ups' (the next day) → 3, at most 10 points → 68, "chronic"
+    // → round(40 + 8.33 + 10) = 58, "watch"; re-checks missed: the repair's (due D−300, leak check only on D−100) and
+    // both top-ups' (the next day) → 3, listed as evidence, no points
     const s = computeUnitStats(
       { refrigerant: 'R-134a', nominalChargeKg: 4, commissionedOn: day(-1000) },
       [
@@ -78,8 +80,8 @@ describe('repeat-leak score, our worked examples', () => {
     expect(s.factors.count.value).toBeCloseTo(0.3333, 4);
     expect(s.factors.afterRepair.value).toBe(0.5);
     expect(s.factors.sameSpot.value).toBe(0);
-    expect(s).toMatchObject({ value: 68, band: 'chronic' });
-    expect(s.missedRechecks.points).toBe(10);
+    expect(s).toMatchObject({ value: 58, band: 'watch' });
+    expect(s.missedRechecks.items).toHaveLength(3);
   });
 
   it('does not count two leaks at "other" as the same spot', () => {
@@ -143,7 +145,7 @@ describe('repeat-leak score, our worked examples', () => {
 });
 
 describe('repeat-leak score, missed re-checks as evidence', () => {
-  it('lists each missed re-check with its days and weighs it, newest first', () => {
+  it('lists each missed re-check with its days, newest first, and adds no points for them', () => {
     const s = computeUnitStats(
       unit,
       [
@@ -156,8 +158,12 @@ describe('repeat-leak score, missed re-checks as evidence', () => {
       `Leak check after the repair of ${fmtIsoDay(day(-50))} missed (due ${fmtIsoDay(day(-20))}, not done).`,
       `Re-check after the top-up of ${fmtIsoDay(day(-60))} missed (due ${fmtIsoDay(day(-59))}, not done).`,
     ]);
-    expect(s.missedRechecks.points).toBe(10);
-    expect(s.missedRechecks.explanation).toContain('2 re-checks');
+    expect(s.missedRechecks.explanation).toBe(
+      '2 re-checks after a top-up or repair missed in the last 365 days — listed as evidence; they do not change the score.',
+    );
+    expect(s.missedRechecks).not.toHaveProperty('points');
+    const factorSum = Object.values(s.factors).reduce((sum, f) => sum + 100 * f.weight * f.value, 0);
+    expect(s.value).toBe(Math.round(factorSum));
   });
 
   it('counts nothing when the re-check came in time, and says when one came late', () => {
@@ -169,7 +175,7 @@ describe('repeat-leak score, missed re-checks as evidence', () => {
       ],
       D,
     ).score;
-    expect(inTime.missedRechecks).toMatchObject({ points: 0, items: [] });
+    expect(inTime.missedRechecks.items).toEqual([]);
     expect(inTime.missedRechecks.explanation).toBe('No re-check missed in the last 365 days.');
     const late = computeUnitStats(
       unit,
@@ -182,7 +188,8 @@ describe('repeat-leak score, missed re-checks as evidence', () => {
     expect(late.missedRechecks.items).toEqual([
       `Re-check after the top-up of ${fmtIsoDay(day(-60))} missed (due ${fmtIsoDay(day(-59))}, done ${fmtIsoDay(day(-40))}).`,
     ]);
-    expect(late.value).toBe(inTime.value + 5);
+    expect(late.missedRechecks.explanation).toContain('it does not change the score');
+    expect(late.value).toBe(inTime.value);
   });
 
   it('leaves out re-checks due before the trailing window and a top-up fixed in its visit', () => {
@@ -200,18 +207,57 @@ describe('repeat-leak score, missed re-checks as evidence', () => {
     expect(s.missedRechecks.items).toEqual([]);
   });
 
-  it('never pushes the score past 100', () => {
-    const s = repeatLeakScore({
+  it('gives a unit with 2 missed re-checks the same score as the same unit with them done, and lists both', () => {
+    // Our definition (DOMAIN.md §6): the score is the four factors only; a pressure reading moves none of them.
+    const topUps = [
+      { kind: 'top_up' as const, at: `${day(-90)}T10:00:00Z`, kg: 0.6, visitId: 'a' },
+      { kind: 'top_up' as const, at: `${day(-30)}T10:00:00Z`, kg: 0.4, visitId: 'b' },
+    ];
+    const missed = computeUnitStats(unit, topUps, D).score;
+    const done = computeUnitStats(
+      unit,
+      [
+        ...topUps,
+        { kind: 'pressure', at: `${day(-89)}T09:00:00Z`, visitId: 'c', sightGlass: 'full' },
+        { kind: 'pressure', at: `${day(-29)}T09:00:00Z`, visitId: 'd', sightGlass: 'full' },
+      ],
+      D,
+    ).score;
+    expect(done.missedRechecks.items).toEqual([]);
+    expect(missed.missedRechecks.items).toEqual([
+      `Re-check after the top-up of ${fmtIsoDay(day(-30))} missed (due ${fmtIsoDay(day(-29))}, not done).`,
+      `Re-check after the top-up of ${fmtIsoDay(day(-90))} missed (due ${fmtIsoDay(day(-89))}, not done).`,
+    ]);
+    expect(missed.value).toBeGreaterThan(0);
+    expect(missed.value).toBe(done.value);
+    expect(missed.band).toBe(done.band);
+    expect(missed.factors).toEqual(done.factors);
+  });
+
+  it('gives the same figure from the inputs with or without missed re-checks, capped at 100', () => {
+    const inputs = {
       rollingLeakRatePct: 80,
       visitsWithMadeUp: 5,
       daysFromRepairToRecurrence: 10,
-      sameSpot: { location: 'service_valve', visits: 3 },
+      sameSpot: { location: 'service_valve' as const, visits: 3 },
+    };
+    const s = repeatLeakScore({
+      ...inputs,
       missedRechecks: [
         { reason: 'top_up', sourceOn: day(-10), dueOn: day(-9), doneOn: null },
         { reason: 'repair', sourceOn: day(-100), dueOn: day(-70), doneOn: null },
       ],
     });
     expect(s.value).toBe(100);
+    expect(s.value).toBe(repeatLeakScore(inputs).value);
+    expect(s.missedRechecks.items).toHaveLength(2);
+    const middling = { rollingLeakRatePct: 16, visitsWithMadeUp: 1, daysFromRepairToRecurrence: null, sameSpot: null };
+    expect(
+      repeatLeakScore({
+        ...middling,
+        missedRechecks: [{ reason: 'top_up', sourceOn: day(-10), dueOn: day(-9), doneOn: null }],
+      }).value,
+    ).toBe(repeatLeakScore(middling).value);
   });
 });
 

@@ -27,9 +27,10 @@ describe('computeUnitStats on the DOMAIN.md §6 unit', () => {
     expect(s.visits.map((v) => v.rollingRatePct)).toEqual([20, 0, 16]);
   });
 
-  it('scores 64 from its factors and 74 with its 3 missed re-checks, and forecasts D+70', () => {
-    // Our definition (DOMAIN.md §6 and §7 examples); the missed re-checks weigh 5 points each, at most 10
-    expect(s.score).toMatchObject({ value: 74, band: 'chronic', missedRechecks: { points: 10 } });
+  it('scores 64, lists its 3 missed re-checks without weighing them, and forecasts D+70', () => {
+    // Source: DOMAIN.md §6 and §7 worked examples; missed re-checks are evidence in the reasons, no points
+    expect(s.score).toMatchObject({ value: 64, band: 'chronic' });
+    expect(s.score.missedRechecks.items).toHaveLength(3);
     expect(s.forecast?.date).toBe(day(70));
   });
 

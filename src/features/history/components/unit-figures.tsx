@@ -2,7 +2,6 @@ import { differenceInCalendarDays, parseISO } from 'date-fns';
 import { useId, useState, type ReactNode } from 'react';
 import {
   LEAK_LOCATIONS,
-  MISSED_RECHECK_MAX_POINTS,
   termLabel,
   type ScoreBand,
   type ScoreEvidence,
@@ -95,36 +94,30 @@ function Flag({ tone, children }: { tone: 'alarm' | 'heed' | 'okay'; children: R
 /** The newest missed re-checks listed; the rest are counted (the history has them all). */
 const MISSED_RECHECKS_SHOWN = 3;
 
-/** Re-checks the record shows missed: facts from the history, weighed on top of the four factors. */
+/** Re-checks the record shows missed: facts from the history listed beside the factors, adding no points. */
 function MissedRechecks({ evidence }: { evidence: ScoreEvidence }) {
+  const n = evidence.items.length;
   return (
-    <li className="flex flex-col gap-1" data-testid="score-missed-rechecks">
+    <section
+      className="mt-3 flex flex-col gap-1 border-t-2 border-dashed border-ink-200 pt-3"
+      data-testid="score-missed-rechecks"
+    >
       <div className="flex items-baseline justify-between gap-2">
-        <span className="font-semibold">Re-checks missed</span>
-        <span className="text-sm tabular-nums">
-          <span className="font-bold">{fmtNumber(evidence.points, 1)}</span> of {MISSED_RECHECK_MAX_POINTS} points
-        </span>
-      </div>
-      <div className="h-2 rounded-full bg-ink-100" aria-hidden="true">
-        <div
-          className="h-2 rounded-full bg-ink-950"
-          style={{ width: `${Math.min(100, (evidence.points / MISSED_RECHECK_MAX_POINTS) * 100)}%` }}
-        />
+        <p className="font-semibold">Re-checks missed</p>
+        <span className="text-sm text-ink-700">{n === 0 ? 'None' : `${n} on record`}</span>
       </div>
       <p className="text-sm text-ink-700">{evidence.explanation}</p>
-      {evidence.items.length > 0 && (
+      {n > 0 && (
         <ul className="list-disc pl-5 text-sm text-ink-800">
           {evidence.items.slice(0, MISSED_RECHECKS_SHOWN).map((item) => (
             <li key={item}>{item}</li>
           ))}
-          {evidence.items.length > MISSED_RECHECKS_SHOWN && (
-            <li className="list-none text-ink-600">
-              …and {evidence.items.length - MISSED_RECHECKS_SHOWN} earlier, in the history below.
-            </li>
+          {n > MISSED_RECHECKS_SHOWN && (
+            <li className="list-none text-ink-600">…and {n - MISSED_RECHECKS_SHOWN} earlier, in the history below.</li>
           )}
         </ul>
       )}
-    </li>
+    </section>
   );
 }
 
@@ -188,11 +181,11 @@ function ScoreCard({ stats }: { stats: UnitStatsDto }) {
                   </li>
                 );
               })}
-              {detail.score.missedRechecks && <MissedRechecks evidence={detail.score.missedRechecks} />}
             </ul>
           ) : (
             <p>The breakdown is not available yet.</p>
           )}
+          {detail?.score.missedRechecks && <MissedRechecks evidence={detail.score.missedRechecks} />}
           <p className="mt-3 text-sm text-ink-600">
             Bands: 0–29 holding, 30–59 slipping, 60–100 repeat leaker. Computed from this unit's own history.
           </p>
