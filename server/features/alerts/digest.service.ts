@@ -29,6 +29,13 @@ export const DIGEST_SECTION_LIMIT = 25;
 
 const dayPlus = (asOf: Date, days: number) => isoDate(dayOf(asOf.getTime()) + days);
 
+/** The line under a full section: how many more units it holds than it lists (counted only then). */
+async function moreLine(found: number, countAll: () => Promise<{ n: number }[]>): Promise<string | undefined> {
+  if (found <= DIGEST_SECTION_LIMIT) return undefined;
+  const [{ n }] = await countAll();
+  return `…and ${n - DIGEST_SECTION_LIMIT} more in Tightloop.`;
+}
+
 async function section(
   db: Db,
   ctx: AlertContext,
@@ -49,15 +56,9 @@ async function section(
     .orderBy(order, asc(units.containerNumber))
     .limit(DIGEST_SECTION_LIMIT + 1);
   if (rows.length === 0) return null;
-  let more: string | undefined;
-  if (rows.length > DIGEST_SECTION_LIMIT) {
-    const [{ n }] = await db
-      .select({ n: count() })
-      .from(unitStats)
-      .innerJoin(units, eq(units.id, unitStats.unitId))
-      .where(scope);
-    more = `…and ${n - DIGEST_SECTION_LIMIT} more in Tightloop.`;
-  }
+  const more = await moreLine(rows.length, () =>
+    db.select({ n: count() }).from(unitStats).innerJoin(units, eq(units.id, unitStats.unitId)).where(scope),
+  );
   return {
     heading,
     rows: rows.slice(0, DIGEST_SECTION_LIMIT).map((r) => ({
@@ -94,15 +95,9 @@ async function recheckSection(
     .orderBy(asc(unitDepotState.recheckDue), asc(units.containerNumber))
     .limit(DIGEST_SECTION_LIMIT + 1);
   if (rows.length === 0) return null;
-  let more: string | undefined;
-  if (rows.length > DIGEST_SECTION_LIMIT) {
-    const [{ n }] = await db
-      .select({ n: count() })
-      .from(unitDepotState)
-      .innerJoin(units, eq(units.id, unitDepotState.unitId))
-      .where(scope);
-    more = `…and ${n - DIGEST_SECTION_LIMIT} more in Tightloop.`;
-  }
+  const more = await moreLine(rows.length, () =>
+    db.select({ n: count() }).from(unitDepotState).innerJoin(units, eq(units.id, unitDepotState.unitId)).where(scope),
+  );
   return {
     heading: 'Re-checks due or missed',
     rows: rows.slice(0, DIGEST_SECTION_LIMIT).map((r) => ({
