@@ -115,7 +115,7 @@ function OverviewBody({ o, q, busy }: { o: FleetOverviewDto; q: FleetOverviewQue
             Leak-rate distribution
           </h2>
           <div className="mt-3 grid grid-cols-2 gap-3">
-            <CountTile count={o.units} label="units" filters={overviewRows.units(scope)} />
+            <CountTile count={o.units} label={o.units === 1 ? 'unit' : 'units'} filters={overviewRows.units(scope)} />
             <CountTile
               count={o.leakRate.zero}
               label="needed no refrigerant in 365 days"
