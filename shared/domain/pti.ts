@@ -1,5 +1,6 @@
 // The structured pre-trip inspection (PTI): the usual steps a depot runs before a unit is released to a shipper.
 // Common practice, no published source: the steps and their order follow how reefer technicians describe a PTI.
+import { fmtIsoDay } from '../format-dates';
 import type { PressureFlag } from './pressure-health';
 
 export type PtiGroup = 'visual' | 'electrical' | 'refrigeration';
@@ -80,7 +81,7 @@ export function ptiBlockers(input: {
   if (input.openLeakFoundAt)
     out.push({
       code: 'open_leak',
-      words: `A leak found on ${input.openLeakFoundAt.slice(0, 10)} has not been repaired.`,
+      words: `A leak found on ${fmtIsoDay(input.openLeakFoundAt)} has not been repaired.`,
     });
   if (input.pressureFlag === 'possible_low_charge')
     out.push({ code: 'low_charge', words: 'The latest pressure reading flags a possible low charge.' });

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { ENGINE_MAX_YEAR, isoToMs } from '../domain/dates';
+import { fmtIsoDay } from '../format-dates';
 
 // The one error shape every API failure uses.
 export const apiErrorDto = z.object({
@@ -67,10 +68,8 @@ export const BEFORE_COMMISSIONING_MARGIN_DAYS = 366;
 // Clocks in use run up to UTC+14, so a person's "today" may be the next UTC day.
 const EARLIEST_ZONE_AHEAD_MS = 14 * 3600 * 1000;
 
-const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
-/** "1 Jan 1960" for 1960-01-01: the bounds in messages, readable in any locale's order. */
-export const dayWords = (day: string) =>
-  `${Number(day.slice(8, 10))} ${MONTHS[Number(day.slice(5, 7)) - 1]} ${day.slice(0, 4)}`;
+/** "1 Jan 1960" for 1960-01-01: the bounds in messages, written by the app's one rule for days. */
+export const dayWords = (day: string) => fmtIsoDay(day);
 
 let todayMinute = NaN;
 let todayText = '';

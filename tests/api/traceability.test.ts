@@ -148,6 +148,9 @@ describe('POST /api/traceability/mark-for-inspection', () => {
     expect(notes[0].note).toMatch(
       /Marked for inspection: charged from cylinder or lot LOT77 .*Supplier recalled lot 77/,
     );
+    // The note is read on the unit's history: its days are written the app's way (4 Mar 2026), never 2026-03-04.
+    expect(notes[0].note).toMatch(/last on \d{1,2} [A-Z][a-z]{2} \d{4}\)/);
+    expect(notes[0].note).not.toMatch(/\d{4}-\d{2}-\d{2}/);
     expect(notes[0].details).toMatchObject({ inspection: { cylinder: 'LOT77' } });
     expect(notes[0].visitId).toEqual(expect.any(Number));
 

@@ -8,6 +8,7 @@ import { depotStateOf, loadDepotHistory } from '../../lib/record/depot-state';
 import { writeSingleEntry } from '../../lib/record/entry';
 import type { SessionUser } from '../../lib/session';
 import { ptiBlockers, ptiOverall, type PtiBlocker, type PtiOverall } from '../../../shared/domain/pti';
+import { fmtIsoDay } from '../../../shared/format-dates';
 import { can } from '../../../shared/permissions';
 import type {
   RecordPtiInput,
@@ -121,7 +122,7 @@ export async function releaseUnit(
           409,
           'pti_invalid',
           stats?.ptiValidUntil && stats.ptiPassed
-            ? `The PTI expired on ${stats.ptiValidUntil}; run a new one before release.`
+            ? `The PTI expired on ${fmtIsoDay(stats.ptiValidUntil)}; run a new one before release.`
             : 'The unit has no passed PTI; run one before release.',
         );
       validUntil = stats.ptiValidUntil;

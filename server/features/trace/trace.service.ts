@@ -18,6 +18,7 @@ import {
 } from '../../../shared/schemas/trace';
 import { MAX_NOTE_LENGTH } from '../../../shared/schemas/history';
 import { dayPlus } from '../../lib/dates';
+import { fmtIsoDay } from '../../../shared/format-dates';
 
 const CHARGES = ['top_up', 'recharge'] as const;
 const voided = sql`EXISTS (SELECT 1 FROM events v WHERE v.voids_event_id = ${events.id})`;
@@ -156,9 +157,9 @@ function describeSearch(q: TraceQuery, siteName: string | null): string {
   if (q.cylinder) parts.push(`from cylinder or lot ${q.cylinder}`);
   if (q.cylinderId) parts.push(`from register cylinder #${q.cylinderId}`);
   if (q.siteId) parts.push(`at ${siteName ?? `site ${q.siteId}`}`);
-  if (q.from && q.to) parts.push(`between ${q.from} and ${q.to}`);
-  else if (q.from) parts.push(`from ${q.from}`);
-  else if (q.to) parts.push(`until ${q.to}`);
+  if (q.from && q.to) parts.push(`between ${fmtIsoDay(q.from)} and ${fmtIsoDay(q.to)}`);
+  else if (q.from) parts.push(`from ${fmtIsoDay(q.from)}`);
+  else if (q.to) parts.push(`until ${fmtIsoDay(q.to)}`);
   return parts.join(' ');
 }
 
@@ -243,7 +244,7 @@ export async function markForInspection(
         const rows = locked.map((u, i) => {
           const s = stats.get(u.id);
           const kg = Math.round(Number(s?.kg ?? 0) * 1000) / 1000;
-          const last = s ? new Date(s.last).toISOString().slice(0, 10) : '';
+          const last = s ? fmtIsoDay(new Date(s.last).toISOString()) : '—';
           const note = `Marked for inspection: charged ${what} (${Number(s?.n ?? 0)} charge(s), ${kg} kg, last on ${last}). Reason: ${input.reason}`;
           return {
             unitId: u.id,

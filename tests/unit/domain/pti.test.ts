@@ -42,6 +42,11 @@ describe('structured PTI', () => {
     expect(b.every((x) => x.words.length > 10)).toBe(true);
   });
 
+  it('writes the day of an open leak the app’s way on the unit’s re-check panel (1 Jun 2025, not 2025-06-01)', () => {
+    const [leak] = ptiBlockers({ openLeakFoundAt: '2025-06-01T10:00:00Z', pressureFlag: 'ok', quarantined: false });
+    expect(leak.words).toBe('A leak found on 1 Jun 2025 has not been repaired.');
+  });
+
   it('has nothing against a clean unit with every item passed', () => {
     expect(
       ptiBlockers({ items: all('passed'), openLeakFoundAt: null, pressureFlag: 'ok', quarantined: false }),

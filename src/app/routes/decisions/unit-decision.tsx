@@ -10,7 +10,7 @@ import { newIdempotencyKey } from '../../../lib/idempotency-key';
 import { isApiError } from '../../../lib/api-client';
 import { NotFound } from '../../../components/errors/not-found';
 import { LoadError } from '../../../components/ui/query-state';
-import { fmtContainer, fmtPct } from '../../../lib/format';
+import { fmtContainer, fmtDay, fmtKg, fmtPct } from '../../../lib/format';
 import { paths } from '../../../config/paths';
 
 const idOf = (raw: string | undefined) => (raw && /^\d{1,10}$/.test(raw) ? Number(raw) : null);
@@ -61,8 +61,8 @@ function UnitDecision({ id }: { id: number }) {
         title={<span className="tracking-wide">{fmtContainer(d.unit.containerNumber)}</span>}
         description={
           <>
-            Repair or retire · {d.unit.site?.name ?? 'No site'} · {d.unit.refrigerant}, {d.unit.nominalChargeKg} kg ·
-            commissioned {d.unit.commissionedOn ?? 'unknown'}
+            Repair or retire · {d.unit.site?.name ?? 'No site'} · {d.unit.refrigerant}, {fmtKg(d.unit.nominalChargeKg)}{' '}
+            · commissioned {d.unit.commissionedOn ? fmtDay(d.unit.commissionedOn) : 'unknown'}
           </>
         }
         actions={
@@ -78,7 +78,9 @@ function UnitDecision({ id }: { id: number }) {
         <p className="flex flex-wrap items-center gap-3 text-base">
           <ScoreBadge score={d.stats.score} band={d.stats.scoreBand as 'tight' | 'watch' | 'chronic'} />
           <span>{fmtPct(d.stats.rollingLeakRatePct)} leak rate over 365 days</span>
-          <span>{d.stats.forecastDate ? `next top-up expected ${d.stats.forecastDate}` : 'no leak evidence'}</span>
+          <span>
+            {d.stats.forecastDate ? `next top-up expected ${fmtDay(d.stats.forecastDate)}` : 'no leak evidence'}
+          </span>
         </p>
       )}
       <EstimateNotice />
