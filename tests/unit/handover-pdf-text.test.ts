@@ -1,6 +1,6 @@
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
-import { eventSummary, figureRows, pdfText } from '../../server/features/handover/handover-pdf';
+import { decisionAssumptions, eventSummary, figureRows, pdfText } from '../../server/features/handover/handover-pdf';
 import type { HandoverEvent, HandoverExport } from '../../shared/schemas/handover';
 
 describe('text written into the handover PDF', () => {
@@ -58,5 +58,46 @@ describe('numbers written into the handover PDF', () => {
       note: null,
     } as unknown as HandoverEvent;
     expect(eventSummary(reading)).toBe('suction 1,234 kPa(g); ambient −5 °C');
+  });
+});
+
+describe('a recorded decision in the handover PDF', () => {
+  it('lists its assumptions in the decision page’s words with units, never the engine’s keys', () => {
+    const decision = {
+      kind: 'decision',
+      details: {
+        option: 'repair',
+        currency: 'EUR',
+        assumptions: {
+          discountRatePct: 8,
+          designLifeYears: 15,
+          remainingYears: 7,
+          visitsPerYear: 2.4,
+          madeUpKgPerVisit: 1.25,
+          refrigerantPricePerKg: 12,
+          labourPerVisit: 120,
+          downtimePerVisit: 80,
+          repairCost: 450,
+          leakLocation: 'service_valve',
+          recurrence: 0.3,
+          recurrenceSource: 'default',
+          newUnitCost: 30000,
+          machineryCost: 9000,
+          residualValue: 4000,
+          notes: ['Costs are yearly.'],
+        },
+      },
+      note: null,
+    } as unknown as HandoverEvent;
+    const text = decisionAssumptions(decision)!;
+    expect(text).toBe(
+      'Assumed: Leak to repair: Service valve; Top-ups a year: 2.4; Refrigerant per top-up: 1.25 kg; ' +
+        'Refrigerant price: €12 per kg; Labour per visit: €120; Downtime per visit: €80; ' +
+        'Repair at service valve: €450; New machinery: €9,000; New unit: €30,000; Residual value now: €4,000; ' +
+        'Discount rate: 8 %; Design life: 15 years; Remaining life: 7 years; ' +
+        'Leaks again after repair: 30 % (default: fewer than 5 fleet repairs here)',
+    );
+    expect(text).not.toMatch(/discountRatePct|leakLocation|service_valve|recurrenceSource|[a-z][A-Z]/);
+    expect(decisionAssumptions({ kind: 'decision', details: {}, note: null } as unknown as HandoverEvent)).toBeNull();
   });
 });

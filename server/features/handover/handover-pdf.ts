@@ -16,6 +16,7 @@ import {
 import type { HandoverEvent, HandoverExport } from '../../../shared/schemas/handover';
 import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
 import {
+  decisionAssumptionLines,
   ENTRY_KIND_WORDS,
   PRESSURE_FLAG_WORDS,
   SCORE_BAND_WORDS,
@@ -157,6 +158,13 @@ function decisionLine(e: HandoverEvent): string {
     parts.push(`yearly equivalent cost ${money(chosen.eac, cur)}, net present cost ${money(chosen.npv, cur)}`);
   if (d.settingsVersion != null) parts.push(`assumptions of settings version ${d.settingsVersion}`);
   return parts.join('; ');
+}
+
+/** What a recorded decision assumed, in the decision page's words with units; null when it stored none. */
+export function decisionAssumptions(e: HandoverEvent): string | null {
+  const d = (e.details ?? {}) as DecisionDetails;
+  const lines = decisionAssumptionLines(d.assumptions ?? {}, d.currency);
+  return lines.length ? `Assumed: ${lines.join('; ')}` : null;
 }
 
 type Cursor = { page: PDFPage; y: number };
@@ -397,11 +405,8 @@ function drawDecisions(w: Writer, counted: HandoverEvent[]) {
         { size: 8, indent: 6 * MM },
       );
     }
-    const a = d.assumptions ?? {};
-    const listed = Object.entries(a)
-      .filter(([, v]) => typeof v === 'number' || typeof v === 'string')
-      .map(([k, v]) => `${k} ${String(v)}`);
-    if (listed.length) w.para(`Assumptions: ${listed.join(', ')}`, { size: 7.5, indent: 6 * MM, color: GREY });
+    const assumed = decisionAssumptions(e);
+    if (assumed) w.para(assumed, { size: 7.5, indent: 6 * MM, color: GREY });
   }
 }
 

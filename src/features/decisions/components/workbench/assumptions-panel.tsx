@@ -1,5 +1,6 @@
 import type { UseFormReturn } from 'react-hook-form';
 import { LEAK_LOCATIONS, termLabel, type RepairOptionsResult } from '../../../../../shared/domain';
+import { DECISION_ASSUMPTION_WORDS as W, RECURRENCE_SOURCE_WORDS } from '../../../../../shared/domain/words';
 import type { UnitDecisionDto } from '../../../../../shared/schemas/decisions';
 import { cx } from '../../../../components/ui/cx';
 import { Panel } from '../../../../components/ui/page';
@@ -51,12 +52,12 @@ export function AssumptionsPanel({
                 ? 'The forecast’s median: from the last top-up to its median next date'
                 : 'No leak evidence: leave empty',
           })}
-          {numberField('inputs.madeUpKgPerVisit', 'kg per top-up', {
+          {numberField('inputs.madeUpKgPerVisit', `${W.madeUpKgPerVisit} (kg)`, {
             nullable: true,
             hint: data.sources.interval === 'forecast' ? 'Typical made-up kg of its recent top-ups' : undefined,
           })}
           <label className="flex flex-col gap-1 text-sm font-semibold text-ink-700">
-            Leak to repair
+            {W.leakLocation}
             <select className={cx(input, 'border-ink-400')} {...form.register('inputs.leakLocation')}>
               {LEAK_LOCATIONS.map((l) => (
                 <option key={l.id} value={l.id}>
@@ -72,23 +73,23 @@ export function AssumptionsPanel({
         <legend className="mb-2 text-base font-bold">Prices ({c})</legend>
         <div className="grid gap-3 sm:grid-cols-3">
           {numberField(`economics.refrigerantPricePerKg.${code}`, `${data.unit.refrigerant} per kg`)}
-          {numberField('economics.labourPerVisit', 'Labour per visit')}
-          {numberField('economics.downtimePerVisit', 'Downtime per visit')}
+          {numberField('economics.labourPerVisit', W.labourPerVisit)}
+          {numberField('economics.downtimePerVisit', W.downtimePerVisit)}
           {numberField(
             `economics.repairCostByLocation.${location}`,
-            `Repair at ${termLabel(LEAK_LOCATIONS, location).toLowerCase()}`,
+            `${W.repairCost} at ${termLabel(LEAK_LOCATIONS, location).toLowerCase()}`,
           )}
-          {numberField('economics.machineryCost', 'New machinery')}
-          {numberField('economics.newUnitCost', 'New unit')}
-          {numberField('economics.residualValue', 'Residual value now')}
+          {numberField('economics.machineryCost', W.machineryCost)}
+          {numberField('economics.newUnitCost', W.newUnitCost)}
+          {numberField('economics.residualValue', W.residualValue)}
         </div>
       </fieldset>
       <fieldset className="mt-5">
         <legend className="mb-2 text-base font-bold">Money and time</legend>
         <div className="grid gap-3 sm:grid-cols-3">
-          {numberField('economics.discountRatePct', 'Discount rate (%)')}
-          {numberField('economics.designLifeYears', 'Design life (years)', { step: '1' })}
-          {numberField('economics.defaultRecurrence', 'Leaks again after repair (0–1)', {
+          {numberField('economics.discountRatePct', `${W.discountRatePct} (%)`)}
+          {numberField('economics.designLifeYears', `${W.designLifeYears} (years)`, { step: '1' })}
+          {numberField('economics.defaultRecurrence', `${W.recurrence} (0–1)`, {
             hint:
               result.assumptions.recurrenceSource === 'fleet'
                 ? 'The fleet’s own record is used here'
@@ -103,9 +104,7 @@ export function AssumptionsPanel({
         </li>
         <li>
           Chance the repair leaks again: {fmtPct(result.assumptions.recurrence * 100)} (
-          {result.assumptions.recurrenceSource === 'fleet'
-            ? 'from the fleet’s repairs at this location'
-            : 'default: fewer than 5 fleet repairs here'}
+          {RECURRENCE_SOURCE_WORDS[result.assumptions.recurrenceSource]}
           ).
         </li>
         {result.assumptions.notes.map((n) => (
