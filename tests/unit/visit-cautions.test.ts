@@ -1,4 +1,6 @@
 import { describe, expect, it } from 'vitest';
+import { PRECEDENCE } from '../../src/components/ui/caution';
+import * as safety from '../../src/features/history/utils/safety';
 import { cautionsFor } from '../../src/features/history/utils/safety';
 
 const ids = (kind: Parameters<typeof cautionsFor>[0], refrigerant: string) =>
@@ -28,5 +30,12 @@ describe('cautions on the visit form', () => {
   it('marks a pressure reading on an A2L unit as flammable work (no ignition sources)', () => {
     expect(ids('pressure', 'R-1234yf')).toContain('flammable');
     expect(ids('pressure', 'R-134a')).not.toContain('flammable');
+  });
+
+  it('keeps no copy of the precedence sentence: the form and every caution box say the one in ui/caution', () => {
+    expect(Object.values(safety)).not.toContain(PRECEDENCE);
+    for (const kind of ['top_up', 'recovery', 'recharge', 'leak_check', 'repair', 'pressure'] as const) {
+      for (const c of cautionsFor(kind, 'R-1234yf')) expect(c.summary).not.toContain('take precedence');
+    }
   });
 });

@@ -3,10 +3,10 @@ import type { MutableRefObject } from 'react';
 import type { VisitEventKind, VisitSubmission } from '../../../../shared/schemas/history';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
+import { PRECEDENCE } from '../../../components/ui/caution';
 import { cx } from '../../../components/ui/cx';
 import { useRecordVisitForm, type VisitFormError } from '../hooks/use-record-visit-form';
 import type { VisitUnit } from '../hooks/use-visit-resolver';
-import { PRECEDENCE_NOTE } from '../utils/safety';
 import { toLocalInputValue } from '../utils/visit-form-model';
 import { EntryCard, type CylinderSlot } from './entry-card';
 import { PreviewContext } from './form-controls';
@@ -50,14 +50,14 @@ function UnitLine({ unit }: { unit: VisitUnit }) {
     return (
       <p className="text-sm text-ink-600">
         {unit.containerNumber}: this phone does not know the unit yet. The visit goes to the label&rsquo;s unit when it
-        is sent; check the refrigerant and full charge on the unit&rsquo;s data plate. {PRECEDENCE_NOTE}
+        is sent; check the refrigerant and full charge on the unit&rsquo;s data plate. {PRECEDENCE}
       </p>
     );
   }
   return (
     <p className="text-sm text-ink-600">
       {unit.containerNumber} · {unit.refrigerant} · full charge {fmtKg(unit.nominalChargeKg)}
-      {unit.siteName ? ` · recorded at ${unit.siteName}` : ''}. {PRECEDENCE_NOTE}
+      {unit.siteName ? ` · recorded at ${unit.siteName}` : ''}. {PRECEDENCE}
     </p>
   );
 }

@@ -4,9 +4,6 @@ import type { VisitEventKind } from '../../../../shared/schemas/history';
 /** `summary` is always on screen; `points` open on a tap. */
 export type Caution = { id: string; title: string; summary: string; points: string[] };
 
-export const PRECEDENCE_NOTE =
-  "Local regulations and the equipment maker's service instructions take precedence over anything Tightloop computes.";
-
 const HANDLING: Caution = {
   id: 'handling',
   title: 'Handling refrigerant',
