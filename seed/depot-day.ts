@@ -1,7 +1,8 @@
 // The depot's day in the demo: at the site with the most units in service, a few units are quarantined (charged from
 // an invented suspect lot) and a few were topped up yesterday without a leak found (re-check due today), recorded by
 // the demo technician so that their My day opens on that site. Then every unit's depot state from its history, and
-// where the simulated histories leave a group of My day empty at that site, an invented entry that fills it.
+// where the simulated histories leave a group of My day empty at that site, an invented entry that fills it. Last, the
+// demo engineer's review notes of the past fortnight at the busiest sites, so their alert defaults ("my sites") reach them.
 // Draws from a stream of its own, after the fleet is written, so the simulated fleet stays byte-identical.
 import { and, asc, count, desc, eq, isNull } from 'drizzle-orm';
 import type { Db } from '../server/db/client';
@@ -119,7 +120,52 @@ export async function seedDepotDay(
   await rebuildDepotStates(db, opts.now, opts.settings);
   const filled = await fillEmptyGroups(db, { ...opts, siteId, personId: person.id, write, rng, skip: chosen });
   if (filled > 0) await rebuildDepotStates(db, opts.now, opts.settings);
+  await seedEngineerReviews(db, { ...opts, ctx, rng });
   return { quarantined: 2, rechecks: chosen.length - 2, filled };
+}
+
+const ENGINEER_REVIEW_SITES = 3;
+
+/** A review note by the demo engineer on one unit at each of the busiest sites, within the last two weeks. */
+async function seedEngineerReviews(
+  db: Db,
+  o: { now: Date; ctx: Parameters<typeof writeUnit>[0]; rng: ReturnType<typeof createRng> },
+): Promise<void> {
+  const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!;
+  const [person] = await db.select({ id: users.id }).from(users).where(eq(users.email, engineer.email));
+  if (!person) return;
+  const busiest = await db
+    .select({ siteId: units.siteId, n: count() })
+    .from(units)
+    .where(eq(units.status, 'in_service'))
+    .groupBy(units.siteId)
+    .orderBy(desc(count()), asc(units.siteId))
+    .limit(ENGINEER_REVIEW_SITES);
+  for (const { siteId } of busiest) {
+    if (siteId == null) continue;
+    const [unit] = await db
+      .select({ id: units.id })
+      .from(units)
+      .where(and(eq(units.siteId, siteId), eq(units.status, 'in_service')))
+      .orderBy(asc(units.id))
+      .limit(1);
+    if (!unit) continue;
+    const at = new Date(o.now.getTime() - o.rng.int(1, 14) * DAY - o.rng.int(1, 8) * HOUR);
+    await writeUnit(o.ctx, unit.id, async (tx, _state, now) => {
+      const common = { unitId: unit.id, siteId, recordedBy: person.id, occurredAt: at, enteredAt: now };
+      const [v] = await tx
+        .insert(visits)
+        .values({ ...common, idempotencyKey: `demo-review-${unit.id}` })
+        .$returningId();
+      await tx.insert(events).values({
+        ...common,
+        kind: 'note',
+        visitId: v.id,
+        note: 'Reviewed the leak history before the depot call; no change to the plan.',
+      });
+      return { result: null, movedVisitIds: [] };
+    });
+  }
 }
 
 /** The groups of My day the fleet left empty at the site, each given one unit by an invented entry. */

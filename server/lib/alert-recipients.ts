@@ -1,9 +1,9 @@
 // Who follows which kind of alert at which site: a person's own choice per kind (every site, or the sites they ticked),
 // else their role's default (ROLE_ALERT_DEFAULTS). Every mail that goes out by subscription asks here, so defaults and
 // "all sites" reach the same people in the alerts, the digest and the settings screen.
-import { and, asc, eq, gte, inArray, isNotNull } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, isNotNull, sql } from 'drizzle-orm';
 import type { DbOrTx } from '../db/client';
-import { alertKindChoices, alertSubscriptions, sites, users, visits } from '../db/schema';
+import { alertKindChoices, alertSubscriptions, sites, units, users, visits } from '../db/schema';
 import { can, type Role } from '../../shared/permissions';
 import { MS_PER_DAY } from '../../shared/domain/dates';
 import {
@@ -21,7 +21,10 @@ export const defaultReachOf = (role: Role, kind: AlertKind): DefaultReach | null
 
 const mySitesSince = (now: Date) => new Date(now.getTime() - MY_SITES_DAYS * MS_PER_DAY);
 
-/** Sites where each of these people recorded a visit in the last MY_SITES_DAYS days ("my sites"). */
+/**
+ * Sites where each of these people recorded a visit in the last MY_SITES_DAYS days ("my sites"): the visit's site, or
+ * for one recorded away from a site (an engineer's note from the office) the site of the unit it is about.
+ */
 export async function mySitesOf(
   db: DbOrTx,
   userIds: string[],
@@ -30,14 +33,16 @@ export async function mySitesOf(
 ): Promise<Map<string, Set<number>>> {
   const bySite = new Map<string, Set<number>>();
   if (userIds.length === 0) return bySite;
+  const siteOfVisit = sql<number | null>`coalesce(${visits.siteId}, ${units.siteId})`;
   const rows = await db
-    .selectDistinct({ userId: visits.recordedBy, siteId: visits.siteId })
+    .selectDistinct({ userId: visits.recordedBy, siteId: siteOfVisit })
     .from(visits)
+    .innerJoin(units, eq(units.id, visits.unitId))
     .where(
       and(
         inArray(visits.recordedBy, userIds),
         gte(visits.occurredAt, mySitesSince(now)),
-        siteId == null ? isNotNull(visits.siteId) : eq(visits.siteId, siteId),
+        siteId == null ? isNotNull(siteOfVisit) : eq(siteOfVisit, siteId),
       ),
     );
   for (const r of rows) {

@@ -3,7 +3,7 @@ import request from 'supertest';
 import { eq } from 'drizzle-orm';
 import type TestAgent from 'supertest/lib/agent';
 import { createApp } from '../../server/app';
-import { alertKindChoices, alertSubscriptions, sites, unitStats } from '../../server/db/schema';
+import { alertKindChoices, alertSubscriptions, events, sites, unitStats, visits } from '../../server/db/schema';
 import { queueAlertsForStatsChange, type UnitStatsRow } from '../../server/lib/record/alerts';
 import { queueDailyDigest, queueOverdueLeakAlerts } from '../../server/features/alerts/digest.service';
 import { createOutboxWorker } from '../../server/lib/mail/sender';
@@ -107,6 +107,38 @@ describe('defaults by role for people who never chose', () => {
     }
     expect(dto.subscriptions.some((s) => s.siteId === never)).toBe(false);
     expect(await db.select().from(alertKindChoices)).toEqual([]);
+  });
+
+  it("counts the unit's site for a note recorded away from any site (an engineer's office note)", async () => {
+    const reviewed = await createSite('Tern Wharf');
+    const { agent, user } = await signInAs(app, db, 'engineer');
+    const unit = await unitAt(reviewed);
+    const at = new Date(clock.now().getTime() - 3 * MS_PER_DAY);
+    const [v] = await db
+      .insert(visits)
+      .values({
+        unitId: unit.id,
+        siteId: null,
+        recordedBy: user.id,
+        occurredAt: at,
+        enteredAt: at,
+        idempotencyKey: newToken(),
+      })
+      .$returningId();
+    await db.insert(events).values({
+      kind: 'note',
+      note: 'Reviewed from the office.',
+      unitId: unit.id,
+      visitId: v.id,
+      siteId: null,
+      recordedBy: user.id,
+      occurredAt: at,
+      enteredAt: at,
+    });
+
+    const dto = (await agent.get('/api/alerts/subscriptions')).body as SubscriptionsDto;
+    expect(dto.mySiteIds).toEqual([reviewed]);
+    expect(sitesOf(dto, 'recheck')).toEqual([reviewed]);
   });
 
   it('gives the owner repeat leakers and the administrator the leak-rate threshold at every site', async () => {

@@ -9,6 +9,7 @@ import { recomputeUnitStats } from '../../server/lib/record/stats';
 import { getSettings } from '../../server/lib/settings';
 import { DEMO_UNITS, seedDemo } from '../../seed/index';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
+import type { SubscriptionsDto } from '../../shared/schemas/alerts';
 import { DAY_GROUPS, type DayDto } from '../../shared/schemas/day';
 import { dayGroupRows, type FleetPageDto } from '../../shared/schemas/fleet';
 import { openTestDb, resetDb } from '../support/db';
@@ -57,6 +58,14 @@ describe('the demo fleet', () => {
     expect(day.site).not.toBeNull();
     expect(nonEmptyGroups(day)).toEqual(everyGroup);
   }, 180_000);
+
+  it("gives the demo engineer sites of their own, so their alert defaults reach someone's units", async () => {
+    const res = await (await demoAgent('engineer')).get('/api/alerts/subscriptions');
+    expect(res.status).toBe(200);
+    const dto = res.body as SubscriptionsDto;
+    expect(dto.mySiteIds.length).toBeGreaterThanOrEqual(3);
+    expect(dto.subscriptions.filter((s) => s.kind === 'recheck').length).toBe(dto.mySiteIds.length);
+  });
 
   it('has EU sites in European zones, US reference sites in US zones and a site with a custom rule', async () => {
     const rows = await db.select().from(sites);
