@@ -81,6 +81,16 @@ describe('the depot’s day on a phone', () => {
       await withSite(recheckUnit.id, ago(20 * HOUR), [{ kind: 'top_up', kg: 0.4, cylinder: 'CYL-E2E-R' }]);
       void recordVisits;
 
+      // The unit page's re-check panel writes its days the app's way ("due 6 Nov 2026"), never 2026-11-06.
+      await page.goto(`/units/${recheckUnit.id}`);
+      const depotPanel = page.getByRole('region', { name: 'Release and re-checks' });
+      await depotPanel.getByText(/Re-check after the top-up of/).waitFor();
+      const panelText = (await depotPanel.textContent()) ?? '';
+      expect(panelText).toMatch(/due \d{1,2} [A-Z][a-z]{2} \d{4}/);
+      expect(panelText).not.toMatch(/\d{4}-\d{2}-\d{2}/);
+      await depotPanel.evaluate((el) => el.scrollIntoView({ block: 'center' }));
+      await page.screenshot({ path: `${SCREENS}/unit-recheck-panel-390.png` });
+
       await page.goto('/');
       await page.getByRole('heading', { name: 'My day at Quay Nine' }).waitFor();
       const rechecks = page.locator('#day-recheck');
