@@ -143,6 +143,11 @@ describe('the handover PDF', () => {
     expect(text).toContain('Produced 1 Jun 2026, 12:00 UTC');
     expect(text).toContain('Commissioned 1 Jan 2020');
     expect(text).toMatch(/#\d+ \d{1,2} [A-Z][a-z]{2} 20\d\d, \d\d:\d\d UTC /);
+    // The decision's assumptions in the decision page's words with units, not the engine's keys.
+    expect(text).toContain('Leak to repair: Service valve');
+    expect(text).toMatch(/Discount rate: \d+(\.\d)? %/);
+    expect(text).toMatch(/Design life: \d+ years/);
+    expect(text).not.toMatch(/discountRatePct|leakLocation|service_valve|recurrenceSource/);
     // Kept for looking at the pages (scripts/handover-preview renders page 1).
     const dir = process.env.HANDOVER_PDF_DIR;
     if (dir) {
