@@ -6,9 +6,9 @@ import type { UserDto } from '../../../../shared/schemas/account';
 import { updateUserSchema } from '../../../../shared/schemas/people';
 import { Alert } from '../../../components/ui/alert';
 import { Button } from '../../../components/ui/button';
-import { TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { placeFieldErrors } from '../../../lib/form-errors';
+import { CertificateFields } from './certificate-fields';
 import { fmtDay } from '../../../lib/format';
 import { useUpdateUser } from '../api/update-user';
 
@@ -120,21 +120,12 @@ function CertificateForm({ user, onDone }: { user: UserDto; onDone: (saved: bool
           {formError}
         </Alert>
       )}
-      <TextField
-        label="Certificate number"
-        optional
-        autoComplete="off"
-        spellCheck={false}
-        error={errors.certificateNumber?.message}
-        {...register('certificateNumber')}
-      />
-      <TextField
-        label="Valid until"
-        optional
-        type="date"
-        hint="Its last valid day. Leave both empty to remove the certificate."
-        error={errors.certificateExpiresOn?.message}
-        {...register('certificateExpiresOn')}
+      <CertificateFields
+        number={register('certificateNumber')}
+        expiresOn={register('certificateExpiresOn')}
+        errors={{ number: errors.certificateNumber?.message, expiresOn: errors.certificateExpiresOn?.message }}
+        expiresOnLabel="Valid until"
+        expiresOnHint="Its last valid day. Leave both empty to remove the certificate."
       />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" size="md" pending={update.isPending} pendingLabel="Saving…" className="flex-1">

@@ -10,6 +10,7 @@ import { Button } from '../../../components/ui/button';
 import { PasswordField, SelectField, TextField } from '../../../components/ui/field';
 import { isApiError } from '../../../lib/api-client';
 import { placeFieldErrors } from '../../../lib/form-errors';
+import { CertificateFields } from './certificate-fields';
 import { PasswordStrength } from '../../../components/ui/password-strength';
 import { usePasswordCheck } from '../../../lib/password-check';
 import { useCreateUser } from '../api/create-user';
@@ -106,22 +107,13 @@ export function CreateUserForm({
             </option>
           ))}
         </SelectField>
-        <TextField
-          label="Certificate number"
-          optional
-          hint="Technicians: their refrigerant-handling certificate. It goes into the refrigerant log."
-          autoComplete="off"
-          spellCheck={false}
-          error={errors.certificateNumber?.message}
-          {...register('certificateNumber')}
-        />
-        <TextField
-          label="Certificate valid until"
-          optional
-          type="date"
-          hint="Its last valid day. An expired certificate is warned about on refrigerant entries."
-          error={errors.certificateExpiresOn?.message}
-          {...register('certificateExpiresOn')}
+        <CertificateFields
+          number={register('certificateNumber')}
+          expiresOn={register('certificateExpiresOn')}
+          errors={{ number: errors.certificateNumber?.message, expiresOn: errors.certificateExpiresOn?.message }}
+          numberHint="Technicians: their refrigerant-handling certificate. It goes into the refrigerant log."
+          expiresOnLabel="Certificate valid until"
+          expiresOnHint="Its last valid day. An expired certificate is warned about on refrigerant entries."
         />
         <PasswordField
           label="First password"
