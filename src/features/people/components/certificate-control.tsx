@@ -121,9 +121,8 @@ function CertificateForm({ user, onDone }: { user: UserDto; onDone: (saved: bool
         </Alert>
       )}
       <CertificateFields
-        number={register('certificateNumber')}
-        expiresOn={register('certificateExpiresOn')}
-        errors={{ number: errors.certificateNumber?.message, expiresOn: errors.certificateExpiresOn?.message }}
+        register={register}
+        errors={errors}
         expiresOnLabel="Valid until"
         expiresOnHint="Its last valid day. Leave both empty to remove the certificate."
       />

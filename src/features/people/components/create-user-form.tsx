@@ -108,9 +108,8 @@ export function CreateUserForm({
           ))}
         </SelectField>
         <CertificateFields
-          number={register('certificateNumber')}
-          expiresOn={register('certificateExpiresOn')}
-          errors={{ number: errors.certificateNumber?.message, expiresOn: errors.certificateExpiresOn?.message }}
+          register={register}
+          errors={errors}
           numberHint="Technicians: their refrigerant-handling certificate. It goes into the refrigerant log."
           expiresOnLabel="Certificate valid until"
           expiresOnHint="Its last valid day. An expired certificate is warned about on refrigerant entries."
