@@ -4,7 +4,7 @@ import { compareRepairOptions } from '../../shared/domain';
 import type { UnitDecisionDto } from '../../shared/schemas/decisions';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, placeholderRoom, signInThroughForm } from '../support/browser';
 import { createHistoryUnit, recordVisits, type VisitSpec } from '../support/history';
 import { createTestSite } from '../support/units';
 
@@ -147,6 +147,11 @@ describe('fleet table to decision', () => {
         const width = await page.evaluate(() => document.documentElement.scrollWidth);
         expect({ path, width }).toEqual({ path, width: PHONE.width });
       }
+      // The fleet's search box shows its whole example on a phone.
+      await page.goto('/fleet');
+      const { text, room } = await placeholderRoom(page.getByLabel('Container number starts with'));
+      expect(text).toBeGreaterThan(0);
+      expect(text).toBeLessThanOrEqual(room);
       expect(owner.pageErrors).toEqual([]);
       expect(owner.consoleErrors).toEqual([]);
     } finally {

@@ -8,7 +8,7 @@ import { units } from '../../server/db/schema';
 import { newToken } from '../../server/lib/ids';
 import { formatContainerNumber } from '../../shared/domain';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, placeholderRoom, signInThroughForm } from '../support/browser';
 import { halyardNumber, withWrongCheckDigit } from '../support/units';
 import { writeQrY4m, zxingReadsFrame } from '../support/y4m';
 
@@ -116,27 +116,7 @@ describe('scanning a label', () => {
       await page.goto('/scan');
       const field = page.getByLabel('Container number', { exact: true });
       await field.waitFor();
-      // The placeholder is drawn inside the input, where scrollWidth cannot see it: measured in its own font.
-      const placeholder = await field.evaluate((input: HTMLInputElement) => {
-        const box = getComputedStyle(input);
-        const ph = getComputedStyle(input, '::placeholder');
-        const probe = document.createElement('span');
-        probe.textContent = input.placeholder;
-        Object.assign(probe.style, {
-          position: 'absolute',
-          whiteSpace: 'pre',
-          fontFamily: ph.fontFamily,
-          fontSize: ph.fontSize,
-          fontWeight: ph.fontWeight,
-          letterSpacing: ph.letterSpacing,
-          textTransform: ph.textTransform,
-        });
-        document.body.append(probe);
-        const text = probe.getBoundingClientRect().width;
-        probe.remove();
-        const room = input.clientWidth - parseFloat(box.paddingLeft) - parseFloat(box.paddingRight);
-        return { text, room };
-      });
+      const placeholder = await placeholderRoom(field);
       expect(placeholder.text).toBeGreaterThan(0);
       expect(placeholder.text).toBeLessThanOrEqual(placeholder.room);
       await field.fill(formatContainerNumber(unit.containerNumber));

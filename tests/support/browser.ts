@@ -1,7 +1,7 @@
 import { mkdtempSync, mkdirSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 import { inject } from 'vitest';
 import { CHROMIUM_ARGS, CHROMIUM_PATH } from '../../scripts/lib/chromium';
 
@@ -60,4 +60,30 @@ export async function signInThroughForm(page: Page, email: string, password: str
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password', { exact: true }).fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/**
+ * An input's placeholder width in its own font against the room inside the box. The placeholder is drawn inside the
+ * input, where scrollWidth cannot see it, so it is measured on a probe.
+ */
+export function placeholderRoom(input: Locator): Promise<{ text: number; room: number }> {
+  return input.evaluate((el: HTMLInputElement) => {
+    const box = getComputedStyle(el);
+    const ph = getComputedStyle(el, '::placeholder');
+    const probe = document.createElement('span');
+    probe.textContent = el.placeholder;
+    Object.assign(probe.style, {
+      position: 'absolute',
+      whiteSpace: 'pre',
+      fontFamily: ph.fontFamily,
+      fontSize: ph.fontSize,
+      fontWeight: ph.fontWeight,
+      letterSpacing: ph.letterSpacing,
+      textTransform: ph.textTransform,
+    });
+    document.body.append(probe);
+    const text = probe.getBoundingClientRect().width;
+    probe.remove();
+    return { text, room: el.clientWidth - parseFloat(box.paddingLeft) - parseFloat(box.paddingRight) };
+  });
 }

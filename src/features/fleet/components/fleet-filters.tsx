@@ -106,7 +106,7 @@ function NumberSearch({ value, onSearch }: { value: string | undefined; onSearch
         id="fleet-q"
         value={q}
         onChange={(e) => setQ(e.target.value)}
-        placeholder="Container number, e.g. HRLU 30"
+        placeholder="Number, e.g. HRLU 30"
         autoCapitalize="characters"
         autoCorrect="off"
         spellCheck={false}
