@@ -55,6 +55,8 @@ describe('My day words by the site’s rule', () => {
   it('cites the EU regulation’s interval at an EU site, and the fleet’s policy where a site has no rule', async () => {
     for (const rule of ['EU', null] as const) {
       const { overdue, recheck } = await myDayAt(rule);
+      // Source: Regulation (EU) 2024/573, Art. 5 — 5 to < 50 t CO2e: a leak check every 12 months; a re-check within
+      // one month of a repair (DOMAIN.md §5).
       expect(overdue).toContain('Leak check overdue since 20 May 2026 — EU 2024/573: every 12 months.');
       expect(recheck).toEqual([
         'Leak check after a repair, overdue since 25 May 2026 — EU 2024/573: a leak check within a month of a repair.',
@@ -64,6 +66,7 @@ describe('My day words by the site’s rule', () => {
 
   it('names the US reference rule at a US site', async () => {
     const { overdue, recheck } = await myDayAt('US');
+    // Source: 40 CFR 82.157 (leak inspection and verification after a repair), as a reference line only (DOMAIN.md §4).
     expect(overdue).toEqual(['Leak check overdue since 20 May 2026 — US reference (40 CFR 82.157): every 12 months.']);
     expect(recheck[0]).toContain('US reference (40 CFR 82.157): verification after a repair');
     expect([...overdue, ...recheck].join(' ')).not.toContain('EU');
