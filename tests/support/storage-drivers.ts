@@ -1,12 +1,12 @@
 // Both storage drivers for the storage tests (describe.each): local disk, and S3 against a fake S3 server on loopback
-// that the test file starts and stops.
+// that the test file starts and stops, in a child process so that the memory test measures the app's side alone.
 import { existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { ListObjectsV2Command } from '@aws-sdk/client-s3';
 import { createLocalStorage, type Storage } from '../../server/lib/storage';
 import { createS3Client, createS3Storage } from '../../server/lib/storage-s3';
-import { FAKE_S3_KEY, startFakeS3 } from '../../scripts/cluster/fake-s3';
+import { FAKE_S3_KEY, startFakeS3Process } from '../../scripts/cluster/fake-s3';
 
 export const STORAGE_DRIVERS = ['local', 's3'] as const;
 export type StorageDriverName = (typeof STORAGE_DRIVERS)[number];
@@ -44,7 +44,7 @@ export async function openTestStorage(driver: StorageDriverName): Promise<TestSt
     };
   }
   const bucket = 'tightloop-test';
-  const s3 = await startFakeS3({ directory: path.join(root, 's3'), buckets: [bucket] });
+  const s3 = await startFakeS3Process({ directory: path.join(root, 's3'), buckets: [bucket] });
   const settings = {
     bucket,
     endpoint: s3.endpoint,
