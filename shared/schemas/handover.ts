@@ -79,3 +79,16 @@ export type HandoverExport = {
   checksum: string;
   record: HandoverRecord;
 };
+
+/** The progress answer is NDJSON: lines of how far the pages are, then one line with the file (base64). */
+export const handoverProgressLineDto = z.object({ done: z.number().int().min(0), total: z.number().int().min(0) });
+export const handoverFileLineDto = z.object({
+  fileName: z.string(),
+  checksum: z.string(),
+  /** Entries in the chosen range. */
+  events: z.number().int().min(0),
+  pdf: z.string(),
+});
+export const handoverLineDto = z.union([handoverFileLineDto, handoverProgressLineDto]);
+export type HandoverProgressLine = z.infer<typeof handoverProgressLineDto>;
+export type HandoverFileLine = z.infer<typeof handoverFileLineDto>;

@@ -29,6 +29,10 @@ export function isApiError(error: unknown): error is ApiError {
   return error instanceof ApiError;
 }
 
+/** What a request that never reached the server says. */
+export const unreachable = () =>
+  new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');
+
 /** What a 503 from the API means: the server is up but its database is not (the server sends the same words). */
 export const DATABASE_UNAVAILABLE_MESSAGE = 'The server cannot reach its database. Try again shortly.';
 
@@ -93,7 +97,7 @@ async function request<T>(method: string, url: string, body?: unknown, signal?: 
     response = await (early ? early.catch(send) : send());
   } catch (error) {
     if (signal?.aborted) throw error;
-    throw new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');
+    throw unreachable();
   }
   if (!response.ok) throw await toApiError(response);
   if (response.status === 204) return undefined as T;

@@ -1,10 +1,11 @@
 // Requests the JSON api-client does not cover: multipart uploads with progress, and files (PDF, CSV) to save.
 import { apiErrorDto } from '../../shared/schemas/common';
-import { ApiError } from './api-client';
+import { ApiError, unreachable } from './api-client';
 
 export type TransferProgress = { loaded: number; total: number };
 
-function errorFrom(status: number, body: unknown, fallback: string): ApiError {
+/** A refusal's error from its status and body; `fallback` words it when the body is not the API's error shape. */
+export function errorFrom(status: number, body: unknown, fallback: string): ApiError {
   const parsed = apiErrorDto.safeParse(body);
   if (parsed.success) {
     const { code, message, fields } = parsed.data.error;
@@ -64,13 +65,18 @@ export async function saveFile(
       body: init.body === undefined ? undefined : JSON.stringify(init.body),
     });
   } catch {
-    throw new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');
+    throw unreachable();
   }
   if (!response.ok) {
     const body: unknown = await response.json().catch(() => undefined);
     throw errorFrom(response.status, body, 'The file could not be made. Try again.');
   }
-  const href = URL.createObjectURL(await response.blob());
+  handToBrowser(await response.blob(), fileName);
+}
+
+/** Hands a file made here or by the server to the browser to open or save under `fileName`. */
+export function handToBrowser(file: Blob, fileName: string): void {
+  const href = URL.createObjectURL(file);
   const a = document.createElement('a');
   a.href = href;
   a.download = fileName;

@@ -11,7 +11,12 @@ import { extractText, getDocumentProxy } from 'unpdf';
 import { createApp } from '../../server/app';
 import { createLocalStorage } from '../../server/lib/storage';
 import { fmtPct } from '../../shared/format';
-import type { HandoverExport } from '../../shared/schemas/handover';
+import {
+  handoverFileLineDto,
+  handoverLineDto,
+  handoverProgressLineDto,
+  type HandoverExport,
+} from '../../shared/schemas/handover';
 import type { UnitDecisionDto } from '../../shared/schemas/decisions';
 import { openTestDb, resetDb } from '../support/db';
 import { createTestUnit, signInAs, TEST_ORIGIN } from '../support/factories';
@@ -164,7 +169,10 @@ describe('the handover PDF', () => {
       .trim()
       .split('\n')
       .map((l) => JSON.parse(l));
-    const last = lines.at(-1);
+    // Every line is one the client's schema reads, nothing dropped: progress lines, then the file.
+    for (const line of lines) expect(handoverLineDto.parse(line)).toEqual(line);
+    const last = handoverFileLineDto.parse(lines.at(-1));
+    for (const line of lines.slice(0, -1)) handoverProgressLineDto.parse(line);
     expect(lines[0]).toHaveProperty('total');
     expect(lines.slice(0, -1).at(-1)).toMatchObject({ done: lines[0].total });
     const { text } = await pdfText(Buffer.from(last.pdf, 'base64'));

@@ -1,4 +1,9 @@
-import { handoverQuerySchema, type HandoverExport } from '../../../shared/schemas/handover';
+import {
+  handoverQuerySchema,
+  type HandoverExport,
+  type HandoverFileLine,
+  type HandoverProgressLine,
+} from '../../../shared/schemas/handover';
 import type { AppContext } from '../../lib/app-context';
 import { unitIdParam } from '../../lib/id-params';
 import { route } from '../../lib/route';
@@ -32,8 +37,8 @@ export function handoverRoutes(ctx: AppContext) {
       res.setHeader('X-Record-Checksum', x.checksum);
       sendPdf(res, pdf, fileName(x, 'pdf'), 'attachment');
     }),
-    // The same PDF with its progress: NDJSON lines {"done","total"} while the pages are drawn, then one line with the
-    // file (base64) and its name. Errors before the first line are ordinary JSON errors.
+    // The same PDF with its progress (handoverLineDto): progress lines while the pages are drawn, then the file.
+    // Errors before the first line are ordinary JSON errors.
     route('get', '/api/units/:id/handover/progress', 'view:fleet', async (req, res) => {
       const { id } = unitIdParam.parse(req.params);
       const query = handoverQuerySchema.parse(req.query);
@@ -45,12 +50,16 @@ export function handoverRoutes(ctx: AppContext) {
         const now = Date.now();
         if (done === total || now - last > 100) {
           last = now;
-          res.write(`${JSON.stringify({ done, total })}\n`);
+          res.write(`${JSON.stringify({ done, total } satisfies HandoverProgressLine)}\n`);
         }
       });
-      res.end(
-        `${JSON.stringify({ fileName: fileName(x, 'pdf'), checksum: x.checksum, events: x0.record.events.length, pdf: Buffer.from(pdf).toString('base64') })}\n`,
-      );
+      const file: HandoverFileLine = {
+        fileName: fileName(x, 'pdf'),
+        checksum: x.checksum,
+        events: x0.record.events.length,
+        pdf: Buffer.from(pdf).toString('base64'),
+      };
+      res.end(`${JSON.stringify(file)}\n`);
     }),
   ];
 }

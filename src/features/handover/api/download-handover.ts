@@ -1,7 +1,8 @@
-import { ApiError } from '../../../lib/api-client';
+import { handoverLineDto, type HandoverFileLine, type HandoverProgressLine } from '../../../../shared/schemas/handover';
+import { ApiError, unreachable } from '../../../lib/api-client';
+import { errorFrom, handToBrowser } from '../../../lib/transfer';
 
-export type HandoverProgress = { done: number; total: number };
-type Final = { fileName: string; checksum: string; events: number; pdf: string };
+export type HandoverProgress = HandoverProgressLine;
 
 /**
  * Produces a unit's handover PDF, following its progress line by line (the server writes NDJSON while it draws the
@@ -20,22 +21,15 @@ export async function downloadHandover(
   try {
     res = await fetch(`/api/units/${unitId}/handover/progress${qs ? `?${qs}` : ''}`, { credentials: 'include' });
   } catch {
-    throw new ApiError(0, 'network_error', 'Could not reach Tightloop. Check the connection and try again.');
+    throw unreachable();
   }
   if (!res.ok || !res.body) {
-    const body = (await res.json().catch(() => null)) as {
-      error?: { code: string; message: string; fields?: Record<string, string> };
-    } | null;
-    throw new ApiError(
-      res.status,
-      body?.error?.code ?? 'http_error',
-      body?.error?.message ?? 'The pack could not be made.',
-      body?.error?.fields,
-    );
+    const body: unknown = await res.json().catch(() => undefined);
+    throw errorFrom(res.status, body, 'The pack could not be made.');
   }
   const reader = res.body.pipeThrough(new TextDecoderStream()).getReader();
   let buffer = '';
-  let final: Final | null = null;
+  let final: HandoverFileLine | null = null;
   for (;;) {
     const { value, done } = await reader.read();
     if (value) buffer += value;
@@ -44,7 +38,7 @@ export async function downloadHandover(
       const line = buffer.slice(0, nl);
       buffer = buffer.slice(nl + 1);
       if (!line.trim()) continue;
-      const msg = JSON.parse(line) as HandoverProgress | Final;
+      const msg = handoverLineDto.parse(JSON.parse(line));
       if ('pdf' in msg) final = msg;
       else onProgress(msg);
     }
@@ -52,13 +46,6 @@ export async function downloadHandover(
   }
   if (!final) throw new ApiError(0, 'incomplete', 'The pack was cut off. Try again.');
   const bytes = Uint8Array.from(atob(final.pdf), (c) => c.charCodeAt(0));
-  const href = URL.createObjectURL(new Blob([bytes], { type: 'application/pdf' }));
-  const a = document.createElement('a');
-  a.href = href;
-  a.download = final.fileName;
-  document.body.append(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(href), 60_000);
+  handToBrowser(new Blob([bytes], { type: 'application/pdf' }), final.fileName);
   return { checksum: final.checksum, fileName: final.fileName };
 }
