@@ -469,6 +469,17 @@ const fleetFilters = {
   forecastOverdue: opt(fc.constantFrom('1', '0', 'true')),
   leakCheckOverdue: opt(fc.constantFrom('1', 'false')),
   ptiExpired: opt(fc.constantFrom('1', '0')),
+  // The overview's bars and My day's groups, each a filter too.
+  rateFrom: opt(fc.constantFrom('0', '10', '12.5')),
+  rateBelow: opt(fc.constantFrom('10', '20', '100000')),
+  rateAtMost: opt(fc.constantFrom('0', '5')),
+  leakCheckDueDays: opt(fc.constantFrom('0', '14', '3650')),
+  quarantined: opt(fc.constantFrom('1', 'false')),
+  recheckDue: opt(fc.constantFrom('1', '0')),
+  openLeak: opt(fc.constantFrom('true', '0')),
+  ptiExpiredDays: opt(fc.constantFrom('1', '7', '3650')),
+  ptiExpiringDays: opt(fc.constantFrom('0', '14')),
+  forecastRangeDays: opt(fc.constantFrom('0', '7', '30')),
   q: opt(fc.constantFrom('hrlu', 'HRLU 9', 'HLQU1')),
 };
 const fleetQuery = rec({
