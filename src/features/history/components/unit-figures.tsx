@@ -360,7 +360,7 @@ export function UnitFigures({ stats }: { stats: UnitStatsDto | null }) {
           }
         >
           {fmtPct(stats.rollingLeakRatePct)}
-          <span className="text-sm font-semibold text-ink-600"> of charge</span>
+          <span className="block text-sm font-semibold text-ink-600"> of charge</span>
         </Figure>
         <Figure label="Charge as CO₂e" detail={detail ? `${detail.refrigerant}` : undefined}>
           {fmtTonnes(stats.co2eTonnes)} CO2e
