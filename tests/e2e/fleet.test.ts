@@ -218,6 +218,36 @@ describe('overview counts to fleet rows', () => {
     }
   });
 
+  it('on a phone, Back from a unit opened low in the fleet list returns to that place in the list', async () => {
+    const phone = await openBrowser({ viewport: PHONE });
+    try {
+      const { page } = phone;
+      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
+      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await page.goto('/fleet');
+      const row = page.getByTestId('fleet-row').nth(8);
+      await row.scrollIntoViewIfNeeded();
+      const listY = await page.evaluate(() => window.scrollY);
+      expect(listY).toBeGreaterThan(PHONE.height);
+      const unitId = await row.getAttribute('data-unit-id');
+      await row.getByRole('link').first().click();
+      await page.waitForURL(new RegExp(`/units/${unitId}$`));
+      await page.getByTestId('unit-figures').waitFor();
+      // A new page starts at its top.
+      expect(await page.evaluate(() => window.scrollY)).toBe(0);
+      await page.goBack();
+      await page.waitForURL((u) => u.pathname === '/fleet');
+      await expect.poll(() => page.evaluate(() => window.scrollY)).toBeGreaterThan(listY - 40);
+      expect(await page.evaluate(() => window.scrollY)).toBeLessThan(listY + 40);
+      const box = (await page.locator(`[data-testid="fleet-row"][data-unit-id="${unitId}"]`).boundingBox())!;
+      expect(box.y + box.height).toBeGreaterThan(0);
+      expect(box.y).toBeLessThan(PHONE.height);
+      expect(phone.pageErrors).toEqual([]);
+    } finally {
+      await phone.close();
+    }
+  });
+
   it('an engineer clicks a count on the overview and lands on a fleet table with exactly that many units', async () => {
     const site = await createTestSite(db, { name: `E2E counting quay ${Date.now() % 100000}` });
     // Leak checked 400 days ago twice (overdue under a 12-month interval), 350 days ago (due within 30 days), 20 days ago.

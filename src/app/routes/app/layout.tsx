@@ -1,5 +1,5 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { Outlet, redirect, useMatches, type LoaderFunctionArgs } from 'react-router-dom';
+import { Outlet, redirect, ScrollRestoration, useMatches, type LoaderFunctionArgs } from 'react-router-dom';
 import { can, ROLE_LABELS } from '../../../../shared/permissions';
 import { NotAllowed } from '../../../components/errors/not-allowed';
 import { AppLayout } from '../../../components/layouts/app-layout';
@@ -40,6 +40,8 @@ export default function ProtectedLayout() {
   return (
     <AppLayout user={user} status={<ConnectionStatus userId={user.id} alsoInvalidate={sentVisitChanges} />}>
       {allowed ? <Outlet /> : <NotAllowed roleLabel={ROLE_LABELS[user.role]} />}
+      {/* A new page starts at its top; Back returns to where the list was. A page's own filters keep the scroll. */}
+      <ScrollRestoration />
     </AppLayout>
   );
 }

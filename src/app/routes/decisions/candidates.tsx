@@ -38,7 +38,7 @@ export default function CandidatesPage() {
         <select
           className="min-h-touch rounded-md border-2 border-ink-400 bg-white px-3 text-base text-ink-950"
           value={siteId ?? ''}
-          onChange={(e) => setSp(e.target.value ? { siteId: e.target.value } : {})}
+          onChange={(e) => setSp(e.target.value ? { siteId: e.target.value } : {}, { preventScrollReset: true })}
         >
           <SiteOptions sites={sites.data} />
         </select>

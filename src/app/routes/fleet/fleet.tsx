@@ -1,7 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
-import { useEffect } from 'react';
 import type { LoaderFunctionArgs } from 'react-router-dom';
-import { useNavigationType, useSearchParams } from 'react-router-dom';
+import { useSearchParams } from 'react-router-dom';
 import { FLEET_SORTS, type FleetFilters, type FleetQuery, type FleetSort } from '../../../../shared/schemas/fleet';
 import { Button, buttonClasses } from '../../../components/ui/button';
 import { UnitsIcon } from '../../../components/ui/icons';
@@ -29,13 +28,6 @@ export default function FleetPage() {
   const fleet = useFleet(q);
   const count = useFleetCount(filters);
   const sites = useSites();
-  const navigationType = useNavigationType();
-  // Arriving from a link (an overview count tapped low on a phone screen) starts at the top, not at the old scroll.
-  useEffect(() => {
-    if (navigationType === 'PUSH') window.scrollTo({ top: 0 });
-    // Only on arrival: filters and pages change the address without leaving the page.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, []);
 
   const go = (next: Partial<FleetQuery>) =>
     setSearchParams(fleetSearch({ ...q, ...next }), { preventScrollReset: true });

@@ -38,6 +38,7 @@ export default function TracePage() {
       mode === 'cylinder'
         ? toSearch({ cylinder: v.cylinder?.trim() })
         : toSearch({ siteId: v.siteId, from: v.from, to: v.to }),
+      { preventScrollReset: true },
     );
   };
 

@@ -64,7 +64,7 @@ export default function UnitsPage() {
       out.set('dir', merged.dir);
     }
     if (merged.page > 1) out.set('page', String(merged.page));
-    setParams(out);
+    setParams(out, { preventScrollReset: true });
   };
 
   const toggle = (id: number) =>
