@@ -7,7 +7,7 @@ import { units } from '../../server/db/schema';
 import { can, ROLES, type Role } from '../../shared/permissions';
 import { paths } from '../../src/config/paths';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInToApp } from '../support/browser';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
 afterAll(() => pool.end());
@@ -91,8 +91,7 @@ async function checkAll(role: Role | null, viewport: { width: number; height: nu
     const { page } = browser;
     if (role) {
       const account = DEMO_ACCOUNTS.find((a) => a.role === role)!;
-      await signInThroughForm(page, account.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account.email, DEMO_PASSWORD);
     }
     const found = [];
     for (const target of pagesFor(role)) found.push(...(await violationsOn(page, target)));

@@ -2,7 +2,7 @@ import AxeBuilder from '@axe-core/playwright';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import { paths } from '../../src/config/paths';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInToApp } from '../support/browser';
 
 const baseUrl = inject('baseUrl');
 const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!;
@@ -22,8 +22,7 @@ describe('alert settings', () => {
 
   it('says what the engineer gets by default, keeps "All sites" for the digest after a reload, and goes back to the default', async () => {
     const { page } = desktop;
-    await signInThroughForm(page, engineer.email, DEMO_PASSWORD);
-    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    await signInToApp(page, engineer.email, DEMO_PASSWORD);
     await page.goto(`${baseUrl}${paths.alertSettings.getHref()}`);
     await expect
       .poll(() => page.getByText(/^As a fleet engineer you get .* for your sites unless you change it\.$/).count())
@@ -64,8 +63,7 @@ describe('alert settings', () => {
 
   it('has no serious accessibility problem on a phone', async () => {
     const { page } = phone;
-    await signInThroughForm(page, engineer.email, DEMO_PASSWORD);
-    await page.getByRole('navigation', { name: 'Main' }).waitFor();
+    await signInToApp(page, engineer.email, DEMO_PASSWORD);
     await page.goto(`${baseUrl}${paths.alertSettings.getHref()}`);
     await page.getByRole('group', { name: 'Daily digest', exact: true }).waitFor();
     const { violations } = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21aa']).analyze();

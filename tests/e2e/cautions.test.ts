@@ -5,7 +5,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { cylinders, units } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, signInToApp } from '../support/browser';
 import { createTestUnit } from '../support/factories';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -27,8 +27,7 @@ describe('cautions where the work can hurt (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('technician').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('technician').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/visit`);
       await page.getByRole('button', { name: 'Add Pressure reading' }).click();
       const safety = page.getByRole('complementary', { name: 'Safety' }).first();
@@ -49,8 +48,7 @@ describe('cautions where the work can hurt (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}`);
       const note = page.getByTestId('caution').filter({ hasText: 'Computed dates' });
       await expect.poll(() => note.textContent()).toMatch(PRECEDENCE);
@@ -67,8 +65,7 @@ describe('cautions where the work can hurt (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       // The shared box (data-testid="caution") is what always adds the sentence.
       const box = (hasText: RegExp) => page.getByTestId('caution').filter({ hasText });
       await page.goto(`/units/${unit.id}/visit`);
@@ -90,8 +87,7 @@ describe('cautions where the work can hurt (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('owner').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('owner').email, DEMO_PASSWORD);
       await page.goto(`/decisions/${unit.id}`);
       const keep = page.getByTestId('option-keep_topping_up');
       await expect.poll(() => keep.textContent()).toMatch(/require a leak that has been found to be repaired/);

@@ -10,7 +10,7 @@ import { cylinderMoves, cylinders, cylinderWeighings, users } from '../../server
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
 import { fmtKg, fmtPct } from '../../shared/format';
 import type { CylinderDetailDto } from '../../shared/schemas/cylinders';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInToApp } from '../support/browser';
 import { createHistoryUnit } from '../support/history';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -56,8 +56,7 @@ describe('cylinders on visits', () => {
     const b = await openBrowser({ viewport: PHONE });
     try {
       const { page } = b;
-      await signInThroughForm(page, account('technician').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('technician').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/visit`);
       await page.getByRole('button', { name: 'Add Top-up' }).click();
       await page.getByLabel('Mass added').fill('0,7');
@@ -95,8 +94,7 @@ describe('cylinders on visits', () => {
       const b = await openBrowser({ viewport });
       try {
         const { page } = b;
-        await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-        await page.getByRole('navigation', { name: 'Main' }).waitFor();
+        await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
         await page.goto('/cylinders');
         await page.getByTestId('cylinder-row').first().waitFor();
         expect(await page.locator('[data-testid="reconciliation"][data-flagged="true"]').count()).toBeGreaterThan(0);
@@ -142,8 +140,7 @@ describe('the handover pack', () => {
     const b = await openBrowser({ viewport: DESKTOP });
     try {
       const { page } = b;
-      await signInThroughForm(page, account('owner').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('owner').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}`);
       await page.getByRole('button', { name: 'Handover pack' }).click();
       const download = page.waitForEvent('download');

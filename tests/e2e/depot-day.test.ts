@@ -8,7 +8,7 @@ import { createCaches } from '../../server/lib/caches';
 import { writeUnit } from '../../server/lib/record/write-path';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
 import { formatContainerNumber } from '../../shared/domain';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, signInToApp } from '../support/browser';
 import { createHistoryUnit, recordVisits } from '../support/history';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -63,8 +63,7 @@ describe('the depot’s day on a phone', () => {
     const b = await openBrowser({ viewport: PHONE });
     try {
       const { page } = b;
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       // A recharge with a baseline reading a month ago, then yesterday's top-up without a leak found.
       const base = inject('baseUrl');
       const withSite = async (unitId: number, at: string, evs: object[]) => {

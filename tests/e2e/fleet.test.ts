@@ -4,7 +4,7 @@ import { compareRepairOptions } from '../../shared/domain';
 import type { UnitDecisionDto } from '../../shared/schemas/decisions';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, placeholderRoom, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, placeholderRoom, signInToApp } from '../support/browser';
 import { createHistoryUnit, recordVisits, type VisitSpec } from '../support/history';
 import { createTestSite } from '../support/units';
 
@@ -47,8 +47,7 @@ describe('fleet table to decision', () => {
     let unitId: number;
     try {
       const { page } = engineer;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await recordVisits(page.request, inject('baseUrl'), top.id, leaker);
       await recordVisits(page.request, inject('baseUrl'), quiet.id, [
         {
@@ -89,8 +88,7 @@ describe('fleet table to decision', () => {
     const owner = await openBrowser({ viewport: PHONE });
     try {
       const { page } = owner;
-      await signInThroughForm(page, account('owner').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('owner').email, DEMO_PASSWORD);
       await page.goto(`/decisions/${unitId}`);
       const recommendation = page.getByTestId('recommendation');
       await recommendation.waitFor();
@@ -132,8 +130,7 @@ describe('fleet table to decision', () => {
     const owner = await openBrowser({ viewport: PHONE });
     try {
       const { page } = owner;
-      await signInThroughForm(page, account('owner').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('owner').email, DEMO_PASSWORD);
       for (const [path, ready] of [
         ['/fleet', page.getByTestId('fleet-row').first()],
         ['/fleet/overview', page.getByRole('heading', { name: 'Repeat leakers' })],
@@ -166,8 +163,7 @@ describe('overview counts to fleet rows', () => {
     const engineer = await openBrowser({ viewport: DESKTOP });
     try {
       const { page } = engineer;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       for (const daysAgo of [3, 9]) {
         const unit = await createHistoryUnit(db, { siteId: site.id, nominalChargeKg: 5, commissionedOn: '2019-06-01' });
         await recordVisits(page.request, inject('baseUrl'), unit.id, [
@@ -197,8 +193,7 @@ describe('overview counts to fleet rows', () => {
     const phone = await openBrowser({ viewport: PHONE });
     try {
       const { page } = phone;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto('/fleet/overview');
       const overdue = page.getByTestId('overview-count').filter({ hasText: /overdue/ });
       await overdue.scrollIntoViewIfNeeded();
@@ -222,8 +217,7 @@ describe('overview counts to fleet rows', () => {
     const phone = await openBrowser({ viewport: PHONE });
     try {
       const { page } = phone;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto('/fleet');
       const row = page.getByTestId('fleet-row').nth(8);
       await row.scrollIntoViewIfNeeded();
@@ -255,8 +249,7 @@ describe('overview counts to fleet rows', () => {
     const engineer = await openBrowser({ viewport: DESKTOP });
     try {
       const { page } = engineer;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       for (const daysAgo of checkedDaysAgo) {
         const unit = await createHistoryUnit(db, { siteId: site.id, nominalChargeKg: 5, commissionedOn: '2019-06-01' });
         await recordVisits(page.request, inject('baseUrl'), unit.id, [

@@ -6,7 +6,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import type { APIRequestContext, Page } from 'playwright-core';
 import { createDb } from '../../server/db/client';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInToApp } from '../support/browser';
 import { createHistoryUnit, recordVisits } from '../support/history';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -39,8 +39,7 @@ describe('the learned next top-up forecast', () => {
       const baseUrl = inject('baseUrl');
       const unit = await createHistoryUnit(db, { nominalChargeKg: 5, commissionedOn: '2019-03-01' });
       const waiting = await createHistoryUnit(db, { nominalChargeKg: 5, commissionedOn: '2019-03-01' });
-      await signInThroughForm(page, engineer.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, engineer.email, DEMO_PASSWORD);
       // Five top-ups at routine calls about 100 days apart, the last 40 days ago: three or more intervals.
       await recordVisits(
         page.request,

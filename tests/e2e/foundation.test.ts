@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInThroughForm, signInToApp } from '../support/browser';
 
 const account = (role: string) => DEMO_ACCOUNTS.find((a) => a.role === role)!;
 
@@ -63,8 +63,7 @@ describe('unknown pages', () => {
   it('shows a real 404 page', async () => {
     const b = await openBrowser({ viewport: PHONE });
     try {
-      await signInThroughForm(b.page, account('owner').email, DEMO_PASSWORD);
-      await b.page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(b.page, account('owner').email, DEMO_PASSWORD);
       await b.page.goto('/no/such/page');
       await expect
         .poll(() => b.page.getByRole('heading').first().textContent(), { timeout: 15_000 })

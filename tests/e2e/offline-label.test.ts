@@ -6,7 +6,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { events, sites, visits } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { signInThroughForm } from '../support/browser';
+import { signInToApp } from '../support/browser';
 import { createHistoryUnit, recordVisits } from '../support/history';
 import { phoneProfile, readyForOffline } from '../support/offline-phone';
 
@@ -26,8 +26,7 @@ describe('a label never opened on this phone, with no signal', () => {
     try {
       const seen = await createHistoryUnit(db);
       const unseen = await createHistoryUnit(db);
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       await page.goto(`/units/${seen.id}`);
       await page.getByTestId('service-history').waitFor();
       await readyForOffline(page);
@@ -78,8 +77,7 @@ describe('a label never opened on this phone, with no signal', () => {
         .$returningId();
       const unit = await createHistoryUnit(db, { siteId });
       await createHistoryUnit(db, { siteId });
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       await recordVisits(page.request, baseUrl, unit.id, [
         {
           at: new Date(Date.now() - 20 * 86_400_000).toISOString(),

@@ -8,7 +8,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { attachments, visits } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { signInThroughForm } from '../support/browser';
+import { signInToApp } from '../support/browser';
 import { phoneProfile, readyForOffline } from '../support/offline-phone';
 import { createHistoryUnit, recordVisits } from '../support/history';
 import { PROJECT_ROOT } from '../../scripts/lib/mariadb';
@@ -30,8 +30,7 @@ describe('working with no signal', () => {
     let session = await phone.open();
     try {
       const unit = await createHistoryUnit(db);
-      await signInThroughForm(session.page, technician.email, DEMO_PASSWORD);
-      await session.page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(session.page, technician.email, DEMO_PASSWORD);
       await recordVisits(session.page.request, baseUrl, unit.id, [
         { at: at(30 * DAY), events: [{ kind: 'top_up', kg: 0.5, cylinder: 'CYL-OFF-1' }] },
       ]);
@@ -99,8 +98,7 @@ describe('working with no signal', () => {
     try {
       const seen = await createHistoryUnit(db);
       const unseen = await createHistoryUnit(db);
-      await signInThroughForm(session.page, technician.email, DEMO_PASSWORD);
-      await session.page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(session.page, technician.email, DEMO_PASSWORD);
       await session.page.goto(`/units/${seen.id}`);
       await session.page.getByTestId('service-history').waitFor();
       await readyForOffline(session.page);

@@ -4,7 +4,7 @@ import { createDb } from '../../server/db/client';
 import { users } from '../../server/db/schema';
 import { newId } from '../../server/lib/ids';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, signInToApp } from '../support/browser';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
 afterAll(() => pool.end());
@@ -26,8 +26,7 @@ describe("a person's refrigerant certificate", () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, admin.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, admin.email, DEMO_PASSWORD);
       await page.goto('/people');
       const row = page.locator(`[data-testid="user-row"][data-user-email="${email}"]`);
       await row.getByText('HX-CERT-50210').waitFor();

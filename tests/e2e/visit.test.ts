@@ -4,7 +4,7 @@ import { afterAll, describe, expect, inject, it } from 'vitest';
 import { createDb } from '../../server/db/client';
 import { attachments, visits } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { openBrowser, PHONE, signInToApp } from '../support/browser';
 import { createHistoryUnit, recordVisits } from '../support/history';
 import { readVisitQueue, writeVisitQueue } from '../support/visit-queue';
 
@@ -24,8 +24,7 @@ describe('recording a visit on a phone', () => {
     try {
       const { page } = b;
       const unit = await createHistoryUnit(db, { nominalChargeKg: 4.5, commissionedOn: '2024-01-15' });
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       // Two earlier top-ups, 100 days apart, recorded through the API as this technician.
       await recordVisits(page.request, inject('baseUrl'), unit.id, [
         { at: at(200 * DAY), events: [{ kind: 'top_up', kg: 0.8, cylinder: 'CYL-E2E-1' }] },
@@ -90,8 +89,7 @@ describe('recording a visit on a phone', () => {
     try {
       const { page, context } = b;
       const unit = await createHistoryUnit(db);
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/visit`);
       await page.getByRole('button', { name: 'Add Note' }).waitFor();
 
@@ -130,8 +128,7 @@ describe('recording a visit on a phone', () => {
     try {
       const { page, context } = b;
       const unit = await createHistoryUnit(db);
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       await recordVisits(page.request, inject('baseUrl'), unit.id, [
         { at: at(30 * DAY), events: [{ kind: 'top_up', kg: 0.5, cylinder: 'CYL-E2E-Q' }] },
       ]);
@@ -180,8 +177,7 @@ describe('recording a visit on a phone', () => {
     try {
       const { page } = b;
       const unit = await createHistoryUnit(db, { nominalChargeKg: 4.5, commissionedOn: '2024-01-15' });
-      await signInThroughForm(page, technician.email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, technician.email, DEMO_PASSWORD);
       const reading = (suctionKPaG: number, dischargeKPaG: number) =>
         ({
           kind: 'pressure',

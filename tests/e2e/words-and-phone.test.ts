@@ -6,7 +6,7 @@ import { eq, sql } from 'drizzle-orm';
 import { createDb } from '../../server/db/client';
 import { units, users } from '../../server/db/schema';
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../seed/demo-accounts';
-import { DESKTOP, openBrowser, PHONE, signInThroughForm } from '../support/browser';
+import { DESKTOP, openBrowser, PHONE, signInThroughForm, signInToApp } from '../support/browser';
 import { createTestUser, TEST_PASSWORD } from '../support/factories';
 
 const { db, pool } = createDb(inject('e2eDatabaseUrl'), { connectionLimit: 2 });
@@ -42,8 +42,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, person.email, TEST_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, person.email, TEST_PASSWORD);
       await db.update(users).set({ role: 'engineer' }).where(eq(users.id, person.id));
       await db.execute(sql`DELETE FROM sessions WHERE user_id = ${person.id}`);
       await signInThroughForm(page, person.email, TEST_PASSWORD);
@@ -65,8 +64,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/edit`);
       const echo = page.getByTestId('date-echo').first();
       await expect.poll(() => echo.textContent()).toBe('Reads 12 Mar 2014.');
@@ -95,8 +93,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto('/units/import');
       await page
         .locator('input[type=file]')
@@ -116,8 +113,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('technician').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('technician').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/visit`);
       await page
         .getByRole('heading', { name: 'What did you do?' })
@@ -148,8 +144,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('technician').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('technician').email, DEMO_PASSWORD);
       const field = page.getByLabel('Container number');
       const right = Number(unit.containerNumber.charAt(10));
       await field.fill(`${unit.containerNumber.slice(0, 10)}${(right + 1) % 10}`);
@@ -171,8 +166,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}/visit`);
       await page.getByRole('button', { name: 'Add Pressure reading' }).click();
       const ambient = page.getByLabel('Ambient');
@@ -199,8 +193,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: PHONE });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto(`/units/${unit.id}`);
       const mark = page.getByTestId('timeline-mark').last();
       await mark.waitFor();
@@ -228,8 +221,7 @@ describe('words and numbers on the screens (390 px)', () => {
     const browser = await openBrowser({ viewport: DESKTOP });
     try {
       const { page } = browser;
-      await signInThroughForm(page, account('engineer').email, DEMO_PASSWORD);
-      await page.getByRole('navigation', { name: 'Main' }).waitFor();
+      await signInToApp(page, account('engineer').email, DEMO_PASSWORD);
       await page.goto('/fleet/overview');
       const chart = page.getByRole('img', { name: /Made-up refrigerant per month/ });
       await chart.waitFor();

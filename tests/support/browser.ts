@@ -62,6 +62,12 @@ export async function signInThroughForm(page: Page, email: string, password: str
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
 
+/** Signs in through the form and waits for the signed-in layout's main navigation. */
+export async function signInToApp(page: Page, email: string, password: string) {
+  await signInThroughForm(page, email, password);
+  await page.getByRole('navigation', { name: 'Main' }).waitFor();
+}
+
 /**
  * An input's placeholder width in its own font against the room inside the box. The placeholder is drawn inside the
  * input, where scrollWidth cannot see it, so it is measured on a probe.
