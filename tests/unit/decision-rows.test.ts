@@ -2,6 +2,7 @@ import { createElement, Fragment, type ReactNode } from 'react';
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
 import { compareRepairOptions } from '../../shared/domain';
+import { decisionAssumptionLines } from '../../shared/domain/words';
 import { DEFAULT_SETTINGS } from '../../shared/schemas/settings';
 import { decisionRows } from '../../src/features/history/components/decision-rows';
 
@@ -33,8 +34,12 @@ describe('a decision in the history', () => {
     expect(html).toContain('Chosen: Repair the leak');
     for (const o of result.options) expect(html).toContain(`${o.label}: `);
     expect(html).toContain('← chosen');
-    expect(html).toContain('settings version 7');
-    expect(html).toMatch(/top-ups a year/);
+    expect(html).toContain('Settings version 7');
+    // Every assumption in the shared words the handover PDF uses, one line each.
+    for (const line of decisionAssumptionLines(result.assumptions, result.currency))
+      expect(html).toContain(`<li>${line}</li>`);
+    expect(html).toContain('<li>Top-ups a year: ');
+    expect(html).toContain('<li>Leak to repair: Service valve</li>');
   });
 
   it('shows nothing it was not given (an old decision with only a note)', () => {

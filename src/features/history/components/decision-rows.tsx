@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { DECISION_CHOICE_LABELS, type DecisionChoice } from '../../../../shared/schemas/decisions';
-import { fmtMoney, fmtNumber } from '../../../lib/format';
+import { decisionAssumptionLines } from '../../../../shared/domain/words';
+import { fmtMoney } from '../../../lib/format';
 
 interface StoredOption {
   id: string;
@@ -14,7 +15,7 @@ interface StoredDecision {
   cheapestId?: string;
   currency?: string;
   options?: StoredOption[];
-  assumptions?: { discountRatePct?: number; remainingYears?: number; visitsPerYear?: number };
+  assumptions?: Record<string, unknown>;
   settingsVersion?: number;
 }
 
@@ -41,17 +42,17 @@ export function decisionRows(
       </Detail>,
     );
   }
-  const a = d.assumptions;
-  if (a) {
-    const parts = [
-      a.remainingYears != null ? `${fmtNumber(a.remainingYears, 1)} years left` : null,
-      a.visitsPerYear != null ? `${fmtNumber(a.visitsPerYear, 1)} top-ups a year` : null,
-      a.discountRatePct != null ? `${fmtNumber(a.discountRatePct, 1)} % discount rate` : null,
-    ].filter(Boolean);
+  if (d.assumptions) {
+    // The same words and units as the decision page and the handover PDF.
+    const lines = decisionAssumptionLines(d.assumptions, d.currency);
     rows.push(
       <Detail key="assumptions" label="Assumed">
-        {parts.join(' · ')}
-        {d.settingsVersion != null ? ` (settings version ${d.settingsVersion})` : ''}
+        <ul>
+          {lines.map((line) => (
+            <li key={line}>{line}</li>
+          ))}
+        </ul>
+        {d.settingsVersion != null ? <span className="font-normal">Settings version {d.settingsVersion}</span> : null}
       </Detail>,
     );
   }
