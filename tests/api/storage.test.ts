@@ -24,7 +24,7 @@ const liveBytes = () => {
 async function peakHeldBytes(work: () => Promise<void>): Promise<number> {
   const before = liveBytes();
   let peak = before;
-  const sampler = setInterval(() => (peak = Math.max(peak, liveBytes())), 10);
+  const sampler = setInterval(() => (peak = Math.max(peak, liveBytes())), 25);
   try {
     await work();
   } finally {
