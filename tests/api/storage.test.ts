@@ -5,33 +5,11 @@ import path from 'node:path';
 import { randomBytes } from 'node:crypto';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
-import { setFlagsFromString } from 'node:v8';
-import { runInNewContext } from 'node:vm';
 import { readStored, sendStoredFile } from '../../server/lib/storage';
+import { peakHeldBytes } from '../support/memory';
 import { openTestStorage, STORAGE_DRIVERS, type TestStorage } from '../support/storage-drivers';
 
 const sha256 = (b: Buffer) => createHash('sha256').update(b).digest('hex');
-
-// The memory a piece of work holds at once: heap and buffers, read after a full collection every 25 ms, so garbage
-// waiting for the collector does not count (the process's RSS counted it and failed a streaming run at random).
-setFlagsFromString('--expose-gc');
-const collectGarbage = runInNewContext('gc') as () => void;
-const liveBytes = () => {
-  collectGarbage();
-  const m = process.memoryUsage();
-  return m.heapUsed + m.arrayBuffers;
-};
-async function peakHeldBytes(work: () => Promise<void>): Promise<number> {
-  const before = liveBytes();
-  let peak = before;
-  const sampler = setInterval(() => (peak = Math.max(peak, liveBytes())), 25);
-  try {
-    await work();
-  } finally {
-    clearInterval(sampler);
-  }
-  return peak - before;
-}
 
 describe.each(STORAGE_DRIVERS)('storage on %s', (driver) => {
   let t: TestStorage;
