@@ -34,7 +34,7 @@ describe('a decision in the history', () => {
     expect(html).toContain('Chosen: Repair the leak');
     for (const o of result.options) expect(html).toContain(`${o.label}: `);
     expect(html).toContain('← chosen');
-    expect(html).toContain('Settings version 7');
+    expect(html).toContain('figures, settings version 7');
     // Every assumption in the shared words the handover PDF uses, one line each.
     for (const line of decisionAssumptionLines(result.assumptions, result.currency))
       expect(html).toContain(`<li>${line}</li>`);

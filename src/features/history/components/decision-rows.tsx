@@ -43,16 +43,21 @@ export function decisionRows(
     );
   }
   if (d.assumptions) {
-    // The same words and units as the decision page and the handover PDF.
+    // The same words and units as the decision page and the handover PDF, folded: a phone shows fourteen lines.
     const lines = decisionAssumptionLines(d.assumptions, d.currency);
     rows.push(
       <Detail key="assumptions" label="Assumed">
-        <ul>
-          {lines.map((line) => (
-            <li key={line}>{line}</li>
-          ))}
-        </ul>
-        {d.settingsVersion != null ? <span className="font-normal">Settings version {d.settingsVersion}</span> : null}
+        <details>
+          <summary className="cursor-pointer py-2.5">
+            {lines.length} {lines.length === 1 ? 'figure' : 'figures'}
+            {d.settingsVersion != null ? `, settings version ${d.settingsVersion}` : ''}
+          </summary>
+          <ul className="mt-1 font-normal">
+            {lines.map((line) => (
+              <li key={line}>{line}</li>
+            ))}
+          </ul>
+        </details>
       </Detail>,
     );
   }
