@@ -46,6 +46,17 @@ export const recordDecisionSchema = z.object({
 export type RecordDecisionInput = z.infer<typeof recordDecisionSchema>;
 export type RecordDecisionBody = z.input<typeof recordDecisionSchema>;
 
+/** A recorded decision's entry details as screens and the handover read them back (an older record may lack parts). */
+export type StoredDecisionDetails = {
+  choice?: DecisionChoice;
+  option?: string;
+  cheapestId?: string;
+  currency?: string;
+  options?: { id: string; label: string; npv: number; eac: number; cheapest?: boolean }[];
+  assumptions?: Record<string, unknown>;
+  settingsVersion?: number;
+};
+
 const economicOptionId = z.enum(['keep_topping_up', 'repair', 'new_machinery', 'retire_and_sell']);
 
 export const decisionRecordDto = z.object({

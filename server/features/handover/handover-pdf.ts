@@ -13,6 +13,7 @@ import {
   formatContainerNumber,
   termLabel,
 } from '../../../shared/domain';
+import type { StoredDecisionDetails } from '../../../shared/schemas/decisions';
 import type { HandoverEvent, HandoverExport } from '../../../shared/schemas/handover';
 import { UNIT_STATUS_LABELS } from '../../../shared/schemas/units';
 import {
@@ -138,19 +139,10 @@ export function eventSummary(e: HandoverEvent): string {
   return parts.filter(Boolean).join('; ');
 }
 
-type DecisionDetails = {
-  option?: string;
-  choice?: string;
-  currency?: string;
-  settingsVersion?: number;
-  options?: { id: string; label: string; npv: number; eac: number; cheapest: boolean }[];
-  assumptions?: Record<string, unknown>;
-};
-
 const money = (v: number, currency: string) => fmtMoney(v, currency || undefined);
 
 function decisionLine(e: HandoverEvent): string {
-  const d = (e.details ?? {}) as DecisionDetails;
+  const d = (e.details ?? {}) as StoredDecisionDetails;
   const chosen = d.options?.find((o) => o.id === d.option);
   const cur = d.currency ?? '';
   const parts = [`chose ${chosen?.label ?? d.choice ?? d.option ?? '?'}`];
@@ -162,7 +154,7 @@ function decisionLine(e: HandoverEvent): string {
 
 /** What a recorded decision assumed, in the decision page's words with units; null when it stored none. */
 export function decisionAssumptions(e: HandoverEvent): string | null {
-  const d = (e.details ?? {}) as DecisionDetails;
+  const d = (e.details ?? {}) as StoredDecisionDetails;
   const lines = decisionAssumptionLines(d.assumptions ?? {}, d.currency);
   return lines.length ? `Assumed: ${lines.join('; ')}` : null;
 }
@@ -397,7 +389,7 @@ function drawDecisions(w: Writer, counted: HandoverEvent[]) {
   const decisions = counted.filter((e) => e.kind === 'decision');
   if (!decisions.length) w.para('No decisions in this range.', { color: GREY });
   for (const e of decisions) {
-    const d = (e.details ?? {}) as DecisionDetails;
+    const d = (e.details ?? {}) as StoredDecisionDetails;
     w.para(`${day(e.occurredAt)}  ${decisionLine(e)}  (${e.recordedBy.name})`, { size: 8.5, bold: true });
     for (const o of d.options ?? []) {
       w.para(

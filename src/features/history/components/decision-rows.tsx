@@ -1,30 +1,14 @@
 import type { ReactNode } from 'react';
-import { DECISION_CHOICE_LABELS, type DecisionChoice } from '../../../../shared/schemas/decisions';
+import { DECISION_CHOICE_LABELS, type StoredDecisionDetails } from '../../../../shared/schemas/decisions';
 import { decisionAssumptionLines } from '../../../../shared/domain/words';
 import { fmtMoney } from '../../../lib/format';
-
-interface StoredOption {
-  id: string;
-  label: string;
-  eac: number;
-  npv: number;
-}
-interface StoredDecision {
-  choice?: DecisionChoice;
-  option?: string;
-  cheapestId?: string;
-  currency?: string;
-  options?: StoredOption[];
-  assumptions?: Record<string, unknown>;
-  settingsVersion?: number;
-}
 
 /** A recorded decision in the history: the option chosen, every option's cost as priced that day, and what it assumed. */
 export function decisionRows(
   details: Record<string, unknown>,
   Detail: (p: { label: string; children: ReactNode }) => ReactNode,
 ): ReactNode[] {
-  const d = details as StoredDecision;
+  const d = details as StoredDecisionDetails;
   const rows: ReactNode[] = [];
   if (d.choice) {
     rows.push(
