@@ -68,9 +68,6 @@ export const BEFORE_COMMISSIONING_MARGIN_DAYS = 366;
 // Clocks in use run up to UTC+14, so a person's "today" may be the next UTC day.
 const EARLIEST_ZONE_AHEAD_MS = 14 * 3600 * 1000;
 
-/** "1 Jan 1960" for 1960-01-01: the bounds in messages, written by the app's one rule for days. */
-export const dayWords = (day: string) => fmtIsoDay(day);
-
 let todayMinute = NaN;
 let todayText = '';
 /** The latest calendar day anywhere at `now` (a date-only "today" is valid wherever the person is). */
@@ -95,7 +92,7 @@ type DayRange = {
 
 /** The human message of a range: "Enter a date between 1 Jan 1960 and today". */
 export function dayRangeMessage(earliest: string, latest: string | 'today'): string {
-  return `Enter a date between ${dayWords(earliest)} and ${latest === 'today' ? 'today' : dayWords(latest)}`;
+  return `Enter a date between ${fmtIsoDay(earliest)} and ${latest === 'today' ? 'today' : fmtIsoDay(latest)}`;
 }
 
 const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
@@ -142,6 +139,6 @@ export function momentSchema({ format, earliest = EARLIEST_RECORD_DAY }: { forma
       const ms = Date.parse(v);
       return ms >= from && ms <= until;
     },
-    { message: `Enter a time between ${dayWords(earliest)} and now` },
+    { message: `Enter a time between ${fmtIsoDay(earliest)} and now` },
   );
 }

@@ -1,8 +1,9 @@
 // Plausibility rules of a visit that need the unit (its charge and refrigerant) and the clock.
 // Used by the form as a preview and by the server as the rule.
 import { dayOf } from '../domain/dates';
-import { BEFORE_COMMISSIONING_MARGIN_DAYS, CLOCK_SKEW_MS, dayWords } from './common';
+import { BEFORE_COMMISSIONING_MARGIN_DAYS, CLOCK_SKEW_MS } from './common';
 import type { RecordVisitInput } from './history';
+import { fmtIsoDay } from '../format-dates';
 
 // Our definition: a single movement above twice the nominal charge is a typing error, not a service.
 export const MAX_MOVEMENT_CHARGE_RATIO = 2;
@@ -33,7 +34,7 @@ export function visitPlausibilityIssues(
   if (atMs > now.getTime() + CLOCK_SKEW_MS) {
     fields.occurredAt = 'That time is in the future';
   } else if (commissioned && dayOf(Date.parse(commissioned)) - dayOf(atMs) > BEFORE_COMMISSIONING_MARGIN_DAYS) {
-    fields.occurredAt = `That is more than a year before this unit was commissioned (${dayWords(commissioned)}); check the date, or the unit's commissioning date`;
+    fields.occurredAt = `That is more than a year before this unit was commissioned (${fmtIsoDay(commissioned)}); check the date, or the unit's commissioning date`;
   }
   const maxKg = unit.nominalChargeKg * MAX_MOVEMENT_CHARGE_RATIO;
   const maxKPaG = MAX_PLAUSIBLE_KPAG[unit.refrigerant] ?? 14_000;

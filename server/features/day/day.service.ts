@@ -22,7 +22,7 @@ import {
   type UnitDepotDto,
 } from '../../../shared/schemas/day';
 import { DEFAULT_SETTINGS, type Settings } from '../../../shared/schemas/settings';
-import { dayWords } from '../../../shared/schemas/common';
+import { fmtIsoDay } from '../../../shared/format-dates';
 
 const dayPlus = (today: string, n: number) => isoDate(dayOf(Date.parse(`${today}T00:00:00Z`)) + n);
 
@@ -46,7 +46,7 @@ export async function unitDepot(db: Db, unitId: number, now: Date, settings: Set
       : !stats.ptiPassed
         ? 'The latest PTI did not pass.'
         : stats.ptiValidUntil < today
-          ? `The PTI expired on ${dayWords(stats.ptiValidUntil)}.`
+          ? `The PTI expired on ${fmtIsoDay(stats.ptiValidUntil)}.`
           : null;
   return {
     rechecks: state.rechecks.rechecks.map(withWords),
@@ -99,7 +99,7 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       where: isNotNull(d.quarantinedSince),
       order: [asc(d.quarantinedSince)],
       row: (r) => ({
-        why: `In quarantine since ${dayWords(r.quarantinedSince!.toISOString().slice(0, 10))}: ${r.quarantineReason ?? ''}. Not to be released.`,
+        why: `In quarantine since ${fmtIsoDay(r.quarantinedSince!.toISOString().slice(0, 10))}: ${r.quarantineReason ?? ''}. Not to be released.`,
         dueOn: null,
         action: 'quarantine',
       }),
@@ -110,8 +110,8 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       row: (r) => ({
         why:
           r.recheckReason === 'repair'
-            ? `Leak check after a repair${r.recheckDue! < today ? `, overdue since ${dayWords(r.recheckDue!)}` : ', due today'} — ${repairRecheckShort(rule, settings.rechecks.afterRepairDays)}.`
-            : `Re-check after a top-up: see that the charge held${r.recheckDue! < today ? ` (was due ${dayWords(r.recheckDue!)})` : ' (due today)'}.`,
+            ? `Leak check after a repair${r.recheckDue! < today ? `, overdue since ${fmtIsoDay(r.recheckDue!)}` : ', due today'} — ${repairRecheckShort(rule, settings.rechecks.afterRepairDays)}.`
+            : `Re-check after a top-up: see that the charge held${r.recheckDue! < today ? ` (was due ${fmtIsoDay(r.recheckDue!)})` : ' (due today)'}.`,
         dueOn: r.recheckDue,
         action: r.recheckReason === 'repair' ? 'leak_check' : 'pressure',
       }),
@@ -129,7 +129,7 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       where: isNotNull(s.openLeakFoundAt),
       order: [asc(s.openLeakFoundAt)],
       row: (r) => ({
-        why: `Leak found on ${dayWords(r.openLeakFoundAt!.toISOString().slice(0, 10))} and not repaired yet.`,
+        why: `Leak found on ${fmtIsoDay(r.openLeakFoundAt!.toISOString().slice(0, 10))} and not repaired yet.`,
         dueOn: null,
         action: 'repair',
       }),
@@ -138,7 +138,7 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       where: and(gte(s.ptiValidUntil, dayPlus(today, -30)), lt(s.ptiValidUntil, today))!,
       order: [desc(s.ptiValidUntil)],
       row: (r) => ({
-        why: `PTI expired on ${dayWords(r.ptiValidUntil!)}: a new PTI before release.`,
+        why: `PTI expired on ${fmtIsoDay(r.ptiValidUntil!)}: a new PTI before release.`,
         dueOn: r.ptiValidUntil,
         action: 'pti',
       }),
@@ -156,7 +156,7 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       where: and(gte(s.ptiValidUntil, today), lte(s.ptiValidUntil, dayPlus(today, DAY_AHEAD.ptiDays)))!,
       order: [asc(s.ptiValidUntil)],
       row: (r) => ({
-        why: `PTI valid until ${dayWords(r.ptiValidUntil!)}: renew it if the unit goes out after that.`,
+        why: `PTI valid until ${fmtIsoDay(r.ptiValidUntil!)}: renew it if the unit goes out after that.`,
         dueOn: r.ptiValidUntil,
         action: 'pti',
       }),
@@ -168,7 +168,7 @@ function groupSpecs(today: string, rule: SiteRule, settings: Settings): Record<D
       )!,
       order: [asc(s.forecastDate)],
       row: (r) => ({
-        why: `Top-up forecast around ${dayWords(r.forecastDate!)} (range ${r.forecastEarliest ? dayWords(r.forecastEarliest) : '?'} to ${r.forecastLatest ? dayWords(r.forecastLatest) : '?'}): check the charge.`,
+        why: `Top-up forecast around ${fmtIsoDay(r.forecastDate!)} (range ${r.forecastEarliest ? fmtIsoDay(r.forecastEarliest) : '?'} to ${r.forecastLatest ? fmtIsoDay(r.forecastLatest) : '?'}): check the charge.`,
         dueOn: r.forecastDate,
         action: 'pressure',
       }),

@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, like, min, sql, type SQL } from 'drizzle-orm';
 import type { Db, DbOrTx } from '../../db/client';
 import { events, sites, unitChanges, units, users } from '../../db/schema';
-import { BEFORE_COMMISSIONING_MARGIN_DAYS, dayWords } from '../../../shared/schemas/common';
+import { BEFORE_COMMISSIONING_MARGIN_DAYS } from '../../../shared/schemas/common';
 import { isDuplicateKeyError } from '../../lib/db-errors';
 import { badRequest, conflict, notFound } from '../../lib/http-error';
 import { newToken } from '../../lib/ids';
@@ -21,6 +21,7 @@ import { newUnitRow } from '../../lib/record/new-unit';
 import { toUnitDto } from './units.mapper';
 import { registerNewUnits, writeUnit, WRITE_ISOLATION, type WriteContext } from '../../lib/record/write-path';
 import { retryTransaction } from '../../lib/retry';
+import { fmtIsoDay } from '../../../shared/format-dates';
 
 const numberTaken = (containerNumber: string) =>
   conflict(`${formatContainerNumber(containerNumber)} is already registered.`, {
@@ -144,7 +145,7 @@ async function requireHistoryFits(tx: DbOrTx, unitId: number, commissionedOn: st
   const firstDay = new Date(first).toISOString().slice(0, 10);
   if ((Date.parse(commissionedOn) - Date.parse(firstDay)) / 86_400_000 > BEFORE_COMMISSIONING_MARGIN_DAYS) {
     throw badRequest('The commissioning date contradicts the history.', {
-      commissionedOn: `The history has entries from ${dayWords(firstDay)}; a commissioning date more than a year later cannot be right`,
+      commissionedOn: `The history has entries from ${fmtIsoDay(firstDay)}; a commissioning date more than a year later cannot be right`,
     });
   }
 }

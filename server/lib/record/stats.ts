@@ -7,8 +7,9 @@ import { notFound } from '../http-error';
 import { events, sites, units, unitStats, unitStatsDetail } from '../../db/schema';
 import { computeUnitStats, type ForecastCaseBase } from '../../../shared/domain';
 import type { Settings } from '../../../shared/schemas/settings';
-import { dayWords, EARLIEST_RECORD_DAY } from '../../../shared/schemas/common';
+import { EARLIEST_RECORD_DAY } from '../../../shared/schemas/common';
 import type { UnitStatsDto, UnitStatsSummary } from '../../../shared/schemas/history';
+import { fmtIsoDay } from '../../../shared/format-dates';
 
 type EngineEvent = Parameters<typeof computeUnitStats>[1][number];
 type EngineUnit = Parameters<typeof computeUnitStats>[0];
@@ -253,7 +254,7 @@ export function computeStatsRows(
     const day = unit.commissionedOn?.slice(0, 10);
     const outside = day && (day < EARLIEST_RECORD_DAY || day > iso(asOf).slice(0, 10));
     const reason = outside
-      ? new Error(`the commissioning date (${dayWords(day)}) is outside ${dayWords(EARLIEST_RECORD_DAY)} to today.`)
+      ? new Error(`the commissioning date (${fmtIsoDay(day)}) is outside ${fmtIsoDay(EARLIEST_RECORD_DAY)} to today.`)
       : err;
     return uncomputableRows(unitId, asOf, last, history.length, reason);
   }
